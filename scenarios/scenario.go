@@ -19,16 +19,16 @@ type Scenario struct {
 	Name string `toml:"name" doc:"scenario name, shown in reports" example:"Demo scenario"`
 	Seed uint64 `toml:"seed" default:"1" range:"[0,inf)" doc:"seed of every random draw (with realization index and purpose)"`
 
-	Domain         Domain          `toml:"domain"`
-	Layer          Layer           `toml:"layer"`
-	Stress         Stress          `toml:"stress"`
-	Rock           Rock            `toml:"rock"`
-	Sets           []FractureSet   `toml:"sets" doc:"natural fracture sets, known statistically"`
-	KnownFractures KnownFractures  `toml:"known_fractures"`
-	Wells          []Well          `toml:"wells" doc:"horizontal wells with stages and perforation clusters"`
+	Domain         Domain           `toml:"domain"`
+	Layer          Layer            `toml:"layer"`
+	Stress         Stress           `toml:"stress"`
+	Rock           Rock             `toml:"rock"`
+	Sets           []FractureSet    `toml:"sets" doc:"natural fracture sets, known statistically"`
+	KnownFractures KnownFractures   `toml:"known_fractures"`
+	Wells          []Well           `toml:"wells" doc:"horizontal wells with stages and perforation clusters"`
 	Fluids         map[string]Fluid `toml:"fluids" doc:"fluids by name, referenced by the schedule"`
-	Schedule       Schedule        `toml:"schedule"`
-	Numerics       Numerics        `toml:"numerics"`
+	Schedule       Schedule         `toml:"schedule"`
+	Numerics       Numerics         `toml:"numerics"`
 
 	// Source is the file the scenario was read from (for messages); not a key.
 	Source string `toml:"-"`
@@ -239,7 +239,7 @@ type Schedule struct {
 
 // Numerics are discretisation and solver settings.
 type Numerics struct {
-	ElementLength float64 `toml:"element_length" unit:"length" range:"(0,inf)" default:"10 m" doc:"longest flow element along a trace"`
+	ElementLength   float64 `toml:"element_length" unit:"length" range:"(0,inf)" default:"10 m" doc:"longest flow element along a trace"`
 	TimeStepInitial float64 `toml:"time_step_initial" unit:"time" range:"(0,inf)" default:"1 s" doc:"first time step of each stage"`
 	TimeStepMin     float64 `toml:"time_step_min" unit:"time" range:"(0,inf)" default:"0.001 s" doc:"smallest time step before the run fails"`
 	TimeStepMax     float64 `toml:"time_step_max" unit:"time" range:"(0,inf)" default:"300 s" doc:"largest time step"`
