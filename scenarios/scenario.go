@@ -226,7 +226,7 @@ type Schedule struct {
 	// Rate is the total stage rate, m³/s.
 	Rate float64 `toml:"rate" unit:"rate" range:"(0,inf)" default:"10 bbl/min" doc:"default total stage rate"`
 	// Volume per stage, m³; 0 means the duration governs.
-	Volume float64 `toml:"volume" unit:"volume" range:"[0,inf)" default:"0 m3" doc:"default stage volume; 0 means the duration ends the stage"`
+	Volume float64 `toml:"volume" unit:"volume" range:"[0,inf)" default:"0 m3" doc:"default stage volume; 0 means the duration ends the stage" example:"2000 bbl"`
 	// Duration per stage, s; 0 means the volume governs.
 	Duration float64 `toml:"duration" unit:"time" range:"[0,inf)" default:"0 s" doc:"default stage duration; 0 means the volume ends the stage"`
 	// PressureCap on bottom-hole pressure, Pa.

@@ -1,0 +1,38 @@
+// Package scenarios reads, converts and validates slipfront scenario files.
+//
+// A scenario is a TOML file that describes one stimulation case: the map
+// domain and its projected CRS, the reservoir layer, the in-situ stress,
+// the rock and fracture properties, the natural fracture sets, mapped
+// fractures, wells with stages and perforation clusters, fluids, the
+// pumping schedule and numerical settings. Template returns an annotated
+// file listing every key; Examples lists the scenarios embedded in the
+// program (among them "demo").
+//
+// Parse converts every value to SI, applies defaults, checks each value's
+// range and the rules that join several values, and reports every problem
+// at once as Errors: each names the file, the line, the dotted key, the
+// value and what is allowed ("demo.toml:44: sets[1].orientation.kappa = -3:
+// must be > 0"). Unknown keys are errors with the closest known key
+// suggested. Overrides ("--set key=value") change single values by their
+// dotted key before validation, so they are checked exactly like the file.
+//
+// # Units
+//
+// Values with a dimension are strings with a unit ("2600 m", "0.7 psi/ft",
+// "80 bbl/min", "N75E"); a bare number for such a value is an error, so no
+// unit is ever guessed. Inside, everything is SI (m, s, Pa, Pa·s, 1/Pa, m³,
+// m³/s) and angles are radians. Conversion factors follow NIST Special
+// Publication 811 (2008), Appendix B; the US oil barrel is 42 US gallons.
+//
+// # Conventions
+//
+// Local coordinates are East-North metres from the scenario origin, depths
+// are true vertical depth, positive down. Stress is compression-positive.
+// Azimuths are clockwise from north; quadrant bearings such as N75E (75°
+// east of north) and S20W (200°) are accepted.
+//
+// # References
+//
+// Thompson, A. & Taylor, B.N. (2008), Guide for the Use of the
+// International System of Units (SI), NIST Special Publication 811.
+package scenarios

@@ -1,0 +1,136 @@
+package scenarios
+
+import (
+	"crypto/sha256"
+	"embed"
+	"encoding/hex"
+	"encoding/json"
+	"errors"
+	"fmt"
+	"io/fs"
+	"os"
+	"path"
+	"path/filepath"
+	"reflect"
+	"sort"
+	"strings"
+
+	"github.com/BurntSushi/toml"
+)
+
+//go:embed examples/*.toml examples/*.csv
+var examples embed.FS
+
+// Examples lists the embedded example scenarios by name (without .toml).
+func Examples() []string {
+	entries, _ := fs.Glob(examples, "examples/*.toml")
+	names := make([]string, len(entries))
+	for i, e := range entries {
+		names[i] = strings.TrimSuffix(path.Base(e), ".toml")
+	}
+	sort.Strings(names)
+	return names
+}
+
+// ExampleSource returns the TOML text of an embedded example.
+func ExampleSource(name string) ([]byte, error) {
+	src, err := examples.ReadFile("examples/" + strings.TrimSuffix(name, ".toml") + ".toml")
+	if err != nil {
+		return nil, fmt.Errorf("no example scenario %q; examples: %s", name, strings.Join(Examples(), ", "))
+	}
+	return src, nil
+}
+
+// LoadExample reads an embedded example scenario with overrides applied.
+func LoadExample(name string, overrides ...Override) (*Scenario, error) {
+	src, err := ExampleSource(name)
+	if err != nil {
+		return nil, err
+	}
+	sub, _ := fs.Sub(examples, "examples")
+	return Parse(strings.TrimSuffix(name, ".toml")+".toml", src, sub, overrides...)
+}
+
+// Load reads the scenario file at path with overrides applied. A known
+// fracture file is resolved relative to the scenario's folder. When no
+// file exists at path but path names an embedded example ("demo"), the
+// example is loaded.
+func Load(p string, overrides ...Override) (*Scenario, error) {
+	src, err := os.ReadFile(p)
+	if errors.Is(err, fs.ErrNotExist) && !strings.ContainsRune(p, filepath.Separator) {
+		if _, exErr := ExampleSource(p); exErr == nil {
+			return LoadExample(p, overrides...)
+		}
+	}
+	if err != nil {
+		return nil, fmt.Errorf("reading scenario: %w", err)
+	}
+	return Parse(p, src, os.DirFS(filepath.Dir(p)), overrides...)
+}
+
+// Parse decodes, converts and validates a scenario. name is used in
+// messages; files resolves the known-fracture file named in the scenario.
+// Every problem found is reported at once, as Errors.
+func Parse(name string, src []byte, files fs.FS, overrides ...Override) (*Scenario, error) {
+	var tree map[string]any
+	if _, err := toml.Decode(string(src), &tree); err != nil {
+		var pe toml.ParseError
+		if errors.As(err, &pe) {
+			return nil, Errors{{File: name, Line: pe.Position.Line, Msg: "TOML syntax: " + pe.Message}}
+		}
+		return nil, Errors{{File: name, Msg: "TOML: " + err.Error()}}
+	}
+	d := &decoder{file: name, lines: scanKeyLines(string(src)), overrides: map[string]string{}, tree: tree}
+	for _, o := range overrides {
+		p, err := o.apply(tree)
+		if err != nil {
+			return nil, err
+		}
+		d.overrides[p] = o.Value
+	}
+	s := &Scenario{Source: name}
+	d.decodeStruct("", tree, reflect.ValueOf(s).Elem())
+	if len(d.errs) == 0 {
+		d.readKnownFractures(s, files)
+	}
+	if len(d.errs) == 0 {
+		d.validate(s)
+	}
+	if len(d.errs) > 0 {
+		return nil, d.errs
+	}
+	s.Digest = digest(s)
+	return s, nil
+}
+
+func (d *decoder) readKnownFractures(s *Scenario, files fs.FS) {
+	if s.KnownFractures.File == "" {
+		return
+	}
+	f, err := files.Open(filepath.ToSlash(s.KnownFractures.File))
+	if err != nil {
+		d.failKey("known_fractures.file", "cannot open: %v", err)
+		return
+	}
+	defer f.Close()
+	kf, err := ReadKnownFractures(f, s.KnownFractures.File)
+	if err != nil {
+		d.errs = append(d.errs, &FieldError{File: d.file, Line: d.lines.lineOf("known_fractures.file"), Key: "known_fractures.file", Msg: err.Error()})
+		return
+	}
+	s.KnownFractures.Fractures = kf
+}
+
+// digest is the SHA-256 of the scenario's canonical SI content (JSON of
+// the struct, map keys sorted), so equal scenarios written differently
+// (units, order, comments) share a digest.
+func digest(s *Scenario) string {
+	c := *s
+	c.Source, c.Digest = "", ""
+	b, err := json.Marshal(c)
+	if err != nil {
+		panic("scenarios: digest: " + err.Error())
+	}
+	sum := sha256.Sum256(b)
+	return hex.EncodeToString(sum[:])
+}

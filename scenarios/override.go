@@ -1,0 +1,118 @@
+package scenarios
+
+import (
+	"fmt"
+	"regexp"
+	"strconv"
+	"strings"
+)
+
+// Override is one command-line "--set key=value": a dotted scenario key
+// such as "fluids.slickwater.viscosity" or "sets[0].orientation.kappa" and
+// its value written as in the file, without quotes ("20 cP", "15").
+type Override struct {
+	Key   string
+	Value string
+}
+
+func (o Override) String() string { return o.Key + "=" + o.Value }
+
+// ParseOverride splits "key=value".
+func ParseOverride(s string) (Override, error) {
+	k, v, ok := strings.Cut(s, "=")
+	k, v = strings.TrimSpace(k), strings.TrimSpace(v)
+	if !ok || k == "" || v == "" {
+		return Override{}, fmt.Errorf("--set %s: want key=value, e.g. fluids.slickwater.viscosity=20cP", s)
+	}
+	if _, err := parseKeyPath(k); err != nil {
+		return Override{}, fmt.Errorf("--set %s: %v", s, err)
+	}
+	return Override{Key: k, Value: v}, nil
+}
+
+// ParseOverrides parses every "key=value" in order.
+func ParseOverrides(list []string) ([]Override, error) {
+	out := make([]Override, 0, len(list))
+	for _, s := range list {
+		o, err := ParseOverride(s)
+		if err != nil {
+			return nil, err
+		}
+		out = append(out, o)
+	}
+	return out, nil
+}
+
+type keySegment struct {
+	name  string
+	index int // -1 when the segment has no [i]
+}
+
+var segmentPattern = regexp.MustCompile(`^([A-Za-z0-9_\- ]+)(?:\[(\d+)\])?$`)
+
+// parseKeyPath splits "sets[0].orientation.kappa" into segments.
+func parseKeyPath(k string) ([]keySegment, error) {
+	var segs []keySegment
+	for _, part := range splitKey(k) {
+		m := segmentPattern.FindStringSubmatch(part)
+		if m == nil {
+			return nil, fmt.Errorf("bad key %q: want dotted names with optional [index], e.g. sets[0].orientation.kappa", k)
+		}
+		s := keySegment{name: m[1], index: -1}
+		if m[2] != "" {
+			s.index, _ = strconv.Atoi(m[2])
+		}
+		segs = append(segs, s)
+	}
+	return segs, nil
+}
+
+// apply writes the override into the generic TOML tree and returns the
+// normalised key path it set.
+func (o Override) apply(tree map[string]any) (string, error) {
+	segs, err := parseKeyPath(o.Key)
+	if err != nil {
+		return "", err
+	}
+	fail := func(format string, args ...any) (string, error) {
+		return "", &FieldError{File: overrideSource, Key: o.Key, Value: o.Value, Msg: fmt.Sprintf(format, args...)}
+	}
+	node, path := tree, ""
+	for i, s := range segs {
+		last := i == len(segs)-1
+		path = joinKey(path, s.name)
+		if s.index >= 0 {
+			list, ok := node[s.name].([]map[string]any)
+			if !ok {
+				return fail("%s is not a list of tables in this scenario", path)
+			}
+			if s.index >= len(list) {
+				return fail("index %d out of range: the scenario has %d entries in %s", s.index, len(list), path)
+			}
+			path += "[" + strconv.Itoa(s.index) + "]"
+			if last {
+				return fail("%s is a table; set one of its keys", path)
+			}
+			node = list[s.index]
+			continue
+		}
+		if last {
+			if _, isTable := node[s.name].(map[string]any); isTable {
+				return fail("%s is a table; set one of its keys", path)
+			}
+			node[s.name] = o.Value
+			return path, nil
+		}
+		switch next := node[s.name].(type) {
+		case map[string]any:
+			node = next
+		case nil:
+			m := map[string]any{}
+			node[s.name] = m
+			node = m
+		default:
+			return fail("%s is a value, not a table", path)
+		}
+	}
+	return path, nil
+}

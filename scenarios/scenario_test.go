@@ -1,0 +1,348 @@
+package scenarios
+
+import (
+	"errors"
+	"math"
+	"strings"
+	"testing"
+	"testing/fstest"
+
+	"slipfront/internal/numtest"
+)
+
+// minimal is a small valid scenario; tests change single lines of it.
+const minimal = `name = "minimal"
+seed = 7
+[domain]
+x_min = "-500 m"
+x_max = "500 m"
+y_min = "-500 m"
+y_max = "500 m"
+[layer]
+depth = "2000 m"
+thickness = "20 m"
+[stress]
+sv_gradient = "25 kPa/m"
+shmax_gradient = "26 kPa/m"
+shmin_gradient = "18 kPa/m"
+pore_pressure_gradient = "10 kPa/m"
+shmax_azimuth = "N90E"
+[[sets]]
+name = "one"
+[sets.orientation]
+kappa = 10
+[[sets]]
+name = "two"
+[sets.orientation]
+distribution = "uniform"
+[[wells]]
+name = "A"
+path = [["-400 m", "0 m", "2000 m"], ["400 m", "0 m", "2000 m"]]
+[[wells.stages]]
+name = "1"
+clusters = ["700 m", "720 m"]
+[[wells.stages]]
+name = "2"
+clusters = ["500 m"]
+[fluids.water]
+viscosity = "1 cP"
+[schedule]
+fluid = "water"
+volume = "100 m3"
+`
+
+func parseText(t *testing.T, src string, overrides ...string) (*Scenario, error) {
+	t.Helper()
+	ov, err := ParseOverrides(overrides)
+	if err != nil {
+		return nil, err
+	}
+	files := fstest.MapFS{"faults.csv": {Data: []byte(knownCSV)}}
+	return Parse("test.toml", []byte(src), files, ov...)
+}
+
+const knownCSV = "name,center_x_m,center_y_m,center_depth_m,dip_deg,dip_direction_deg,length_m,height_m\nF1,0,0,2000,80,90,300,100\n"
+
+func TestMinimal(t *testing.T) {
+	s, err := parseText(t, minimal)
+	if err != nil {
+		t.Fatal(err)
+	}
+	// Defaults and conversions (each value's unit factor is tested in
+	// units_test.go).
+	numtest.Rel(t, "layer depth", s.Layer.Depth, 2000, 1e-15)
+	numtest.Rel(t, "SHmax azimuth", s.Stress.SHmaxAzimuth, math.Pi/2, 1e-15)
+	numtest.Rel(t, "default shear modulus", s.Rock.ShearModulus, 15e9, 1e-15)
+	numtest.Rel(t, "default compressibility", s.Fluids["water"].Compressibility, 4.5e-10, 1e-15)
+	if s.Sets[1].Orientation.Distribution != "uniform" || s.Sets[0].Size.Distribution != "power_law" {
+		t.Errorf("set defaults not applied: %+v", s.Sets)
+	}
+	if s.Seed != 7 || len(s.Wells[0].Stages) != 2 || len(s.Wells[0].Stages[0].Clusters) != 2 {
+		t.Errorf("decoded %+v", s)
+	}
+	if len(s.Digest) != 64 {
+		t.Errorf("digest %q", s.Digest)
+	}
+}
+
+func TestExamplesParse(t *testing.T) {
+	names := Examples()
+	if len(names) == 0 || !strings.Contains(strings.Join(names, " "), "demo") {
+		t.Fatalf("examples %v, want demo among them", names)
+	}
+	for _, name := range names {
+		s, err := LoadExample(name)
+		if err != nil {
+			t.Errorf("%s: %v", name, err)
+			continue
+		}
+		if len(s.PumpingOrder()) == 0 {
+			t.Errorf("%s: no stages to pump", name)
+		}
+	}
+	demo, err := LoadExample("demo")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(demo.Wells) != 2 || len(demo.Sets) != 2 || len(demo.KnownFractures.Fractures) != 1 {
+		t.Errorf("demo has %d wells, %d sets, %d known fractures; issue 2 asks for 2, 2, 1",
+			len(demo.Wells), len(demo.Sets), len(demo.KnownFractures.Fractures))
+	}
+}
+
+func TestTemplateParses(t *testing.T) {
+	s, err := Parse("template.toml", []byte(Template()), fstest.MapFS{})
+	if err != nil {
+		t.Fatalf("template does not parse: %v", err)
+	}
+	// Every default in the template equals the decoder's default.
+	d, err := parseText(t, minimal)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if s.Rock != d.Rock || s.Numerics != d.Numerics {
+		t.Errorf("template defaults differ from decoder defaults:\n%+v\n%+v", s.Rock, d.Rock)
+	}
+}
+
+// TestBadValues: every kind of bad value gives file:line: key = value: rule.
+func TestBadValues(t *testing.T) {
+	tests := []struct {
+		name     string
+		old, new string
+		want     string
+	}{
+		{"negative kappa", "kappa = 10", "kappa = -3", "test.toml:20: sets[0].orientation.kappa = -3: must be > 0"},
+		{"dip above 90", "kappa = 10", `dip = "95 deg"`, `test.toml:20: sets[0].orientation.dip = "95 deg": must be within [0, 90] deg`},
+		{"unknown unit", `thickness = "20 m"`, `thickness = "20 furlongs"`, `test.toml:10: layer.thickness = "20 furlongs": unknown unit "furlongs"`},
+		{"no unit", `thickness = "20 m"`, `thickness = 20`, `test.toml:10: layer.thickness = 20: needs a unit`},
+		{"unknown key", "kappa = 10", "kapa = 10", `test.toml:20: sets[0].orientation.kapa: unknown key (did you mean "kappa"?)`},
+		{"unknown table", "[layer]", "[layr]", `test.toml:8: layr: unknown key (did you mean "layer"?)`},
+		{"missing key", `depth = "2000 m"`, ``, `test.toml:8: layer.depth: required key is missing (e.g. "2600 m")`},
+		{"bad word", `name = "two"`, "name = \"two\"\nshape = \"disk\"", `test.toml:23: sets[1].shape = "disk": must be one of disc, rectangle (did you mean "disc"?)`},
+		{"inverted size", "kappa = 10", "kappa = 10\n[sets.size]\nmin = \"50 m\"\nmax = \"10 m\"", `test.toml:23: sets[0].size.max = "10 m": must exceed sets[0].size.min = 50 m`},
+		{"negative size", "kappa = 10", "kappa = 10\n[sets.size]\nmin = \"-5 m\"", `test.toml:22: sets[0].size.min = "-5 m": must be > 0 m`},
+		{"shmax below shmin", `shmax_gradient = "26 kPa/m"`, `shmax_gradient = "16 kPa/m"`, `test.toml:13: stress.shmax_gradient = "16 kPa/m": must be at least stress.shmin_gradient`},
+		{"poisson", "[[sets]]\nname = \"one\"", "[rock]\npoisson_ratio = 0.5\n[[sets]]\nname = \"one\"", "test.toml:18: rock.poisson_ratio = 0.5: must be within (0, 0.5)"},
+		{"friction", "[[sets]]\nname = \"one\"", "[rock]\nfriction_static = 0\n[[sets]]\nname = \"one\"", "test.toml:18: rock.friction_static = 0: must be > 0"},
+		{"unknown fluid", `fluid = "water"`, `fluid = "watr"`, `test.toml:37: schedule.fluid = "watr": no such fluid; fluids: water (did you mean "water"?)`},
+		{"no volume", `volume = "100 m3"`, ``, "wells[0].stages[0].volume: stage A:1 has no volume and no duration"},
+		{"cluster off the path", `clusters = ["500 m"]`, `clusters = ["900 m"]`, `test.toml:33: wells[0].stages[1].clusters[0] = "900 m": must lie on the well path`},
+		{"unknown stage in list", `volume = "100 m3"`, "volume = \"100 m3\"\norder = \"list\"\nsequence = [\"A:1\", \"A:7\"]", `schedule.sequence[1] = "A:7": well "A" has no stage "7"`},
+		{"output interval", `volume = "100 m3"`, "volume = \"100 m3\"\n[numerics]\noutput_interval = \"100 d\"", `numerics.output_interval = "100 d": is longer than the whole schedule`},
+		{"bad crs", `y_max = "500 m"`, "y_max = \"500 m\"\ncrs = \"UTM14\"", `test.toml:8: domain.crs = "UTM14": must be "EPSG:<code>"`},
+		{"bad start", `volume = "100 m3"`, "volume = \"100 m3\"\nstart = \"May 6\"", `schedule.start = "May 6": must be an RFC 3339 UTC time`},
+		{"syntax", `name = "one"`, `name = "one`, "test.toml:18: TOML syntax"},
+		{"unknown known-fracture file", `[fluids.water]`, "[known_fractures]\nfile = \"missing.csv\"\n[fluids.water]", `known_fractures.file = "missing.csv": cannot open`},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			if !strings.Contains(minimal, tc.old) {
+				t.Fatalf("test bug: %q not in minimal", tc.old)
+			}
+			_, err := parseText(t, strings.Replace(minimal, tc.old, tc.new, 1))
+			if err == nil || !strings.Contains(err.Error(), tc.want) {
+				t.Errorf("error:\n%v\nwant it to contain:\n%s", err, tc.want)
+			}
+		})
+	}
+}
+
+func TestAllErrorsAtOnce(t *testing.T) {
+	src := strings.Replace(minimal, "kappa = 10", "kappa = -1\ndip = \"100 deg\"", 1)
+	_, err := parseText(t, src)
+	var errs Errors
+	if !errors.As(err, &errs) || len(errs) != 2 {
+		t.Fatalf("want 2 errors, got %v", err)
+	}
+}
+
+func TestOverrides(t *testing.T) {
+	s, err := parseText(t, minimal, "fluids.water.viscosity=20cP", "sets[1].orientation.kappa=15",
+		"numerics.cell_size = 5 m", "schedule.rate=80 bbl/min", "seed=9")
+	if err != nil {
+		t.Fatal(err)
+	}
+	numtest.Rel(t, "viscosity", s.Fluids["water"].Viscosity, 0.02, 1e-15)
+	numtest.Rel(t, "kappa", s.Sets[1].Orientation.Kappa, 15, 1e-15)
+	numtest.Rel(t, "cell size", s.Numerics.CellSize, 5, 1e-15)
+	numtest.Rel(t, "rate", s.Schedule.Rate, 0.21198305990400002, 1e-12) // NIST SP 811 barrel
+	if s.Seed != 9 {
+		t.Errorf("seed %d", s.Seed)
+	}
+	base, _ := parseText(t, minimal)
+	if base.Digest == s.Digest {
+		t.Error("overrides did not change the digest")
+	}
+}
+
+func TestOverrideErrors(t *testing.T) {
+	tests := []struct{ set, want string }{
+		{"sets[0].orientation.kappa=-3", "--set sets[0].orientation.kappa=-3: must be > 0"},
+		{"sets[5].orientation.kappa=3", "--set sets[5].orientation.kappa=3: index 5 out of range: the scenario has 2 entries in sets"},
+		{"numerics.cel_size=5 m", `--set numerics.cel_size=5 m: unknown key (did you mean "cell_size"?)`},
+		{"fluids.water.viscosity=20 cQ", `--set fluids.water.viscosity=20 cQ: unknown unit "cQ"`},
+		{"layer=5", "--set layer=5: layer is a table; set one of its keys"},
+		{"kappa", "want key=value"},
+		{"sets[x].name=a", "bad key"},
+	}
+	for _, tc := range tests {
+		_, err := parseText(t, minimal, tc.set)
+		if err == nil || !strings.Contains(err.Error(), tc.want) {
+			t.Errorf("--set %s: error %v, want it to contain %q", tc.set, err, tc.want)
+		}
+	}
+}
+
+func TestDigestIgnoresSpelling(t *testing.T) {
+	a, err := parseText(t, minimal)
+	if err != nil {
+		t.Fatal(err)
+	}
+	// Same content: comments, blank lines and an equivalent unit spelling.
+	src := "# a comment\n\n" + strings.Replace(minimal, `thickness = "20 m"`, `thickness = "0.02 km"  # same`, 1)
+	b, err := parseText(t, src)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if a.Digest != b.Digest {
+		t.Error("equivalent scenarios have different digests")
+	}
+}
+
+func TestPumpingOrder(t *testing.T) {
+	two := minimal + "\n"
+	two = strings.Replace(two, "[fluids.water]", `[[wells]]
+name = "B"
+path = [["-400 m", "100 m", "2000 m"], ["400 m", "100 m", "2000 m"]]
+[[wells.stages]]
+name = "1"
+clusters = ["700 m"]
+rate = "1 m3/min"
+[fluids.water]`, 1)
+	tests := []struct {
+		order string
+		want  string
+	}{
+		{"sequential", "A:1 A:2 B:1"},
+		{"zipper", "A:1 B:1 A:2"},
+		{"list\"\nsequence = [\"B:1\", \"A:2\"]\n#\"", "B:1 A:2"},
+	}
+	for _, tc := range tests {
+		s, err := parseText(t, strings.Replace(two, `volume = "100 m3"`, "volume = \"100 m3\"\norder = \""+tc.order+"\"", 1))
+		if err != nil {
+			t.Fatalf("%s: %v", tc.order, err)
+		}
+		var names []string
+		for _, p := range s.PumpingOrder() {
+			names = append(names, p.Name)
+			if p.Name == "B:1" {
+				numtest.Rel(t, "stage rate override", p.Rate, 1.0/60, 1e-15)
+			}
+		}
+		if got := strings.Join(names, " "); got != tc.want {
+			t.Errorf("order %q: %s, want %s", tc.order, got, tc.want)
+		}
+	}
+}
+
+func TestReadKnownFractures(t *testing.T) {
+	k, err := ReadKnownFractures(strings.NewReader("# comment\n"+knownCSV), "f.csv")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(k) != 1 || k[0].Name != "F1" || k[0].Line != 3 {
+		t.Fatalf("got %+v", k)
+	}
+	numtest.Rel(t, "dip", k[0].Dip, 80*math.Pi/180, 1e-15)
+	bad := []struct{ in, want string }{
+		{"", "empty file"},
+		{"name,x\n", `f.csv:1: unknown column "x"`},
+		{strings.Replace(knownCSV, "80,90", "95,90", 1), "f.csv:2: dip_deg = 95: must be within [0, 90]"},
+		{strings.Replace(knownCSV, ",300,", ",-1,", 1), "f.csv:2: length_m = -1: must be > 0"},
+		{strings.Replace(knownCSV, ",300,", ",abc,", 1), `f.csv:2: length_m = "abc": not a number`},
+		{knownCSV + "F2,1,2\n", "f.csv:3"},
+		{"center_x_m,center_y_m,center_depth_m,dip_deg,dip_direction_deg,length_m,height_m\n", `missing column "name"`},
+	}
+	for _, tc := range bad {
+		_, err := ReadKnownFractures(strings.NewReader(tc.in), "f.csv")
+		if err == nil || !strings.Contains(err.Error(), tc.want) {
+			t.Errorf("%q: error %v, want %q", tc.in, err, tc.want)
+		}
+	}
+}
+
+func TestKeyLines(t *testing.T) {
+	l := scanKeyLines(minimal)
+	for key, want := range map[string]int{
+		"layer.depth":                 9,
+		"sets[1].orientation":         23,
+		"wells[0].stages[1].clusters": 33,
+		"fluids.water.viscosity":      35,
+		"wells[0].path[1][0]":         27, // falls back to the key's line
+	} {
+		if got := l.lineOf(key); got != want {
+			t.Errorf("line of %s = %d, want %d", key, got, want)
+		}
+	}
+}
+
+func FuzzParse(f *testing.F) {
+	f.Add([]byte(minimal))
+	f.Add([]byte(Template()))
+	for _, name := range Examples() {
+		src, _ := ExampleSource(name)
+		f.Add(src)
+	}
+	files := fstest.MapFS{"faults.csv": {Data: []byte(knownCSV)}}
+	f.Fuzz(func(t *testing.T, src []byte) {
+		s, err := Parse("fuzz.toml", src, files)
+		if err != nil {
+			if err.Error() == "" {
+				t.Fatal("empty error message")
+			}
+			return
+		}
+		again, err := Parse("fuzz.toml", src, files)
+		if err != nil || again.Digest != s.Digest {
+			t.Fatalf("parsing twice differs: %v", err)
+		}
+	})
+}
+
+func FuzzReadKnownFractures(f *testing.F) {
+	f.Add([]byte(knownCSV))
+	src, _ := examples.ReadFile("examples/demo-faults.csv")
+	f.Add(src)
+	f.Fuzz(func(t *testing.T, data []byte) {
+		k, err := ReadKnownFractures(strings.NewReader(string(data)), "fuzz.csv")
+		if err != nil {
+			return
+		}
+		for _, x := range k {
+			if x.Length <= 0 || x.Height <= 0 || x.Dip < 0 || x.Dip > math.Pi/2 {
+				t.Fatalf("accepted an invalid fracture %+v", x)
+			}
+		}
+	})
+}

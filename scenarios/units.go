@@ -1,0 +1,233 @@
+package scenarios
+
+import (
+	"fmt"
+	"math"
+	"regexp"
+	"sort"
+	"strconv"
+	"strings"
+)
+
+// Conversion factors to SI. Exact values where the definition is exact;
+// sources: NIST Special Publication 811 (2008 edition), "Guide for the Use
+// of the International System of Units", Appendix B.8 and B.9.
+const (
+	foot       = 0.3048                 // m, exact (SP 811 B.8: foot)
+	inch       = 0.0254                 // m, exact (SP 811 B.8: inch)
+	poundForce = 4.4482216152605        // N, exact (SP 811 B.8: pound-force)
+	psi        = poundForce / (inch * inch) // Pa = 6894.757293168 (SP 811 B.8: 6.894757 E+03)
+	usGallon   = 3.785411784e-3         // m³, exact (SP 811 B.8: gallon [U.S.])
+	oilBarrel  = 42 * usGallon          // m³ = 0.158987294928 (SP 811 B.8: barrel [for petroleum, 42 gallons (U.S.)] 1.589873 E-01)
+	centipoise = 1e-3                   // Pa·s (SP 811 B.8: centipoise 1.0 E-03)
+	minute     = 60.0                   // s
+	hour       = 3600.0                 // s
+	day        = 86400.0                // s
+	degree     = math.Pi / 180          // rad
+)
+
+// unitKind is the physical dimension a scenario value must carry.
+type unitKind string
+
+// The unit kinds named in struct tags.
+const (
+	kindLength          unitKind = "length"
+	kindPressure        unitKind = "pressure"
+	kindGradient        unitKind = "gradient"
+	kindViscosity       unitKind = "viscosity"
+	kindCompressibility unitKind = "compressibility"
+	kindRate            unitKind = "rate"
+	kindVolume          unitKind = "volume"
+	kindTime            unitKind = "time"
+	kindAngle           unitKind = "angle"
+	kindAzimuth         unitKind = "azimuth"
+	kindIntensity       unitKind = "intensity"
+	kindLeakoff         unitKind = "leakoff"
+)
+
+// unitTable lists, per kind, the accepted unit spellings and their factor
+// to SI. The first entry of each kind is the SI unit. Spellings are
+// case-sensitive (mPa is not MPa); normalizeUnit maps typographic variants
+// (m³, µm, Pa·s) to these.
+var unitTable = map[unitKind][]struct {
+	name   string
+	factor float64
+}{
+	kindLength: {{"m", 1}, {"km", 1e3}, {"cm", 1e-2}, {"mm", 1e-3}, {"um", 1e-6}, {"ft", foot}, {"in", inch}},
+	kindPressure: {{"Pa", 1}, {"kPa", 1e3}, {"MPa", 1e6}, {"GPa", 1e9}, {"bar", 1e5}, {"psi", psi},
+		{"ksi", 1e3 * psi}},
+	kindGradient: {{"Pa/m", 1}, {"kPa/m", 1e3}, {"MPa/m", 1e6}, {"MPa/km", 1e3}, {"bar/m", 1e5},
+		{"psi/ft", psi / foot}},
+	kindViscosity:       {{"Pa.s", 1}, {"mPa.s", 1e-3}, {"cP", centipoise}, {"P", 100 * centipoise}},
+	kindCompressibility: {{"1/Pa", 1}, {"1/kPa", 1e-3}, {"1/MPa", 1e-6}, {"1/GPa", 1e-9}, {"1/bar", 1e-5}, {"1/psi", 1 / psi}},
+	kindRate: {{"m3/s", 1}, {"m3/min", 1 / minute}, {"m3/h", 1 / hour}, {"L/s", 1e-3}, {"L/min", 1e-3 / minute},
+		{"bbl/min", oilBarrel / minute}, {"gal/min", usGallon / minute}},
+	kindVolume:    {{"m3", 1}, {"L", 1e-3}, {"bbl", oilBarrel}, {"gal", usGallon}},
+	kindTime:      {{"s", 1}, {"ms", 1e-3}, {"min", minute}, {"h", hour}, {"d", day}},
+	kindAngle:     {{"rad", 1}, {"deg", degree}},
+	kindAzimuth:   {{"rad", 1}, {"deg", degree}},
+	kindIntensity: {{"1/m", 1}, {"1/km", 1e-3}, {"1/ft", 1 / foot}},
+	kindLeakoff:   {{"m/s^0.5", 1}, {"ft/min^0.5", foot / math.Sqrt(minute)}},
+}
+
+// unitNames returns the accepted spellings of a kind, for messages.
+func unitNames(k unitKind) string {
+	var names []string
+	for _, u := range unitTable[k] {
+		names = append(names, u.name)
+	}
+	if k == kindAzimuth {
+		names = append(names, `quadrant bearing such as "N75E"`)
+	}
+	return strings.Join(names, ", ")
+}
+
+// normalizeUnit maps typographic variants to the spellings of unitTable.
+func normalizeUnit(u string) string {
+	r := strings.NewReplacer(
+		"³", "3", "µ", "u", "μ", "u", "·", ".", "*", ".", "°", "deg", " ", "",
+	)
+	switch {
+	case strings.HasSuffix(u, "^-1"):
+		u = "1/" + strings.TrimSuffix(u, "^-1")
+	case strings.HasSuffix(u, "⁻¹"):
+		u = "1/" + strings.TrimSuffix(u, "⁻¹")
+	}
+	u = r.Replace(u)
+	switch u {
+	case "m/sqrt(s)", "m/s^(1/2)", "m/s0.5":
+		return "m/s^0.5"
+	case "ft/sqrt(min)", "ft/min^(1/2)":
+		return "ft/min^0.5"
+	case "Pas":
+		return "Pa.s"
+	case "mPas":
+		return "mPa.s"
+	case "bpm":
+		return "bbl/min"
+	case "degrees", "degree":
+		return "deg"
+	case "sec":
+		return "s"
+	case "hr":
+		return "h"
+	case "day", "days":
+		return "d"
+	}
+	return u
+}
+
+var numberPrefix = regexp.MustCompile(`^\s*([-+]?(?:\d+\.?\d*|\.\d+)(?:[eE][-+]?\d+)?)\s*(.*?)\s*$`)
+
+// bearingPattern matches quadrant bearings such as N75E or S20.5W.
+var bearingPattern = regexp.MustCompile(`^\s*([NSns])\s*(\d+(?:\.\d*)?)\s*([EWew])\s*$`)
+
+// parseQuantity converts a value with a unit, such as "2600 m" or
+// "0.7 psi/ft", to SI. Azimuths also accept quadrant bearings.
+func parseQuantity(s string, k unitKind) (float64, error) {
+	if k == kindAzimuth {
+		if m := bearingPattern.FindStringSubmatch(s); m != nil {
+			return parseBearing(m)
+		}
+	}
+	m := numberPrefix.FindStringSubmatch(s)
+	if m == nil {
+		return 0, fmt.Errorf("not a number with a unit (%s: %s)", k, unitNames(k))
+	}
+	v, err := strconv.ParseFloat(m[1], 64)
+	if err != nil || math.IsInf(v, 0) {
+		return 0, fmt.Errorf("number %q out of range", m[1])
+	}
+	if m[2] == "" {
+		return 0, fmt.Errorf("needs a unit (%s: %s), e.g. \"%s %s\"", k, unitNames(k), m[1], unitTable[k][0].name)
+	}
+	u := normalizeUnit(m[2])
+	for _, e := range unitTable[k] {
+		if e.name == u {
+			return v * e.factor, nil
+		}
+	}
+	return 0, fmt.Errorf("unknown unit %q for a %s; use one of: %s%s", m[2], k, unitNames(k), suggest(u, unitSpellings(k)))
+}
+
+// parseBearing converts a quadrant bearing (N75E: 75° east of north) to an
+// azimuth in radians.
+func parseBearing(m []string) (float64, error) {
+	a, err := strconv.ParseFloat(m[2], 64)
+	if err != nil || a > 90 {
+		return 0, fmt.Errorf("quadrant bearing angle %s must be within 0–90 degrees", m[2])
+	}
+	ns, ew := strings.ToUpper(m[1]), strings.ToUpper(m[3])
+	var az float64
+	switch ns + ew {
+	case "NE":
+		az = a
+	case "SE":
+		az = 180 - a
+	case "SW":
+		az = 180 + a
+	case "NW":
+		az = 360 - a
+	}
+	if az == 360 {
+		az = 0
+	}
+	return az * degree, nil
+}
+
+func unitSpellings(k unitKind) []string {
+	var names []string
+	for _, u := range unitTable[k] {
+		names = append(names, u.name)
+	}
+	return names
+}
+
+// formatQuantity writes an SI value in the first unit of its kind
+// (degrees for angles), for the template and messages.
+func formatQuantity(v float64, k unitKind) string {
+	if k == kindAngle || k == kindAzimuth {
+		return strconv.FormatFloat(v/degree, 'g', 10, 64) + " deg"
+	}
+	return strconv.FormatFloat(v, 'g', 10, 64) + " " + unitTable[k][0].name
+}
+
+// suggest returns ` (did you mean "x"?)` for the candidate closest to s, or
+// "" when none is close.
+func suggest(s string, candidates []string) string {
+	best, bestD := "", 1<<30
+	sorted := append([]string(nil), candidates...)
+	sort.Strings(sorted)
+	for _, c := range sorted {
+		d := editDistance(strings.ToLower(s), strings.ToLower(c))
+		if d < bestD {
+			best, bestD = c, d
+		}
+	}
+	if best == "" || bestD > max(2, len(s)/3) {
+		return ""
+	}
+	return fmt.Sprintf(" (did you mean %q?)", best)
+}
+
+// editDistance is the Levenshtein distance between a and b.
+func editDistance(a, b string) int {
+	ra, rb := []rune(a), []rune(b)
+	prev := make([]int, len(rb)+1)
+	cur := make([]int, len(rb)+1)
+	for j := range prev {
+		prev[j] = j
+	}
+	for i := 1; i <= len(ra); i++ {
+		cur[0] = i
+		for j := 1; j <= len(rb); j++ {
+			cost := 1
+			if ra[i-1] == rb[j-1] {
+				cost = 0
+			}
+			cur[j] = min(prev[j]+1, cur[j-1]+1, prev[j-1]+cost)
+		}
+		prev, cur = cur, prev
+	}
+	return prev[len(rb)]
+}

@@ -1,0 +1,84 @@
+package scenarios
+
+import (
+	"math"
+	"strings"
+	"testing"
+
+	"slipfront/internal/numtest"
+)
+
+// unitTol: the factors are exact or given to 10+ digits; round-off only.
+const unitTol = 1e-12
+
+func TestParseQuantity(t *testing.T) {
+	tests := []struct {
+		in   string
+		kind unitKind
+		want float64
+		src  string
+	}{
+		{"2600 m", kindLength, 2600, "SI"},
+		{"8500 ft", kindLength, 2590.8, "NIST SP 811 B.8: ft = 0.3048 m exactly"},
+		{"0.05 mm", kindLength, 5e-5, "SI prefix"},
+		{"65 MPa", kindPressure, 65e6, "SI prefix"},
+		{"9400 psi", kindPressure, 64810718.555782594, "NIST SP 811 B.8: lbf = 4.4482216152605 N, in = 0.0254 m"},
+		{"0.7 psi/ft", kindGradient, 15834.416355701615, "NIST SP 811 B.8 psi and ft"},
+		{"22 kPa/m", kindGradient, 22000, "SI prefix"},
+		{"1 cP", kindViscosity, 1e-3, "NIST SP 811 B.8: centipoise = 1.0e-3 Pa·s"},
+		{"1 mPa·s", kindViscosity, 1e-3, "SI prefix"},
+		{"80 bbl/min", kindRate, 0.21198305990400002, "NIST SP 811 B.8: barrel (42 US gal) = 0.158987294928 m³"},
+		{"4.5e-10 1/Pa", kindCompressibility, 4.5e-10, "SI"},
+		{"4.5e-4 1/MPa", kindCompressibility, 4.5e-10, "SI prefix"},
+		{"30 min", kindTime, 1800, "common practice, no source"},
+		{"75 deg", kindAzimuth, 75 * math.Pi / 180, "definition of the degree"},
+		{"N75E", kindAzimuth, 75 * math.Pi / 180, "quadrant bearing, common practice"},
+		{"S20W", kindAzimuth, 200 * math.Pi / 180, "quadrant bearing, common practice"},
+		{"N10W", kindAzimuth, 350 * math.Pi / 180, "quadrant bearing, common practice"},
+		{"S30E", kindAzimuth, 150 * math.Pi / 180, "quadrant bearing, common practice"},
+		{"0.02 1/m", kindIntensity, 0.02, "SI"},
+		{"2 m³", kindVolume, 2, "typographic variant of m3"},
+		{"1e-5 m/sqrt(s)", kindLeakoff, 1e-5, "SI"},
+		{"2600m", kindLength, 2600, "no space between number and unit"},
+	}
+	for _, tc := range tests {
+		got, err := parseQuantity(tc.in, tc.kind)
+		if err != nil {
+			t.Errorf("%q: %v", tc.in, err)
+			continue
+		}
+		numtest.Rel(t, tc.in+" ("+tc.src+")", got, tc.want, unitTol)
+	}
+}
+
+func TestParseQuantityErrors(t *testing.T) {
+	tests := []struct {
+		in   string
+		kind unitKind
+		want string
+	}{
+		{"2600", kindLength, "needs a unit"},
+		{"20 cQ", kindViscosity, `unknown unit "cQ"`},
+		{"20 Mpa", kindPressure, `did you mean "MPa"?`},
+		{"sixty m", kindLength, "not a number"},
+		{"N95E", kindAzimuth, "within 0–90"},
+		{"1e999 m", kindLength, "out of range"},
+	}
+	for _, tc := range tests {
+		_, err := parseQuantity(tc.in, tc.kind)
+		if err == nil || !strings.Contains(err.Error(), tc.want) {
+			t.Errorf("%q: error %v, want it to contain %q", tc.in, err, tc.want)
+		}
+	}
+}
+
+func TestEditDistance(t *testing.T) {
+	for _, tc := range []struct {
+		a, b string
+		d    int
+	}{{"kappa", "kapa", 1}, {"", "abc", 3}, {"flaw", "lawn", 2}, {"same", "same", 0}} {
+		if got := editDistance(tc.a, tc.b); got != tc.d {
+			t.Errorf("editDistance(%q, %q) = %d, want %d", tc.a, tc.b, got, tc.d)
+		}
+	}
+}

@@ -1,0 +1,212 @@
+package scenarios
+
+import (
+	"fmt"
+	"maps"
+	"math"
+	"regexp"
+	"slices"
+	"strconv"
+	"strings"
+	"time"
+
+	"gonum.org/v1/gonum/spatial/r3"
+
+	"slipfront/internal/orient"
+)
+
+var crsPattern = regexp.MustCompile(`^EPSG:(\d{4,6})$`)
+
+// validate checks the rules that involve more than one key. Ranges of
+// single keys were checked while decoding.
+func (d *decoder) validate(s *Scenario) {
+	d.validateDomain(s)
+	d.validateStress(s)
+	if s.Rock.FrictionResidual > s.Rock.FrictionStatic {
+		d.failKey("rock.friction_residual", "must not exceed rock.friction_static = %g", s.Rock.FrictionStatic)
+	}
+	d.validateSets(s)
+	d.validateWells(s)
+	d.validateSchedule(s)
+	d.validateNumerics(s)
+}
+
+func (d *decoder) validateDomain(s *Scenario) {
+	dm := s.Domain
+	if dm.XMax <= dm.XMin {
+		d.failKey("domain.x_max", "must exceed domain.x_min = %s", formatQuantity(dm.XMin, kindLength))
+	}
+	if dm.YMax <= dm.YMin {
+		d.failKey("domain.y_max", "must exceed domain.y_min = %s", formatQuantity(dm.YMin, kindLength))
+	}
+	if dm.CRS != "" && !crsPattern.MatchString(dm.CRS) {
+		d.failKey("domain.crs", `must be "EPSG:<code>" of a projected CRS, e.g. "EPSG:32614", or "" for none`)
+	}
+}
+
+// EPSG returns the EPSG code of the domain's CRS, or 0 when it has none.
+func (dm Domain) EPSG() int {
+	m := crsPattern.FindStringSubmatch(dm.CRS)
+	if m == nil {
+		return 0
+	}
+	n, _ := strconv.Atoi(m[1])
+	return n
+}
+
+func (d *decoder) validateStress(s *Scenario) {
+	st := s.Stress
+	if st.SHmaxGradient < st.ShminGradient {
+		d.failKey("stress.shmax_gradient", "must be at least stress.shmin_gradient = %s (SHmax ≥ Shmin by definition)", formatQuantity(st.ShminGradient, kindGradient))
+	}
+	for _, c := range []struct {
+		key string
+		g   float64
+	}{{"stress.shmin_gradient", st.ShminGradient}, {"stress.sv_gradient", st.SvGradient}} {
+		if st.PorePressureGradient >= c.g {
+			d.failKey("stress.pore_pressure_gradient", "must be below %s = %s: the effective stress would not be compressive", c.key, formatQuantity(c.g, kindGradient))
+		}
+	}
+}
+
+func (d *decoder) validateSets(s *Scenario) {
+	if len(s.Sets) == 0 && len(s.KnownFractures.Fractures) == 0 {
+		d.failKey("sets", "the scenario needs at least one fracture set ([[sets]]) or a known_fractures.file")
+	}
+	seen := map[string]int{}
+	for i, set := range s.Sets {
+		p := fmt.Sprintf("sets[%d]", i)
+		if set.Name == "" {
+			d.failKey(p+".name", "must not be empty")
+		}
+		if j, dup := seen[set.Name]; dup {
+			d.failKey(p+".name", "repeats the name of sets[%d]", j)
+		}
+		seen[set.Name] = i
+		if set.Size.Distribution == "power_law" && set.Size.Min >= set.Size.Max {
+			d.failKey(p+".size.max", "must exceed %s.size.min = %s", p, formatQuantity(set.Size.Min, kindLength))
+		}
+		if set.Intensity.Measure == "p10" && set.Orientation.Distribution == "fixed" {
+			n := orient.Normal(set.Orientation.Dip, set.Orientation.DipDirection)
+			l := orient.Line(set.Intensity.LineTrend, set.Intensity.LinePlunge)
+			if math.Abs(r3.Dot(n, l)) < 1e-3 {
+				d.failKey(p+".intensity.line_trend", "the measuring line lies in the plane of this fixed-orientation set, so p10 cannot be converted to p32")
+			}
+		}
+	}
+}
+
+func (d *decoder) validateWells(s *Scenario) {
+	seen := map[string]int{}
+	for i, w := range s.Wells {
+		p := fmt.Sprintf("wells[%d]", i)
+		if w.Name == "" {
+			d.failKey(p+".name", "must not be empty")
+		}
+		if j, dup := seen[w.Name]; dup {
+			d.failKey(p+".name", "repeats the name of wells[%d]", j)
+		}
+		seen[w.Name] = i
+		if len(w.Path) < 2 {
+			d.failKey(p+".path", "needs at least two points [x, y, depth]")
+			continue
+		}
+		length := w.PathLength()
+		stages := map[string]int{}
+		for j, st := range w.Stages {
+			sp := fmt.Sprintf("%s.stages[%d]", p, j)
+			if k, dup := stages[st.Name]; dup {
+				d.failKey(sp+".name", "repeats the name of %s.stages[%d]", p, k)
+			}
+			stages[st.Name] = j
+			if len(st.Clusters) == 0 {
+				d.failKey(sp+".clusters", "needs at least one cluster position")
+			}
+			for k, c := range st.Clusters {
+				if c < 0 || c > length {
+					d.failKey(fmt.Sprintf("%s.clusters[%d]", sp, k), "must lie on the well path, within [0, %.1f] m of its first point", length)
+				}
+			}
+			if st.Fluid != nil {
+				if _, ok := s.Fluids[*st.Fluid]; !ok {
+					d.failKey(sp+".fluid", "no such fluid; fluids: %s", fluidNames(s))
+				}
+			}
+		}
+	}
+}
+
+// PathLength is the map-view length of the well path, m.
+func (w Well) PathLength() float64 {
+	var l float64
+	for i := 1; i < len(w.Path); i++ {
+		l += math.Hypot(w.Path[i].X-w.Path[i-1].X, w.Path[i].Y-w.Path[i-1].Y)
+	}
+	return l
+}
+
+func fluidNames(s *Scenario) string {
+	if len(s.Fluids) == 0 {
+		return "(none defined)"
+	}
+	return strings.Join(slices.Sorted(maps.Keys(s.Fluids)), ", ")
+}
+
+func (d *decoder) validateSchedule(s *Scenario) {
+	sc := s.Schedule
+	if _, err := time.Parse(time.RFC3339, sc.Start); err != nil {
+		d.failKey("schedule.start", "must be an RFC 3339 UTC time such as 2030-01-01T08:00:00Z")
+	}
+	if _, ok := s.Fluids[sc.Fluid]; !ok {
+		d.failKey("schedule.fluid", "no such fluid; fluids: %s%s", fluidNames(s), suggest(sc.Fluid, slices.Sorted(maps.Keys(s.Fluids))))
+	}
+	switch {
+	case sc.Order == "list" && len(sc.Sequence) == 0:
+		d.failKey("schedule.sequence", `must list the stages as "WELL:STAGE" when schedule.order = "list"`)
+	case sc.Order != "list" && len(sc.Sequence) > 0:
+		d.failKey("schedule.sequence", `is used only when schedule.order = "list" (order is %q)`, sc.Order)
+	}
+	seen := map[string]bool{}
+	for i, name := range sc.Sequence {
+		p := fmt.Sprintf("schedule.sequence[%d]", i)
+		if _, _, err := s.findStage(name); err != nil {
+			d.failKey(p, "%v", err)
+		}
+		if seen[name] {
+			d.failKey(p, "the stage is listed twice")
+		}
+		seen[name] = true
+	}
+	if len(d.errs) > 0 {
+		return
+	}
+	for _, ps := range s.PumpingOrder() {
+		if ps.Volume == 0 && ps.Duration == 0 {
+			d.failKey(d.stageKey(ps)+".volume", "stage %s has no volume and no duration (set schedule.volume or schedule.duration, or the stage's own)", ps.Name)
+		}
+	}
+}
+
+func (d *decoder) stageKey(ps PlannedStage) string {
+	return fmt.Sprintf("wells[%d].stages[%d]", ps.Well, ps.Stage)
+}
+
+func (d *decoder) validateNumerics(s *Scenario) {
+	n := s.Numerics
+	if n.TimeStepMin > n.TimeStepInitial {
+		d.failKey("numerics.time_step_min", "must not exceed numerics.time_step_initial = %s", formatQuantity(n.TimeStepInitial, kindTime))
+	}
+	if n.TimeStepInitial > n.TimeStepMax {
+		d.failKey("numerics.time_step_initial", "must not exceed numerics.time_step_max = %s", formatQuantity(n.TimeStepMax, kindTime))
+	}
+	if len(d.errs) > 0 {
+		return
+	}
+	var total float64
+	for _, ps := range s.PumpingOrder() {
+		total += ps.NominalLength() + ps.ShutIn
+	}
+	if total > 0 && n.OutputInterval > total {
+		d.failKey("numerics.output_interval", "is longer than the whole schedule (%s at nominal rates)", formatQuantity(total, kindTime))
+	}
+}
