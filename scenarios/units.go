@@ -13,17 +13,17 @@ import (
 // sources: NIST Special Publication 811 (2008 edition), "Guide for the Use
 // of the International System of Units", Appendix B.8 and B.9.
 const (
-	foot       = 0.3048                 // m, exact (SP 811 B.8: foot)
-	inch       = 0.0254                 // m, exact (SP 811 B.8: inch)
-	poundForce = 4.4482216152605        // N, exact (SP 811 B.8: pound-force)
+	foot       = 0.3048                     // m, exact (SP 811 B.8: foot)
+	inch       = 0.0254                     // m, exact (SP 811 B.8: inch)
+	poundForce = 4.4482216152605            // N, exact (SP 811 B.8: pound-force)
 	psi        = poundForce / (inch * inch) // Pa = 6894.757293168 (SP 811 B.8: 6.894757 E+03)
-	usGallon   = 3.785411784e-3         // m³, exact (SP 811 B.8: gallon [U.S.])
-	oilBarrel  = 42 * usGallon          // m³ = 0.158987294928 (SP 811 B.8: barrel [for petroleum, 42 gallons (U.S.)] 1.589873 E-01)
-	centipoise = 1e-3                   // Pa·s (SP 811 B.8: centipoise 1.0 E-03)
-	minute     = 60.0                   // s
-	hour       = 3600.0                 // s
-	day        = 86400.0                // s
-	degree     = math.Pi / 180          // rad
+	usGallon   = 3.785411784e-3             // m³, exact (SP 811 B.8: gallon [U.S.])
+	oilBarrel  = 42 * usGallon              // m³ = 0.158987294928 (SP 811 B.8: barrel [for petroleum, 42 gallons (U.S.)] 1.589873 E-01)
+	centipoise = 1e-3                       // Pa·s (SP 811 B.8: centipoise 1.0 E-03)
+	minute     = 60.0                       // s
+	hour       = 3600.0                     // s
+	day        = 86400.0                    // s
+	degree     = math.Pi / 180              // rad
 )
 
 // unitKind is the physical dimension a scenario value must carry.
