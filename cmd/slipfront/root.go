@@ -1,0 +1,117 @@
+package main
+
+import (
+	"context"
+	"errors"
+	"fmt"
+	"io"
+
+	"github.com/spf13/cobra"
+
+	"slipfront/internal/outdir"
+	"slipfront/scenarios"
+)
+
+// Exit codes of the command line contract (DESIGN.md).
+const (
+	exitOK          = 0
+	exitFailure     = 1
+	exitBadInput    = 2
+	exitInterrupted = 130
+)
+
+// caution is printed with every result that could inform field work.
+const caution = "Caution: slipfront is a screening and comparison tool. Pump pressures, well integrity and " +
+	"induced-seismicity limits follow local regulation and licensed engineering practice."
+
+// inputError marks an error caused by the user's input (exit code 2).
+type inputError struct{ err error }
+
+func (e inputError) Error() string { return e.err.Error() }
+func (e inputError) Unwrap() error { return e.err }
+
+// badInput marks err as caused by the user's input; nil stays nil.
+func badInput(err error) error {
+	if err == nil {
+		return nil
+	}
+	return inputError{err}
+}
+
+// globalOptions are the flags shared by every command.
+type globalOptions struct {
+	quiet bool
+}
+
+// run executes the command line args and returns the process exit code.
+func run(ctx context.Context, args []string, stdout, stderr io.Writer) int {
+	var g globalOptions
+	started := false
+	root := &cobra.Command{
+		Use:           "slipfront",
+		Short:         "Stochastic fracture networks, injection-driven slip and stimulated-area maps",
+		Long:          "slipfront generates stochastic discrete fracture networks from fracture-set statistics,\nsimulates injection into the connected network (pressure diffusion, Mohr–Coulomb slip,\nshear dilation), and maps how the stimulated area grows.\n\n" + caution,
+		SilenceErrors: true,
+		SilenceUsage:  true,
+		PersistentPreRun: func(*cobra.Command, []string) {
+			started = true
+		},
+	}
+	root.SetOut(stdout)
+	root.SetErr(stderr)
+	root.SetArgs(args)
+	root.PersistentFlags().BoolVarP(&g.quiet, "quiet", "q", false, "print no progress or status lines")
+	root.AddCommand(
+		newVersionCmd(stdout),
+		newScenarioCmd(stdout),
+	)
+	err := root.ExecuteContext(ctx)
+	if err == nil {
+		return exitOK
+	}
+	fmt.Fprintln(stderr, "slipfront:", err)
+	switch {
+	case errors.Is(err, context.Canceled) || ctx.Err() != nil:
+		fmt.Fprintln(stderr, "slipfront: interrupted; files already written are kept")
+		return exitInterrupted
+	case !started, isInputError(err):
+		return exitBadInput
+	default:
+		return exitFailure
+	}
+}
+
+// isInputError reports whether err comes from the user's input: marked by
+// badInput, a scenario problem, or an existing output without --force.
+func isInputError(err error) bool {
+	var ie inputError
+	var fe *scenarios.FieldError
+	var fes scenarios.Errors
+	return errors.As(err, &ie) || errors.As(err, &fe) || errors.As(err, &fes) || errors.Is(err, outdir.ErrExists)
+}
+
+// scenarioOptions are the flags of every command that reads a scenario.
+type scenarioOptions struct {
+	sets []string
+	seed int64
+}
+
+func (o *scenarioOptions) addFlags(cmd *cobra.Command) {
+	cmd.Flags().StringArrayVar(&o.sets, "set", nil, "override a scenario value by its dotted key, with unit, e.g. --set fluids.slickwater.viscosity=20cP (repeatable)")
+	cmd.Flags().Int64Var(&o.seed, "seed", -1, "scenario seed (same as --set seed=N)")
+}
+
+// load reads the scenario at path (or an embedded example by name) with
+// the overrides applied.
+func (o *scenarioOptions) load(path string) (*scenarios.Scenario, error) {
+	sets := o.sets
+	if o.seed >= 0 {
+		sets = append(append([]string(nil), sets...), fmt.Sprintf("seed=%d", o.seed))
+	}
+	ov, err := scenarios.ParseOverrides(sets)
+	if err != nil {
+		return nil, badInput(err)
+	}
+	s, err := scenarios.Load(path, ov...)
+	return s, badInput(err)
+}
