@@ -53,9 +53,6 @@ func run(ctx context.Context, args []string, stdout, stderr io.Writer) int {
 		Long:          "slipfront generates stochastic discrete fracture networks from fracture-set statistics,\nsimulates injection into the connected network (pressure diffusion, Mohr–Coulomb slip,\nshear dilation), and maps how the stimulated area grows.\n\n" + caution,
 		SilenceErrors: true,
 		SilenceUsage:  true,
-		PersistentPreRun: func(*cobra.Command, []string) {
-			started = true
-		},
 	}
 	root.SetOut(stdout)
 	root.SetErr(stderr)
@@ -64,7 +61,10 @@ func run(ctx context.Context, args []string, stdout, stderr io.Writer) int {
 	root.AddCommand(
 		newVersionCmd(stdout),
 		newScenarioCmd(stdout),
+		newGenerateCmd(&g, stdout, stderr),
+		newScreenCmd(&g, stdout, stderr),
 	)
+	markStarted(root, &started)
 	err := root.ExecuteContext(ctx)
 	if err == nil {
 		return exitOK
@@ -78,6 +78,21 @@ func run(ctx context.Context, args []string, stdout, stderr io.Writer) int {
 		return exitBadInput
 	default:
 		return exitFailure
+	}
+}
+
+// markStarted wraps every command's RunE so that *started tells whether an
+// error came from the command itself or from cobra's checks of the command
+// line (unknown command, bad flag, missing argument: all bad input).
+func markStarted(c *cobra.Command, started *bool) {
+	if run := c.RunE; run != nil {
+		c.RunE = func(cmd *cobra.Command, args []string) error {
+			*started = true
+			return run(cmd, args)
+		}
+	}
+	for _, sub := range c.Commands() {
+		markStarted(sub, started)
 	}
 }
 

@@ -47,6 +47,10 @@ func WriteFile(dir, name string, write func(w io.Writer) error) error {
 		tmp.Close()
 		return fmt.Errorf("writing %s: %w", name, err)
 	}
+	if err := tmp.Chmod(0o644); err != nil {
+		tmp.Close()
+		return fmt.Errorf("writing %s: %w", name, err)
+	}
 	if err := tmp.Sync(); err != nil {
 		tmp.Close()
 		return fmt.Errorf("writing %s: %w", name, err)

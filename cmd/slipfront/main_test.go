@@ -1,0 +1,121 @@
+package main
+
+import (
+	"bytes"
+	"context"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+)
+
+// runCLI runs the command line in-process and returns the exit code and
+// both outputs.
+func runCLI(t *testing.T, args ...string) (code int, stdout, stderr string) {
+	t.Helper()
+	var out, errb bytes.Buffer
+	code = run(context.Background(), args, &out, &errb)
+	return code, out.String(), errb.String()
+}
+
+func TestExitCodes(t *testing.T) {
+	dir := t.TempDir()
+	tests := []struct {
+		name string
+		args []string
+		code int
+		want string // in stderr
+	}{
+		{"version", []string{"version"}, exitOK, ""},
+		{"unknown command", []string{"bogus"}, exitBadInput, "unknown command"},
+		{"missing flag", []string{"generate", "demo"}, exitBadInput, `"out" not set`},
+		{"bad override", []string{"scenario", "check", "demo", "--set", "sets[1].orientation.kappa=-3"}, exitBadInput, "--set sets[1].orientation.kappa=-3: must be > 0"},
+		{"unknown key", []string{"scenario", "check", "demo", "--set", "rock.fricton_static=0.5"}, exitBadInput, `did you mean "friction_static"?`},
+		{"missing file", []string{"scenario", "check", filepath.Join(dir, "none.toml")}, exitBadInput, "no such file"},
+		{"too many fractures", []string{"generate", "demo", "--set", "numerics.max_fractures=10", "--out", filepath.Join(dir, "cap")}, exitBadInput, "max_fractures"},
+		{"check ok", []string{"scenario", "check", "demo"}, exitOK, ""},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			code, _, stderr := runCLI(t, tc.args...)
+			if code != tc.code || !strings.Contains(stderr, tc.want) {
+				t.Errorf("exit %d, stderr %q; want exit %d and %q", code, stderr, tc.code, tc.want)
+			}
+		})
+	}
+}
+
+func TestTemplateAndShow(t *testing.T) {
+	code, out, _ := runCLI(t, "scenario", "template")
+	if code != exitOK || !strings.Contains(out, "[numerics]") || !strings.Contains(out, "Caution") {
+		t.Errorf("template: exit %d, output %.200q", code, out)
+	}
+	code, out, _ = runCLI(t, "scenario", "show", "demo")
+	if code != exitOK || !strings.Contains(out, `name = "Demo pad (invented)"`) {
+		t.Errorf("show demo: exit %d", code)
+	}
+}
+
+// TestGenerateDeterministic: same scenario and seed → byte-identical files
+// (issue 2); another seed → a different network.
+func TestGenerateDeterministic(t *testing.T) {
+	dir := t.TempDir()
+	read := func(sub string) map[string][]byte {
+		files := map[string][]byte{}
+		for _, name := range []string{"fractures.csv", "traces.csv", "network.json"} {
+			b, err := os.ReadFile(filepath.Join(dir, sub, name))
+			if err != nil {
+				t.Fatal(err)
+			}
+			files[name] = b
+		}
+		return files
+	}
+	for _, sub := range []string{"a", "b"} {
+		if code, _, stderr := runCLI(t, "generate", "demo", "--seed", "11", "--out", filepath.Join(dir, sub)); code != exitOK {
+			t.Fatalf("generate: exit %d: %s", code, stderr)
+		}
+	}
+	a, b := read("a"), read("b")
+	for name := range a {
+		if !bytes.Equal(a[name], b[name]) {
+			t.Errorf("%s differs between two runs with the same seed", name)
+		}
+	}
+	runCLI(t, "generate", "demo", "--seed", "12", "--out", filepath.Join(dir, "c"))
+	if bytes.Equal(a["fractures.csv"], read("c")["fractures.csv"]) {
+		t.Error("seed 12 gave the same fractures as seed 11")
+	}
+	// The output folder is not overwritten without --force.
+	code, _, stderr := runCLI(t, "generate", "demo", "--seed", "11", "--out", filepath.Join(dir, "a"))
+	if code != exitBadInput || !strings.Contains(stderr, "--force") {
+		t.Errorf("rewrite without --force: exit %d, %q", code, stderr)
+	}
+	if code, _, _ := runCLI(t, "generate", "demo", "--seed", "11", "--force", "--out", filepath.Join(dir, "a")); code != exitOK {
+		t.Errorf("rewrite with --force: exit %d", code)
+	}
+}
+
+func TestScreen(t *testing.T) {
+	dir := t.TempDir()
+	code, out, stderr := runCLI(t, "screen", "demo", "--out", dir)
+	if code != exitOK {
+		t.Fatalf("exit %d: %s", code, stderr)
+	}
+	if !strings.Contains(out, "strike-slip") || !strings.Contains(out, "Caution") {
+		t.Errorf("summary lacks the regime or the caution:\n%s", out)
+	}
+	csv, err := os.ReadFile(filepath.Join(dir, "screen.csv"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	const header = "fracture_id,set,dip_deg,dip_direction_deg,sigma_n_MPa,tau_MPa,slip_tendency,dilation_tendency,critical_dp_MPa"
+	if !strings.HasPrefix(string(csv), header) {
+		t.Errorf("screen.csv header %.120q, want it to start with %q", csv, header)
+	}
+	for _, name := range []string{"screen.json", "slip-vs-dp.csv"} {
+		if _, err := os.Stat(filepath.Join(dir, name)); err != nil {
+			t.Error(err)
+		}
+	}
+}
