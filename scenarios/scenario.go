@@ -140,8 +140,8 @@ type Intensity struct {
 	// LineTrend and LinePlunge orient the P10 line, radians.
 	LineTrend  float64 `toml:"line_trend" unit:"azimuth" range:"[0,360]" default:"90 deg" doc:"p10: trend of the measuring line (a well lateral or scanline)"`
 	LinePlunge float64 `toml:"line_plunge" unit:"angle" range:"[-90,90]" default:"0 deg" doc:"p10: plunge of the measuring line, positive down"`
-	// Count of fractures in the generation box.
-	Count int `toml:"count" range:"[1,inf)" default:"100" doc:"count: number of fractures in the generation box"`
+	// Count of the set's fractures that can reach the map × layer volume.
+	Count int `toml:"count" range:"[1,inf)" default:"100" doc:"count: number of the set's fractures that can reach the map area and layer"`
 }
 
 // KnownFractures points to mapped faults or fractures added as they are.
