@@ -1,0 +1,145 @@
+package gis_test
+
+import (
+	"bytes"
+	"context"
+	"fmt"
+	"log"
+	"os"
+	"path/filepath"
+	"strings"
+	"time"
+
+	"github.com/paulmach/orb"
+
+	"slipfront/gis"
+)
+
+func ExampleParseCRS() {
+	crs, err := gis.ParseCRS("EPSG:32614")
+	if err != nil {
+		log.Fatal(err)
+	}
+	fmt.Println(crs, "is", crs.Name())
+	// Output: EPSG:32614 is WGS 84 / UTM zone 14N
+}
+
+func ExamplePlacement_Geographic() {
+	pl := gis.Placement{CRS: gis.CRS{EPSG: 32614}, Easting: 500000, Northing: 3500000}
+	geo, err := pl.Geographic()
+	if err != nil {
+		log.Fatal(err)
+	}
+	ll := geo.LonLat(orb.Point{0, 0})
+	// PROJ's cs2cs gives -99.0000000000 31.6351862200 for this point.
+	fmt.Printf("lon %.7f, lat %.7f\n", ll[0], ll[1])
+
+	_, err = gis.Placement{CRS: gis.CRS{EPSG: 2056}}.Geographic()
+	fmt.Println(err != nil)
+	// Output:
+	// lon -99.0000000, lat 31.6351862
+	// true
+}
+
+func ExampleOutline() {
+	// A 3×3 block of 10 m cells with its centre cell missing.
+	g := gis.Grid{Cols: 3, Rows: 3, CellSize: 10}
+	mask := []bool{
+		true, true, true, // south row
+		true, false, true,
+		true, true, true, // north row
+	}
+	mp, err := gis.Outline(g, mask)
+	if err != nil {
+		log.Fatal(err)
+	}
+	fmt.Println(len(mp), "polygon with", len(mp[0])-1, "hole")
+	fmt.Println("exterior:", mp[0][0])
+	fmt.Println("hole:", mp[0][1])
+	// Output:
+	// 1 polygon with 1 hole
+	// exterior: [[0 0] [30 0] [30 30] [0 30] [0 0]]
+	// hole: [[10 10] [10 20] [20 20] [20 10] [10 10]]
+}
+
+func ExampleWriteGeoJSON() {
+	pl := gis.Placement{CRS: gis.CRS{EPSG: 32614}, Easting: 500000, Northing: 3500000}
+	layer := gis.Layer{
+		Name:     "wells",
+		Geometry: gis.Point,
+		Fields:   []gis.Field{{Name: "name", Type: gis.Text}},
+		Features: []gis.Feature{{Geometry: orb.Point{0, 0}, Values: []any{"W-1"}}},
+	}
+	if err := gis.WriteGeoJSON(os.Stdout, pl, layer, nil); err != nil {
+		log.Fatal(err)
+	}
+	// Output:
+	// {"type":"FeatureCollection","name":"wells","features":[
+	// {"type":"Feature","properties":{"name":"W-1"},"geometry":{"type":"Point","coordinates":[-99,31.6351862]}}
+	// ]}
+}
+
+func ExampleWriteGeoPackage() {
+	dir, err := os.MkdirTemp("", "gis-example")
+	if err != nil {
+		log.Fatal(err)
+	}
+	defer os.RemoveAll(dir)
+	layers := []gis.Layer{{
+		Name:     "traces",
+		Geometry: gis.LineString,
+		Fields:   []gis.Field{{Name: "slip_m", Type: gis.Real}},
+		Features: []gis.Feature{{Geometry: orb.LineString{{-50, 0}, {50, 10}}, Values: []any{0.002}}},
+	}}
+	pl := gis.Placement{CRS: gis.CRS{EPSG: 32614}, Easting: 500000, Northing: 3500000}
+	// Write to a temporary name, then rename: the file appears complete.
+	tmp := filepath.Join(dir, "maps.gpkg.tmp")
+	if err := gis.WriteGeoPackage(context.Background(), tmp, pl, layers, nil); err != nil {
+		log.Fatal(err)
+	}
+	if err := os.Rename(tmp, filepath.Join(dir, "maps.gpkg")); err != nil {
+		log.Fatal(err)
+	}
+	fmt.Println("written")
+	// Output: written
+}
+
+func ExampleWriteGeoTIFF() {
+	r := gis.Raster{
+		Grid:   gis.Grid{Cols: 4, Rows: 3, CellSize: 25, XMin: -50, YMin: -25},
+		Data:   make([]float32, 12), // row 0 is the south row
+		NoData: -9999,
+	}
+	var buf bytes.Buffer
+	pl := gis.Placement{CRS: gis.CRS{EPSG: 32614}, Easting: 500000, Northing: 3500000}
+	if err := gis.WriteGeoTIFF(&buf, pl, r); err != nil {
+		log.Fatal(err)
+	}
+	fmt.Printf("%q, %d bytes\n", buf.Bytes()[:4], buf.Len())
+	// Output: "II*\x00", 352 bytes
+}
+
+func ExampleWriteQuakeML() {
+	pl := gis.Placement{CRS: gis.CRS{EPSG: 32614}, Easting: 500000, Northing: 3500000}
+	cat := gis.Catalog{
+		ID:     "run-0001",
+		Start:  time.Date(2030, 1, 1, 0, 0, 0, 0, time.UTC),
+		Events: []gis.Event{{Time: 3.25, Depth: 2500, Magnitude: -1.2}},
+	}
+	var buf bytes.Buffer
+	if err := gis.WriteQuakeML(&buf, pl, cat); err != nil {
+		log.Fatal(err)
+	}
+	for _, line := range strings.Split(buf.String(), "\n") {
+		if strings.Contains(line, "<value>") || strings.Contains(line, "<event ") {
+			fmt.Println(strings.TrimSpace(line))
+		}
+	}
+	// Output:
+	// <event publicID="smi:local/run-0001/event/1">
+	// <value>2030-01-01T00:00:03.250000Z</value>
+	// <value>31.63518622</value>
+	// <value>-99</value>
+	// <value>2500</value>
+	// <value>-1.2</value>
+}
