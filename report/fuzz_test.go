@@ -1,0 +1,78 @@
+package report
+
+import (
+	"bytes"
+	"image/png"
+	"math"
+	"testing"
+)
+
+// fuzzSize is the smallest accepted picture, to keep each fuzz run cheap.
+var fuzzSize = Size{Width: MinWidth, Height: MinHeight}
+
+// checkFuzzOutput requires that a successful write produced a decodable
+// PNG of fuzzSize.
+func checkFuzzOutput(t *testing.T, err error, buf *bytes.Buffer) {
+	t.Helper()
+	if err != nil {
+		if buf.Len() != 0 {
+			t.Fatalf("error %v after writing %d bytes", err, buf.Len())
+		}
+		return
+	}
+	cfg, err := png.DecodeConfig(buf)
+	if err != nil {
+		t.Fatalf("output is not a PNG: %v", err)
+	}
+	if cfg.Width != fuzzSize.Width || cfg.Height != fuzzSize.Height {
+		t.Fatalf("PNG is %d×%d, want %d×%d", cfg.Width, cfg.Height, fuzzSize.Width, fuzzSize.Height)
+	}
+}
+
+// FuzzMap draws maps from arbitrary numbers: any input must give either an
+// error or a valid PNG, never a panic.
+func FuzzMap(f *testing.F) {
+	nan, inf := math.NaN(), math.Inf(1)
+	f.Add(0.0, 0.0, 100.0, 100.0, 1.0, -1.0, 0.0, 0.0, 0.0, 0.0)
+	f.Add(-5.0, 3.0, 5.0, 3.0, nan, 2.0, -10.0, 10.0, -10.0, 10.0)
+	f.Add(1e300, -1e300, 1e-300, 0.0, 5.0, 0.0, 0.0, 0.0, 0.0, 0.0)
+	f.Add(0.0, 0.0, 0.0, 0.0, inf, nan, 0.0, 1.0, 0.0, 1.0)
+	f.Add(0.0, 0.0, 1.0, 1.0, 0.5, -9.0, 0.0, 0.01, 0.0, 1e7)
+	f.Add(1e6, 1e6, -1e6, -1e6, 1e12, 9.5, -1e3, 1e3, -2.0, 2.0)
+	f.Fuzz(func(t *testing.T, ax, ay, bx, by, value, mw, minE, maxE, minN, maxN float64) {
+		m := &Map{
+			Extent:   Extent{MinEast: minE, MaxEast: maxE, MinNorth: minN, MaxNorth: maxN},
+			Colour:   ColourScale{Label: "v", Unit: "u"},
+			Traces:   []Trace{{A: Point{ax, ay}, B: Point{bx, by}, Value: value}, {A: Point{bx, ay}, B: Point{ax, by}, Value: value / 2}},
+			Wells:    []Well{{Name: "W", Path: []Point{{ax, ay}, {bx, by}}}},
+			Clusters: []Cluster{{At: Point{(ax + bx) / 2, (ay + by) / 2}, Stage: "S"}},
+			Events:   []Event{{At: Point{ax, by}, Magnitude: mw}},
+			Outline:  []Polygon{{{{ax, ay}, {bx, ay}, {bx, by}}}},
+		}
+		var buf bytes.Buffer
+		checkFuzzOutput(t, m.WritePNG(&buf, fuzzSize), &buf)
+	})
+}
+
+// FuzzCharts draws the three charts from arbitrary numbers.
+func FuzzCharts(f *testing.F) {
+	f.Add(0.0, 3600.0, 0.0, 1e5, 1e6, 2e6)
+	f.Add(0.0, 0.0, 0.0, 0.0, 0.0, 0.0)
+	f.Add(-1e300, 1e300, -1.0, 1e300, math.NaN(), 5.0)
+	f.Add(10.0, 5.0, 1.0, 2.0, 3.0, 4.0)
+	f.Add(0.0, 1e-300, 1e-300, 2e-300, 3e-300, 4e-300)
+	f.Fuzz(func(t *testing.T, t0, t1, a0, a1, a2, p float64) {
+		times := []float64{t0, t1}
+		g := &Growth{Time: times, Area: []float64{a0, a1}, Pressure: []float64{p, a2}, Stages: []StageMark{{"S", t1}}}
+		var buf bytes.Buffer
+		checkFuzzOutput(t, g.WritePNG(&buf, fuzzSize), &buf)
+
+		fan := &Fan{Convention: "c", Time: times, P10: []float64{a0, a0}, P50: []float64{a1, a1}, P90: []float64{a2, a2}, Mean: []float64{p, p}}
+		buf.Reset()
+		checkFuzzOutput(t, fan.WritePNG(&buf, fuzzSize), &buf)
+
+		c := &Comparison{Convention: "c", Categories: []string{"x", "y"}, P10: []float64{a0, a0}, P50: []float64{a1, a1}, P90: []float64{a2, a2}, Mean: []float64{p, p}}
+		buf.Reset()
+		checkFuzzOutput(t, c.WritePNG(&buf, fuzzSize), &buf)
+	})
+}

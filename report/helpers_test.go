@@ -1,0 +1,205 @@
+package report
+
+import (
+	"bytes"
+	"image"
+	"image/color"
+	"image/draw"
+	"image/png"
+	"io"
+	"math"
+	"math/rand/v2"
+	"testing"
+)
+
+// demoMap returns an invented map scene (no real place): one horizontal
+// well along North = 0 with four stages of three clusters, n random traces
+// coloured by a first-slip time that grows with distance from the well's
+// middle, events on the slipped traces and an elliptical outline.
+func demoMap(n int) *Map {
+	rng := rand.New(rand.NewPCG(1, 2))
+	m := &Map{
+		Title:   "Demo scenario — realization 0",
+		Extent:  Extent{MinEast: -1000, MaxEast: 1000, MinNorth: -700, MaxNorth: 700},
+		CRSNote: "Local frame: origin at E 500000 m, N 3500000 m of EPSG:32614 (grid north up)",
+		Colour:  ColourScale{Label: "First slip time", Unit: "h", NoValue: "Never slipped"},
+		Wells:   []Well{{Name: "Well A", Path: []Point{{-900, 0}, {900, 0}}}},
+	}
+	stages := []string{"Stage 1", "Stage 2", "Stage 3", "Stage 4"}
+	for i, s := range stages {
+		for j := range 3 {
+			m.Clusters = append(m.Clusters, Cluster{At: Point{East: 600 - 400*float64(i) - 60*float64(j), North: 0}, Stage: s})
+		}
+	}
+	const strike = 75 * math.Pi / 180 // Trace azimuth, radians from north.
+	for range n {
+		c := Point{East: -1000 + 2000*rng.Float64(), North: -700 + 1400*rng.Float64()}
+		half := 20 + 60*rng.Float64()
+		az := strike + 0.3*rng.NormFloat64()
+		d := Point{East: half * math.Sin(az), North: half * math.Cos(az)}
+		t := Trace{A: Point{c.East - d.East, c.North - d.North}, B: Point{c.East + d.East, c.North + d.North}, Value: math.NaN()}
+		// Slipped inside the ellipse (x/700)² + (y/300)² < 1.
+		if r := math.Hypot(c.East/700, c.North/300); r < 1 {
+			t.Value = 0.5 + 5*r
+			m.Events = append(m.Events, Event{At: c, Magnitude: -2.3 + 2.2*rng.Float64()})
+		}
+		m.Traces = append(m.Traces, t)
+	}
+	ring := make([]Point, 0, 64)
+	for k := range 64 {
+		a := 2 * math.Pi * float64(k) / 64
+		ring = append(ring, Point{East: 700 * math.Cos(a), North: 300 * math.Sin(a)})
+	}
+	m.Outline = []Polygon{{ring}}
+	return m
+}
+
+// demoGrowth returns an invented growth history: four stages of 2 h with
+// 1 h pauses, area growing like √t within each stage, pressure rising
+// while pumping and falling between stages.
+func demoGrowth() *Growth {
+	g := &Growth{Title: "Demo scenario — stimulated area"}
+	const stage, pause = 7200.0, 3600.0 // s
+	area := 0.0
+	for k := range 4 {
+		t0 := float64(k) * (stage + pause)
+		g.Stages = append(g.Stages, StageMark{Name: []string{"Stage 1", "Stage 2", "Stage 3", "Stage 4"}[k], Start: t0})
+		base := area
+		for i := 0; i <= 30; i++ {
+			t := t0 + stage*float64(i)/30
+			area = base + 6e4*math.Sqrt(float64(i)/30)
+			g.Time = append(g.Time, t)
+			g.Area = append(g.Area, area)
+			g.Pressure = append(g.Pressure, 40e6+8e6*math.Sqrt(float64(i)/30))
+		}
+		for i := 1; i <= 10; i++ {
+			g.Time = append(g.Time, t0+stage+pause*float64(i)/10)
+			g.Area = append(g.Area, area)
+			g.Pressure = append(g.Pressure, 40e6+8e6*math.Exp(-float64(i)/3))
+		}
+	}
+	return g
+}
+
+// demoFan returns an invented fan: percentiles of an area growing like √t.
+func demoFan() *Fan {
+	f := &Fan{
+		Title:      "Demo batch — viscosity 5 cP — stimulated area",
+		Convention: "P10/P50/P90 = 10th/50th/90th percentile of 50 realizations, ascending",
+		Stages:     []StageMark{{"Stage 1", 0}, {"Stage 2", 3 * 3600}},
+	}
+	for i := 0; i <= 60; i++ {
+		t := float64(i) * 360
+		a := 2e5 * math.Sqrt(float64(i)/60)
+		f.Time = append(f.Time, t)
+		f.P10 = append(f.P10, 0.6*a)
+		f.P50 = append(f.P50, a)
+		f.P90 = append(f.P90, 1.5*a)
+		f.Mean = append(f.Mean, 1.05*a)
+	}
+	return f
+}
+
+// demoComparison returns an invented comparison over three viscosities.
+func demoComparison() *Comparison {
+	return &Comparison{
+		Title:      "Demo batch — final stimulated area by fluid viscosity",
+		Convention: "P10/P50/P90 = 10th/50th/90th percentile of 50 realizations, ascending",
+		Sweep:      "Fluid viscosity",
+		Categories: []string{"1 cP", "5 cP", "20 cP"},
+		P10:        []float64{1.2e5, 0.9e5, 0.5e5},
+		P50:        []float64{2.0e5, 1.5e5, 0.9e5},
+		P90:        []float64{3.1e5, 2.4e5, 1.6e5},
+		Mean:       []float64{2.1e5, 1.6e5, 1.0e5},
+	}
+}
+
+// decodePNG renders w at size s and decodes the PNG, failing the test on
+// any error.
+func decodePNG(t testing.TB, w interface {
+	WritePNG(io.Writer, Size) error
+}, s Size) image.Image {
+	t.Helper()
+	var buf bytes.Buffer
+	if err := w.WritePNG(&buf, s); err != nil {
+		t.Fatalf("WritePNG: %v", err)
+	}
+	img, err := png.Decode(&buf)
+	if err != nil {
+		t.Fatalf("png.Decode: %v", err)
+	}
+	return img
+}
+
+// nrgbaAt returns the colour of pixel (x, y) as 8-bit NRGBA.
+func nrgbaAt(img image.Image, x, y int) color.NRGBA {
+	return color.NRGBAModel.Convert(img.At(x, y)).(color.NRGBA)
+}
+
+// toNRGBA returns img as *image.NRGBA, converting when needed.
+func toNRGBA(img image.Image) *image.NRGBA {
+	if n, ok := img.(*image.NRGBA); ok {
+		return n
+	}
+	b := img.Bounds()
+	n := image.NewNRGBA(b)
+	draw.Draw(n, b, img, b.Min, draw.Src)
+	return n
+}
+
+// eachPixel calls fn with every pixel's colour.
+func eachPixel(img image.Image, fn func(c color.NRGBA)) {
+	n := toNRGBA(img)
+	for i := 0; i+3 < len(n.Pix); i += 4 {
+		fn(color.NRGBA{n.Pix[i], n.Pix[i+1], n.Pix[i+2], n.Pix[i+3]})
+	}
+}
+
+// pixelStats returns the share of pixels that are not the white background
+// and the number of distinct colours.
+func pixelStats(img image.Image) (inked float64, distinct int) {
+	seen := map[color.NRGBA]struct{}{}
+	n, total := 0, 0
+	eachPixel(img, func(c color.NRGBA) {
+		total++
+		if c != (color.NRGBA{255, 255, 255, 255}) {
+			n++
+			seen[c] = struct{}{}
+		}
+	})
+	return float64(n) / float64(total), len(seen) + 1 // + white.
+}
+
+// countNear returns the number of pixels within tol (per 8-bit channel) of
+// want.
+func countNear(img image.Image, want color.NRGBA, tol int) int {
+	n := 0
+	eachPixel(img, func(c color.NRGBA) {
+		if near(c, want, tol) {
+			n++
+		}
+	})
+	return n
+}
+
+// near reports whether a and b differ by at most tol in every channel.
+func near(a, b color.NRGBA, tol int) bool {
+	d := func(p, q uint8) int { return max(int(p)-int(q), int(q)-int(p)) }
+	return d(a.R, b.R) <= tol && d(a.G, b.G) <= tol && d(a.B, b.B) <= tol && d(a.A, b.A) <= tol
+}
+
+// checkPicture fails the test unless img has size s, at least minInked of
+// its pixels drawn and at least minColours distinct colours.
+func checkPicture(t *testing.T, img image.Image, s Size, minInked float64, minColours int) {
+	t.Helper()
+	if b := img.Bounds(); b.Dx() != s.Width || b.Dy() != s.Height {
+		t.Errorf("size = %d×%d px, want %d×%d", b.Dx(), b.Dy(), s.Width, s.Height)
+	}
+	inked, distinct := pixelStats(img)
+	if inked < minInked {
+		t.Errorf("drawn share = %.4f, want ≥ %.4f (picture nearly blank)", inked, minInked)
+	}
+	if distinct < minColours {
+		t.Errorf("distinct colours = %d, want ≥ %d", distinct, minColours)
+	}
+}
