@@ -1,0 +1,109 @@
+package batch
+
+import (
+	"errors"
+	"fmt"
+)
+
+// ErrInput marks errors caused by bad input: options, sweep or shard
+// syntax, scenario values, or folders that do not belong together. A
+// command maps errors.Is(err, ErrInput) to exit code 2.
+var ErrInput = errors.New("bad input")
+
+// ErrFormat marks a result or probability-grid file that is not in the
+// expected format (corrupt, cut, or not such a file).
+var ErrFormat = errors.New("malformed batch file")
+
+// InputError is a bad-input error. It wraps the underlying error (for
+// example a scenarios.Errors from loading a sweep value), and matches
+// ErrInput under errors.Is.
+type InputError struct {
+	// Msg says what is wrong and what is allowed.
+	Msg string
+	// Err is the underlying error, or nil.
+	Err error
+}
+
+func (e *InputError) Error() string {
+	switch {
+	case e.Err == nil:
+		return "batch: " + e.Msg
+	case e.Msg == "":
+		return "batch: " + e.Err.Error()
+	}
+	return "batch: " + e.Msg + ": " + e.Err.Error()
+}
+
+// Unwrap returns the underlying error.
+func (e *InputError) Unwrap() error { return e.Err }
+
+// Is reports whether target is ErrInput.
+func (e *InputError) Is(target error) bool { return target == ErrInput }
+
+func inputErrorf(format string, args ...any) error {
+	return &InputError{Msg: fmt.Sprintf(format, args...)}
+}
+
+// MismatchError is returned when a folder's manifest differs from the batch
+// being resumed or the folders being merged. It matches ErrInput.
+type MismatchError struct {
+	// Field names the first difference, e.g. "scenario digest" or
+	// "cases[1].label".
+	Field string
+	// Want is the value in the reference (the batch being run, or the
+	// first folder of a merge) and Got the value in Dir.
+	Want, Got string
+	// WantFrom and Dir say where each value came from.
+	WantFrom, Dir string
+}
+
+func (e *MismatchError) Error() string {
+	return fmt.Sprintf("batch: %s does not match %s: %s is %s there but %s in %s",
+		e.Dir, e.WantFrom, e.Field, e.Got, e.Want, e.WantFrom)
+}
+
+// Is reports whether target is ErrInput.
+func (e *MismatchError) Is(target error) bool { return target == ErrInput }
+
+// FormatError is a malformed file: what is wrong and at which byte offset
+// (or line, for text files) it was found. It matches ErrFormat.
+type FormatError struct {
+	// What names the file kind, e.g. "result file".
+	What string
+	// Offset is the byte offset for binary files; -1 when not known.
+	Offset int64
+	// Line is the 1-based line for text files; 0 when not applicable.
+	Line int
+	// Msg says what is wrong.
+	Msg string
+}
+
+func (e *FormatError) Error() string {
+	switch {
+	case e.Line > 0:
+		return fmt.Sprintf("batch: %s line %d: %s", e.What, e.Line, e.Msg)
+	case e.Offset >= 0:
+		return fmt.Sprintf("batch: %s at byte %d: %s", e.What, e.Offset, e.Msg)
+	}
+	return fmt.Sprintf("batch: %s: %s", e.What, e.Msg)
+}
+
+// Is reports whether target is ErrFormat.
+func (e *FormatError) Is(target error) bool { return target == ErrFormat }
+
+// UnsupportedError is a file written by a newer format version than this
+// program reads. It matches ErrFormat.
+type UnsupportedError struct {
+	// What names the file kind; Version is the version found and Max the
+	// newest this program reads.
+	What         string
+	Version, Max int
+}
+
+func (e *UnsupportedError) Error() string {
+	return fmt.Sprintf("batch: %s format version %d is newer than this program reads (up to %d); update slipfront",
+		e.What, e.Version, e.Max)
+}
+
+// Is reports whether target is ErrFormat.
+func (e *UnsupportedError) Is(target error) bool { return target == ErrFormat }

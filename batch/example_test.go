@@ -1,0 +1,112 @@
+package batch_test
+
+import (
+	"context"
+	"fmt"
+	"math"
+	"os"
+	"path/filepath"
+	"strings"
+
+	"slipfront/batch"
+	"slipfront/scenarios"
+)
+
+func ExampleParseSweep() {
+	visc, _ := batch.ParseSweep("fluids.slickwater.viscosity=1 cP,20 cP")
+	rate, _ := batch.ParseSweep("schedule.rate=6 bbl/min,8 bbl/min")
+	for _, c := range batch.Cases([]batch.Sweep{visc, rate}) {
+		fmt.Println(c.Index, c.Label())
+	}
+	// Output:
+	// 0 fluids.slickwater.viscosity=1 cP, schedule.rate=6 bbl/min
+	// 1 fluids.slickwater.viscosity=1 cP, schedule.rate=8 bbl/min
+	// 2 fluids.slickwater.viscosity=20 cP, schedule.rate=6 bbl/min
+	// 3 fluids.slickwater.viscosity=20 cP, schedule.rate=8 bbl/min
+}
+
+func ExampleParseShard() {
+	s, _ := batch.ParseShard("1/4")
+	var owned []int
+	for r := range 10 {
+		if s.Owns(r) {
+			owned = append(owned, r)
+		}
+	}
+	fmt.Println(s, owned)
+	_, err := batch.ParseShard("4/4")
+	fmt.Println(err)
+	// Output:
+	// 1/4 [1 5 9]
+	// batch: --shard 4/4: the shard index must be 0 to 3 (shards are numbered from 0)
+}
+
+func ExampleGridFor() {
+	s, err := scenarios.LoadExample("demo")
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	// The demo's domain is x −800…800 m, y −500…500 m with 10 m cells:
+	// 160 × 100. (15, −125) is column ⌊815/10⌋ = 81, row ⌊375/10⌋ = 37,
+	// index 37·160 + 81 = 6001. Its six stages of 300 bbl at 8 bbl/min
+	// (2250 s) and 20 min shut-ins last 6 × 3450 s = 20700 s: 69 intervals
+	// of 5 min, 70 times.
+	g, _ := batch.GridFor(s)
+	i, _ := g.CellAt(15, -125)
+	col, row := g.ColRow(i)
+	fmt.Printf("%d × %d cells of %g m; (15, -125) is cell %d: column %d, row %d\n", g.Cols, g.Rows, g.CellSize, i, col, row)
+	tg, _ := batch.TimeGridFor(s)
+	fmt.Printf("%d times, every %g s\n", tg.Points, tg.Interval)
+	// Output:
+	// 160 × 100 cells of 10 m; (15, -125) is cell 6001: column 81, row 37
+	// 70 times, every 300 s
+}
+
+func ExampleSummarize() {
+	s := batch.Summarize([]float64{70, 10, 40, 30, 20, 60, 50})
+	fmt.Printf("P10 %g, P50 %g, P90 %g, mean %g, sample std %.4g\n", s.P10, s.P50, s.P90, s.Mean, s.Std)
+	// Output:
+	// P10 10, P50 40, P90 70, mean 40, sample std 21.6
+}
+
+// A batch with a stand-in runner: two viscosities × three realizations.
+func ExampleRun() {
+	dir, _ := os.MkdirTemp("", "batch-example-")
+	defer os.RemoveAll(dir)
+	visc, _ := batch.ParseSweep("fluids.slickwater.viscosity=1 cP,20 cP")
+	run := func(ctx context.Context, s *scenarios.Scenario, r int) (*batch.Outcome, error) {
+		// A real runner generates network r and simulates the schedule.
+		// Here the area is 1000, 2000, 3000 m² at 1 cP, divided by the
+		// viscosity in cP; P50 is the 2nd of 3 values (rank ⌈1.5⌉) and P90
+		// the 3rd (rank ⌈2.7⌉).
+		area := 1000 * float64(r+1) / (s.Fluids["slickwater"].Viscosity * 1e3)
+		return &batch.Outcome{
+			NetworkDigest: fmt.Sprintf("net-%d", r), FinalArea: area, FractureArea: 2 * area,
+			MaxMagnitude: math.NaN(), PeakPressure: 40e6, InjectedVolume: 32,
+			Times: []float64{0, 3600}, Areas: []float64{0, area}, Cells: []int{r},
+		}, nil
+	}
+	sum, err := batch.Run(context.Background(), batch.Options{
+		Load: func(extra ...scenarios.Override) (*scenarios.Scenario, error) {
+			return scenarios.LoadExample("demo", extra...)
+		},
+		Realizations: 3, Sweeps: []batch.Sweep{visc}, Workers: 2, Out: dir, Run: run,
+	})
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	fmt.Println(sum.Ran, "results, aggregated:", sum.Aggregated)
+	b, _ := os.ReadFile(filepath.Join(dir, batch.ComparisonName))
+	for _, line := range strings.Split(string(b), "\n") {
+		if f := strings.Split(line, ","); len(f) > 6 && !strings.HasPrefix(line, "#") {
+			fmt.Println(strings.Join(f[:6], ","))
+		}
+	}
+	// Output:
+	// 6 results, aggregated: true
+	// case,fluids.slickwater.viscosity,realizations,p10_final_area_m2,p50_final_area_m2,p90_final_area_m2
+	// 0,1 cP,3,1000,2000,3000
+	// 1,20 cP,3,50,100,150
+}

@@ -1,0 +1,357 @@
+package batch
+
+import (
+	"context"
+	"errors"
+	"fmt"
+	"io"
+	"io/fs"
+	"os"
+	"path/filepath"
+	"runtime"
+	"sync"
+	"time"
+
+	"slipfront/internal/outdir"
+	"slipfront/internal/version"
+	"slipfront/scenarios"
+)
+
+// Options configure a batch.
+type Options struct {
+	// Load returns the scenario with the given overrides applied after the
+	// base ones, e.g.
+	//
+	//	func(extra ...scenarios.Override) (*scenarios.Scenario, error) {
+	//		return scenarios.Load(path, append(slices.Clone(sets), extra...)...)
+	//	}
+	//
+	// It is called once for the base scenario, once per sweep value to
+	// check it, and once per case and realization (concurrently), so the
+	// runner always gets its own copy. It must be safe for concurrent use.
+	Load func(extra ...scenarios.Override) (*scenarios.Scenario, error)
+	// Realizations per case, ≥ 1.
+	Realizations int
+	// Sweeps form cases by their full product (see Case for the order).
+	Sweeps []Sweep
+	// Workers running realizations at once; 0 means runtime.NumCPU().
+	Workers int
+	// Shard of the realizations to run; the zero Shard runs them all.
+	Shard Shard
+	// Out is the batch folder.
+	Out string
+	// Resume continues the batch in Out: results already there and valid
+	// are kept. Out must hold the same batch (manifest), or nothing.
+	Resume bool
+	// Force starts over in an Out that holds files: an earlier batch's
+	// results, aggregates and manifest are deleted first.
+	Force bool
+	// Run computes one realization of one case.
+	Run RunFunc
+	// Progress receives progress reports; nil for none. IsTerminal selects
+	// a redrawn bar with rate and time left; otherwise plain lines are
+	// written at each tenth of the work and at least every
+	// ProgressInterval (default 30 s).
+	Progress         io.Writer
+	IsTerminal       bool
+	ProgressInterval time.Duration
+	// Hooks are for tests.
+	Hooks Hooks
+}
+
+// Hooks observe a batch from tests.
+type Hooks struct {
+	// AfterResult is called after each result file of this run is
+	// committed, with the number committed so far; calls are serialized.
+	AfterResult func(done int)
+	// ReadResult is called with the path of every result file just before
+	// it is read.
+	ReadResult func(path string)
+}
+
+// Summary reports what Run did.
+type Summary struct {
+	// Cases and Realizations of the batch.
+	Cases, Realizations int
+	// Shard that ran and Owned, its number of (case, realization) results.
+	Shard Shard
+	Owned int
+	// Resumed results were found valid and kept; Redone were present but
+	// unreadable and ran again; Ran were computed now (including Redone);
+	// Abandoned were running when the batch was interrupted.
+	Resumed, Redone, Ran, Abandoned int
+	// StaleTemps is the number of leftover temporary files removed.
+	StaleTemps int
+	// Complete: every owned result exists. Aggregated: the aggregate files
+	// were written (complete batches of one shard; shards are aggregated
+	// by Merge).
+	Complete, Aggregated bool
+	// Elapsed wall time.
+	Elapsed time.Duration
+}
+
+type job struct{ c, r int }
+
+// Run runs a batch: every realization of every case that the shard owns,
+// on Workers goroutines, writing one result file per finished realization
+// into Out/results. When the batch is complete and not sharded, it writes
+// the aggregates. A cancelled ctx stops handing out work; running
+// realizations finish or are abandoned (the runner sees ctx), and Run
+// returns an error wrapping ctx.Err() with the folder ready for Resume.
+// Bad options or input return an error matching ErrInput before any work
+// starts. The Summary is returned whenever work was attempted.
+func Run(ctx context.Context, opts Options) (*Summary, error) {
+	start := time.Now()
+	if err := opts.check(); err != nil {
+		return nil, err
+	}
+	m, cases, err := makePlan(opts)
+	if err != nil {
+		return nil, err
+	}
+	if err := prepareFolder(opts, m); err != nil {
+		return nil, err
+	}
+	sum := &Summary{Cases: len(cases), Realizations: opts.Realizations, Shard: m.Shard}
+	resultsDir := filepath.Join(opts.Out, ResultsDir)
+	if sum.StaleTemps, err = removeStaleTemps(resultsDir); err != nil {
+		return nil, fmt.Errorf("batch: cleaning %s: %w", resultsDir, err)
+	}
+	jobs := pendingJobs(opts, m, sum)
+	prog := newProgress(opts.Progress, opts.IsTerminal, opts.ProgressInterval)
+	prog.start(len(jobs), sum.Resumed, sum.Owned)
+	err = runJobs(ctx, opts, m, cases, jobs, sum, prog)
+	prog.finish(err == nil)
+	sum.Elapsed = time.Since(start)
+	if err != nil {
+		return sum, err
+	}
+	sum.Complete = true
+	if m.Shard.Count == 1 {
+		if err := aggregate(ctx, opts.Out, m, &opts.Hooks); err != nil {
+			return sum, err
+		}
+		sum.Aggregated = true
+	}
+	sum.Elapsed = time.Since(start)
+	return sum, nil
+}
+
+func (o *Options) check() error {
+	switch {
+	case o.Load == nil:
+		return inputErrorf("no scenario loader")
+	case o.Run == nil:
+		return inputErrorf("no runner")
+	case o.Realizations < 1:
+		return inputErrorf("--realizations %d: must be ≥ 1", o.Realizations)
+	case o.Workers < 0:
+		return inputErrorf("--workers %d: must be ≥ 1 (or 0 for one per core)", o.Workers)
+	case o.Out == "":
+		return inputErrorf("no output folder")
+	case o.Resume && o.Force:
+		return inputErrorf("--resume and --force contradict each other: resume keeps the results in the folder, force deletes them")
+	}
+	o.Shard = o.Shard.normal()
+	if err := o.Shard.check(); err != nil {
+		return err
+	}
+	if o.Workers == 0 {
+		o.Workers = runtime.NumCPU()
+	}
+	return checkSweeps(o.Sweeps)
+}
+
+// makePlan loads the base scenario, checks every sweep value on its own,
+// then loads every case, and returns the batch's manifest.
+func makePlan(opts Options) (*Manifest, []Case, error) {
+	base, err := opts.Load()
+	if err != nil {
+		return nil, nil, &InputError{Msg: "scenario", Err: err}
+	}
+	for _, sw := range opts.Sweeps {
+		digests := map[string]string{}
+		for _, v := range sw.Values {
+			s, err := opts.Load(scenarios.Override{Key: sw.Key, Value: v})
+			if err != nil {
+				return nil, nil, &InputError{Msg: fmt.Sprintf("--sweep %s: value %q", sw.Key, v), Err: err}
+			}
+			if other, dup := digests[s.Digest]; dup {
+				return nil, nil, inputErrorf("--sweep %s: values %q and %q give the same scenario", sw.Key, other, v)
+			}
+			digests[s.Digest] = v
+		}
+	}
+	cases := Cases(opts.Sweeps)
+	m := &Manifest{
+		Format: ManifestFormat, ProgramVersion: version.Version,
+		Scenario: ManifestScenario{Name: base.Name, Digest: base.Digest, Seed: base.Seed},
+		Sweeps:   opts.Sweeps, Realizations: opts.Realizations, Shard: opts.Shard,
+	}
+	if m.Sweeps == nil {
+		m.Sweeps = []Sweep{}
+	}
+	for _, c := range cases {
+		s, err := opts.Load(c.Overrides...)
+		if err != nil {
+			return nil, nil, &InputError{Msg: "case " + c.Label(), Err: err}
+		}
+		g, err := GridFor(s)
+		if err != nil {
+			return nil, nil, &InputError{Msg: "case " + c.Label(), Err: err}
+		}
+		tg, err := TimeGridFor(s)
+		if err != nil {
+			return nil, nil, &InputError{Msg: "case " + c.Label(), Err: err}
+		}
+		m.Cases = append(m.Cases, ManifestCase{
+			Index: c.Index, Label: c.Label(), Values: c.Values, Digest: s.Digest, Grid: g, TimeGrid: tg,
+		})
+	}
+	return m, cases, nil
+}
+
+// batchFiles are the files and folders a batch writes, removed by Force.
+var batchFiles = []string{ResultsDir, ProbabilityDir, RealizationsName, PercentilesName, ComparisonName, ManifestName}
+
+// prepareFolder checks Out against the options, clears it for Force, and
+// writes the manifest.
+func prepareFolder(opts Options, m *Manifest) error {
+	old, err := readManifestFile(opts.Out)
+	switch {
+	case err == nil && opts.Resume:
+		if field, want, got, differ := m.difference(old, true); differ {
+			return &MismatchError{Field: field, Want: want, Got: got, WantFrom: "this batch", Dir: opts.Out}
+		}
+	case err == nil && !opts.Force:
+		return &InputError{Msg: opts.Out + " holds a batch; use --resume to continue it or --force to start over", Err: outdir.ErrExists}
+	case err != nil && !errors.Is(err, fs.ErrNotExist) && !opts.Force:
+		return &InputError{Msg: "cannot use " + opts.Out + " (use --force to start over)", Err: err}
+	case errors.Is(err, fs.ErrNotExist) && !opts.Force:
+		entries, rerr := os.ReadDir(opts.Out)
+		if rerr == nil && len(entries) > 0 {
+			return &InputError{Msg: fmt.Sprintf("%s holds %d entries but no %s; use --force to write the batch into it", opts.Out, len(entries), ManifestName), Err: outdir.ErrExists}
+		}
+	}
+	if opts.Force {
+		for _, name := range batchFiles {
+			if err := os.RemoveAll(filepath.Join(opts.Out, name)); err != nil {
+				return fmt.Errorf("batch: clearing %s: %w", opts.Out, err)
+			}
+		}
+	}
+	if err := os.MkdirAll(filepath.Join(opts.Out, ResultsDir), 0o755); err != nil {
+		return fmt.Errorf("batch: %w", err)
+	}
+	return writeFileAtomic(opts.Out, ManifestName, func(w io.Writer) error { return WriteManifest(w, m) })
+}
+
+// pendingJobs lists the (case, realization) pairs still to run, in
+// realization-major order (all cases of realization 0, then 1, …), so an
+// interrupted batch has every case equally far along. With Resume, valid
+// result files are kept and unreadable ones are run again.
+func pendingJobs(opts Options, m *Manifest, sum *Summary) []job {
+	var jobs []job
+	for r := 0; r < m.Realizations; r++ {
+		if !m.Shard.Owns(r) {
+			continue
+		}
+		for c := range m.Cases {
+			sum.Owned++
+			if opts.Resume {
+				_, err := readResultFile(opts.Out, c, r, &m.Cases[c], &opts.Hooks)
+				if err == nil {
+					sum.Resumed++
+					continue
+				}
+				if !errors.Is(err, fs.ErrNotExist) {
+					sum.Redone++
+				}
+			}
+			jobs = append(jobs, job{c, r})
+		}
+	}
+	return jobs
+}
+
+// runJobs runs jobs on opts.Workers goroutines until done, the first
+// failure, or cancellation.
+func runJobs(parent context.Context, opts Options, m *Manifest, cases []Case, jobs []job, sum *Summary, prog progress) error {
+	ctx, cancel := context.WithCancel(parent)
+	defer cancel()
+	feed := make(chan job)
+	go func() {
+		defer close(feed)
+		for _, j := range jobs {
+			select {
+			case feed <- j:
+			case <-ctx.Done():
+				return
+			}
+		}
+	}()
+	var (
+		mu       sync.Mutex
+		firstErr error
+		wg       sync.WaitGroup
+	)
+	for range min(opts.Workers, len(jobs)) {
+		wg.Go(func() {
+			for j := range feed {
+				if ctx.Err() != nil {
+					continue
+				}
+				err := runOne(ctx, opts, m, cases, j)
+				mu.Lock()
+				switch {
+				case err == nil:
+					sum.Ran++
+					prog.step()
+					if opts.Hooks.AfterResult != nil {
+						opts.Hooks.AfterResult(sum.Ran)
+					}
+				case ctx.Err() != nil:
+					sum.Abandoned++
+				default:
+					firstErr = err
+					cancel()
+				}
+				mu.Unlock()
+			}
+		})
+	}
+	wg.Wait()
+	switch {
+	case firstErr != nil:
+		return firstErr
+	case parent.Err() != nil:
+		return fmt.Errorf("batch: interrupted with %d of %d results done; run again with --resume to finish: %w",
+			sum.Resumed+sum.Ran, sum.Owned, parent.Err())
+	}
+	return nil
+}
+
+// runOne runs and stores one realization of one case.
+func runOne(ctx context.Context, opts Options, m *Manifest, cases []Case, j job) error {
+	mc := &m.Cases[j.c]
+	where := fmt.Sprintf("batch: case %d (%s), realization %d", j.c, mc.Label, j.r)
+	s, err := opts.Load(cases[j.c].Overrides...)
+	if err != nil {
+		return fmt.Errorf("%s: loading the scenario: %w", where, err)
+	}
+	if s.Digest != mc.Digest {
+		return fmt.Errorf("%s: the scenario changed while the batch ran (digest %s, expected %s)", where, s.Digest, mc.Digest)
+	}
+	out, err := opts.Run(ctx, s, j.r)
+	if err != nil {
+		return fmt.Errorf("%s: %w", where, err)
+	}
+	res, err := newResult(j.c, j.r, mc.Digest, mc.Grid, mc.TimeGrid, out)
+	if err != nil {
+		return fmt.Errorf("%s: %w", where, err)
+	}
+	if err := writeFileAtomic(opts.Out, ResultName(j.c, j.r), func(w io.Writer) error { return WriteResult(w, res) }); err != nil {
+		return fmt.Errorf("%s: %w", where, err)
+	}
+	return nil
+}
