@@ -73,6 +73,13 @@ func (c PlaneStrainCrack) ShearStiffness(p Patch) float64 {
 	return crackStiffness(c.ShearModulus, c.PoissonRatio, p.HalfSize())
 }
 
+// OpeningStiffness returns 2G/(π(1−ν)a), Pa/m, with a = p.HalfSize(): the
+// net pressure per metre of average opening of the patch as a 2-D crack
+// (Sneddon 1946; REFERENCES.md §8.3), equal to its shear stiffness.
+func (c PlaneStrainCrack) OpeningStiffness(p Patch) float64 {
+	return crackStiffness(c.ShearModulus, c.PoissonRatio, p.HalfSize())
+}
+
 // crackStiffness returns 2G/(π(1−ν)a): the ratio of a uniform load to the
 // average displacement discontinuity of a 2-D crack of half-size a, the
 // same in shear (mode II) and opening (mode I, Sneddon 1946).

@@ -115,3 +115,15 @@ func TestSlipModelErrors(t *testing.T) {
 		}
 	}
 }
+
+// The average opening of a 2-D crack of half-length a = 10 m under a net
+// pressure of 1 MPa is π(1−ν)Δp·a/(2G) = 3.926991e-4 m for G = 30 GPa,
+// ν = 0.25 (Sneddon 1946; REFERENCES.md §8.3: δ_avg = (π/4)·δ_max).
+func TestOpeningStiffness(t *testing.T) {
+	k, err := NewPlaneStrainCrack(30e9, 0.25)
+	if err != nil {
+		t.Fatal(err)
+	}
+	avg := 1e6 / k.OpeningStiffness(Patch{Length: 20, Height: 100})
+	numtest.Rel(t, "average opening", avg, 3.926991e-4, 1e-6)
+}

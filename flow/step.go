@@ -1,0 +1,439 @@
+package flow
+
+import (
+	"errors"
+	"fmt"
+	"math"
+)
+
+// ControlMode is what the well holds fixed.
+type ControlMode int
+
+const (
+	// RateControl injects a total rate, switching to the pressure cap
+	// while the bottom-hole pressure would exceed it. A rate of 0 is a
+	// shut-in: the open clusters still exchange fluid through the well.
+	RateControl ControlMode = iota
+	// PressureControl holds the bottom-hole pressure.
+	PressureControl
+)
+
+// Control is the well's instruction for one step.
+type Control struct {
+	Mode ControlMode
+	// Rate is the total rate under rate control, m³/s.
+	Rate float64
+	// Pressure is the bottom-hole pressure under pressure control, Pa.
+	Pressure float64
+	// Cap is the bottom-hole pressure cap under rate control, Pa; 0 for
+	// none.
+	Cap float64
+}
+
+// State is the flow state at one time.
+type State struct {
+	// Time, s.
+	Time float64
+	// Pressure of every element, Pa.
+	Pressure []float64
+	// Aperture of every element at Pressure (hydraulic, m).
+	Aperture []float64
+	// Content of every element, m³ at the reference density.
+	Content []float64
+	// Exposed is the time each element started leaking off (Carter), s;
+	// NaN while it has not.
+	Exposed []float64
+	// BHP is the well's bottom-hole pressure, Pa.
+	BHP float64
+	// Capped tells that the last step ran at the pressure cap.
+	Capped bool
+}
+
+// ApertureFunc sets e[i], the hydraulic aperture (m), and dedp[i], its
+// derivative with respect to the element pressure (m/Pa), of every element
+// at the pressures p. The flow solver does not know why apertures change;
+// the caller (the coupled simulator) does.
+type ApertureFunc func(p, e, dedp []float64)
+
+// StepSettings end the Picard iterations of a step.
+type StepSettings struct {
+	// PressureTol: largest pressure change between iterations, Pa
+	// (default 1 Pa).
+	PressureTol float64
+	// ApertureTol: largest relative aperture change between iterations
+	// (default 1e-4).
+	ApertureTol float64
+	// MassTol: largest mass-balance error of the step relative to the
+	// fluid moved in it (default 1e-10).
+	MassTol float64
+	// MaxIterations before the step fails (default 30).
+	MaxIterations int
+}
+
+func (s StepSettings) withDefaults() StepSettings {
+	if s.PressureTol <= 0 {
+		s.PressureTol = 1
+	}
+	if s.ApertureTol <= 0 {
+		s.ApertureTol = 1e-4
+	}
+	if s.MassTol <= 0 {
+		s.MassTol = 1e-10
+	}
+	if s.MaxIterations <= 0 {
+		s.MaxIterations = 30
+	}
+	return s
+}
+
+// ErrStepNotConverged is returned when the Picard iterations of a step do
+// not converge; a shorter step usually does.
+var ErrStepNotConverged = errors.New("flow: step did not converge")
+
+// exposureRise is the pressure rise above the reference at which an
+// element starts to leak off (common practice, no source).
+const exposureRise = 0.1e6
+
+// StepResult describes an accepted step.
+type StepResult struct {
+	Iterations int
+	// BHP at the end of the step, Pa.
+	BHP float64
+	// Rate into the network, m³/s, and whether the cap held the pressure.
+	Rate   float64
+	Capped bool
+	// Injected, Leaked and Stored are the step's volumes, m³ at reference
+	// density; MassError = Injected − Leaked − Stored, m³.
+	Injected, Leaked, Stored, MassError float64
+	// MaxChange is the largest element pressure change, Pa.
+	MaxChange float64
+}
+
+// NewState returns the state with every element at pressure p0 (and the
+// well too), with apertures and contents from ap.
+func (s *System) NewState(p0 float64, ap ApertureFunc) *State {
+	n := s.nElem
+	st := &State{
+		Pressure: make([]float64, n), Aperture: make([]float64, n),
+		Content: make([]float64, n), Exposed: make([]float64, n), BHP: p0,
+	}
+	dedp := make([]float64, n)
+	for i := range st.Pressure {
+		st.Pressure[i] = p0
+		st.Exposed[i] = math.NaN()
+	}
+	ap(st.Pressure, st.Aperture, dedp)
+	for i := range st.Content {
+		st.Content[i] = s.Content(i, st.Aperture[i], p0)
+	}
+	return st
+}
+
+// CopyTo copies st into dst, which must have the same size.
+func (st *State) CopyTo(dst *State) {
+	dst.Time, dst.BHP, dst.Capped = st.Time, st.BHP, st.Capped
+	copy(dst.Pressure, st.Pressure)
+	copy(dst.Aperture, st.Aperture)
+	copy(dst.Content, st.Content)
+	copy(dst.Exposed, st.Exposed)
+}
+
+// Step advances cur by dt into next (backward Euler) under ctl, with
+// apertures from ap. The nonlinear terms are handled by Picard iterations
+// with lagged transmissibilities and linearised storage, so every linear
+// system is symmetric positive definite:
+//
+//	(S/dt + A(T)) p^{k+1} = S/dt p^k − (m(p^k) − m^n)/dt − leak/dt + q
+//
+// with m_i = h_i L_i e_i (1 + c_f (p_i − p_ref)) the fluid content,
+// S_i = ∂m_i/∂p_i its storage, A(T) the star–delta transmissibility
+// Laplacian and q the well term. At convergence the contents satisfy the
+// discrete mass balance exactly up to the tolerances.
+func (s *System) Step(cur, next *State, dt float64, ctl Control, ap ApertureFunc, set StepSettings) (StepResult, error) {
+	if !(dt > 0) {
+		panic("flow: time step must be > 0")
+	}
+	set = set.withDefaults()
+	if !s.HasWell() || ctl.Mode == PressureControl || ctl.Cap <= 0 {
+		res, err := s.solve(cur, next, dt, ctl, ctl.Mode == PressureControl && s.HasWell(), ap, set)
+		next.Capped = false
+		return res, err
+	}
+	capped := ctl
+	capped.Pressure = ctl.Cap
+	if !cur.Capped {
+		res, err := s.solve(cur, next, dt, ctl, false, ap, set)
+		if err != nil || res.BHP <= ctl.Cap {
+			next.Capped = false
+			return res, err
+		}
+	} else {
+		res, err := s.solve(cur, next, dt, capped, true, ap, set)
+		if err != nil || res.Rate <= ctl.Rate {
+			res.Capped = err == nil
+			next.Capped = res.Capped
+			return res, err
+		}
+		// The network now takes more than the target rate below the cap.
+		res, err = s.solve(cur, next, dt, ctl, false, ap, set)
+		if err != nil || res.BHP <= ctl.Cap {
+			next.Capped = false
+			return res, err
+		}
+	}
+	res, err := s.solve(cur, next, dt, capped, true, ap, set)
+	res.Capped = err == nil
+	next.Capped = res.Capped
+	return res, err
+}
+
+// solve runs the Picard iterations of one step under one control.
+func (s *System) solve(cur, next *State, dt float64, ctl Control, pressureControl bool, ap ApertureFunc, set StepSettings) (StepResult, error) {
+	n := s.nElem
+	p := next.Pressure
+	copy(p, cur.Pressure)
+	e, dedp, ePrev := s.work()
+	leak := s.leakoff(cur, dt)
+	var res StepResult
+	pw := cur.BHP
+	var dp float64
+	for it := 0; ; it++ {
+		ap(p, e, dedp)
+		if it > 0 {
+			res.Stored, res.MassError = s.balance(cur, p, e, res.Injected, leak)
+			if dp <= set.PressureTol && relChange(e, ePrev) <= set.ApertureTol &&
+				math.Abs(res.MassError) <= s.massTolerance(set.MassTol, res.Injected, leak, res.Stored, cur.Content) {
+				res.Iterations = it
+				break
+			}
+		}
+		if it == set.MaxIterations {
+			return res, fmt.Errorf("%w in %d iterations at t = %.6g s (dt = %.3g s)", ErrStepNotConverged, it, cur.Time, dt)
+		}
+		copy(ePrev, e)
+		if err := s.linearSolve(cur, p, pw, e, dedp, dt, leak, ctl, pressureControl); err != nil {
+			return res, err
+		}
+		s.relax(s.sol, it)
+		dp = maxAbsDiff(s.sol[:n], p)
+		copy(p, s.sol[:n])
+		pw = s.bhp(ctl, pressureControl)
+		res.Rate = s.wellRate(p, pw)
+		res.Injected = res.Rate * dt
+	}
+	res.BHP, res.Leaked = pw, total(leak)
+	res.MaxChange = maxAbsDiff(p, cur.Pressure)
+	next.Time, next.BHP = cur.Time+dt, pw
+	copy(next.Aperture, e)
+	for i := range n {
+		next.Content[i] = s.Content(i, e[i], p[i])
+		next.Exposed[i] = cur.Exposed[i]
+		if math.IsNaN(next.Exposed[i]) && p[i] > s.cfg.ReferencePressure+exposureRise {
+			next.Exposed[i] = next.Time
+		}
+	}
+	return res, nil
+}
+
+// linearSolve assembles one Picard iteration and solves it for the
+// increment s.delta from the iterate s.sol = [p; p_w].
+func (s *System) linearSolve(cur *State, p []float64, pw float64, e, dedp []float64, dt float64, leak []float64, ctl Control, pressureControl bool) error {
+	s.as.Reset()
+	clear(s.rhs)
+	s.conductances(e)
+	cf, pref := s.cfg.Fluid.Compressibility, s.cfg.ReferencePressure
+	for i := range s.nElem {
+		el := &s.mesh.Elements[i]
+		hl := el.Height * el.Length
+		storage := hl * (dedp[i]*(1+cf*(p[i]-pref)) + e[i]*cf)
+		content := hl * e[i] * (1 + cf*(p[i]-pref))
+		s.as.AddDiagonal(i, storage/dt)
+		s.rhs[i] = storage/dt*p[i] - (content-cur.Content[i])/dt - leak[i]/dt
+	}
+	s.assembleFlux(ctl, pressureControl)
+	a := s.as.Matrix()
+	if err := s.ls.Factor(a); err != nil {
+		return err
+	}
+	// Solve for the increment from the current iterate, A δ = b − A x,
+	// so the solver's relative tolerance applies to the residual of the
+	// mass balance rather than to the large storage terms S/dt·p.
+	x := s.sol
+	copy(x, p)
+	if s.HasWell() {
+		x[s.nElem] = pw
+	}
+	a.MulVecTo(s.res, x)
+	for i := range s.res {
+		s.res[i] = s.rhs[i] - s.res[i]
+	}
+	_, err := s.ls.Solve(s.delta, s.res)
+	return err
+}
+
+// relax moves the iterate x by ω δ with Aitken's dynamic relaxation
+// (Irons & Tuck 1969; as used for partitioned coupling by Küttler & Wall
+// 2008, Comput. Mech. 43, 61–72): ω_k = −ω_{k−1} δ_{k−1}·(δ_k − δ_{k−1}) /
+// |δ_k − δ_{k−1}|², kept within [0.05, 1]. Lagged transmissibilities make
+// the plain iteration overshoot and alternate where apertures are very
+// sensitive to pressure; the relaxation damps that and restores fast
+// convergence. ω = 1 on the first iteration of a step.
+func (s *System) relax(x []float64, it int) {
+	if it == 0 {
+		s.omega = 1
+	} else {
+		var num, den float64
+		for i, d := range s.delta {
+			diff := d - s.prevDelta[i]
+			num += s.prevDelta[i] * diff
+			den += diff * diff
+		}
+		if den > 0 {
+			s.omega = math.Min(1, math.Max(0.05, -s.omega*num/den))
+		}
+	}
+	copy(s.prevDelta, s.delta)
+	for i := range x {
+		x[i] += s.omega * s.delta[i]
+	}
+}
+
+// bhp returns the bottom-hole pressure after a solve.
+func (s *System) bhp(ctl Control, pressureControl bool) float64 {
+	switch {
+	case !s.HasWell():
+		return math.NaN()
+	case pressureControl:
+		return ctl.Pressure
+	}
+	return s.sol[s.nElem]
+}
+
+// balance returns the stored volume change of the step and the mass error
+// Injected − Leaked − Stored, m³.
+func (s *System) balance(cur *State, p, e []float64, injected float64, leak []float64) (stored, massErr float64) {
+	for i := range s.nElem {
+		stored += s.Content(i, e[i], p[i]) - cur.Content[i]
+	}
+	return stored, injected - total(leak) - stored
+}
+
+// massTolerance is the largest acceptable mass error of a step, m³: rel
+// times the volume moved in the step, but not below the round-off of
+// summing the contents (256 ε Σ m), which governs during shut-in.
+func (s *System) massTolerance(rel, injected float64, leak []float64, stored float64, content []float64) float64 {
+	moved := math.Max(math.Max(math.Abs(injected), total(leak)), math.Abs(stored))
+	return math.Max(rel*moved, 256*epsilon*total(content))
+}
+
+// epsilon is the float64 machine epsilon.
+const epsilon = 0x1p-52
+
+// leakoff returns each element's Carter leak-off volume over the step,
+// from both faces: 2·h·L · 2 C_L (√(t+dt−t₀) − √(t−t₀)) (Carter 1957, in
+// Howard & Fast, Drilling and Production Practice, API), computed from the
+// state at the start of the step (so the system stays symmetric) and
+// limited to the element's fluid above its initial content.
+func (s *System) leakoff(cur *State, dt float64) []float64 {
+	leak := s.leak
+	cl := s.cfg.Fluid.Leakoff
+	for i := range leak {
+		leak[i] = 0
+		t0 := cur.Exposed[i]
+		if cl == 0 || math.IsNaN(t0) || cur.Pressure[i] <= s.cfg.ReferencePressure {
+			continue
+		}
+		el := &s.mesh.Elements[i]
+		v := 4 * el.Height * el.Length * cl * (math.Sqrt(cur.Time+dt-t0) - math.Sqrt(cur.Time-t0))
+		excess := cur.Content[i] - s.Content(i, cur.Aperture[i], s.cfg.ReferencePressure)
+		leak[i] = math.Max(0, math.Min(v, excess))
+	}
+	return leak
+}
+
+// work returns the System's per-element work arrays.
+func (s *System) work() (e, dedp, ePrev []float64) {
+	if s.e == nil {
+		n := s.nElem
+		s.e, s.dedp, s.ePrev, s.leak = make([]float64, n), make([]float64, n), make([]float64, n), make([]float64, n)
+	}
+	return s.e, s.dedp, s.ePrev
+}
+
+// relChange returns max |a_i − b_i| / |b_i|.
+func relChange(a, b []float64) float64 {
+	var d float64
+	for i := range a {
+		d = math.Max(d, math.Abs(a[i]-b[i])/math.Abs(b[i]))
+	}
+	return d
+}
+
+func total(v []float64) float64 {
+	var t float64
+	for _, x := range v {
+		t += x
+	}
+	return t
+}
+
+// ErrStepTooSmall is returned by StepSize.Cut when the step would fall
+// below its minimum.
+var ErrStepTooSmall = errors.New("flow: time step below the minimum")
+
+// StepSize adapts the time step: it grows after easy steps, in proportion
+// to how far the largest pressure change stayed below the target, and is
+// halved after a failed or rejected step.
+type StepSize struct {
+	// Dt is the next step, Min and Max its limits, s.
+	Dt, Min, Max float64
+	// MaxChange is the target largest pressure change per step, Pa.
+	MaxChange float64
+	// hold counts the accepted steps after a cut during which Dt does not
+	// grow, so a step that just failed is not retried at once.
+	hold int
+}
+
+// holdAfterCut is the number of steps Dt stays put after a cut (common
+// practice, no source).
+const holdAfterCut = 3
+
+// Accept adapts Dt after a step whose largest pressure change was change:
+// Dt × min(2, 0.8·MaxChange/change), within [Min, Max], without growing in
+// the few steps after a cut.
+func (z *StepSize) Accept(change float64) {
+	f := 2.0
+	if change > 0 {
+		f = math.Min(f, 0.8*z.MaxChange/change)
+	}
+	if z.hold > 0 {
+		z.hold--
+		f = math.Min(f, 1)
+	}
+	z.Dt = math.Min(z.Max, math.Max(z.Min, z.Dt*math.Max(f, 0.25)))
+}
+
+// TooLarge reports whether a step's pressure change exceeded the target
+// enough to repeat it with a shorter step.
+func (z *StepSize) TooLarge(change float64) bool {
+	return change > 1.5*z.MaxChange && z.Dt > z.Min
+}
+
+// Cut halves Dt; it fails when Dt is already at the minimum.
+func (z *StepSize) Cut() error {
+	if z.Dt <= z.Min {
+		return fmt.Errorf("%w (%g s)", ErrStepTooSmall, z.Min)
+	}
+	z.Dt = math.Max(z.Min, z.Dt/2)
+	z.hold = holdAfterCut
+	return nil
+}
+
+// Refresh recomputes the contents of st from its pressures and apertures
+// with this system's fluid, e.g. when a stage pumps a fluid of another
+// compressibility than the last.
+func (s *System) Refresh(st *State) {
+	for i := range st.Content {
+		st.Content[i] = s.Content(i, st.Aperture[i], st.Pressure[i])
+	}
+}
