@@ -68,6 +68,11 @@ type StepSettings struct {
 	MassTol float64
 	// MaxIterations before the step fails (default 30).
 	MaxIterations int
+	// MaxIterationChange caps the pressure change of any element in one
+	// Picard iteration, Pa (default: no cap). Where apertures jump with
+	// pressure (slip, crack opening) a capped iteration approaches the
+	// solution instead of overshooting into another branch.
+	MaxIterationChange float64
 }
 
 func (s StepSettings) withDefaults() StepSettings {
@@ -214,7 +219,7 @@ func (s *System) solve(cur, next *State, dt float64, ctl Control, pressureContro
 		if err := s.linearSolve(cur, p, pw, e, dedp, dt, leak, ctl, pressureControl); err != nil {
 			return res, err
 		}
-		s.relax(s.sol, it)
+		s.relax(s.sol, it, set.MaxIterationChange)
 		dp = maxAbsDiff(s.sol[:n], p)
 		copy(p, s.sol[:n])
 		pw = s.bhp(ctl, pressureControl)
@@ -277,8 +282,9 @@ func (s *System) linearSolve(cur *State, p []float64, pw float64, e, dedp []floa
 // |δ_k − δ_{k−1}|², kept within [0.05, 1]. Lagged transmissibilities make
 // the plain iteration overshoot and alternate where apertures are very
 // sensitive to pressure; the relaxation damps that and restores fast
-// convergence. ω = 1 on the first iteration of a step.
-func (s *System) relax(x []float64, it int) {
+// convergence. ω = 1 on the first iteration of a step. The step ω δ is
+// then shortened, if needed, so no element moves by more than maxChange.
+func (s *System) relax(x []float64, it int, maxChange float64) {
 	if it == 0 {
 		s.omega = 1
 	} else {
@@ -293,9 +299,24 @@ func (s *System) relax(x []float64, it int) {
 		}
 	}
 	copy(s.prevDelta, s.delta)
-	for i := range x {
-		x[i] += s.omega * s.delta[i]
+	w := s.omega
+	if maxChange > 0 {
+		if big := maxAbs(s.delta) * w; big > maxChange {
+			w *= maxChange / big
+		}
 	}
+	for i := range x {
+		x[i] += w * s.delta[i]
+	}
+}
+
+// maxAbs returns max |v_i|.
+func maxAbs(v []float64) float64 {
+	var m float64
+	for _, x := range v {
+		m = math.Max(m, math.Abs(x))
+	}
+	return m
 }
 
 // bhp returns the bottom-hole pressure after a solve.
@@ -411,12 +432,6 @@ func (z *StepSize) Accept(change float64) {
 		f = math.Min(f, 1)
 	}
 	z.Dt = math.Min(z.Max, math.Max(z.Min, z.Dt*math.Max(f, 0.25)))
-}
-
-// TooLarge reports whether a step's pressure change exceeded the target
-// enough to repeat it with a shorter step.
-func (z *StepSize) TooLarge(change float64) bool {
-	return change > 1.5*z.MaxChange && z.Dt > z.Min
 }
 
 // Cut halves Dt; it fails when Dt is already at the minimum.

@@ -1,0 +1,459 @@
+package sim
+
+import (
+	"context"
+	"errors"
+	"fmt"
+	"math"
+
+	"slipfront/dfn"
+	"slipfront/flow"
+	"slipfront/scenarios"
+	"slipfront/snapshot"
+)
+
+// Options control a run.
+type Options struct {
+	// Begin, when set, is called once the mesh is built, before the first
+	// frame, with the elements (e.g. to write a snapshot header).
+	Begin func(elements []Element) error
+	// Frame, when set, receives the state at every output time and at the
+	// end; the slices are valid only during the call.
+	Frame func(*Frame) error
+	// Progress, when set, is called after every accepted step with the
+	// simulated time and the schedule's nominal end, s.
+	Progress func(t, end float64)
+}
+
+// Frame is the state of every element at one output time.
+type Frame struct {
+	Time  float64
+	Stage int
+	// Pressure, Pa; Aperture, m; Slip, m; Flags as snapshot.Flag*.
+	Pressure, Aperture, Slip []float64
+	Flags                    []byte
+}
+
+// Sample is one row of the timeline.
+type Sample struct {
+	// Time, s; Stage index in the pumping order.
+	Time  float64
+	Stage int
+	// Rate into the network, m³/s; Injected since the start, m³.
+	Rate, Injected float64
+	// BHP of the active stage's well, Pa.
+	BHP float64
+	// Stimulated map area and fracture area, m².
+	StimulatedArea, FractureArea float64
+	// SlippedElements have slipped at least once; Events so far.
+	SlippedElements, Events int
+	// MaxPressure over all elements, Pa.
+	MaxPressure float64
+}
+
+// StageSummary sums up one stage.
+type StageSummary struct {
+	Name string
+	// Start, end of pumping and end of shut-in, s.
+	Start, PumpEnd, End float64
+	// Injected volume, m³; PeakBHP, Pa; NewArea: stimulated map area added
+	// during the stage, m².
+	Injected, PeakBHP, NewArea float64
+	Events                     int
+	// MaxMagnitude of its events (NaN if none).
+	MaxMagnitude float64
+	// Capped tells the pressure cap limited the rate at some time.
+	Capped bool
+	Steps  int
+}
+
+// Result is what a run produced, complete or up to a failure.
+type Result struct {
+	Elements []Element
+	Conduits []Conduit
+	Grid     scenarios.Grid
+	// Final state per element: Pressure, Pa; Aperture and InitialAperture,
+	// m; Slip, m; FirstSlip, s (NaN if never); FirstSlipStage (−1 if never).
+	Pressure, Aperture, InitialAperture, Slip, FirstSlip []float64
+	FirstSlipStage                                       []int
+	// Stimulated elements and cells (increasing cell indices).
+	Stimulated []bool
+	Cells      []int
+	Timeline   []Sample
+	Events     []Event
+	Stages     []StageSummary
+	Warnings   []string
+	// Totals: Injected, Leaked, m³; MassBalanceError relative to Injected.
+	Injected, Leaked, MassBalanceError float64
+	// PeakBHP, Pa; StimulatedArea, FractureArea, m²; StimulatedVolume, m³.
+	PeakBHP, StimulatedArea, FractureArea, StimulatedVolume float64
+	// Duration of the run, s; Steps accepted and CutSteps repeated.
+	Duration        float64
+	Steps, CutSteps int
+	// Solver is the linear method and FactorEntries its fill (Cholesky).
+	Solver        string
+	FactorEntries int
+}
+
+// Run simulates the scenario's schedule on the network. On failure it
+// returns the result so far together with the error; a scenario that
+// cannot be simulated as given is an *InputError.
+func Run(ctx context.Context, s *scenarios.Scenario, net *dfn.Network, opt Options) (*Result, error) {
+	m, err := newModel(s, net)
+	if err != nil {
+		return nil, err
+	}
+	r := newRunner(m, opt)
+	if opt.Begin != nil {
+		if err := opt.Begin(m.elements); err != nil {
+			return nil, err
+		}
+	}
+	err = r.run(ctx)
+	return r.result(), err
+}
+
+// runner holds the evolving state of a run.
+type runner struct {
+	m       *model
+	opt     Options
+	ms      *mechState
+	stim    *stimulation
+	cur     *flow.State
+	next    *flow.State
+	eInit   []float64
+	t       float64
+	end     float64 // nominal end, s
+	output  float64 // next output time, s
+	res     Result
+	stage   int
+	shminAt bool // warned about BHP > Shmin
+	// The last accepted step's rate (m³/s) and bottom-hole pressure (Pa).
+	lastRate, lastBHP float64
+	lastFrame         float64 // time of the last frame, s
+	flags             []byte
+}
+
+func newRunner(m *model, opt Options) *runner {
+	r := &runner{m: m, opt: opt, ms: newMechState(m), stage: -1,
+		stim: newStimulation(m.grid, m.s.Numerics.StimulatedSlip, len(m.elements))}
+	for _, ps := range m.order {
+		r.end += ps.NominalLength() + ps.ShutIn
+	}
+	r.lastBHP, r.lastFrame = math.NaN(), math.NaN()
+	r.flags = make([]byte, len(m.elements))
+	return r
+}
+
+// run is the driver: initialise, then every stage's pumping and shut-in.
+func (r *runner) run(ctx context.Context) error {
+	if err := r.initialise(); err != nil {
+		return err
+	}
+	for k, ps := range r.m.order {
+		if err := r.runStage(ctx, k, ps); err != nil {
+			return err
+		}
+	}
+	return r.record(true)
+}
+
+// initialise sets the initial state: pore pressure everywhere, apertures
+// at the in-situ effective stress.
+func (r *runner) initialise() error {
+	sys, err := r.system(0)
+	if err != nil {
+		return err
+	}
+	r.cur = sys.NewState(r.m.p0, r.ms.apertures)
+	r.next = sys.NewState(r.m.p0, r.ms.apertures)
+	r.eInit = append([]float64(nil), r.cur.Aperture...)
+	r.res.Solver = sys.Solver().Method().String()
+	r.res.FactorEntries = sys.Solver().CholeskyEntries()
+	r.output = 0
+	return r.record(false)
+}
+
+// system builds the flow system of stage k.
+func (r *runner) system(k int) (*flow.System, error) {
+	ps := r.m.order[k]
+	f := r.m.s.Fluids[ps.Fluid]
+	return flow.NewSystem(r.m.mesh, r.m.wellNodes[k], flow.Config{
+		Fluid:             flow.Fluid{Viscosity: f.Viscosity, Compressibility: f.Compressibility, Leakoff: f.LeakoffCoefficient},
+		ReferencePressure: r.m.p0,
+		Linear:            flow.Settings{Method: solverMethod(r.m.s.Numerics.Solver), Tol: r.m.s.Numerics.LinearTolerance},
+	})
+}
+
+func solverMethod(name string) flow.Method {
+	switch name {
+	case "cholesky":
+		return flow.Cholesky
+	case "pcg-jacobi":
+		return flow.CGJacobi
+	case "pcg-ic0":
+		return flow.CGIC0
+	}
+	return flow.Auto
+}
+
+// runStage pumps stage k and shuts it in.
+func (r *runner) runStage(ctx context.Context, k int, ps scenarios.PlannedStage) error {
+	sys, err := r.system(k)
+	if err != nil {
+		return err
+	}
+	sys.Refresh(r.cur)
+	r.cur.BHP = r.wellPressure(k)
+	r.cur.Capped = false
+	r.stage = k
+	sum := StageSummary{Name: ps.Name, Start: r.t, MaxMagnitude: math.NaN()}
+	area0, events0 := r.stim.area(), len(r.res.Events)
+	ctl := flow.Control{Mode: flow.RateControl, Rate: ps.Rate, Cap: ps.PressureCap}
+	if r.m.s.Schedule.Control == "pressure" {
+		ctl = flow.Control{Mode: flow.PressureControl, Pressure: r.m.s.Schedule.InjectionPressure}
+	}
+	pump := phase{ctl: ctl, volume: ps.Volume, until: r.t + ps.Duration}
+	if ps.Duration == 0 {
+		// Pumping to a volume: give up at maxStretch times its nominal
+		// length, when the pressure cap holds the rate far below target.
+		pump.until = r.t + maxStretch*ps.NominalLength()
+	}
+	if err := r.runPhase(ctx, sys, &pump, &sum); err != nil {
+		return err
+	}
+	if ps.Duration == 0 && !pump.done(math.Inf(-1)) {
+		r.res.Warnings = append(r.res.Warnings, fmt.Sprintf(
+			"stage %s: pumped %.1f of %.1f m³ in %.0f s (%d times its nominal length) before it was ended; the pressure cap held the rate down",
+			ps.Name, pump.injected, ps.Volume, r.t-sum.Start, maxStretch))
+	}
+	sum.PumpEnd = r.t
+	if err := r.record(false); err != nil {
+		return err
+	}
+	shut := phase{ctl: flow.Control{Mode: flow.RateControl}, until: r.t + ps.ShutIn}
+	if err := r.runPhase(ctx, sys, &shut, &sum); err != nil {
+		return err
+	}
+	sum.End = r.t
+	sum.NewArea = r.stim.area() - area0
+	sum.Events = len(r.res.Events) - events0
+	for _, e := range r.res.Events[events0:] {
+		if math.IsNaN(sum.MaxMagnitude) || e.Magnitude > sum.MaxMagnitude {
+			sum.MaxMagnitude = e.Magnitude
+		}
+	}
+	r.res.Stages = append(r.res.Stages, sum)
+	return r.record(false)
+}
+
+// wellPressure is a start value for the bottom-hole pressure of stage k:
+// the highest pressure of the elements it feeds.
+func (r *runner) wellPressure(k int) float64 {
+	m := r.m.mesh
+	p := r.m.p0
+	for _, n := range r.m.wellNodes[k] {
+		for _, e := range m.NodeElems[m.NodeStart[n]:m.NodeStart[n+1]] {
+			p = math.Max(p, r.cur.Pressure[e])
+		}
+	}
+	return p
+}
+
+// phase is one part of a stage: pumping (to a volume or a time) or
+// shut-in (to a time).
+type phase struct {
+	ctl      flow.Control
+	volume   float64 // m³ to inject; 0 for none
+	until    float64 // end time, s
+	injected float64
+	lastRate float64
+}
+
+// done reports whether the phase has reached its end.
+func (p *phase) done(t float64) bool {
+	if p.volume > 0 && p.injected >= p.volume*(1-1e-9) {
+		return true
+	}
+	return t >= p.until-1e-9*math.Max(1, p.until)
+}
+
+// limit is the longest step that does not pass the phase's end.
+func (p *phase) limit(t float64) float64 {
+	dt := p.until - t
+	if p.volume > 0 {
+		rate := p.lastRate
+		if rate <= 0 {
+			rate = p.ctl.Rate
+		}
+		if rate > 0 {
+			dt = math.Min(dt, (p.volume-p.injected)/rate)
+		}
+	}
+	return dt
+}
+
+// maxStretch bounds a volume-driven stage's pumping time, in multiples of
+// its nominal length (common practice, no source: a stage that needs ten
+// times its planned time is stopped and reported).
+const maxStretch = 10
+
+// errCut marks a step to repeat with a shorter time step.
+var errCut = errors.New("sim: cut the step")
+
+// runPhase steps until the phase ends.
+func (r *runner) runPhase(ctx context.Context, sys *flow.System, p *phase, sum *StageSummary) error {
+	n := r.m.s.Numerics
+	z := flow.StepSize{Dt: n.TimeStepInitial, Min: n.TimeStepMin, Max: n.TimeStepMax, MaxChange: n.PressureChangeMax}
+	settings := flow.StepSettings{ApertureTol: n.CouplingTolerance, MaxIterations: n.CouplingMaxIterations,
+		MaxIterationChange: n.PressureChangeMax}
+	for !p.done(r.t) {
+		if err := ctx.Err(); err != nil {
+			return err
+		}
+		dt := math.Min(z.Dt, p.limit(r.t))
+		if r.output > r.t {
+			dt = math.Min(dt, r.output-r.t)
+		}
+		err := r.step(sys, p, sum, dt, settings, &z)
+		if errors.Is(err, errCut) || errors.Is(err, flow.ErrStepNotConverged) || errors.Is(err, flow.ErrNotConverged) {
+			r.res.CutSteps++
+			z.Dt = math.Min(z.Dt, dt)
+			if cerr := z.Cut(); cerr != nil {
+				return fmt.Errorf("stage %s at t = %.6g s: %w after repeated cuts (last: %v)", sum.Name, r.t, cerr, err)
+			}
+			continue
+		}
+		if err != nil {
+			return fmt.Errorf("stage %s at t = %.6g s: %w", sum.Name, r.t, err)
+		}
+	}
+	return nil
+}
+
+// step tries one coupled step of length dt and accepts it, or returns
+// errCut (or the flow error) to have it repeated shorter.
+func (r *runner) step(sys *flow.System, p *phase, sum *StageSummary, dt float64, set flow.StepSettings, z *flow.StepSize) error {
+	n := r.m.s.Numerics
+	r.ms.beginStep()
+	res, err := sys.Step(r.cur, r.next, dt, p.ctl, r.ms.apertures, set)
+	if err != nil {
+		return err
+	}
+	if r.ms.maxNewSlip() > n.SlipMax && dt > 16*n.TimeStepMin {
+		return errCut
+	}
+	// Accept.
+	r.t = r.next.Time
+	r.cur, r.next = r.next, r.cur
+	r.res.Events = r.ms.commit(r.t, r.stage, r.res.Events)
+	r.stim.update(r.m.elements, r.ms.slip)
+	p.injected += res.Injected
+	if res.Injected > 0 {
+		p.lastRate = res.Rate
+	}
+	r.res.Injected += res.Injected
+	r.res.Leaked += res.Leaked
+	r.res.MassBalanceError += res.MassError
+	r.res.Steps++
+	sum.Steps++
+	sum.Injected += res.Injected
+	sum.Capped = sum.Capped || res.Capped
+	if sys.HasWell() && p.ctl.Rate+p.ctl.Pressure > 0 {
+		sum.PeakBHP = math.Max(sum.PeakBHP, res.BHP)
+		r.res.PeakBHP = math.Max(r.res.PeakBHP, res.BHP)
+		r.warnTensile(sum.Name, res.BHP)
+	}
+	r.lastRate, r.lastBHP = res.Rate, res.BHP
+	z.Accept(res.MaxChange)
+	if r.opt.Progress != nil {
+		r.opt.Progress(r.t, r.end)
+	}
+	if r.t >= r.output-1e-9*math.Max(1, r.output) {
+		return r.record(false)
+	}
+	return nil
+}
+
+// warnTensile records, once, that the bottom-hole pressure exceeded Shmin.
+func (r *runner) warnTensile(stage string, bhp float64) {
+	if r.shminAt || bhp <= r.m.shmin {
+		return
+	}
+	r.shminAt = true
+	r.res.Warnings = append(r.res.Warnings, fmt.Sprintf(
+		"stage %s: bottom-hole pressure %.2f MPa exceeded Shmin %.2f MPa at t = %.0f s: the run entered the tensile-fracturing regime, which this model treats only approximately (existing fractures open; no new fractures grow)",
+		stage, bhp/1e6, r.m.shmin/1e6, r.t))
+}
+
+// record appends a timeline row at the current time (replacing a row at
+// the same time) and, at output times and at the end, passes a frame on.
+func (r *runner) record(final bool) error {
+	const tol = 1e-9
+	interval := r.m.s.Numerics.OutputInterval
+	atOutput := r.t >= r.output-tol*math.Max(1, r.output)
+	for r.output <= r.t+tol*math.Max(1, r.t) {
+		r.output += interval
+	}
+	s := r.sample()
+	if k := len(r.res.Timeline) - 1; k >= 0 && r.res.Timeline[k].Time == r.t {
+		r.res.Timeline[k] = s
+	} else {
+		r.res.Timeline = append(r.res.Timeline, s)
+	}
+	if (!atOutput && !final) || r.opt.Frame == nil || r.lastFrame == r.t {
+		return nil
+	}
+	r.lastFrame = r.t
+	for i := range r.flags {
+		var f byte
+		if r.ms.latched[i] {
+			f |= snapshot.FlagSlipping
+		}
+		if r.ms.slip[i] > 0 {
+			f |= snapshot.FlagSlipped
+		}
+		if !r.m.conduitEl[i] && r.cur.Pressure[i] > r.m.sigmaN[i] {
+			f |= snapshot.FlagOpen
+		}
+		if r.stim.element[i] {
+			f |= snapshot.FlagStimulated
+		}
+		r.flags[i] = f
+	}
+	return r.opt.Frame(&Frame{Time: r.t, Stage: max(r.stage, 0), Pressure: r.cur.Pressure,
+		Aperture: r.cur.Aperture, Slip: r.ms.slip, Flags: r.flags})
+}
+
+// sample is the timeline row of the current state.
+func (r *runner) sample() Sample {
+	s := Sample{Time: r.t, Stage: r.stage, Rate: r.lastRate, Injected: r.res.Injected, BHP: r.lastBHP,
+		StimulatedArea: r.stim.area(), FractureArea: r.stim.fracArea, Events: len(r.res.Events)}
+	for i, d := range r.ms.slip {
+		if d > 0 {
+			s.SlippedElements++
+		}
+		s.MaxPressure = math.Max(s.MaxPressure, r.cur.Pressure[i])
+	}
+	return s
+}
+
+// result returns what the run produced so far.
+func (r *runner) result() *Result {
+	res := r.res
+	m := r.m
+	res.Elements, res.Conduits, res.Grid = m.elements, m.conduits, m.grid
+	if r.cur != nil {
+		res.Pressure, res.Aperture = r.cur.Pressure, r.cur.Aperture
+	}
+	res.InitialAperture = r.eInit
+	res.Slip, res.FirstSlip, res.FirstSlipStage = r.ms.slip, r.ms.firstSlip, r.ms.firstStage
+	res.Stimulated, res.Cells = r.stim.element, r.stim.cellList()
+	res.StimulatedArea, res.FractureArea = r.stim.area(), r.stim.fracArea
+	res.StimulatedVolume = res.StimulatedArea * m.s.Layer.Thickness
+	res.Duration = r.t
+	if res.Injected > 0 {
+		res.MassBalanceError = math.Abs(res.MassBalanceError) / res.Injected
+	}
+	return &res
+}

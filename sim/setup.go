@@ -1,0 +1,266 @@
+package sim
+
+import (
+	"fmt"
+	"math"
+
+	"gonum.org/v1/gonum/spatial/r2"
+
+	"slipfront/dfn"
+	"slipfront/flow"
+	"slipfront/internal/orient"
+	"slipfront/mechanics"
+	"slipfront/scenarios"
+)
+
+// InputError is a scenario that cannot be simulated as given (a stage that
+// touches no fracture, an invalid rock property): bad input, not a failed
+// run.
+type InputError struct{ Err error }
+
+func (e *InputError) Error() string { return e.Err.Error() }
+func (e *InputError) Unwrap() error { return e.Err }
+
+func inputErrorf(format string, args ...any) error {
+	return &InputError{fmt.Errorf(format, args...)}
+}
+
+// Conduit is a primary conduit: a vertical planar feature of fixed
+// aperture from one perforation cluster, striking along SHmax.
+type Conduit struct {
+	Stage   int // index in the pumping order
+	Cluster int // index in the stage's cluster list
+	P0, P1  r2.Vec
+	// Aperture and Height, m.
+	Aperture, Height float64
+}
+
+// Element is one flow element as the simulation sees it.
+type Element struct {
+	// Trace is the index in Network.Traces; −1 for a conduit element.
+	Trace int
+	// Fracture is the index in Network.Fractures; −1 for a conduit.
+	Fracture int
+	// Set of the fracture (dfn.KnownSet for mapped ones; −2 for conduits).
+	Set int
+	// P0, P1 are the ends in local metres; Length and Height in m.
+	P0, P1         r2.Vec
+	Length, Height float64
+}
+
+// ConduitSet marks conduit elements in Element.Set.
+const ConduitSet = -2
+
+// model is everything fixed during a run.
+type model struct {
+	s        *scenarios.Scenario
+	net      *dfn.Network
+	mesh     *flow.Mesh
+	elements []Element
+	conduits []Conduit
+	order    []scenarios.PlannedStage
+	// wellNodes[k] are the mesh nodes fed by stage k's clusters.
+	wellNodes [][]int
+	// Per element: total normal stress σn and initial shear stress τ on the
+	// element's fracture plane, Pa; the patch used for crack opening.
+	sigmaN, tau0 []float64
+	openPatch    []mechanics.Patch
+	// runs[k] = [first, end) elements of natural trace k (a fracture's
+	// elements are contiguous along its trace).
+	runs      [][2]int
+	slip      mechanics.SlipModel
+	aperture  mechanics.ApertureModel
+	shmin     float64 // Pa, for the tensile-regime warning
+	p0        float64 // initial pore pressure, Pa
+	grid      scenarios.Grid
+	conduitEl []bool
+}
+
+// newModel builds the mesh (traces, conduits, junctions, well cuts), the
+// stage wells and the stresses on every element.
+func newModel(s *scenarios.Scenario, net *dfn.Network) (*model, error) {
+	stress, err := mechanics.StressFromScenario(s.Stress, s.Layer.Depth)
+	if err != nil {
+		return nil, &InputError{err}
+	}
+	slip, err := mechanics.SlipModelFromScenario(s.Rock)
+	if err != nil {
+		return nil, &InputError{err}
+	}
+	ap, err := mechanics.ApertureFromScenario(s.Rock)
+	if err != nil {
+		return nil, &InputError{err}
+	}
+	m := &model{s: s, net: net, order: s.PumpingOrder(), slip: slip, aperture: ap,
+		p0: stress.PorePressure(), grid: s.MapGrid()}
+	for _, p := range stress.Principal() {
+		if p.Name == "Shmin" {
+			m.shmin = p.Value
+		}
+	}
+	paths, junctions := m.paths()
+	clusterNodes, err := m.clusterCuts(paths)
+	if err != nil {
+		return nil, err
+	}
+	m.mesh, err = flow.BuildMesh(paths, junctions, flow.MeshSettings{ElementLength: s.Numerics.ElementLength})
+	if err != nil {
+		return nil, err
+	}
+	m.wellNodes = make([][]int, len(m.order))
+	for k, feeds := range clusterNodes {
+		for _, f := range feeds {
+			m.wellNodes[k] = appendUnique(m.wellNodes[k], m.mesh.Node(f.path, f.frac))
+		}
+	}
+	m.elementStresses(stress)
+	return m, nil
+}
+
+// paths lists the natural traces, then one conduit per cluster when the
+// well has conduits, and their junctions.
+func (m *model) paths() ([]flow.Path, []flow.Junction) {
+	net := m.net
+	paths := make([]flow.Path, 0, len(net.Traces))
+	for _, t := range net.Traces {
+		paths = append(paths, flow.Path{P0: t.P0, P1: t.P1, Height: t.Height})
+	}
+	junctions := make([]flow.Junction, 0, len(net.Intersections))
+	for _, x := range net.Intersections {
+		junctions = append(junctions, flow.Junction{A: x.I, B: x.J, SA: x.SI, SB: x.SJ})
+	}
+	strike := orient.Line(m.s.Stress.SHmaxAzimuth, 0)
+	dir := r2.Vec{X: strike.X, Y: strike.Y}
+	var ix *dfn.Index
+	for k, st := range m.order {
+		w := m.s.Wells[st.Well]
+		if w.ConduitHalfLength <= 0 {
+			continue
+		}
+		h := w.ConduitHeight
+		if h == 0 {
+			h = m.s.Layer.Thickness
+		}
+		for c, at := range w.Stages[st.Stage].Clusters {
+			centre := pointAlong(net.Wells[st.Well].Path, at)
+			cd := Conduit{Stage: k, Cluster: c, Aperture: w.ConduitAperture, Height: h,
+				P0: r2.Sub(centre, r2.Scale(w.ConduitHalfLength, dir)),
+				P1: r2.Add(centre, r2.Scale(w.ConduitHalfLength, dir))}
+			m.conduits = append(m.conduits, cd)
+			id := len(paths)
+			paths = append(paths, flow.Path{P0: cd.P0, P1: cd.P1, Height: h, Cuts: []float64{0.5}})
+			if ix == nil {
+				segs := make([]dfn.Segment, len(net.Traces))
+				for i, t := range net.Traces {
+					segs[i] = t.Segment
+				}
+				ix = dfn.NewIndex(segs)
+			}
+			length := 2 * w.ConduitHalfLength
+			for _, x := range ix.CrossPolyline([]r2.Vec{cd.P0, cd.P1}) {
+				t := net.Traces[x.Segment]
+				junctions = append(junctions, flow.Junction{A: id, B: x.Segment,
+					SA: x.Distance / length, SB: r2.Norm(r2.Sub(x.Point, t.P0)) / t.Length})
+			}
+		}
+	}
+	return paths, junctions
+}
+
+// feed is a position on a path fed by a perforation cluster.
+type feed struct {
+	path int
+	frac float64
+}
+
+// clusterCuts finds, for every stage, the path positions its clusters
+// feed: the midpoint of each cluster's conduit, and every trace the well
+// path crosses within the perforation reach of a cluster. It adds those
+// positions to the paths' cuts so that they become nodes.
+func (m *model) clusterCuts(paths []flow.Path) ([][]feed, error) {
+	feeds := make([][]feed, len(m.order))
+	for i, cd := range m.conduits {
+		// Conduit i is path len(traces)+i, cut at its midpoint.
+		feeds[cd.Stage] = append(feeds[cd.Stage], feed{path: len(m.net.Traces) + i, frac: 0.5})
+	}
+	for k, st := range m.order {
+		w := m.s.Wells[st.Well]
+		for _, x := range m.net.WellCrossings {
+			if x.Well != st.Well {
+				continue
+			}
+			for _, at := range w.Stages[st.Stage].Clusters {
+				if math.Abs(x.Distance-at) <= w.PerforationReach {
+					t := m.net.Traces[x.Trace]
+					f := r2.Norm(r2.Sub(x.Point, t.P0)) / t.Length
+					paths[x.Trace].Cuts = append(paths[x.Trace].Cuts, f)
+					feeds[k] = append(feeds[k], feed{path: x.Trace, frac: f})
+					break
+				}
+			}
+		}
+		if len(feeds[k]) == 0 {
+			return nil, inputErrorf("stage %s: its clusters meet no fracture within the perforation reach (%.3g m) and the well has no primary conduits; widen wells[%d].perforation_reach or set wells[%d].conduit_half_length",
+				st.Name, w.PerforationReach, st.Well, st.Well)
+		}
+	}
+	return feeds, nil
+}
+
+// elementStresses fills the per-element view and resolves the in-situ
+// stress on each element's fracture.
+func (m *model) elementStresses(stress mechanics.Stress) {
+	nt := len(m.net.Traces)
+	n := len(m.mesh.Elements)
+	m.elements = make([]Element, n)
+	m.sigmaN, m.tau0 = make([]float64, n), make([]float64, n)
+	m.openPatch = make([]mechanics.Patch, n)
+	m.conduitEl = make([]bool, n)
+	m.runs = make([][2]int, nt)
+	for i := range m.runs {
+		m.runs[i] = [2]int{-1, -1}
+	}
+	resolved := map[int]mechanics.PlaneStress{}
+	for i, el := range m.mesh.Elements {
+		e := Element{Trace: -1, Fracture: -1, Set: ConduitSet, P0: el.P0, P1: el.P1, Length: el.Length, Height: el.Height}
+		if el.Path < nt {
+			t := m.net.Traces[el.Path]
+			e.Trace, e.Fracture, e.Set = el.Path, t.Fracture, t.Set
+			ps, ok := resolved[t.Fracture]
+			if !ok {
+				ps = stress.Resolve(m.net.Fractures[t.Fracture].Normal)
+				resolved[t.Fracture] = ps
+			}
+			m.sigmaN[i], m.tau0[i] = ps.SigmaN, ps.Tau
+			m.openPatch[i] = mechanics.Patch{Length: t.Length, Height: t.Height}
+			if m.runs[el.Path][0] < 0 {
+				m.runs[el.Path][0] = i
+			}
+			m.runs[el.Path][1] = i + 1
+		} else {
+			m.conduitEl[i] = true
+		}
+		m.elements[i] = e
+	}
+}
+
+// pointAlong returns the point at distance d along a polyline.
+func pointAlong(path []r2.Vec, d float64) r2.Vec {
+	for i := 1; i < len(path); i++ {
+		leg := r2.Norm(r2.Sub(path[i], path[i-1]))
+		if d <= leg || i == len(path)-1 {
+			return r2.Add(path[i-1], r2.Scale(math.Min(d, leg)/leg, r2.Sub(path[i], path[i-1])))
+		}
+		d -= leg
+	}
+	return path[0]
+}
+
+func appendUnique(list []int, v int) []int {
+	for _, x := range list {
+		if x == v {
+			return list
+		}
+	}
+	return append(list, v)
+}

@@ -1,0 +1,226 @@
+package sim
+
+import (
+	"bytes"
+	"context"
+	"errors"
+	"fmt"
+	"math"
+	"os"
+	"strings"
+	"testing"
+
+	"gonum.org/v1/gonum/stat/distuv"
+
+	"slipfront/dfn"
+	"slipfront/internal/numtest"
+	"slipfront/mechanics"
+	"slipfront/scenarios"
+)
+
+// runExample runs an embedded example with overrides.
+func runExample(t testing.TB, name string, overrides ...string) (*scenarios.Scenario, *dfn.Network, *Result) {
+	t.Helper()
+	ov, err := scenarios.ParseOverrides(overrides)
+	if err != nil {
+		t.Fatal(err)
+	}
+	s, err := scenarios.LoadExample(name, ov...)
+	if err != nil {
+		t.Fatal(err)
+	}
+	net, err := dfn.Generate(s, 0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	res, err := Run(context.Background(), s, net, Options{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	return s, net, res
+}
+
+// slipFront returns the distance from the well (x = 0.5 m) of the centre
+// of the farthest slipped element of the single-fracture case, m.
+func slipFront(res *Result) float64 {
+	var front float64
+	for i, el := range res.Elements {
+		if res.Slip[i] > 0 {
+			front = math.Max(front, 0.5*(el.P0.X+el.P1.X)-0.5)
+		}
+	}
+	return front
+}
+
+// The slipped region of one long fracture under constant-pressure
+// injection ends where the erfc solution's pressure increase equals the
+// critical increase (Carslaw & Jaeger 1959 §2.4; REFERENCES.md §12.1):
+//
+//	x_c = 2 √(D t) · erfc⁻¹(Δp_c / Δp),   D = e²/(12 μ c_f),
+//
+// with Δp_c = σn − p0 − τ/μs (REFERENCES.md §7.2). The error shrinks as the
+// elements are refined. Dilation then carries the front farther.
+func TestSlipFrontFollowsPressureFront(t *testing.T) {
+	const (
+		e, mu, cf = 1e-4, 1e-3, 4.5e-10 // the example's aperture and fluid
+		dp, tEnd  = 20e6, 60.0          // injection at 40 MPa over p0 = 20 MPa
+		sigmaN    = 46.5e6              // 60·cos²60° + 42·sin²60° MPa (§7.1)
+		tau       = 7.794228634e6       // (60 − 42)·sin 60°·cos 60° MPa
+	)
+	dpc := sigmaN - 20e6 - tau/0.6
+	// erfc⁻¹(y) = −Φ⁻¹(y/2)/√2 with Φ the standard normal distribution.
+	xc := 2 * math.Sqrt(e*e/(12*mu*cf)*tEnd) * -distuv.UnitNormal.Quantile(dpc/dp/2) / math.Sqrt2
+	// Elements and time steps shrink together (dt ∝ dx², as in the flow
+	// package's erfc test).
+	cases := []struct {
+		dx, dt float64 // m, s
+	}{{40, 2}, {20, 0.5}, {10, 0.125}, {5, 0.03125}}
+	var errs []float64
+	for _, c := range cases {
+		_, _, res := runExample(t, "single-fracture", fmt.Sprintf("numerics.element_length=%g m", c.dx),
+			fmt.Sprintf("numerics.time_step_max=%g s", c.dt), fmt.Sprintf("numerics.time_step_initial=%g s", c.dt/10))
+		front := slipFront(res)
+		errs = append(errs, math.Abs(front-xc))
+		t.Logf("elements %g m, steps ≤ %g s: slip front %.1f m, erfc front %.1f m", c.dx, c.dt, front, xc)
+		// The front is read at element centres, so it lies within one
+		// element of x_c; 0.5 % of x_c more for the time discretisation.
+		if tol := c.dx + 0.005*xc; errs[len(errs)-1] > tol {
+			t.Errorf("elements %g m: front error %.2f m > %.2f m", c.dx, errs[len(errs)-1], tol)
+		}
+	}
+	if errs[len(errs)-1] >= errs[0] {
+		t.Errorf("front error did not shrink with refinement: %v", errs)
+	}
+}
+
+// With shear dilation the slipped fracture conducts better, so the same
+// injection stimulates farther. Closure is on here for both runs (e0 = 1 mm,
+// closure_stress 300 MPa, which keeps the diffusivity near that of the
+// erfc case): with a rigid fracture, dilation would open pore volume that
+// only fluid compressibility could fill (undrained suction of hundreds of
+// MPa), which no fracture in rock shows.
+func TestDilationCarriesSlipFarther(t *testing.T) {
+	common := []string{"numerics.element_length=10 m", "rock.zero_stress_aperture=1 mm", "rock.closure_stress=300 MPa",
+		"rock.dilation_slip_limit=10 mm"}
+	_, _, base := runExample(t, "single-fracture", append(common, "rock.dilation_angle=0 deg")...)
+	_, _, dil := runExample(t, "single-fracture", append(common, "rock.dilation_angle=5 deg")...)
+	t.Logf("dilation 5°: slip front %.1f m against %.1f m without (×%.2f)", slipFront(dil), slipFront(base), slipFront(dil)/slipFront(base))
+	if !(slipFront(dil) > slipFront(base)) {
+		t.Errorf("dilation did not carry the slip front farther: %.1f ≤ %.1f m", slipFront(dil), slipFront(base))
+	}
+}
+
+// TestDemoInvariants runs the demo with smaller stages and a coarser mesh
+// (quick enough for every test run) and checks the invariants of issue 5.
+func TestDemoInvariants(t *testing.T) {
+	s, _, res := runExample(t, "demo", "schedule.volume=60 bbl", "numerics.element_length=20 m")
+	if res.MassBalanceError > 1e-8 {
+		t.Errorf("mass balance error %.3g > 1e-8 relative (issue 5)", res.MassBalanceError)
+	}
+	for i := 1; i < len(res.Timeline); i++ {
+		a, b := res.Timeline[i-1], res.Timeline[i]
+		if b.StimulatedArea < a.StimulatedArea || b.FractureArea < a.FractureArea || b.Time < a.Time {
+			t.Fatalf("timeline row %d: stimulated area or time decreased", i)
+		}
+	}
+	if res.StimulatedArea <= 0 || len(res.Events) == 0 {
+		t.Fatalf("the demo stimulated nothing (area %g, %d events)", res.StimulatedArea, len(res.Events))
+	}
+	// The event catalogue accounts for all slip: Σ M0 = G Σ_elements L h D.
+	var m0, slipArea float64
+	for _, e := range res.Events {
+		m0 += e.Moment
+	}
+	for i, el := range res.Elements {
+		slipArea += el.Length * el.Height * res.Slip[i]
+	}
+	numtest.Rel(t, "Σ event moments", m0, s.Rock.ShearModulus*slipArea, 1e-9)
+	checkGainOnlyWhereSlipped(t, s, res)
+}
+
+// checkGainOnlyWhereSlipped: an element that never slipped has exactly the
+// aperture the closure law gives at its final pressure (no lasting gain);
+// with dilation, a slipped one has more.
+func checkGainOnlyWhereSlipped(t *testing.T, s *scenarios.Scenario, res *Result) {
+	t.Helper()
+	model, err := mechanics.ApertureFromScenario(s.Rock)
+	if err != nil {
+		t.Fatal(err)
+	}
+	stress, err := mechanics.StressFromScenario(s.Stress, s.Layer.Depth)
+	if err != nil {
+		t.Fatal(err)
+	}
+	net, err := dfn.Generate(s, 0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var slipped int
+	for i, el := range res.Elements {
+		if el.Fracture < 0 {
+			continue
+		}
+		f := net.Fractures[el.Fracture]
+		sn := stress.Resolve(f.Normal).SigmaN
+		patch := mechanics.Patch{Length: net.Traces[el.Trace].Length, Height: el.Height}
+		unslipped := model.Aperture(sn, res.Pressure[i], 0, patch)
+		switch {
+		case res.Slip[i] == 0:
+			numtest.Rel(t, "aperture of an element that never slipped", res.Aperture[i], unslipped, 1e-12)
+		case res.Aperture[i] <= unslipped:
+			t.Errorf("element %d slipped %.3g m but gained no aperture", i, res.Slip[i])
+		default:
+			slipped++
+		}
+	}
+	if slipped == 0 {
+		t.Error("no slipped element to check")
+	}
+}
+
+// Same scenario and seed → identical timeline.csv and events.csv (issue 5).
+func TestDeterministic(t *testing.T) {
+	write := func() ([]byte, []byte) {
+		s, _, res := runExample(t, "demo", "schedule.volume=40 bbl", "numerics.element_length=25 m")
+		var tl, ev bytes.Buffer
+		if err := WriteTimeline(&tl, s, res); err != nil {
+			t.Fatal(err)
+		}
+		if err := WriteEvents(&ev, s, res); err != nil {
+			t.Fatal(err)
+		}
+		return tl.Bytes(), ev.Bytes()
+	}
+	tl1, ev1 := write()
+	tl2, ev2 := write()
+	if !bytes.Equal(tl1, tl2) || !bytes.Equal(ev1, ev2) {
+		t.Error("two runs of the same scenario and seed differ")
+	}
+	if !bytes.HasPrefix(tl1, []byte(TimelineHeader)) || !bytes.HasPrefix(ev1, []byte(EventsHeader)) {
+		t.Error("headers")
+	}
+}
+
+// A stage whose clusters meet no fracture is bad input that names the
+// stage (issue 4).
+func TestStageTouchingNoFracture(t *testing.T) {
+	src, err := scenarios.ExampleSource("single-fracture")
+	if err != nil {
+		t.Fatal(err)
+	}
+	src = bytes.Replace(src, []byte(`clusters = ["100 m"]`), []byte(`clusters = ["50 m"]`), 1)
+	files := os.DirFS("../scenarios/examples")
+	s, err := scenarios.Parse("single-fracture.toml", src, files)
+	if err != nil {
+		t.Fatal(err)
+	}
+	net, err := dfn.Generate(s, 0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	_, err = Run(context.Background(), s, net, Options{})
+	var ie *InputError
+	if !errors.As(err, &ie) || !strings.Contains(err.Error(), "stage V:1") {
+		t.Fatalf("error %v, want an InputError naming stage V:1", err)
+	}
+}

@@ -1,0 +1,293 @@
+package sim
+
+import (
+	"encoding/csv"
+	"encoding/json"
+	"fmt"
+	"io"
+	"math"
+	"strconv"
+	"strings"
+
+	"slipfront/dfn"
+	"slipfront/internal/version"
+	"slipfront/mechanics"
+	"slipfront/scenarios"
+)
+
+// Caution is written into every summary of a run.
+const Caution = "slipfront is a screening and comparison tool, not a design code: pump pressures, well integrity and induced-seismicity limits follow local regulation and licensed engineering practice"
+
+// num formats v with prec decimals; NaN and ±Inf as an empty field.
+func num(v float64, prec int) string {
+	if math.IsNaN(v) || math.IsInf(v, 0) {
+		return ""
+	}
+	s := strconv.FormatFloat(v, 'f', prec, 64)
+	if strings.Trim(s, "-0.") == "" {
+		return strconv.FormatFloat(0, 'f', prec, 64) // no "-0.000"
+	}
+	return s
+}
+
+// sci formats v in exponent notation with prec digits; NaN as empty.
+func sci(v float64, prec int) string {
+	if math.IsNaN(v) || math.IsInf(v, 0) {
+		return ""
+	}
+	return strconv.FormatFloat(v, 'e', prec, 64)
+}
+
+func stageName(order []scenarios.PlannedStage, k int) string {
+	if k < 0 || k >= len(order) {
+		return ""
+	}
+	return order[k].Name
+}
+
+// TimelineHeader is the header of timeline.csv.
+const TimelineHeader = "time_s,stage,rate_m3_s,injected_m3,bhp_MPa,stimulated_area_m2,stimulated_fracture_area_m2,stimulated_volume_m3,slipped_elements,events,max_pressure_MPa"
+
+// WriteTimeline writes timeline.csv: one row per output time and stage
+// boundary.
+func WriteTimeline(w io.Writer, s *scenarios.Scenario, res *Result) error {
+	cw := csv.NewWriter(w)
+	cw.Write(strings.Split(TimelineHeader, ","))
+	order := s.PumpingOrder()
+	for _, x := range res.Timeline {
+		cw.Write([]string{
+			num(x.Time, 3), stageName(order, x.Stage), sci(x.Rate, 6), num(x.Injected, 6), num(x.BHP/1e6, 6),
+			num(x.StimulatedArea, 1), num(x.FractureArea, 1), num(x.StimulatedArea*s.Layer.Thickness, 1),
+			strconv.Itoa(x.SlippedElements), strconv.Itoa(x.Events), num(x.MaxPressure/1e6, 6),
+		})
+	}
+	cw.Flush()
+	return cw.Error()
+}
+
+// EventsHeader is the header of events.csv.
+const EventsHeader = "time_s,x_m,y_m,depth_m,fracture_id,stage,slip_m,area_m2,moment_Nm,magnitude_Mw"
+
+// WriteEvents writes events.csv: the synthetic microseismic catalogue.
+func WriteEvents(w io.Writer, s *scenarios.Scenario, res *Result) error {
+	cw := csv.NewWriter(w)
+	cw.Write(strings.Split(EventsHeader, ","))
+	order := s.PumpingOrder()
+	for _, e := range res.Events {
+		cw.Write([]string{
+			num(e.Time, 3), num(e.X, 3), num(e.Y, 3), num(e.Depth, 3), strconv.Itoa(e.Fracture),
+			stageName(order, e.Stage), sci(e.Slip, 6), num(e.Area, 3), sci(e.Moment, 6), num(e.Magnitude, 4),
+		})
+	}
+	cw.Flush()
+	return cw.Error()
+}
+
+// FractureResult is the final state of one fracture that crosses the
+// layer, summed over its elements.
+type FractureResult struct {
+	Fracture int
+	// Set index and name.
+	Set     int
+	SetName string
+	// Dip and DipDirection, radians.
+	Dip, DipDirection float64
+	// TraceLength and Height, m; Elements on its trace.
+	TraceLength, Height float64
+	Elements            int
+	// MaxSlip and MeanSlip (length-weighted), m.
+	MaxSlip, MeanSlip float64
+	// MeanAperture and InitialAperture (length-weighted), m.
+	MeanAperture, InitialAperture float64
+	// PermeabilityGain (MeanAperture/InitialAperture)² (cubic law: k = e²/12)
+	// and the largest gain of any of its elements.
+	PermeabilityGain, MaxPermeabilityGain float64
+	// FirstSlip time, s (NaN if never), and its stage index (−1).
+	FirstSlip      float64
+	FirstSlipStage int
+	// StimulatedLength of its trace, m.
+	StimulatedLength float64
+}
+
+// Fractures sums the result per fracture, in fracture order.
+func Fractures(net *dfn.Network, res *Result) []FractureResult {
+	byFracture := map[int]*FractureResult{}
+	var order []int
+	for i, el := range res.Elements {
+		if el.Fracture < 0 {
+			continue
+		}
+		f, ok := byFracture[el.Fracture]
+		if !ok {
+			fr := net.Fractures[el.Fracture]
+			f = &FractureResult{Fracture: el.Fracture, Set: fr.Set, SetName: net.SetName(fr.Set),
+				Dip: fr.Dip, DipDirection: fr.DipDirection, Height: el.Height,
+				FirstSlip: math.NaN(), FirstSlipStage: -1}
+			byFracture[el.Fracture] = f
+			order = append(order, el.Fracture)
+		}
+		f.Elements++
+		f.TraceLength += el.Length
+		f.MaxSlip = math.Max(f.MaxSlip, res.Slip[i])
+		f.MeanSlip += res.Slip[i] * el.Length
+		f.MeanAperture += res.Aperture[i] * el.Length
+		f.InitialAperture += res.InitialAperture[i] * el.Length
+		f.MaxPermeabilityGain = math.Max(f.MaxPermeabilityGain, mechanics.PermeabilityGain(res.Aperture[i], res.InitialAperture[i]))
+		if t := res.FirstSlip[i]; !math.IsNaN(t) && (math.IsNaN(f.FirstSlip) || t < f.FirstSlip) {
+			f.FirstSlip, f.FirstSlipStage = t, res.FirstSlipStage[i]
+		}
+		if res.Stimulated[i] {
+			f.StimulatedLength += el.Length
+		}
+	}
+	out := make([]FractureResult, 0, len(order))
+	for _, id := range order {
+		f := byFracture[id]
+		f.MeanSlip /= f.TraceLength
+		f.MeanAperture /= f.TraceLength
+		f.InitialAperture /= f.TraceLength
+		f.PermeabilityGain = mechanics.PermeabilityGain(f.MeanAperture, f.InitialAperture)
+		out = append(out, *f)
+	}
+	return out
+}
+
+// FracturesHeader is the header of fractures.csv.
+const FracturesHeader = "fracture_id,set,set_name,dip_deg,dip_direction_deg,trace_length_m,height_m,elements,max_slip_mm,mean_slip_mm,initial_aperture_mm,mean_aperture_mm,permeability_gain,max_permeability_gain,first_slip_time_s,first_slip_stage,stimulated_length_m"
+
+// WriteFractures writes fractures.csv: one row per fracture crossing the
+// layer.
+func WriteFractures(w io.Writer, s *scenarios.Scenario, net *dfn.Network, res *Result) error {
+	cw := csv.NewWriter(w)
+	cw.Write(strings.Split(FracturesHeader, ","))
+	order := s.PumpingOrder()
+	for _, f := range Fractures(net, res) {
+		cw.Write([]string{
+			strconv.Itoa(f.Fracture), strconv.Itoa(f.Set), f.SetName,
+			num(f.Dip*180/math.Pi, 3), num(f.DipDirection*180/math.Pi, 3), num(f.TraceLength, 3), num(f.Height, 3),
+			strconv.Itoa(f.Elements), num(f.MaxSlip*1e3, 6), num(f.MeanSlip*1e3, 6),
+			num(f.InitialAperture*1e3, 6), num(f.MeanAperture*1e3, 6), num(f.PermeabilityGain, 4), num(f.MaxPermeabilityGain, 4),
+			num(f.FirstSlip, 3), stageName(order, f.FirstSlipStage), num(f.StimulatedLength, 3),
+		})
+	}
+	cw.Flush()
+	return cw.Error()
+}
+
+// summaryJSON is the layout of summary.json.
+type summaryJSON struct {
+	Program     string       `json:"program"`
+	Caution     string       `json:"caution"`
+	Scenario    string       `json:"scenario"`
+	Digest      string       `json:"scenario_digest"`
+	Seed        uint64       `json:"seed"`
+	Realization int          `json:"realization"`
+	NetworkHash string       `json:"network_digest"`
+	Start       string       `json:"schedule_start_utc"`
+	Totals      totalsJSON   `json:"totals"`
+	Stages      []stageJSON  `json:"stages"`
+	Warnings    []string     `json:"warnings"`
+	Numerics    numericsJSON `json:"numerics"`
+	Failure     *string      `json:"failure,omitempty"`
+}
+
+type totalsJSON struct {
+	DurationS          float64  `json:"duration_s"`
+	InjectedM3         float64  `json:"injected_m3"`
+	LeakedM3           float64  `json:"leaked_m3"`
+	StimulatedAreaM2   float64  `json:"stimulated_area_m2"`
+	FractureAreaM2     float64  `json:"stimulated_fracture_area_m2"`
+	StimulatedVolumeM3 float64  `json:"stimulated_volume_m3"`
+	Events             int      `json:"events"`
+	MaxMagnitude       *float64 `json:"max_magnitude_Mw"`
+	PeakBHPMPa         float64  `json:"peak_bhp_MPa"`
+	MassBalanceError   float64  `json:"mass_balance_relative_error"`
+}
+
+type stageJSON struct {
+	Name         string   `json:"name"`
+	StartS       float64  `json:"start_s"`
+	PumpEndS     float64  `json:"pump_end_s"`
+	EndS         float64  `json:"end_s"`
+	InjectedM3   float64  `json:"injected_m3"`
+	PeakBHPMPa   float64  `json:"peak_bhp_MPa"`
+	NewAreaM2    float64  `json:"new_stimulated_area_m2"`
+	Events       int      `json:"events"`
+	MaxMagnitude *float64 `json:"max_magnitude_Mw"`
+	Capped       bool     `json:"pressure_cap_reached"`
+	Steps        int      `json:"time_steps"`
+}
+
+type numericsJSON struct {
+	Elements      int    `json:"elements"`
+	Conduits      int    `json:"conduits"`
+	Solver        string `json:"linear_solver"`
+	FactorEntries int    `json:"cholesky_factor_entries"`
+	Steps         int    `json:"time_steps"`
+	CutSteps      int    `json:"repeated_steps"`
+}
+
+func optional(v float64) *float64 {
+	if math.IsNaN(v) {
+		return nil
+	}
+	return &v
+}
+
+// WriteSummary writes summary.json; failure, when not nil, is recorded as
+// the reason the run stopped early.
+func WriteSummary(w io.Writer, s *scenarios.Scenario, net *dfn.Network, res *Result, failure error) error {
+	maxMw := math.NaN()
+	for _, e := range res.Events {
+		if math.IsNaN(maxMw) || e.Magnitude > maxMw {
+			maxMw = e.Magnitude
+		}
+	}
+	sj := summaryJSON{
+		Program: "slipfront " + version.Version, Caution: Caution, Scenario: s.Name, Digest: s.Digest,
+		Seed: s.Seed, Realization: net.Realization, NetworkHash: net.Digest(), Start: s.Schedule.Start,
+		Totals: totalsJSON{
+			DurationS: res.Duration, InjectedM3: res.Injected, LeakedM3: res.Leaked,
+			StimulatedAreaM2: res.StimulatedArea, FractureAreaM2: res.FractureArea, StimulatedVolumeM3: res.StimulatedVolume,
+			Events: len(res.Events), MaxMagnitude: optional(maxMw), PeakBHPMPa: res.PeakBHP / 1e6,
+			MassBalanceError: res.MassBalanceError,
+		},
+		Warnings: append([]string{}, res.Warnings...),
+		Numerics: numericsJSON{Elements: len(res.Elements), Conduits: len(res.Conduits), Solver: res.Solver,
+			FactorEntries: res.FactorEntries, Steps: res.Steps, CutSteps: res.CutSteps},
+	}
+	for _, st := range res.Stages {
+		sj.Stages = append(sj.Stages, stageJSON{
+			Name: st.Name, StartS: st.Start, PumpEndS: st.PumpEnd, EndS: st.End, InjectedM3: st.Injected,
+			PeakBHPMPa: st.PeakBHP / 1e6, NewAreaM2: st.NewArea, Events: st.Events,
+			MaxMagnitude: optional(st.MaxMagnitude), Capped: st.Capped, Steps: st.Steps,
+		})
+	}
+	if failure != nil {
+		msg := failure.Error()
+		sj.Failure = &msg
+	}
+	enc := json.NewEncoder(w)
+	enc.SetIndent("", "  ")
+	return enc.Encode(sj)
+}
+
+// WriteStageTable prints the per-stage summary for people.
+func WriteStageTable(w io.Writer, res *Result) error {
+	var b strings.Builder
+	fmt.Fprintf(&b, "%-10s %12s %14s %16s %8s %9s\n", "stage", "injected m3", "peak BHP MPa", "new area m2", "events", "max Mw")
+	for _, st := range res.Stages {
+		mw := "-"
+		if !math.IsNaN(st.MaxMagnitude) {
+			mw = fmt.Sprintf("%.2f", st.MaxMagnitude)
+		}
+		fmt.Fprintf(&b, "%-10s %12.1f %14.2f %16.0f %8d %9s\n", st.Name, st.Injected, st.PeakBHP/1e6, st.NewArea, st.Events, mw)
+	}
+	fmt.Fprintf(&b, "total: %.1f m3 injected, stimulated area %.0f m2 (fracture surface %.0f m2), %d events, peak BHP %.2f MPa\n",
+		res.Injected, res.StimulatedArea, res.FractureArea, len(res.Events), res.PeakBHP/1e6)
+	for _, wmsg := range res.Warnings {
+		fmt.Fprintf(&b, "warning: %s\n", wmsg)
+	}
+	_, err := io.WriteString(w, b.String())
+	return err
+}
