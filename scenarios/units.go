@@ -231,3 +231,12 @@ func editDistance(a, b string) int {
 	}
 	return prev[len(rb)]
 }
+
+// ParseDuration reads a time such as "90 min", "2 h" or "3600 s" for
+// command-line flags; a bare number is seconds.
+func ParseDuration(s string) (float64, error) {
+	if v, err := strconv.ParseFloat(strings.TrimSpace(s), 64); err == nil && !math.IsNaN(v) && !math.IsInf(v, 0) {
+		return v, nil
+	}
+	return parseQuantity(s, kindTime)
+}

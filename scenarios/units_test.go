@@ -82,3 +82,17 @@ func TestEditDistance(t *testing.T) {
 		}
 	}
 }
+
+func TestParseDuration(t *testing.T) {
+	for in, want := range map[string]float64{"90 min": 5400, "2 h": 7200, "3600": 3600, " 1.5 d": 129600} {
+		got, err := ParseDuration(in)
+		if err != nil {
+			t.Errorf("%q: %v", in, err)
+			continue
+		}
+		numtest.Rel(t, in, got, want, 1e-15)
+	}
+	if _, err := ParseDuration("2 furlongs"); err == nil {
+		t.Error("accepted a length as a time")
+	}
+}

@@ -60,6 +60,7 @@ type stimulation struct {
 	grid      scenarios.Grid
 	threshold float64 // m of slip
 	element   []bool
+	at        []float64 // time each element was stimulated, s (NaN: never)
 	cell      []bool
 	cells     int     // number of stimulated cells
 	fracArea  float64 // Σ L·h of stimulated elements, m²
@@ -67,17 +68,21 @@ type stimulation struct {
 }
 
 func newStimulation(g scenarios.Grid, threshold float64, n int) *stimulation {
-	return &stimulation{grid: g, threshold: threshold, element: make([]bool, n), cell: make([]bool, g.Len())}
+	st := &stimulation{grid: g, threshold: threshold, element: make([]bool, n), at: make([]float64, n), cell: make([]bool, g.Len())}
+	for i := range st.at {
+		st.at[i] = math.NaN()
+	}
+	return st
 }
 
-// update marks elements whose slip reached the threshold and the cells
-// they pass through.
-func (st *stimulation) update(elements []Element, slip []float64) {
+// update marks elements whose slip reached the threshold by time t and
+// the cells they pass through.
+func (st *stimulation) update(elements []Element, slip []float64, t float64) {
 	for i, d := range slip {
 		if st.element[i] || d < st.threshold {
 			continue
 		}
-		st.element[i] = true
+		st.element[i], st.at[i] = true, t
 		el := &elements[i]
 		st.fracArea += el.Length * el.Height
 		st.scratch = CellsAlong(st.scratch[:0], st.grid, el.P0, el.P1)
@@ -88,6 +93,25 @@ func (st *stimulation) update(elements []Element, slip []float64) {
 			}
 		}
 	}
+}
+
+// StimulatedCells returns the cells of g passed through by the elements
+// for which stimulated(i) holds, as a mask in grid order: the stimulated
+// area at any time, from the per-element state of a snapshot frame or from
+// Result.StimulatedAt.
+func StimulatedCells(g scenarios.Grid, elements []Element, stimulated func(i int) bool) []bool {
+	mask := make([]bool, g.Len())
+	var scratch []int
+	for i := range elements {
+		if !stimulated(i) {
+			continue
+		}
+		scratch = CellsAlong(scratch[:0], g, elements[i].P0, elements[i].P1)
+		for _, c := range scratch {
+			mask[c] = true
+		}
+	}
+	return mask
 }
 
 // area returns the stimulated map area, m².

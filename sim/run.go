@@ -76,13 +76,15 @@ type Result struct {
 	// m; Slip, m; FirstSlip, s (NaN if never); FirstSlipStage (−1 if never).
 	Pressure, Aperture, InitialAperture, Slip, FirstSlip []float64
 	FirstSlipStage                                       []int
-	// Stimulated elements and cells (increasing cell indices).
-	Stimulated []bool
-	Cells      []int
-	Timeline   []Sample
-	Events     []Event
-	Stages     []StageSummary
-	Warnings   []string
+	// Stimulated elements, the time each was stimulated (s, NaN if never)
+	// and the stimulated cells (increasing cell indices).
+	Stimulated   []bool
+	StimulatedAt []float64
+	Cells        []int
+	Timeline     []Sample
+	Events       []Event
+	Stages       []StageSummary
+	Warnings     []string
 	// Totals: Injected, Leaked, m³; MassBalanceError relative to Injected.
 	Injected, Leaked, MassBalanceError float64
 	// PeakBHP, Pa; StimulatedArea, FractureArea, m²; StimulatedVolume, m³.
@@ -140,7 +142,7 @@ func newRunner(m *model, opt Options) *runner {
 	for _, ps := range m.order {
 		r.end += ps.NominalLength() + ps.ShutIn
 	}
-	r.lastBHP, r.lastFrame = math.NaN(), math.NaN()
+	r.lastFrame = math.NaN()
 	r.flags = make([]byte, len(m.elements))
 	return r
 }
@@ -168,6 +170,7 @@ func (r *runner) initialise() error {
 	r.cur = sys.NewState(r.m.p0, r.ms.apertures)
 	r.next = sys.NewState(r.m.p0, r.ms.apertures)
 	r.eInit = append([]float64(nil), r.cur.Aperture...)
+	r.lastBHP = r.m.p0 // no well yet: the bottom hole sees the pore pressure
 	r.res.Solver = sys.Solver().Method().String()
 	r.res.FactorEntries = sys.Solver().CholeskyEntries()
 	r.output = 0
@@ -311,11 +314,19 @@ func (r *runner) runPhase(ctx context.Context, sys *flow.System, p *phase, sum *
 		if err := ctx.Err(); err != nil {
 			return err
 		}
-		dt := math.Min(z.Dt, p.limit(r.t))
-		if r.output > r.t {
-			dt = math.Min(dt, r.output-r.t)
+		// The step ends at the next output time or the phase's end when
+		// it reaches them, exactly, so outputs fall on round times.
+		end := r.t + z.Dt
+		for _, mark := range []float64{r.t + p.limit(r.t), p.until, r.output} {
+			if mark > r.t && mark <= end {
+				end = mark
+			}
 		}
-		err := r.step(sys, p, sum, dt, settings, &z)
+		if math.Abs(end-r.output) <= 1e-9*math.Max(1, r.output) {
+			end = r.output // an end of volume a round-off away from an output
+		}
+		dt := end - r.t
+		err := r.step(sys, p, sum, end, settings, &z)
 		if errors.Is(err, errCut) || errors.Is(err, flow.ErrStepNotConverged) || errors.Is(err, flow.ErrNotConverged) {
 			r.res.CutSteps++
 			z.Dt = math.Min(z.Dt, dt)
@@ -331,10 +342,11 @@ func (r *runner) runPhase(ctx context.Context, sys *flow.System, p *phase, sum *
 	return nil
 }
 
-// step tries one coupled step of length dt and accepts it, or returns
+// step tries one coupled step to time end and accepts it, or returns
 // errCut (or the flow error) to have it repeated shorter.
-func (r *runner) step(sys *flow.System, p *phase, sum *StageSummary, dt float64, set flow.StepSettings, z *flow.StepSize) error {
+func (r *runner) step(sys *flow.System, p *phase, sum *StageSummary, end float64, set flow.StepSettings, z *flow.StepSize) error {
 	n := r.m.s.Numerics
+	dt := end - r.t
 	r.ms.beginStep()
 	res, err := sys.Step(r.cur, r.next, dt, p.ctl, r.ms.apertures, set)
 	if err != nil {
@@ -344,10 +356,11 @@ func (r *runner) step(sys *flow.System, p *phase, sum *StageSummary, dt float64,
 		return errCut
 	}
 	// Accept.
-	r.t = r.next.Time
+	r.t = end
+	r.next.Time = end
 	r.cur, r.next = r.next, r.cur
 	r.res.Events = r.ms.commit(r.t, r.stage, r.res.Events)
-	r.stim.update(r.m.elements, r.ms.slip)
+	r.stim.update(r.m.elements, r.ms.slip, r.t)
 	p.injected += res.Injected
 	if res.Injected > 0 {
 		p.lastRate = res.Rate
@@ -448,7 +461,7 @@ func (r *runner) result() *Result {
 	}
 	res.InitialAperture = r.eInit
 	res.Slip, res.FirstSlip, res.FirstSlipStage = r.ms.slip, r.ms.firstSlip, r.ms.firstStage
-	res.Stimulated, res.Cells = r.stim.element, r.stim.cellList()
+	res.Stimulated, res.StimulatedAt, res.Cells = r.stim.element, r.stim.at, r.stim.cellList()
 	res.StimulatedArea, res.FractureArea = r.stim.area(), r.stim.fracArea
 	res.StimulatedVolume = res.StimulatedArea * m.s.Layer.Thickness
 	res.Duration = r.t

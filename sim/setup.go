@@ -142,7 +142,7 @@ func (m *model) paths() ([]flow.Path, []flow.Junction) {
 			h = m.s.Layer.Thickness
 		}
 		for c, at := range w.Stages[st.Stage].Clusters {
-			centre := pointAlong(net.Wells[st.Well].Path, at)
+			centre := PointAlong(net.Wells[st.Well].Path, at)
 			cd := Conduit{Stage: k, Cluster: c, Aperture: w.ConduitAperture, Height: h,
 				P0: r2.Sub(centre, r2.Scale(w.ConduitHalfLength, dir)),
 				P1: r2.Add(centre, r2.Scale(w.ConduitHalfLength, dir))}
@@ -244,8 +244,8 @@ func (m *model) elementStresses(stress mechanics.Stress) {
 	}
 }
 
-// pointAlong returns the point at distance d along a polyline.
-func pointAlong(path []r2.Vec, d float64) r2.Vec {
+// PointAlong returns the point at distance d along a polyline.
+func PointAlong(path []r2.Vec, d float64) r2.Vec {
 	for i := 1; i < len(path); i++ {
 		leg := r2.Norm(r2.Sub(path[i], path[i-1]))
 		if d <= leg || i == len(path)-1 {

@@ -8,8 +8,10 @@ import (
 	"math"
 	"os"
 	"strings"
+	"sync"
 	"testing"
 
+	"gonum.org/v1/gonum/spatial/r2"
 	"gonum.org/v1/gonum/stat/distuv"
 
 	"slipfront/dfn"
@@ -110,10 +112,27 @@ func TestDilationCarriesSlipFarther(t *testing.T) {
 	}
 }
 
-// TestDemoInvariants runs the demo with smaller stages and a coarser mesh
-// (quick enough for every test run) and checks the invariants of issue 5.
+// smallDemo is the demo with smaller stages and a coarser mesh, quick
+// enough for every test run; it runs once and is shared.
+var smallDemo = []string{"schedule.volume=50 bbl", "numerics.element_length=20 m"}
+
+var (
+	smallDemoOnce   sync.Once
+	smallDemoResult *Result
+	smallDemoInput  *scenarios.Scenario
+)
+
+func runSmallDemo(t *testing.T) (*scenarios.Scenario, *Result) {
+	smallDemoOnce.Do(func() { smallDemoInput, _, smallDemoResult = runExample(t, "demo", smallDemo...) })
+	if smallDemoResult == nil {
+		t.Fatal("the small demo failed in an earlier test")
+	}
+	return smallDemoInput, smallDemoResult
+}
+
+// TestDemoInvariants checks the invariants of issue 5 on the small demo.
 func TestDemoInvariants(t *testing.T) {
-	s, _, res := runExample(t, "demo", "schedule.volume=60 bbl", "numerics.element_length=20 m")
+	s, res := runSmallDemo(t)
 	if res.MassBalanceError > 1e-8 {
 		t.Errorf("mass balance error %.3g > 1e-8 relative (issue 5)", res.MassBalanceError)
 	}
@@ -180,8 +199,7 @@ func checkGainOnlyWhereSlipped(t *testing.T, s *scenarios.Scenario, res *Result)
 
 // Same scenario and seed → identical timeline.csv and events.csv (issue 5).
 func TestDeterministic(t *testing.T) {
-	write := func() ([]byte, []byte) {
-		s, _, res := runExample(t, "demo", "schedule.volume=40 bbl", "numerics.element_length=25 m")
+	write := func(s *scenarios.Scenario, res *Result) ([]byte, []byte) {
 		var tl, ev bytes.Buffer
 		if err := WriteTimeline(&tl, s, res); err != nil {
 			t.Fatal(err)
@@ -191,8 +209,9 @@ func TestDeterministic(t *testing.T) {
 		}
 		return tl.Bytes(), ev.Bytes()
 	}
-	tl1, ev1 := write()
-	tl2, ev2 := write()
+	tl1, ev1 := write(runSmallDemo(t))
+	s, _, res := runExample(t, "demo", smallDemo...)
+	tl2, ev2 := write(s, res)
 	if !bytes.Equal(tl1, tl2) || !bytes.Equal(ev1, ev2) {
 		t.Error("two runs of the same scenario and seed differ")
 	}
@@ -223,4 +242,95 @@ func TestStageTouchingNoFracture(t *testing.T) {
 	if !errors.As(err, &ie) || !strings.Contains(err.Error(), "stage V:1") {
 		t.Fatalf("error %v, want an InputError naming stage V:1", err)
 	}
+}
+
+// StimulatedCells rebuilds the run's stimulated cells from the elements'
+// stimulation times.
+func TestStimulatedCellsMatchRun(t *testing.T) {
+	s, res := runSmallDemo(t)
+	mask := StimulatedCells(s.MapGrid(), res.Elements, func(i int) bool { return !math.IsNaN(res.StimulatedAt[i]) })
+	var cells []int
+	for c, on := range mask {
+		if on {
+			cells = append(cells, c)
+		}
+	}
+	if len(cells) == 0 || fmt.Sprint(cells) != fmt.Sprint(res.Cells) {
+		t.Errorf("rebuilt %d cells, the run counted %d", len(cells), len(res.Cells))
+	}
+}
+
+// CellsAlong visits each cell a segment passes through once, in order
+// (Amanatides & Woo 1987); cases checked by hand.
+func TestCellsAlong(t *testing.T) {
+	g := scenarios.Grid{Cols: 4, Rows: 3, CellSize: 10, XMin: 0, YMin: 0}
+	tests := []struct {
+		name string
+		a, b r2.Vec
+		want []int
+	}{
+		{"within one cell", r2.Vec{X: 1, Y: 1}, r2.Vec{X: 9, Y: 9}, []int{0}},
+		{"along a row", r2.Vec{X: 5, Y: 5}, r2.Vec{X: 35, Y: 5}, []int{0, 1, 2, 3}},
+		{"backwards", r2.Vec{X: 35, Y: 15}, r2.Vec{X: 5, Y: 15}, []int{7, 6, 5, 4}},
+		{"diagonal steps", r2.Vec{X: 5, Y: 5}, r2.Vec{X: 25, Y: 12}, []int{0, 1, 5, 6}},
+		{"clipped to the grid", r2.Vec{X: -15, Y: 25}, r2.Vec{X: 15, Y: 25}, []int{8, 9}},
+		{"outside", r2.Vec{X: -15, Y: -5}, r2.Vec{X: -1, Y: -5}, nil},
+	}
+	for _, tc := range tests {
+		got := CellsAlong(nil, g, tc.a, tc.b)
+		if fmt.Sprint(got) != fmt.Sprint(tc.want) {
+			t.Errorf("%s: cells %v, want %v", tc.name, got, tc.want)
+		}
+	}
+}
+
+// events.csv reads back to the same events (at the printed precision).
+func TestEventsRoundTrip(t *testing.T) {
+	s, res := runSmallDemo(t)
+	var b bytes.Buffer
+	if err := WriteEvents(&b, s, res); err != nil {
+		t.Fatal(err)
+	}
+	got, err := ReadEvents(bytes.NewReader(b.Bytes()), "events.csv", s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(got) != len(res.Events) {
+		t.Fatalf("%d events read, %d written", len(got), len(res.Events))
+	}
+	for i, e := range got {
+		w := res.Events[i]
+		numtest.Abs(t, "time", e.Time, w.Time, 5e-4) // 3 decimals printed
+		numtest.Rel(t, "moment", e.Moment, w.Moment, 1e-6)
+		if e.Stage != w.Stage || e.Fracture != w.Fracture {
+			t.Fatalf("event %d: stage or fracture differs", i)
+		}
+	}
+	for _, bad := range []string{"", "a,b\n", EventsHeader + "\n1,2,3,4,5,NOPE:1,7,8,9,10\n", EventsHeader + "\n1,2,3,4,x,W1:1,7,8,9,10\n"} {
+		if _, err := ReadEvents(strings.NewReader(bad), "events.csv", s); err == nil {
+			t.Errorf("accepted %q", bad)
+		}
+	}
+}
+
+func FuzzReadEvents(f *testing.F) {
+	s, err := scenarios.LoadExample("demo")
+	if err != nil {
+		f.Fatal(err)
+	}
+	f.Add([]byte(EventsHeader + "\n12.5,1,2,2600,3,W1:1,1e-4,100,1.5e9,0.05\n"))
+	f.Fuzz(func(t *testing.T, data []byte) {
+		events, err := ReadEvents(bytes.NewReader(data), "fuzz.csv", s)
+		if err != nil {
+			return
+		}
+		var b bytes.Buffer
+		if err := WriteEvents(&b, s, &Result{Events: events}); err != nil {
+			t.Fatal(err)
+		}
+		again, err := ReadEvents(bytes.NewReader(b.Bytes()), "again.csv", s)
+		if err != nil || len(again) != len(events) {
+			t.Fatalf("written events do not read back: %v", err)
+		}
+	})
 }

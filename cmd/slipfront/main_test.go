@@ -119,3 +119,45 @@ func TestScreen(t *testing.T) {
 		}
 	}
 }
+
+// quickRun are overrides that make the demo fast enough for tests.
+var quickRun = []string{"--set", "schedule.volume=30 bbl", "--set", "numerics.element_length=30 m"}
+
+// runQuickDemo runs the quick demo into a new folder and returns it.
+func runQuickDemo(t *testing.T) string {
+	t.Helper()
+	dir := filepath.Join(t.TempDir(), "run")
+	code, out, stderr := runCLI(t, append([]string{"run", "demo", "--out", dir}, quickRun...)...)
+	if code != exitOK {
+		t.Fatalf("run: exit %d: %s", code, stderr)
+	}
+	if !strings.Contains(out, "W2:3") || !strings.Contains(out, "Caution") {
+		t.Errorf("stage table lacks a stage or the caution:\n%s", out)
+	}
+	return dir
+}
+
+func TestRunOutputs(t *testing.T) {
+	dir := runQuickDemo(t)
+	for _, name := range []string{"summary.json", "timeline.csv", "events.csv", "fractures.csv", "run.snap", "maps.gpkg", "map.png", "growth.png", "scenario.json"} {
+		info, err := os.Stat(filepath.Join(dir, name))
+		if err != nil || info.Size() == 0 {
+			t.Errorf("%s missing or empty: %v", name, err)
+		}
+	}
+	timeline, _ := os.ReadFile(filepath.Join(dir, "timeline.csv"))
+	if !strings.HasPrefix(string(timeline), "time_s,stage,rate_m3_s,injected_m3,bhp_MPa,stimulated_area_m2,") {
+		t.Errorf("timeline header %.100q", timeline)
+	}
+	code, out, _ := runCLI(t, "inspect", filepath.Join(dir, "run.snap"))
+	if code != exitOK || !strings.Contains(out, "compression") {
+		t.Errorf("inspect: exit %d\n%s", code, out)
+	}
+	code, out, _ = runCLI(t, "inspect", filepath.Join(dir, "run.snap"), "--time", "1h", "--csv")
+	if code != exitOK || !strings.HasPrefix(out, "element_id,fracture_id,x0_m,y0_m,x1_m,y1_m,pressure_MPa,aperture_mm,slip_mm,state") {
+		t.Errorf("inspect --csv: exit %d\n%.200s", code, out)
+	}
+	if code, _, stderr := runCLI(t, "inspect", filepath.Join(dir, "run.snap"), "--time", "99h"); code != exitBadInput || !strings.Contains(stderr, "ends at") {
+		t.Errorf("time beyond the run: exit %d, %s", code, stderr)
+	}
+}

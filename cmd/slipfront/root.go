@@ -63,6 +63,9 @@ func run(ctx context.Context, args []string, stdout, stderr io.Writer) int {
 		newScenarioCmd(stdout),
 		newGenerateCmd(&g, stdout, stderr),
 		newScreenCmd(&g, stdout, stderr),
+		newRunCmd(&g, stdout, stderr),
+		newDemoCmd(&g, stdout, stderr),
+		newInspectCmd(stdout),
 	)
 	markStarted(root, &started)
 	err := root.ExecuteContext(ctx)

@@ -1,0 +1,49 @@
+package main
+
+import (
+	"context"
+	"fmt"
+	"io"
+
+	"github.com/spf13/cobra"
+
+	"slipfront/internal/outdir"
+	"slipfront/scenarios"
+)
+
+// demoOptions are the flags of "slipfront demo".
+type demoOptions struct {
+	out   string
+	force bool
+}
+
+func newDemoCmd(g *globalOptions, stdout, stderr io.Writer) *cobra.Command {
+	var o demoOptions
+	cmd := &cobra.Command{
+		Use:   "demo [--out DIR]",
+		Short: "Run the embedded demo scenario end to end",
+		Long: "demo runs scenarios/examples/demo.toml (an invented two-well pad) and writes every output of\n" +
+			"a run into --out (default slipfront-demo). Show the scenario with: slipfront scenario show demo\n\n" + caution,
+		Example: "  slipfront demo\n  slipfront demo --out /tmp/demo --force",
+		Args:    cobra.NoArgs,
+		RunE: func(cmd *cobra.Command, _ []string) error {
+			return runDemo(cmd.Context(), &o, g, stdout, stderr)
+		},
+	}
+	cmd.Flags().StringVarP(&o.out, "out", "o", "slipfront-demo", "output folder")
+	cmd.Flags().BoolVar(&o.force, "force", false, "write into an existing, non-empty output folder")
+	return cmd
+}
+
+func runDemo(ctx context.Context, o *demoOptions, g *globalOptions, stdout, stderr io.Writer) error {
+	s, err := scenarios.LoadExample("demo")
+	if err != nil {
+		return err
+	}
+	if err := outdir.Prepare(o.out, o.force); err != nil {
+		return err
+	}
+	fmt.Fprintf(stdout, "%s: %d wells, %d stages, %d fracture sets and %d mapped fault(s)\n",
+		s.Name, len(s.Wells), len(s.PumpingOrder()), len(s.Sets), len(s.KnownFractures.Fractures))
+	return simulate(ctx, s, o.out, g, stdout, stderr)
+}

@@ -1,0 +1,74 @@
+package main
+
+import (
+	"fmt"
+	"io"
+	"os"
+
+	"github.com/spf13/cobra"
+
+	"slipfront/scenarios"
+	"slipfront/snapshot"
+)
+
+// inspectOptions are the flags of "slipfront inspect".
+type inspectOptions struct {
+	file string
+	time string
+	csv  bool
+}
+
+func newInspectCmd(stdout io.Writer) *cobra.Command {
+	var o inspectOptions
+	cmd := &cobra.Command{
+		Use:   "inspect SNAPSHOT [--time T] [--csv]",
+		Short: "Describe a snapshot file, one of its frames, or write a frame as CSV",
+		Example: "  slipfront inspect slipfront-demo/run.snap\n" +
+			"  slipfront inspect slipfront-demo/run.snap --time 2h\n" +
+			"  slipfront inspect slipfront-demo/run.snap --time 2h --csv > frame.csv",
+		Args: cobra.ExactArgs(1),
+		RunE: func(_ *cobra.Command, args []string) error {
+			o.file = args[0]
+			return runInspect(&o, stdout)
+		},
+	}
+	cmd.Flags().StringVar(&o.time, "time", "", "time since the start of pumping, with unit (e.g. 90min, 2h; bare numbers are seconds); default the last frame")
+	cmd.Flags().BoolVar(&o.csv, "csv", false, "write the frame as CSV, one row per element")
+	return cmd
+}
+
+func runInspect(o *inspectOptions, stdout io.Writer) error {
+	f, err := os.Open(o.file)
+	if err != nil {
+		return badInput(err)
+	}
+	defer f.Close()
+	info, err := f.Stat()
+	if err != nil {
+		return err
+	}
+	r, err := snapshot.NewReader(f, info.Size())
+	if err != nil {
+		return badInput(fmt.Errorf("%s: %w", o.file, err))
+	}
+	if o.time == "" && !o.csv {
+		return snapshot.Describe(stdout, r)
+	}
+	frames := r.Frames()
+	if len(frames) == 0 {
+		return badInput(fmt.Errorf("%s holds no frames", o.file))
+	}
+	t := frames[len(frames)-1].Time
+	if o.time != "" {
+		if t, err = scenarios.ParseDuration(o.time); err != nil {
+			return badInput(fmt.Errorf("--time %s: %v", o.time, err))
+		}
+	}
+	if t > frames[len(frames)-1].Time {
+		return badInput(fmt.Errorf("--time %s: the snapshot ends at %g s", o.time, frames[len(frames)-1].Time))
+	}
+	if o.csv {
+		return snapshot.WriteFrameCSV(stdout, r, t)
+	}
+	return snapshot.DescribeFrame(stdout, r, t)
+}

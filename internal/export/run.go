@@ -1,0 +1,200 @@
+package export
+
+import (
+	"fmt"
+	"math"
+	"time"
+
+	"github.com/paulmach/orb"
+
+	"slipfront/dfn"
+	"slipfront/gis"
+	"slipfront/scenarios"
+	"slipfront/sim"
+)
+
+// Run is the state of a run at one time, with what maps are drawn from.
+type Run struct {
+	Scenario *scenarios.Scenario
+	Network  *dfn.Network
+	// Result holds the elements, their state at Time and the events up to
+	// it; Timeline and Stages may be empty (a run read back from a folder).
+	Result *sim.Result
+	// Time of the state, s.
+	Time float64
+	// OutlineTimes are the times of the stimulated-area outlines.
+	OutlineTimes []float64
+}
+
+// Placement returns where the run's local coordinates lie on the map.
+func (r *Run) Placement() (gis.Placement, error) {
+	crs, err := gis.ParseCRS(r.Scenario.Domain.CRS)
+	if err != nil {
+		return gis.Placement{}, err
+	}
+	return gis.Placement{CRS: crs, Easting: r.Scenario.Domain.OriginEasting, Northing: r.Scenario.Domain.OriginNorthing}, nil
+}
+
+// Grid returns the scenario's map grid as a gis raster grid.
+func (r *Run) Grid() gis.Grid {
+	g := r.Scenario.MapGrid()
+	return gis.Grid{Cols: g.Cols, Rows: g.Rows, CellSize: g.CellSize, XMin: g.XMin, YMin: g.YMin}
+}
+
+// LayerNames are the layers Layers builds, in order.
+var LayerNames = []string{"fractures", "conduits", "stimulated_area", "events", "wells", "clusters"}
+
+// Layers builds every vector layer of the run.
+func (r *Run) Layers() ([]gis.Layer, error) {
+	outlines, err := r.outlineLayer()
+	if err != nil {
+		return nil, err
+	}
+	return []gis.Layer{r.fractureLayer(), r.conduitLayer(), outlines, r.eventLayer(), r.wellLayer(), r.clusterLayer()}, nil
+}
+
+// Layer builds the named layer.
+func (r *Run) Layer(name string) (gis.Layer, error) {
+	layers, err := r.Layers()
+	if err != nil {
+		return gis.Layer{}, err
+	}
+	for _, l := range layers {
+		if l.Name == name {
+			return l, nil
+		}
+	}
+	return gis.Layer{}, fmt.Errorf("no layer %q in a run; layers: %v", name, LayerNames)
+}
+
+func line(a, b orb.Point) orb.LineString { return orb.LineString{a, b} }
+
+func pt(x, y float64) orb.Point { return orb.Point{x, y} }
+
+// nullable returns nil for NaN (a NULL attribute).
+func nullable(v float64) any {
+	if math.IsNaN(v) || math.IsInf(v, 0) {
+		return nil
+	}
+	return v
+}
+
+func (r *Run) stageName(k int) any {
+	order := r.Scenario.PumpingOrder()
+	if k < 0 || k >= len(order) {
+		return nil
+	}
+	return order[k].Name
+}
+
+func (r *Run) fractureLayer() gis.Layer {
+	l := gis.Layer{Name: "fractures", Description: "natural fracture traces on the layer mid-plane with their final state",
+		Geometry: gis.LineString, Fields: []gis.Field{
+			{Name: "fracture_id", Type: gis.Int32}, {Name: "set_name", Type: gis.Text}, {Name: "cluster", Type: gis.Int32},
+			{Name: "max_slip_mm", Type: gis.Real}, {Name: "mean_aperture_mm", Type: gis.Real},
+			{Name: "permeability_gain", Type: gis.Real}, {Name: "first_slip_time_s", Type: gis.Real},
+			{Name: "first_slip_stage", Type: gis.Text}, {Name: "stimulated", Type: gis.Boolean},
+		}}
+	byFracture := map[int]sim.FractureResult{}
+	for _, f := range sim.Fractures(r.Network, r.Result) {
+		byFracture[f.Fracture] = f
+	}
+	for _, t := range r.Network.Traces {
+		f, ok := byFracture[t.Fracture]
+		if !ok {
+			continue
+		}
+		l.Features = append(l.Features, gis.Feature{
+			Geometry: line(pt(t.P0.X, t.P0.Y), pt(t.P1.X, t.P1.Y)),
+			Values: []any{t.Fracture, f.SetName, t.Cluster, f.MaxSlip * 1e3, f.MeanAperture * 1e3,
+				nullable(f.PermeabilityGain), nullable(f.FirstSlip), r.stageName(f.FirstSlipStage), f.StimulatedLength > 0},
+		})
+	}
+	return l
+}
+
+func (r *Run) conduitLayer() gis.Layer {
+	l := gis.Layer{Name: "conduits", Description: "primary conduits from the perforation clusters (elements)",
+		Geometry: gis.LineString, Fields: []gis.Field{{Name: "element", Type: gis.Int32}, {Name: "aperture_mm", Type: gis.Real}}}
+	for i, el := range r.Result.Elements {
+		if el.Set != sim.ConduitSet {
+			continue
+		}
+		l.Features = append(l.Features, gis.Feature{Geometry: line(pt(el.P0.X, el.P0.Y), pt(el.P1.X, el.P1.Y)),
+			Values: []any{i, r.Result.Aperture[i] * 1e3}})
+	}
+	return l
+}
+
+// outlineLayer outlines the stimulated cells at every outline time.
+func (r *Run) outlineLayer() (gis.Layer, error) {
+	l := gis.Layer{Name: "stimulated_area", Description: "outline of the stimulated map cells at each snapshot time",
+		Geometry: gis.MultiPolygon, Fields: []gis.Field{{Name: "time_s", Type: gis.Real}, {Name: "area_m2", Type: gis.Real}}}
+	g, sg := r.Grid(), r.Scenario.MapGrid()
+	res := r.Result
+	for _, t := range r.OutlineTimes {
+		mask := sim.StimulatedCells(sg, res.Elements, func(i int) bool { return res.StimulatedAt[i] <= t })
+		mp, err := gis.Outline(g, mask)
+		if err != nil {
+			return l, err
+		}
+		var cells int
+		for _, on := range mask {
+			if on {
+				cells++
+			}
+		}
+		if cells == 0 {
+			continue
+		}
+		l.Features = append(l.Features, gis.Feature{Geometry: mp, Values: []any{t, float64(cells) * g.CellArea()}})
+	}
+	return l, nil
+}
+
+func (r *Run) eventLayer() gis.Layer {
+	l := gis.Layer{Name: "events", Description: "synthetic microseismic events (one per slipped patch and step)",
+		Geometry: gis.Point, Fields: []gis.Field{
+			{Name: "time_s", Type: gis.Real}, {Name: "utc_time", Type: gis.DateTime}, {Name: "stage", Type: gis.Text},
+			{Name: "fracture_id", Type: gis.Int32}, {Name: "depth_m", Type: gis.Real}, {Name: "slip_mm", Type: gis.Real},
+			{Name: "area_m2", Type: gis.Real}, {Name: "moment_Nm", Type: gis.Real}, {Name: "magnitude_Mw", Type: gis.Real},
+		}}
+	start, _ := time.Parse(time.RFC3339, r.Scenario.Schedule.Start)
+	for _, e := range r.Result.Events {
+		if e.Time > r.Time {
+			continue
+		}
+		utc := start.Add(time.Duration(e.Time * float64(time.Second))).UTC()
+		l.Features = append(l.Features, gis.Feature{Geometry: pt(e.X, e.Y), Values: []any{
+			e.Time, utc, r.stageName(e.Stage), e.Fracture, e.Depth, e.Slip * 1e3, e.Area, e.Moment, e.Magnitude}})
+	}
+	return l
+}
+
+func (r *Run) wellLayer() gis.Layer {
+	l := gis.Layer{Name: "wells", Description: "well paths in map view", Geometry: gis.LineString,
+		Fields: []gis.Field{{Name: "name", Type: gis.Text}, {Name: "length_m", Type: gis.Real}}}
+	for _, w := range r.Scenario.Wells {
+		var ls orb.LineString
+		for _, p := range w.Path {
+			ls = append(ls, pt(p.X, p.Y))
+		}
+		l.Features = append(l.Features, gis.Feature{Geometry: ls, Values: []any{w.Name, w.PathLength()}})
+	}
+	return l
+}
+
+func (r *Run) clusterLayer() gis.Layer {
+	l := gis.Layer{Name: "clusters", Description: "perforation clusters", Geometry: gis.Point,
+		Fields: []gis.Field{{Name: "well", Type: gis.Text}, {Name: "stage", Type: gis.Text}, {Name: "cluster", Type: gis.Int32},
+			{Name: "distance_m", Type: gis.Real}, {Name: "pumping_order", Type: gis.Int32}}}
+	for k, ps := range r.Scenario.PumpingOrder() {
+		w := r.Scenario.Wells[ps.Well]
+		path := r.Network.Wells[ps.Well].Path
+		for c, d := range w.Stages[ps.Stage].Clusters {
+			p := sim.PointAlong(path, d)
+			l.Features = append(l.Features, gis.Feature{Geometry: pt(p.X, p.Y), Values: []any{w.Name, ps.Name, c, d, k + 1}})
+		}
+	}
+	return l
+}
