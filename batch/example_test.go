@@ -60,7 +60,7 @@ func ExampleGridFor() {
 	fmt.Printf("%d times, every %g s\n", tg.Points, tg.Interval)
 	// Output:
 	// 160 × 100 cells of 10 m; (15, -125) is cell 6001: column 81, row 37
-	// 70 times, every 300 s
+	// 49 times, every 300 s
 }
 
 func ExampleSummarize() {

@@ -11,6 +11,8 @@ import (
 	"reflect"
 	"strings"
 	"testing"
+
+	"slipfront/scenarios"
 )
 
 func sampleResult() *Result {
@@ -146,7 +148,7 @@ func FuzzReadResult(f *testing.F) {
 func sampleGrid() *ProbabilityGrid {
 	return &ProbabilityGrid{
 		Case: 1, Label: "fluids.slickwater.viscosity=20 cP", Realizations: 3,
-		Grid:  Grid{XMin: -150, YMin: -100, CellSize: 10, Cols: 30, Rows: 20, CRS: "EPSG:32614", OriginEasting: 5e5, OriginNorthing: 35e5},
+		Grid:  Grid{Grid: scenarios.Grid{XMin: -150, YMin: -100, CellSize: 10, Cols: 30, Rows: 20}, CRS: "EPSG:32614", OriginEasting: 5e5, OriginNorthing: 35e5},
 		Cells: []CellCount{{Index: 0, Count: 3}, {Index: 31, Count: 1}, {Index: 599, Count: 2}},
 	}
 }

@@ -93,7 +93,7 @@ func TestTimeGridFor(t *testing.T) {
 	// testdata/tiny.toml: two stages of 100 bbl at 8 bbl/min = 12.5 min
 	// = 750 s each, plus a 600 s shut-in after each: 2700 s. Every 120 s:
 	// K = ceil(2700/120) = ceil(22.5) = 23, so 24 points.
-	numtest.Rel(t, "schedule length", ScheduleLength(s), 2700, 1e-12)
+	numtest.Rel(t, "schedule length", s.ScheduleLength(), 2700, 1e-12)
 	tg, err := TimeGridFor(s)
 	if err != nil {
 		t.Fatal(err)

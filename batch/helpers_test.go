@@ -40,7 +40,7 @@ func fakeOutcome(s *scenarios.Scenario, r int, work int) (*Outcome, error) {
 	}
 	rng := rand.New(rand.NewPCG(s.Seed, uint64(r)))
 	visc := s.Fluids[s.Schedule.Fluid].Viscosity
-	length := ScheduleLength(s)
+	length := s.ScheduleLength()
 	scale := 2e4 * (1 + rng.Float64()) * math.Sqrt(1e-3/visc)
 	n := 2 + rng.IntN(15)
 	o := &Outcome{NetworkDigest: fmt.Sprintf("fake-%d-%d", s.Seed, r), MaxMagnitude: math.NaN()}

@@ -2,33 +2,97 @@ package scenarios
 
 import "math"
 
+// MaxGridCells caps the cells of the map grid (a 10 m cell covers
+// 33.5 km × 33.5 km), so a cell size typed in the wrong unit fails with a
+// clear error instead of exhausting memory.
+const MaxGridCells = 1 << 25
+
 // Grid is the map grid on which stimulated area and probabilities are
 // counted: Cols × Rows square cells of CellSize metres whose south-west
-// corner is (XMin, YMin) in local coordinates. Cell (col, row) has index
-// row·Cols + col; row 0 is the southernmost row.
+// corner is (XMin, YMin) in local East-North coordinates.
+//
+//	Cols = ⌈(x_max − x_min) / cell_size⌉, Rows = ⌈(y_max − y_min) / cell_size⌉
+//	index = row·Cols + col, row 0 at the south edge, col 0 at the west edge
+//
+// When the domain is not a whole number of cells, the last column and row
+// reach past x_max and y_max.
 type Grid struct {
-	Cols, Rows int
-	CellSize   float64
-	XMin, YMin float64
+	// XMin and YMin: the south-west corner of cell 0, local m.
+	XMin float64 `json:"x_min_m"`
+	YMin float64 `json:"y_min_m"`
+	// CellSize: the side of a cell, m.
+	CellSize float64 `json:"cell_size_m"`
+	// Cols (west to east) and Rows (south to north).
+	Cols int `json:"cols"`
+	Rows int `json:"rows"`
+}
+
+// gridSlack is the relative tolerance taken off a quotient before it is
+// rounded up, so that 1600 m / 10 m computed as 160.00000000000003 gives
+// 160 cells, not 161.
+const gridSlack = 1e-9
+
+// ceilCount returns ⌈v⌉ after taking a relative sliver off v.
+func ceilCount(v float64) float64 {
+	return math.Ceil(v - gridSlack*math.Max(1, math.Abs(v)))
 }
 
 // MapGrid returns the grid of the scenario's map area with the numerics
-// cell size. The last column and row may reach past the map's east and
-// north edges.
+// cell size.
 func (s *Scenario) MapGrid() Grid {
 	d, c := s.Domain, s.Numerics.CellSize
 	return Grid{
-		Cols:     max(1, int(math.Ceil((d.XMax-d.XMin)/c-1e-9))),
-		Rows:     max(1, int(math.Ceil((d.YMax-d.YMin)/c-1e-9))),
+		Cols:     int(math.Max(1, ceilCount((d.XMax-d.XMin)/c))),
+		Rows:     int(math.Max(1, ceilCount((d.YMax-d.YMin)/c))),
 		CellSize: c, XMin: d.XMin, YMin: d.YMin,
 	}
 }
 
-// Len returns the number of cells.
-func (g Grid) Len() int { return g.Cols * g.Rows }
+// Cells returns the number of cells, Cols·Rows.
+func (g Grid) Cells() int { return g.Cols * g.Rows }
 
-// CellCentre returns the centre of cell index k, local metres.
-func (g Grid) CellCentre(k int) (x, y float64) {
-	col, row := k%g.Cols, k/g.Cols
+// Index returns the index of the cell in column col and row row.
+func (g Grid) Index(col, row int) int { return row*g.Cols + col }
+
+// ColRow returns the column and row of cell index i.
+func (g Grid) ColRow(i int) (col, row int) { return i % g.Cols, i / g.Cols }
+
+// Centre returns the local coordinates of the centre of cell index i, m.
+func (g Grid) Centre(i int) (x, y float64) {
+	col, row := g.ColRow(i)
 	return g.XMin + (float64(col)+0.5)*g.CellSize, g.YMin + (float64(row)+0.5)*g.CellSize
+}
+
+// CellAt returns the index of the cell holding the local point (x, y), m.
+// A point on the east or north edge of the grid belongs to the last column
+// or row; ok is false outside the grid.
+func (g Grid) CellAt(x, y float64) (index int, ok bool) {
+	fc := math.Floor((x - g.XMin) / g.CellSize)
+	fr := math.Floor((y - g.YMin) / g.CellSize)
+	if fc == float64(g.Cols) && x == g.XMin+float64(g.Cols)*g.CellSize {
+		fc--
+	}
+	if fr == float64(g.Rows) && y == g.YMin+float64(g.Rows)*g.CellSize {
+		fr--
+	}
+	if !(fc >= 0 && fc < float64(g.Cols) && fr >= 0 && fr < float64(g.Rows)) {
+		return 0, false
+	}
+	return g.Index(int(fc), int(fr)), true
+}
+
+// ScheduleLength is the nominal length of the pumping schedule, s: every
+// stage's NominalLength plus its shut-in, in pumping order.
+func (s *Scenario) ScheduleLength() float64 {
+	var t float64
+	for _, st := range s.PumpingOrder() {
+		t += st.NominalLength() + st.ShutIn
+	}
+	return t
+}
+
+// OutputPoints is the number of output times k·numerics.output_interval,
+// k = 0, 1, …, up to the first at or after the end of the nominal schedule.
+func (s *Scenario) OutputPoints() int {
+	return int(ceilCount(s.ScheduleLength()/s.Numerics.OutputInterval)) + 1
 }

@@ -14,10 +14,10 @@ func TestMapGrid(t *testing.T) {
 	}
 	g := s.MapGrid()
 	// 1000 m / 30 m = 33.3 → 34 cells, the last one reaching past the edge.
-	if g.Cols != 34 || g.Rows != 34 || g.Len() != 34*34 {
+	if g.Cols != 34 || g.Rows != 34 || g.Cells() != 34*34 {
 		t.Fatalf("grid %+v", g)
 	}
-	x, y := g.CellCentre(34 + 2) // column 2, row 1
+	x, y := g.Centre(34 + 2) // column 2, row 1
 	numtest.Abs(t, "x", x, -500+2.5*30, 1e-12)
 	numtest.Abs(t, "y", y, -500+1.5*30, 1e-12)
 }

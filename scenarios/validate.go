@@ -202,10 +202,10 @@ func (d *decoder) validateNumerics(s *Scenario) {
 	if len(d.errs) > 0 {
 		return
 	}
-	var total float64
-	for _, ps := range s.PumpingOrder() {
-		total += ps.NominalLength() + ps.ShutIn
+	if g := s.MapGrid(); float64(g.Cols)*float64(g.Rows) > MaxGridCells {
+		d.failKey("numerics.cell_size", "gives %d × %d map cells over the domain; at most %d allowed, use a larger cell", g.Cols, g.Rows, MaxGridCells)
 	}
+	total := s.ScheduleLength()
 	if total > 0 && n.OutputInterval > total {
 		d.failKey("numerics.output_interval", "is longer than the whole schedule (%s at nominal rates)", formatQuantity(total, kindTime))
 	}

@@ -68,7 +68,7 @@ type stimulation struct {
 }
 
 func newStimulation(g scenarios.Grid, threshold float64, n int) *stimulation {
-	st := &stimulation{grid: g, threshold: threshold, element: make([]bool, n), at: make([]float64, n), cell: make([]bool, g.Len())}
+	st := &stimulation{grid: g, threshold: threshold, element: make([]bool, n), at: make([]float64, n), cell: make([]bool, g.Cells())}
 	for i := range st.at {
 		st.at[i] = math.NaN()
 	}
@@ -100,7 +100,7 @@ func (st *stimulation) update(elements []Element, slip []float64, t float64) {
 // area at any time, from the per-element state of a snapshot frame or from
 // Result.StimulatedAt.
 func StimulatedCells(g scenarios.Grid, elements []Element, stimulated func(i int) bool) []bool {
-	mask := make([]bool, g.Len())
+	mask := make([]bool, g.Cells())
 	var scratch []int
 	for i := range elements {
 		if !stimulated(i) {

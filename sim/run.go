@@ -139,9 +139,7 @@ type runner struct {
 func newRunner(m *model, opt Options) *runner {
 	r := &runner{m: m, opt: opt, ms: newMechState(m), stage: -1,
 		stim: newStimulation(m.grid, m.s.Numerics.StimulatedSlip, len(m.elements))}
-	for _, ps := range m.order {
-		r.end += ps.NominalLength() + ps.ShutIn
-	}
+	r.end = m.s.ScheduleLength()
 	r.lastFrame = math.NaN()
 	r.flags = make([]byte, len(m.elements))
 	return r

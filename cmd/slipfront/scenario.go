@@ -82,14 +82,12 @@ func describeScenario(w io.Writer, s *scenarios.Scenario) error {
 	fmt.Fprintf(&b, "\n  known     %d mapped fractures\n", len(s.KnownFractures.Fractures))
 	fmt.Fprintf(&b, "  wells     %d\n", len(s.Wells))
 	order := s.PumpingOrder()
-	var total float64
 	names := make([]string, len(order))
 	for i, p := range order {
 		names[i] = p.Name
-		total += p.NominalLength() + p.ShutIn
 	}
 	fmt.Fprintf(&b, "  stages    %d in %s order: %s\n", len(order), s.Schedule.Order, strings.Join(names, " "))
-	fmt.Fprintf(&b, "  schedule  %.2f h at nominal rates, including shut-ins\n", total/3600)
+	fmt.Fprintf(&b, "  schedule  %.2f h at nominal rates, including shut-ins\n", s.ScheduleLength()/3600)
 	_, err := io.WriteString(w, b.String())
 	return err
 }
