@@ -93,8 +93,9 @@ func aggregate(ctx context.Context, dir string, m *Manifest, hooks *Hooks) error
 		if err != nil {
 			return fmt.Errorf("batch: aggregating: %w", err)
 		}
-		cs.writePercentiles(pctCSV, &m.Cases[c])
-		cs.writeComparison(cmpCSV, &m.Cases[c])
+		a := cs.aggregate(m.Cases[c])
+		writePercentiles(pctCSV, &a)
+		writeComparison(cmpCSV, &a)
 		var b bytes.Buffer
 		if err := WriteProbabilityGrid(&b, cs.grid); err != nil {
 			return err
@@ -132,7 +133,7 @@ type caseStats struct {
 }
 
 // readCase reads case c's results in realization order, writing their
-// rows to realCSV.
+// rows to realCSV when it is not nil.
 func readCase(dir string, m *Manifest, c int, hooks *Hooks, realCSV *csv.Writer) (*caseStats, error) {
 	mc := &m.Cases[c]
 	n := m.Realizations
@@ -146,10 +147,12 @@ func readCase(dir string, m *Manifest, c int, hooks *Hooks, realCSV *csv.Writer)
 		if err != nil {
 			return nil, err
 		}
-		row := append([]string{strconv.Itoa(c)}, mc.Values...)
-		realCSV.Write(append(row, strconv.Itoa(r), res.NetworkDigest, formatFloat(res.FinalArea),
-			formatFloat(res.FractureArea), strconv.Itoa(res.Events), formatOptional(res.MaxMagnitude),
-			formatFloat(res.PeakPressure/1e6), formatFloat(res.InjectedVolume)))
+		if realCSV != nil {
+			row := append([]string{strconv.Itoa(c)}, mc.Values...)
+			realCSV.Write(append(row, strconv.Itoa(r), res.NetworkDigest, formatFloat(res.FinalArea),
+				formatFloat(res.FractureArea), strconv.Itoa(res.Events), formatOptional(res.MaxMagnitude),
+				formatFloat(res.PeakPressure/1e6), formatFloat(res.InjectedVolume)))
+		}
 		cs.area[r] = res.Area
 		cs.final[r], cs.fracture[r], cs.events[r] = res.FinalArea, res.FractureArea, float64(res.Events)
 		cs.peak[r], cs.vol[r] = res.PeakPressure, res.InjectedVolume
@@ -169,28 +172,38 @@ func readCase(dir string, m *Manifest, c int, hooks *Hooks, realCSV *csv.Writer)
 	return cs, nil
 }
 
-func (cs *caseStats) writePercentiles(w *csv.Writer, mc *ManifestCase) {
+// aggregate sums up the case's realizations.
+func (cs *caseStats) aggregate(mc ManifestCase) CaseAggregate {
+	a := CaseAggregate{Case: mc, Realizations: len(cs.final), MaxMagnitude: cs.maxMw, Probability: cs.grid,
+		Final: Summarize(cs.final), Fracture: Summarize(cs.fracture), Events: Summarize(cs.events),
+		PeakPressure: Summarize(cs.peak), InjectedVolume: Summarize(cs.vol)}
 	at := make([]float64, len(cs.area))
 	for k := range mc.TimeGrid.Points {
 		for r := range cs.area {
 			at[r] = cs.area[r][k]
 		}
-		s := Summarize(at)
-		row := append([]string{strconv.Itoa(mc.Index)}, mc.Values...)
-		w.Write(append(row, formatFloat(mc.TimeGrid.Time(k)), formatFloat(s.P10), formatFloat(s.P50),
+		a.Times = append(a.Times, mc.TimeGrid.Time(k))
+		a.Area = append(a.Area, Summarize(at))
+	}
+	return a
+}
+
+func writePercentiles(w *csv.Writer, a *CaseAggregate) {
+	for k, s := range a.Area {
+		row := append([]string{strconv.Itoa(a.Case.Index)}, a.Case.Values...)
+		w.Write(append(row, formatFloat(a.Times[k]), formatFloat(s.P10), formatFloat(s.P50),
 			formatFloat(s.P90), formatFloat(s.Mean), formatOptional(s.Std)))
 	}
 }
 
-func (cs *caseStats) writeComparison(w *csv.Writer, mc *ManifestCase) {
-	final, frac := Summarize(cs.final), Summarize(cs.fracture)
-	events, peak, vol := Summarize(cs.events), Summarize(cs.peak), Summarize(cs.vol)
-	row := append([]string{strconv.Itoa(mc.Index)}, mc.Values...)
-	w.Write(append(row, strconv.Itoa(len(cs.final)),
+func writeComparison(w *csv.Writer, a *CaseAggregate) {
+	final, frac := a.Final, a.Fracture
+	row := append([]string{strconv.Itoa(a.Case.Index)}, a.Case.Values...)
+	w.Write(append(row, strconv.Itoa(a.Realizations),
 		formatFloat(final.P10), formatFloat(final.P50), formatFloat(final.P90), formatFloat(final.Mean),
 		formatFloat(frac.P10), formatFloat(frac.P50), formatFloat(frac.P90),
-		formatFloat(events.Mean), formatOptional(cs.maxMw),
-		formatFloat(peak.P50/1e6), formatFloat(peak.Max/1e6), formatFloat(vol.Mean)))
+		formatFloat(a.Events.Mean), formatOptional(a.MaxMagnitude),
+		formatFloat(a.PeakPressure.P50/1e6), formatFloat(a.PeakPressure.Max/1e6), formatFloat(a.InjectedVolume.Mean)))
 }
 
 // formatOptional is formatFloat, with NaN written as an empty field.
@@ -199,4 +212,46 @@ func formatOptional(v float64) string {
 		return ""
 	}
 	return formatFloat(v)
+}
+
+// CaseAggregate is what a complete batch found for one case: the numbers
+// of percentiles.csv, comparison.csv and the case's probability grid.
+type CaseAggregate struct {
+	Case         ManifestCase
+	Realizations int
+	// Times of the case's time grid, s, and the stimulated area over the
+	// realizations at each, m².
+	Times []float64
+	Area  []Stats
+	// Final and Fracture stimulated areas, m²; Events; PeakPressure, Pa;
+	// InjectedVolume, m³.
+	Final, Fracture, Events, PeakPressure, InjectedVolume Stats
+	// MaxMagnitude over all realizations; NaN when none had an event.
+	MaxMagnitude float64
+	Probability  *ProbabilityGrid
+}
+
+// ReadAggregates reads every result of the complete batch folder dir (a
+// whole batch or a merge of all its shards) and returns its manifest and
+// the aggregates of every case, for pictures and maps.
+func ReadAggregates(ctx context.Context, dir string) (*Manifest, []CaseAggregate, error) {
+	m, err := readManifestFile(dir)
+	if err != nil {
+		return nil, nil, err
+	}
+	if m.Shard.Count > 1 {
+		return nil, nil, inputErrorf("%s holds shard %d/%d of a batch: merge the shards first", dir, m.Shard.Index, m.Shard.Count)
+	}
+	out := make([]CaseAggregate, len(m.Cases))
+	for c := range m.Cases {
+		if err := ctx.Err(); err != nil {
+			return nil, nil, err
+		}
+		cs, err := readCase(dir, m, c, nil, nil)
+		if err != nil {
+			return nil, nil, err
+		}
+		out[c] = cs.aggregate(m.Cases[c])
+	}
+	return m, out, nil
 }

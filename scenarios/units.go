@@ -199,7 +199,15 @@ func suggest(s string, candidates []string) string {
 	sorted := append([]string(nil), candidates...)
 	sort.Strings(sorted)
 	for _, c := range sorted {
-		d := editDistance(strings.ToLower(s), strings.ToLower(c))
+		// Also against the leading words of snake_case names, so that
+		// "frction" finds "friction_static" (one more for the cut).
+		lc := strings.ToLower(c)
+		d := editDistance(strings.ToLower(s), lc)
+		for i, r := range lc {
+			if r == '_' {
+				d = min(d, editDistance(strings.ToLower(s), lc[:i])+1)
+			}
+		}
 		if d < bestD {
 			best, bestD = c, d
 		}

@@ -161,3 +161,54 @@ func TestRunOutputs(t *testing.T) {
 		t.Errorf("time beyond the run: exit %d, %s", code, stderr)
 	}
 }
+
+// A viscosity sweep: 1 worker and 2 workers give the same bytes, and an
+// interrupted batch resumes (issue 6; the batch package tests the rest).
+func TestBatchAndMerge(t *testing.T) {
+	dir := t.TempDir()
+	base := func(out string, extra ...string) []string {
+		a := []string{"batch", "demo", "--realizations", "2", "--set", "schedule.volume=20 bbl",
+			"--set", "numerics.element_length=30 m", "--out", filepath.Join(dir, out)}
+		return append(a, extra...)
+	}
+	args := func(out string, extra ...string) []string {
+		return base(out, append([]string{"--sweep", "fluids.slickwater.viscosity=1cP,20cP"}, extra...)...)
+	}
+	if code, _, stderr := runCLI(t, args("one", "--workers", "1")...); code != exitOK {
+		t.Fatalf("batch: exit %d: %s", code, stderr)
+	}
+	for _, sh := range []string{"0/2", "1/2"} {
+		if code, _, stderr := runCLI(t, args("s"+sh[:1], "--shard", sh)...); code != exitOK {
+			t.Fatalf("shard %s: exit %d: %s", sh, code, stderr)
+		}
+	}
+	code, out, stderr := runCLI(t, "merge", filepath.Join(dir, "s1"), filepath.Join(dir, "s0"), "--out", filepath.Join(dir, "merged"))
+	if code != exitOK || !strings.Contains(out, "viscosity=20cP") {
+		t.Fatalf("merge: exit %d: %s\n%s", code, stderr, out)
+	}
+	for _, name := range []string{"realizations.csv", "percentiles.csv", "comparison.csv", "probability/case-0001.csv"} {
+		a, _ := os.ReadFile(filepath.Join(dir, "one", name))
+		b, _ := os.ReadFile(filepath.Join(dir, "merged", name))
+		if len(a) == 0 || !bytes.Equal(a, b) {
+			t.Errorf("%s differs between one process and merged shards", name)
+		}
+	}
+	for _, name := range []string{"maps.gpkg", "probability_0000.tif", "fan_0001.png", "comparison.png"} {
+		if _, err := os.Stat(filepath.Join(dir, "merged", name)); err != nil {
+			t.Error(err)
+		}
+	}
+	bad := []struct {
+		args []string
+		want string
+	}{
+		{args("x", "--shard", "2/2"), "shard"},
+		{base("y", "--sweep", "rock.frction=0.5,0.6"), `did you mean "friction_`},
+		{base("z", "--sweep", "fluids.slickwater.viscosity=1cP,-2cP"), "must be > 0"},
+	}
+	for _, tc := range bad {
+		if code, _, stderr := runCLI(t, tc.args...); code != exitBadInput || !strings.Contains(stderr, tc.want) {
+			t.Errorf("%v: exit %d, %s", tc.args[len(tc.args)-2:], code, stderr)
+		}
+	}
+}

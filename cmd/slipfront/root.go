@@ -66,6 +66,8 @@ func run(ctx context.Context, args []string, stdout, stderr io.Writer) int {
 		newRunCmd(&g, stdout, stderr),
 		newDemoCmd(&g, stdout, stderr),
 		newInspectCmd(stdout),
+		newBatchCmd(&g, stdout, stderr),
+		newMergeCmd(stdout),
 	)
 	markStarted(root, &started)
 	err := root.ExecuteContext(ctx)
@@ -105,7 +107,7 @@ func isInputError(err error) bool {
 	var ie inputError
 	var fe *scenarios.FieldError
 	var fes scenarios.Errors
-	return errors.As(err, &ie) || errors.As(err, &fe) || errors.As(err, &fes) || errors.Is(err, outdir.ErrExists)
+	return errors.As(err, &ie) || errors.As(err, &fe) || errors.As(err, &fes) || errors.Is(err, outdir.ErrExists) || isBatchInput(err)
 }
 
 // scenarioOptions are the flags of every command that reads a scenario.
@@ -122,11 +124,7 @@ func (o *scenarioOptions) addFlags(cmd *cobra.Command) {
 // load reads the scenario at path (or an embedded example by name) with
 // the overrides applied.
 func (o *scenarioOptions) load(path string) (*scenarios.Scenario, error) {
-	sets := o.sets
-	if o.seed >= 0 {
-		sets = append(append([]string(nil), sets...), fmt.Sprintf("seed=%d", o.seed))
-	}
-	ov, err := scenarios.ParseOverrides(sets)
+	ov, err := scenarios.ParseOverrides(o.withSeed())
 	if err != nil {
 		return nil, badInput(err)
 	}

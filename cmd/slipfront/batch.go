@@ -1,0 +1,196 @@
+package main
+
+import (
+	"context"
+	"errors"
+	"fmt"
+	"io"
+	"math"
+	"os"
+	"slices"
+
+	"github.com/spf13/cobra"
+	"golang.org/x/term"
+
+	"slipfront/batch"
+	"slipfront/dfn"
+	"slipfront/internal/export"
+	"slipfront/scenarios"
+	"slipfront/sim"
+)
+
+// batchOptions are the flags of "slipfront batch".
+type batchOptions struct {
+	scenarioOptions
+	scenario     string
+	out          string
+	realizations int
+	sweeps       []string
+	workers      int
+	shard        string
+	resume       bool
+	force        bool
+}
+
+func newBatchCmd(g *globalOptions, stdout, stderr io.Writer) *cobra.Command {
+	var o batchOptions
+	cmd := &cobra.Command{
+		Use:   "batch SCENARIO --realizations N [--sweep key=v1,v2,...]... --out DIR",
+		Short: "Run Monte Carlo realizations of the network for every sweep case, on all cores",
+		Long: "batch runs realizations 0…N−1 of the fracture network for every combination of the sweep\n" +
+			"values. Realization r has the same network in every case (common random numbers), so\n" +
+			"differences between cases come from the swept values alone. Each finished realization is a\n" +
+			"file of its own: --resume continues an interrupted batch, --shard i/n runs a share of the\n" +
+			"realizations (e.g. one Slurm array task) for \"slipfront merge\".\n\n" + caution,
+		Example: "  slipfront batch demo --realizations 20 --sweep fluids.slickwater.viscosity=1cP,5cP,20cP --out visc\n" +
+			"  slipfront batch demo --realizations 200 --shard $SLURM_ARRAY_TASK_ID/$SLURM_ARRAY_TASK_COUNT --resume --out shard-$SLURM_ARRAY_TASK_ID",
+		Args: cobra.ExactArgs(1),
+		RunE: func(cmd *cobra.Command, args []string) error {
+			o.scenario = args[0]
+			return runBatch(cmd.Context(), &o, g, stdout, stderr)
+		},
+	}
+	o.addFlags(cmd)
+	f := cmd.Flags()
+	f.StringVarP(&o.out, "out", "o", "", "batch folder (required)")
+	f.IntVarP(&o.realizations, "realizations", "n", 0, "realizations per case, ≥ 1 (required)")
+	f.StringArrayVar(&o.sweeps, "sweep", nil, "sweep a scenario value: key=v1,v2,... with units (repeatable; several sweeps form their product)")
+	f.IntVar(&o.workers, "workers", 0, "realizations run at once (default: the number of cores)")
+	f.StringVar(&o.shard, "shard", "", "run only shard i of n: the realizations r with r mod n = i")
+	f.BoolVar(&o.resume, "resume", false, "continue the batch in --out, keeping the realizations already done")
+	f.BoolVar(&o.force, "force", false, "start over in an --out that holds an earlier batch")
+	cmd.MarkFlagRequired("out")
+	cmd.MarkFlagRequired("realizations")
+	return cmd
+}
+
+func runBatch(ctx context.Context, o *batchOptions, g *globalOptions, stdout, stderr io.Writer) error {
+	base, err := scenarios.ParseOverrides(o.withSeed())
+	if err != nil {
+		return badInput(err)
+	}
+	opt := batch.Options{
+		Load: func(extra ...scenarios.Override) (*scenarios.Scenario, error) {
+			return scenarios.Load(o.scenario, append(slices.Clone(base), extra...)...)
+		},
+		Realizations: o.realizations, Workers: o.workers, Out: o.out, Resume: o.resume, Force: o.force,
+		Run: runRealization,
+	}
+	for _, s := range o.sweeps {
+		sw, err := batch.ParseSweep(s)
+		if err != nil {
+			return badInput(err)
+		}
+		opt.Sweeps = append(opt.Sweeps, sw)
+	}
+	if o.shard != "" {
+		if opt.Shard, err = batch.ParseShard(o.shard); err != nil {
+			return badInput(err)
+		}
+	}
+	if !g.quiet {
+		opt.Progress = stderr
+		if f, ok := stderr.(*os.File); ok {
+			opt.IsTerminal = term.IsTerminal(int(f.Fd()))
+		}
+	}
+	sum, err := batch.Run(ctx, opt)
+	if err != nil {
+		return err
+	}
+	fmt.Fprintf(stdout, "%d cases × %d realizations: %d run now, %d resumed, in %.1f s\n",
+		sum.Cases, sum.Realizations, sum.Ran, sum.Resumed, sum.Elapsed.Seconds())
+	if !sum.Aggregated {
+		fmt.Fprintf(stdout, "shard %d/%d done; combine the shard folders with: slipfront merge DIR... --out DIR\n", sum.Shard.Index, sum.Shard.Count)
+		return nil
+	}
+	return finishBatch(ctx, o.out, stdout)
+}
+
+// withSeed returns the --set overrides with --seed added.
+func (o *scenarioOptions) withSeed() []string {
+	if o.seed < 0 {
+		return o.sets
+	}
+	return append(slices.Clone(o.sets), fmt.Sprintf("seed=%d", o.seed))
+}
+
+// finishBatch writes the maps and charts of a complete batch folder and
+// prints the comparison of its cases.
+func finishBatch(ctx context.Context, dir string, stdout io.Writer) error {
+	if err := export.WriteBatchMaps(ctx, dir); err != nil {
+		return err
+	}
+	m, aggs, err := batch.ReadAggregates(ctx, dir)
+	if err != nil {
+		return err
+	}
+	fmt.Fprintf(stdout, "%s (%s)\n", export.Convention(m.Realizations), "areas in m2")
+	fmt.Fprintf(stdout, "%-40s %12s %12s %12s %8s %8s\n", "case", "P10 area", "P50 area", "P90 area", "events", "max Mw")
+	for i := range aggs {
+		a := &aggs[i]
+		mw := "-"
+		if !math.IsNaN(a.MaxMagnitude) {
+			mw = fmt.Sprintf("%.2f", a.MaxMagnitude)
+		}
+		label := a.Case.Label
+		if label == "" {
+			label = "(no sweep)"
+		}
+		fmt.Fprintf(stdout, "%-40s %12.0f %12.0f %12.0f %8.1f %8s\n", label, a.Final.P10, a.Final.P50, a.Final.P90, a.Events.Mean, mw)
+	}
+	fmt.Fprintln(stdout, caution)
+	return nil
+}
+
+// runRealization is the batch's runner: generate realization r's network
+// and simulate the schedule on it.
+func runRealization(ctx context.Context, s *scenarios.Scenario, r int) (*batch.Outcome, error) {
+	net, err := dfn.Generate(s, r)
+	if err != nil {
+		return nil, err
+	}
+	res, err := sim.Run(ctx, s, net, sim.Options{})
+	if err != nil {
+		return nil, fmt.Errorf("realization %d: %w", r, err)
+	}
+	out := &batch.Outcome{NetworkDigest: net.Digest(), FinalArea: res.StimulatedArea, FractureArea: res.FractureArea,
+		Events: len(res.Events), MaxMagnitude: math.NaN(), PeakPressure: res.PeakBHP, InjectedVolume: res.Injected,
+		Cells: res.Cells}
+	for _, e := range res.Events {
+		if math.IsNaN(out.MaxMagnitude) || e.Magnitude > out.MaxMagnitude {
+			out.MaxMagnitude = e.Magnitude
+		}
+	}
+	for _, x := range res.Timeline {
+		out.Times = append(out.Times, x.Time)
+		out.Areas = append(out.Areas, x.StimulatedArea)
+	}
+	return out, nil
+}
+
+func newMergeCmd(stdout io.Writer) *cobra.Command {
+	var out string
+	cmd := &cobra.Command{
+		Use:   "merge DIR... --out DIR",
+		Short: "Combine the shard folders of one batch into a complete batch folder",
+		Example: "  slipfront merge shard-0 shard-1 shard-2 shard-3 --out visc\n" +
+			"  slipfront merge shard-* --out visc",
+		Args: cobra.MinimumNArgs(1),
+		RunE: func(cmd *cobra.Command, args []string) error {
+			if err := batch.Merge(cmd.Context(), args, out); err != nil {
+				return err
+			}
+			return finishBatch(cmd.Context(), out, stdout)
+		},
+	}
+	cmd.Flags().StringVarP(&out, "out", "o", "", "merged batch folder, new or empty (required)")
+	cmd.MarkFlagRequired("out")
+	return cmd
+}
+
+// isBatchInput reports the batch errors caused by bad input.
+func isBatchInput(err error) bool {
+	var ie *sim.InputError
+	return errors.Is(err, batch.ErrInput) || errors.As(err, &ie)
+}

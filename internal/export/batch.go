@@ -1,0 +1,132 @@
+package export
+
+import (
+	"context"
+	"fmt"
+	"io"
+	"math"
+	"path/filepath"
+	"strings"
+
+	"slipfront/batch"
+	"slipfront/gis"
+	"slipfront/internal/outdir"
+	"slipfront/report"
+)
+
+// Convention is the percentile convention printed on batch charts; it
+// matches the header of percentiles.csv.
+func Convention(realizations int) string {
+	return fmt.Sprintf("P10/P50/P90 = 10th/50th/90th percentiles of %d realizations, ascending (P90 the larger; empirical: the value of rank ceil(n·p))", realizations)
+}
+
+// ContourLevels are the probability contours of a batch's map layer.
+var ContourLevels = []float64{0.1, 0.5, 0.9}
+
+// ProbabilityRaster returns case c's stimulation probability on its grid
+// (share of realizations, 0–1); cells never stimulated hold 0.
+func ProbabilityRaster(a *batch.CaseAggregate) (gis.Raster, gis.Placement, error) {
+	g := a.Probability.Grid
+	crs, err := gis.ParseCRS(g.CRS)
+	if err != nil {
+		return gis.Raster{}, gis.Placement{}, err
+	}
+	dense := a.Probability.Dense()
+	data := make([]float32, len(dense))
+	for i, v := range dense {
+		data[i] = float32(v)
+	}
+	r := gis.Raster{Grid: gis.Grid{Cols: g.Cols, Rows: g.Rows, CellSize: g.CellSize, XMin: g.XMin, YMin: g.YMin},
+		Data: data, NoData: float32(math.NaN())}
+	return r, gis.Placement{CRS: crs, Easting: g.OriginEasting, Northing: g.OriginNorthing}, nil
+}
+
+// ProbabilityLayer returns the 10/50/90 % contours of every case, one
+// layer per case named probability_<case>.
+func ProbabilityLayers(aggs []batch.CaseAggregate) ([]gis.Layer, gis.Placement, error) {
+	var layers []gis.Layer
+	var pl gis.Placement
+	for i := range aggs {
+		a := &aggs[i]
+		r, p, err := ProbabilityRaster(a)
+		if err != nil {
+			return nil, pl, err
+		}
+		pl = p
+		values := make([]float64, len(r.Data))
+		for k, v := range r.Data {
+			values[k] = float64(v)
+		}
+		l, err := gis.ContourLayer(fmt.Sprintf("probability_%04d", a.Case.Index),
+			"stimulation probability contours, case "+a.Case.Label, r.Grid, values, ContourLevels)
+		if err != nil {
+			return nil, pl, err
+		}
+		layers = append(layers, l)
+	}
+	return layers, pl, nil
+}
+
+// WriteBatchMaps writes into a complete batch folder: maps.gpkg with the
+// probability contours, one probability GeoTIFF per case, one fan chart per
+// case and a comparison chart of the final stimulated area across cases.
+func WriteBatchMaps(ctx context.Context, dir string) error {
+	m, aggs, err := batch.ReadAggregates(ctx, dir)
+	if err != nil {
+		return err
+	}
+	layers, pl, err := ProbabilityLayers(aggs)
+	if err != nil {
+		return err
+	}
+	if err := WriteGeoPackage(ctx, filepath.Join(dir, "maps.gpkg"), pl, layers); err != nil {
+		return err
+	}
+	conv := Convention(m.Realizations)
+	cmp := &report.Comparison{Title: m.Scenario.Name + " — final stimulated area by case", Convention: conv,
+		Sweep: sweepLabel(m)}
+	for i := range aggs {
+		a := &aggs[i]
+		r, pl, err := ProbabilityRaster(a)
+		if err != nil {
+			return err
+		}
+		if err := outdir.WriteFile(dir, fmt.Sprintf("probability_%04d.tif", a.Case.Index), func(w io.Writer) error {
+			return gis.WriteGeoTIFF(w, pl, r)
+		}); err != nil {
+			return err
+		}
+		fan := &report.Fan{Title: fmt.Sprintf("%s — stimulated area, %s", m.Scenario.Name, caseTitle(a)), Convention: conv, Time: a.Times}
+		for _, s := range a.Area {
+			fan.P10, fan.P50, fan.P90, fan.Mean = append(fan.P10, s.P10), append(fan.P50, s.P50), append(fan.P90, s.P90), append(fan.Mean, s.Mean)
+		}
+		if err := outdir.WriteFile(dir, fmt.Sprintf("fan_%04d.png", a.Case.Index), func(w io.Writer) error {
+			return fan.WritePNG(w, report.Size{})
+		}); err != nil {
+			return err
+		}
+		cmp.Categories = append(cmp.Categories, caseTitle(a))
+		cmp.P10, cmp.P50, cmp.P90 = append(cmp.P10, a.Final.P10), append(cmp.P50, a.Final.P50), append(cmp.P90, a.Final.P90)
+		cmp.Mean = append(cmp.Mean, a.Final.Mean)
+	}
+	return outdir.WriteFile(dir, "comparison.png", func(w io.Writer) error { return cmp.WritePNG(w, report.Size{}) })
+}
+
+// caseTitle is the case's sweep values, or "all realizations".
+func caseTitle(a *batch.CaseAggregate) string {
+	if len(a.Case.Values) == 0 {
+		return "all realizations"
+	}
+	return strings.Join(a.Case.Values, ", ")
+}
+
+func sweepLabel(m *batch.Manifest) string {
+	if len(m.Sweeps) == 0 {
+		return "Case"
+	}
+	keys := make([]string, len(m.Sweeps))
+	for i, s := range m.Sweeps {
+		keys[i] = s.Key
+	}
+	return strings.Join(keys, " × ")
+}
