@@ -4,7 +4,9 @@ import (
 	"bytes"
 	"context"
 	"os"
+	"os/exec"
 	"path/filepath"
+	"slices"
 	"strings"
 	"testing"
 )
@@ -210,5 +212,59 @@ func TestBatchAndMerge(t *testing.T) {
 		if code, _, stderr := runCLI(t, tc.args...); code != exitBadInput || !strings.Contains(stderr, tc.want) {
 			t.Errorf("%v: exit %d, %s", tc.args[len(tc.args)-2:], code, stderr)
 		}
+	}
+}
+
+// Every export format from a run folder; GDAL reads them back in the
+// scenario's CRS when it is installed (CI installs gdal-bin).
+func TestExportRun(t *testing.T) {
+	dir := runQuickDemo(t)
+	out := t.TempDir()
+	files := map[string][]string{
+		"all.gpkg":        {"--format", "gpkg"},
+		"area.geojson":    {"--format", "geojson", "--layer", "stimulated_area", "--time", "1h"},
+		"first-slip.tif":  {"--format", "geotiff", "--layer", "first_slip_time"},
+		"events.xml":      {"--format", "quakeml"},
+		"slip.tif":        {"--format", "geotiff", "--layer", "cumulative_slip"},
+		"fractures.gpkg":  {"--format", "gpkg", "--layer", "fractures"},
+		"pressure-1h.tif": {"--format", "geotiff", "--layer", "pressure_increase", "--time", "60 min"},
+	}
+	for name, args := range files {
+		code, _, stderr := runCLI(t, append([]string{"export", dir, "--out", filepath.Join(out, name)}, args...)...)
+		if code != exitOK {
+			t.Errorf("%s: exit %d: %s", name, code, stderr)
+		}
+	}
+	bad := []struct {
+		args []string
+		want string
+	}{
+		{[]string{"--format", "shp"}, "format"},
+		{[]string{"--format", "geojson", "--layer", "nope"}, `no layer "nope"`},
+		{[]string{"--format", "geotiff", "--layer", "first_slip_time", "--time", "99h"}, "outside the run"},
+		{[]string{"--format", "quakeml", "--out", filepath.Join(out, "events.xml")}, "--force"},
+	}
+	for _, tc := range bad {
+		args := append([]string{"export", dir}, tc.args...)
+		if !slices.Contains(tc.args, "--out") {
+			args = append(args, "--out", filepath.Join(out, "bad"))
+		}
+		if code, _, stderr := runCLI(t, args...); code != exitBadInput || !strings.Contains(stderr, tc.want) {
+			t.Errorf("%v: exit %d, %s", tc.args, code, stderr)
+		}
+	}
+	if _, err := exec.LookPath("ogrinfo"); err != nil {
+		t.Skip("GDAL not installed: interop checks skipped")
+	}
+	cmd := exec.Command("ogrinfo", "-so", filepath.Join(out, "all.gpkg"), "stimulated_area")
+	b, err := cmd.CombinedOutput()
+	if err != nil || !strings.Contains(string(b), `ID["EPSG",32614]`) || !strings.Contains(string(b), "Multi Polygon") {
+		t.Errorf("ogrinfo: %v\n%s", err, b)
+	}
+	cmd = exec.Command("gdalinfo", filepath.Join(out, "first-slip.tif"))
+	cmd.Env = append(os.Environ(), "GDAL_PAM_ENABLED=NO")
+	b, err = cmd.CombinedOutput()
+	if err != nil || !strings.Contains(string(b), `ID["EPSG",32614]`) || !strings.Contains(string(b), "Size is 160, 100") {
+		t.Errorf("gdalinfo: %v\n%s", err, b)
 	}
 }

@@ -68,6 +68,7 @@ func run(ctx context.Context, args []string, stdout, stderr io.Writer) int {
 		newInspectCmd(stdout),
 		newBatchCmd(&g, stdout, stderr),
 		newMergeCmd(stdout),
+		newExportCmd(&g, stderr),
 	)
 	markStarted(root, &started)
 	err := root.ExecuteContext(ctx)

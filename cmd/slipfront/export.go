@@ -1,0 +1,70 @@
+package main
+
+import (
+	"errors"
+	"fmt"
+	"io"
+	"math"
+	"strings"
+
+	"github.com/spf13/cobra"
+
+	"slipfront/internal/export"
+	"slipfront/scenarios"
+)
+
+// exportOptions are the flags of "slipfront export".
+type exportOptions struct {
+	dir  string
+	time string
+	export.Options
+}
+
+func newExportCmd(g *globalOptions, stderr io.Writer) *cobra.Command {
+	var o exportOptions
+	cmd := &cobra.Command{
+		Use:   "export RUN_OR_BATCH_DIR --format gpkg|geojson|geotiff|quakeml [--layer NAME] [--time T] --out FILE",
+		Short: "Write maps of a run or batch folder for a GIS: GeoPackage, GeoJSON, GeoTIFF or QuakeML",
+		Long: "export reads a run folder (its scenario.json, run.snap and events.csv) at a time T or at the\n" +
+			"end, or a batch folder, and writes one file in the scenario's projected CRS (GeoJSON and\n" +
+			"QuakeML: WGS 84 longitude/latitude).\n\n" +
+			"Run layers: " + strings.Join(export.LayerNames, ", ") + "\n" +
+			"Run rasters: " + strings.Join(export.RasterNames, ", ") + "\n" +
+			"Batch layers and rasters: probability_NNNN (one per sweep case)\n\n" + caution,
+		Example: "  slipfront export slipfront-demo --format gpkg --out demo.gpkg\n" +
+			"  slipfront export slipfront-demo --format geojson --layer stimulated_area --time 2h --out area-2h.geojson\n" +
+			"  slipfront export slipfront-demo --format geotiff --layer first_slip_time --out first-slip.tif\n" +
+			"  slipfront export slipfront-demo --format quakeml --out events.xml\n" +
+			"  slipfront export visc --format geotiff --layer probability_0002 --out p-20cp.tif",
+		Args: cobra.ExactArgs(1),
+		RunE: func(cmd *cobra.Command, args []string) error {
+			o.dir = args[0]
+			o.Time = math.NaN()
+			if o.time != "" {
+				t, err := scenarios.ParseDuration(o.time)
+				if err != nil {
+					return badInput(fmt.Errorf("--time %s: %v", o.time, err))
+				}
+				o.Time = t
+			}
+			err := export.Export(cmd.Context(), o.dir, o.Options)
+			var ie *export.InputError
+			if errors.As(err, &ie) {
+				return badInput(err)
+			}
+			if err == nil {
+				fmt.Fprintf(statusWriter(g, stderr), "wrote %s\n", o.Out)
+			}
+			return err
+		},
+	}
+	f := cmd.Flags()
+	f.StringVar(&o.Format, "format", "", "gpkg, geojson, geotiff or quakeml (required)")
+	f.StringVar(&o.Layer, "layer", "", "layer or raster to write (see above)")
+	f.StringVar(&o.time, "time", "", "time of a run's state, with unit (e.g. 90min, 2h); default the end")
+	f.StringVarP(&o.Out, "out", "o", "", "file to write (required)")
+	f.BoolVar(&o.Force, "force", false, "replace an existing file")
+	cmd.MarkFlagRequired("format")
+	cmd.MarkFlagRequired("out")
+	return cmd
+}

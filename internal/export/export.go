@@ -1,0 +1,214 @@
+package export
+
+import (
+	"context"
+	"fmt"
+	"io"
+	"math"
+	"os"
+	"path/filepath"
+	"strings"
+	"time"
+
+	"slipfront/batch"
+	"slipfront/gis"
+	"slipfront/internal/outdir"
+)
+
+// Formats accepted by Export.
+var Formats = []string{"gpkg", "geojson", "geotiff", "quakeml"}
+
+// Options select what Export writes.
+type Options struct {
+	// Format is one of Formats.
+	Format string
+	// Layer names the layer (gpkg: all when empty; geojson: required) or
+	// the raster (geotiff: required for a run, optional for a batch of one
+	// case).
+	Layer string
+	// Time of a run's state, s; NaN for the end.
+	Time float64
+	// Out is the file to write; it is replaced only with Force.
+	Out   string
+	Force bool
+}
+
+// Export writes one file from a run or batch folder.
+func Export(ctx context.Context, dir string, o Options) error {
+	if !contains(Formats, o.Format) {
+		return inputErrorf("format %q: use one of %s", o.Format, strings.Join(Formats, ", "))
+	}
+	if err := outdir.CheckNewFile(o.Out, o.Force); err != nil {
+		return err
+	}
+	switch {
+	case IsRunDir(dir):
+		return exportRun(ctx, dir, o)
+	case isBatchDir(dir):
+		return exportBatch(ctx, dir, o)
+	}
+	return inputErrorf("%s is neither a run folder (%s, %s) nor a batch folder (%s)", dir, ScenarioFile, SnapshotFile, batch.ManifestName)
+}
+
+func isBatchDir(dir string) bool {
+	_, err := os.Stat(filepath.Join(dir, batch.ManifestName))
+	return err == nil
+}
+
+func contains(list []string, s string) bool {
+	for _, x := range list {
+		if x == s {
+			return true
+		}
+	}
+	return false
+}
+
+// writeOut writes the output file atomically.
+func writeOut(path string, write func(io.Writer) error) error {
+	return outdir.WriteFile(filepath.Dir(path), filepath.Base(path), write)
+}
+
+func exportRun(ctx context.Context, dir string, o Options) error {
+	r, err := LoadRun(dir, o.Time)
+	if err != nil {
+		return err
+	}
+	pl, err := r.Placement()
+	if err != nil {
+		return err
+	}
+	switch o.Format {
+	case "gpkg":
+		layers, err := r.Layers()
+		if err != nil {
+			return err
+		}
+		if o.Layer != "" {
+			l, err := pick(layers, o.Layer)
+			if err != nil {
+				return err
+			}
+			layers = []gis.Layer{l}
+		}
+		if o.Force {
+			os.Remove(o.Out)
+		}
+		return WriteGeoPackage(ctx, o.Out, pl, layers)
+	case "geojson":
+		if o.Layer == "" {
+			return inputErrorf("geojson writes one layer: choose it with --layer (%s)", strings.Join(LayerNames, ", "))
+		}
+		l, err := r.Layer(o.Layer)
+		if err != nil {
+			return inputErrorf("%v", err)
+		}
+		if _, err := pl.Geographic(); err != nil {
+			return inputErrorf("%v", err)
+		}
+		return writeOut(o.Out, func(w io.Writer) error { return gis.WriteGeoJSON(w, pl, l, nil) })
+	case "geotiff":
+		if o.Layer == "" {
+			return inputErrorf("geotiff writes one raster: choose it with --layer (%s)", strings.Join(RasterNames, ", "))
+		}
+		rs, err := r.Raster(o.Layer)
+		if err != nil {
+			return inputErrorf("%v", err)
+		}
+		return writeOut(o.Out, func(w io.Writer) error { return gis.WriteGeoTIFF(w, pl, rs) })
+	default: // quakeml
+		if _, err := pl.Geographic(); err != nil {
+			return inputErrorf("%v", err)
+		}
+		return writeOut(o.Out, func(w io.Writer) error { return gis.WriteQuakeML(w, pl, r.catalog()) })
+	}
+}
+
+// catalog is the run's events as a QuakeML catalogue.
+func (r *Run) catalog() gis.Catalog {
+	start, _ := time.Parse(time.RFC3339, r.Scenario.Schedule.Start)
+	c := gis.Catalog{ID: fmt.Sprintf("slipfront-%s-r%d", r.Scenario.Digest[:12], r.Network.Realization), Start: start,
+		Description: "synthetic microseismic events of a slipfront run of " + r.Scenario.Name + " (not observed data)"}
+	for _, e := range r.Result.Events {
+		c.Events = append(c.Events, gis.Event{Time: e.Time, East: e.X, North: e.Y, Depth: e.Depth, Magnitude: e.Magnitude})
+	}
+	return c
+}
+
+func pick(layers []gis.Layer, name string) (gis.Layer, error) {
+	var names []string
+	for _, l := range layers {
+		if l.Name == name {
+			return l, nil
+		}
+		names = append(names, l.Name)
+	}
+	return gis.Layer{}, inputErrorf("no layer %q; layers: %s", name, strings.Join(names, ", "))
+}
+
+func exportBatch(ctx context.Context, dir string, o Options) error {
+	if !math.IsNaN(o.Time) {
+		return inputErrorf("--time applies to a run folder; a batch folder holds final probabilities")
+	}
+	_, aggs, err := batch.ReadAggregates(ctx, dir)
+	if err != nil {
+		return err
+	}
+	layers, pl, err := ProbabilityLayers(aggs)
+	if err != nil {
+		return err
+	}
+	switch o.Format {
+	case "gpkg":
+		if o.Layer != "" {
+			l, err := pick(layers, o.Layer)
+			if err != nil {
+				return err
+			}
+			layers = []gis.Layer{l}
+		}
+		if o.Force {
+			os.Remove(o.Out)
+		}
+		return WriteGeoPackage(ctx, o.Out, pl, layers)
+	case "geojson":
+		l, err := pickDefault(layers, o.Layer)
+		if err != nil {
+			return err
+		}
+		if _, err := pl.Geographic(); err != nil {
+			return inputErrorf("%v", err)
+		}
+		return writeOut(o.Out, func(w io.Writer) error { return gis.WriteGeoJSON(w, pl, l, nil) })
+	case "geotiff":
+		l, err := pickDefault(layers, o.Layer)
+		if err != nil {
+			return err
+		}
+		for i := range aggs {
+			if layers[i].Name == l.Name {
+				rs, pl, err := ProbabilityRaster(&aggs[i])
+				if err != nil {
+					return err
+				}
+				return writeOut(o.Out, func(w io.Writer) error { return gis.WriteGeoTIFF(w, pl, rs) })
+			}
+		}
+	}
+	return inputErrorf("a batch folder exports gpkg, geojson or geotiff, not %s", o.Format)
+}
+
+// pickDefault picks the named layer, or the only one.
+func pickDefault(layers []gis.Layer, name string) (gis.Layer, error) {
+	if name == "" && len(layers) == 1 {
+		return layers[0], nil
+	}
+	if name == "" {
+		var names []string
+		for _, l := range layers {
+			names = append(names, l.Name)
+		}
+		return gis.Layer{}, inputErrorf("the batch has %d cases: choose one with --layer (%s)", len(layers), strings.Join(names, ", "))
+	}
+	return pick(layers, name)
+}
