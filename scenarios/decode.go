@@ -96,7 +96,11 @@ func (d *decoder) decodeStruct(path string, node map[string]any, v reflect.Value
 	sort.Strings(keys)
 	for _, k := range keys {
 		if _, ok := known[k]; !ok {
-			d.fail(joinKey(path, k), nil, "unknown key%s; keys here: %s", suggest(k, names), strings.Join(names, ", "))
+			hint := suggest(k, names)
+			if hint == "" {
+				hint = suggestElsewhere(k)
+			}
+			d.fail(joinKey(path, k), nil, "unknown key%s; keys here: %s", hint, strings.Join(names, ", "))
 		}
 	}
 	for _, name := range names {
@@ -435,4 +439,43 @@ func (r rangeSpec) describe(unit string) string {
 		close = ")"
 	}
 	return "within " + open + num(r.lo) + ", " + num(r.hi) + close + unit
+}
+
+// suggestElsewhere looks for a key of that name (or close to it) anywhere
+// in the schema, for a key written in the wrong table.
+func suggestElsewhere(k string) string {
+	var paths, leaves []string
+	var walk func(prefix string, t reflect.Type)
+	walk = func(prefix string, t reflect.Type) {
+		for i := range t.NumField() {
+			f := t.Field(i)
+			name := f.Tag.Get("toml")
+			if name == "" || name == "-" {
+				continue
+			}
+			ft := f.Type
+			switch {
+			case ft.Kind() == reflect.Struct:
+				walk(joinKey(prefix, name), ft)
+			case ft.Kind() == reflect.Slice && ft.Elem().Kind() == reflect.Struct && ft.Elem() != reflect.TypeFor[Point]():
+				walk(joinKey(prefix, name+"[0]"), ft.Elem())
+			case ft.Kind() == reflect.Map:
+				walk(joinKey(prefix, name+".NAME"), ft.Elem())
+			default:
+				paths = append(paths, joinKey(prefix, name))
+				leaves = append(leaves, name)
+			}
+		}
+	}
+	walk("", reflect.TypeFor[Scenario]())
+	hint := suggest(k, leaves)
+	if hint == "" {
+		return ""
+	}
+	for i, l := range leaves {
+		if hint == fmt.Sprintf(" (did you mean %q?)", l) {
+			return fmt.Sprintf(" (did you mean %q?)", paths[i])
+		}
+	}
+	return ""
 }

@@ -346,3 +346,15 @@ func FuzzReadKnownFractures(f *testing.F) {
 		}
 	})
 }
+
+// A key written in the wrong table is found where it belongs.
+func TestUnknownKeySuggestsItsTable(t *testing.T) {
+	_, err := parseText(t, minimal, "shmax_gradient=16kPa/m")
+	if err == nil || !strings.Contains(err.Error(), `did you mean "stress.shmax_gradient"?`) {
+		t.Errorf("error %v", err)
+	}
+	_, err = parseText(t, minimal, "numerics.kappa=3")
+	if err == nil || !strings.Contains(err.Error(), `did you mean "sets[0].orientation.kappa"?`) {
+		t.Errorf("error %v", err)
+	}
+}

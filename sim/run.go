@@ -82,9 +82,12 @@ type Result struct {
 	StimulatedAt []float64
 	Cells        []int
 	Timeline     []Sample
-	Events       []Event
-	Stages       []StageSummary
-	Warnings     []string
+	// FrameTimes are the output times (and the end): the times of the
+	// frames passed to Options.Frame, whether or not it is set, s.
+	FrameTimes []float64
+	Events     []Event
+	Stages     []StageSummary
+	Warnings   []string
 	// Totals: Injected, Leaked, m³; MassBalanceError relative to Injected.
 	Injected, Leaked, MassBalanceError float64
 	// PeakBHP, Pa; StimulatedArea, FractureArea, m²; StimulatedVolume, m³.
@@ -412,10 +415,14 @@ func (r *runner) record(final bool) error {
 	} else {
 		r.res.Timeline = append(r.res.Timeline, s)
 	}
-	if (!atOutput && !final) || r.opt.Frame == nil || r.lastFrame == r.t {
+	if (!atOutput && !final) || r.lastFrame == r.t {
 		return nil
 	}
 	r.lastFrame = r.t
+	r.res.FrameTimes = append(r.res.FrameTimes, r.t)
+	if r.opt.Frame == nil {
+		return nil
+	}
 	for i := range r.flags {
 		var f byte
 		if r.ms.latched[i] {

@@ -126,10 +126,6 @@ func writeRunFiles(ctx context.Context, out string, s *scenarios.Scenario, net *
 			return err
 		}
 	}
-	var times []float64
-	for _, x := range res.Timeline {
-		times = append(times, x.Time)
-	}
-	r := &export.Run{Scenario: s, Network: net, Result: res, Time: res.Duration, OutlineTimes: times}
+	r := &export.Run{Scenario: s, Network: net, Result: res, Time: res.Duration, OutlineTimes: res.FrameTimes}
 	return export.WriteRunMaps(ctx, out, r)
 }

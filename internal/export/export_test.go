@@ -1,0 +1,143 @@
+package export
+
+import (
+	"context"
+	"io"
+	"math"
+	"os"
+	"path/filepath"
+	"testing"
+
+	"slipfront/dfn"
+	"slipfront/internal/numtest"
+	"slipfront/internal/outdir"
+	"slipfront/scenarios"
+	"slipfront/sim"
+)
+
+// runFolder simulates a small demo into a folder the way the run command
+// does and returns the in-memory run too.
+func runFolder(t *testing.T) (string, *Run) {
+	t.Helper()
+	ov, err := scenarios.ParseOverrides([]string{"schedule.volume=30 bbl", "numerics.element_length=30 m"})
+	if err != nil {
+		t.Fatal(err)
+	}
+	s, err := scenarios.LoadExample("demo", ov...)
+	if err != nil {
+		t.Fatal(err)
+	}
+	net, err := dfn.Generate(s, 0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	dir := t.TempDir()
+	snap, err := os.Create(filepath.Join(dir, SnapshotFile))
+	if err != nil {
+		t.Fatal(err)
+	}
+	rec := sim.NewRecorder(snap, s, 0)
+	res, err := sim.Run(context.Background(), s, net, sim.Options{Begin: rec.Begin, Frame: rec.Frame})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := rec.Close(); err != nil {
+		t.Fatal(err)
+	}
+	snap.Close()
+	write := map[string]func(io.Writer) error{
+		ScenarioFile: func(w io.Writer) error { return scenarios.WriteResolved(w, s) },
+		EventsFile:   func(w io.Writer) error { return sim.WriteEvents(w, s, res) },
+	}
+	for name, f := range write {
+		if err := outdir.WriteFile(dir, name, f); err != nil {
+			t.Fatal(err)
+		}
+	}
+	return dir, &Run{Scenario: s, Network: net, Result: res, Time: res.Duration, OutlineTimes: res.FrameTimes}
+}
+
+// A run folder read back gives the same maps as the run in memory: the
+// same features, and rasters equal to float32 precision (the snapshot
+// stores float32) — except first-slip times, which the folder knows only
+// to the output interval.
+func TestLoadRunMatchesMemory(t *testing.T) {
+	dir, mem := runFolder(t)
+	if !IsRunDir(dir) {
+		t.Fatal("IsRunDir")
+	}
+	got, err := LoadRun(dir, math.NaN())
+	if err != nil {
+		t.Fatal(err)
+	}
+	memLayers, err := mem.Layers()
+	if err != nil {
+		t.Fatal(err)
+	}
+	gotLayers, err := got.Layers()
+	if err != nil {
+		t.Fatal(err)
+	}
+	for i := range memLayers {
+		if len(memLayers[i].Features) != len(gotLayers[i].Features) {
+			t.Errorf("layer %s: %d features in memory, %d read back", memLayers[i].Name, len(memLayers[i].Features), len(gotLayers[i].Features))
+		}
+	}
+	for _, name := range []string{"pressure_increase", "cumulative_slip"} {
+		a, err := mem.Raster(name)
+		if err != nil {
+			t.Fatal(err)
+		}
+		b, err := got.Raster(name)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for k := range a.Data {
+			x, y := float64(a.Data[k]), float64(b.Data[k])
+			if math.IsNaN(x) != math.IsNaN(y) {
+				t.Fatalf("%s: cell %d NoData in one only", name, k)
+			}
+			if !math.IsNaN(x) {
+				// float32 storage: pressures near 50 MPa are stored to
+				// 4 Pa (2⁻²³ relative), i.e. 4e-6 MPa of increase.
+				numtest.Close(t, name, y, x, 4e-6, 1e-6)
+			}
+		}
+	}
+	first, err := got.Raster("first_slip_time")
+	if err != nil {
+		t.Fatal(err)
+	}
+	want, _ := mem.Raster("first_slip_time")
+	interval := mem.Scenario.Numerics.OutputInterval / 3600
+	for k := range want.Data {
+		if d := float64(first.Data[k] - want.Data[k]); d < -1e-6 || d > interval+1e-6 {
+			t.Fatalf("cell %d: first slip %.4g h read back, %.4g h in memory: not within one output interval", k, first.Data[k], want.Data[k])
+		}
+	}
+	if _, err := LoadRun(dir, 1e9); err == nil {
+		t.Error("a time beyond the run was accepted")
+	}
+}
+
+// The stimulated outlines grow with time and their areas are whole cells.
+func TestOutlinesGrow(t *testing.T) {
+	_, mem := runFolder(t)
+	l, err := mem.outlineLayer()
+	if err != nil {
+		t.Fatal(err)
+	}
+	cell := mem.Scenario.Numerics.CellSize * mem.Scenario.Numerics.CellSize
+	prev := 0.0
+	for _, f := range l.Features {
+		area := f.Values[1].(float64)
+		if area < prev {
+			t.Fatalf("outline area fell from %g to %g m²", prev, area)
+		}
+		if r := area / cell; r != math.Trunc(r) {
+			t.Fatalf("area %g m² is not a whole number of cells", area)
+		}
+		prev = area
+	}
+	numtest.Rel(t, "final outline area", prev, mem.Result.StimulatedArea, 1e-12)
+}

@@ -1,0 +1,86 @@
+package sim
+
+import (
+	"context"
+	"testing"
+
+	"slipfront/dfn"
+	"slipfront/flow"
+	"slipfront/scenarios"
+)
+
+// BenchmarkDemo runs the whole embedded demo (issue 5).
+func BenchmarkDemo(b *testing.B) {
+	s, err := scenarios.LoadExample("demo")
+	if err != nil {
+		b.Fatal(err)
+	}
+	net, err := dfn.Generate(s, 0)
+	if err != nil {
+		b.Fatal(err)
+	}
+	b.ResetTimer()
+	for range b.N {
+		res, err := Run(context.Background(), s, net, Options{})
+		if err != nil {
+			b.Fatal(err)
+		}
+		b.ReportMetric(float64(res.Steps), "steps")
+		b.ReportMetric(float64(len(res.Elements)), "elements")
+	}
+}
+
+// benchmarkCoupledStep times one coupled step (flow ⇄ mechanics, all
+// Picard iterations, factorizations included) of the demo's first stage on
+// a map enlarged by the given overrides, from the initial state.
+func benchmarkCoupledStep(b *testing.B, overrides ...string) {
+	ov, err := scenarios.ParseOverrides(overrides)
+	if err != nil {
+		b.Fatal(err)
+	}
+	s, err := scenarios.LoadExample("demo", ov...)
+	if err != nil {
+		b.Fatal(err)
+	}
+	net, err := dfn.Generate(s, 0)
+	if err != nil {
+		b.Fatal(err)
+	}
+	m, err := newModel(s, net)
+	if err != nil {
+		b.Fatal(err)
+	}
+	r := newRunner(m, Options{})
+	if err := r.initialise(); err != nil {
+		b.Fatal(err)
+	}
+	sys, err := r.system(0)
+	if err != nil {
+		b.Fatal(err)
+	}
+	ps := m.order[0]
+	ctl := flow.Control{Mode: flow.RateControl, Rate: ps.Rate, Cap: ps.PressureCap}
+	start := r.cur
+	work := sys.NewState(m.p0, r.ms.apertures)
+	b.ResetTimer()
+	var iterations int
+	for range b.N {
+		r.ms.beginStep()
+		res, err := sys.Step(start, work, s.Numerics.TimeStepInitial, ctl, r.ms.apertures, flow.StepSettings{MaxIterationChange: s.Numerics.PressureChangeMax})
+		if err != nil {
+			b.Fatal(err)
+		}
+		iterations += res.Iterations
+	}
+	b.ReportMetric(float64(iterations)/float64(b.N), "iterations/op")
+	b.ReportMetric(float64(len(m.elements)), "elements")
+	b.ReportMetric(float64(sys.Solver().CholeskyEntries()), "nnz(L)")
+}
+
+// About 1.1·10⁵ elements: the demo's network over a 4 km × 4 km map.
+func BenchmarkCoupledStep1e5(b *testing.B) {
+	benchmarkCoupledStep(b, "domain.x_min=-2000 m", "domain.x_max=2000 m", "domain.y_min=-2000 m", "domain.y_max=2000 m")
+}
+
+// About 1.1·10⁴ elements: the demo as it is.
+func BenchmarkCoupledStep1e4(b *testing.B) { benchmarkCoupledStep(b) }
