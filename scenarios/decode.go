@@ -134,7 +134,7 @@ func (d *decoder) decodeAbsent(path string, f reflect.StructField, v reflect.Val
 	case reflect.Map:
 		v.Set(reflect.MakeMap(v.Type()))
 	case reflect.Slice:
-		if v.Type().Elem().Kind() == reflect.Struct && v.Type().Elem() != reflect.TypeFor[Point]() {
+		if isTableList(v.Type()) {
 			return // an empty list of tables
 		}
 		fallthrough
@@ -217,7 +217,7 @@ func (d *decoder) decodeSlice(path string, raw any, f reflect.StructField, kind 
 		switch {
 		case et == reflect.TypeFor[Point]():
 			d.decodePoint(ip, item, s.Index(i))
-		case et.Kind() == reflect.Struct:
+		case isTableList(v.Type()):
 			node, ok := item.(map[string]any)
 			if !ok {
 				d.fail(ip, item, "must be a table")
@@ -457,7 +457,7 @@ func suggestElsewhere(k string) string {
 			switch {
 			case ft.Kind() == reflect.Struct:
 				walk(joinKey(prefix, name), ft)
-			case ft.Kind() == reflect.Slice && ft.Elem().Kind() == reflect.Struct && ft.Elem() != reflect.TypeFor[Point]():
+			case isTableList(ft):
 				walk(joinKey(prefix, name+"[0]"), ft.Elem())
 			case ft.Kind() == reflect.Map:
 				walk(joinKey(prefix, name+".NAME"), ft.Elem())
@@ -478,4 +478,10 @@ func suggestElsewhere(k string) string {
 		}
 	}
 	return ""
+}
+
+// isTableList reports whether t is a list of tables ([[sets]]), as opposed
+// to a list of values or of points.
+func isTableList(t reflect.Type) bool {
+	return t.Kind() == reflect.Slice && t.Elem().Kind() == reflect.Struct && t.Elem() != reflect.TypeFor[Point]()
 }

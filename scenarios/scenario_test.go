@@ -153,6 +153,8 @@ func TestBadValues(t *testing.T) {
 		{"bad crs", `y_max = "500 m"`, "y_max = \"500 m\"\ncrs = \"UTM14\"", `test.toml:8: domain.crs = "UTM14": must be "EPSG:<code>"`},
 		{"bad start", `volume = "100 m3"`, "volume = \"100 m3\"\nstart = \"May 6\"", `schedule.start = "May 6": must be an RFC 3339 UTC time`},
 		{"syntax", `name = "one"`, `name = "one`, "test.toml:18: TOML syntax"},
+		{"repeated set name", `name = "two"`, `name = "one"`, `test.toml:22: sets[1].name = "one": repeats the name of sets[0]`},
+		{"repeated stage name", `name = "2"`, `name = "1"`, `test.toml:32: wells[0].stages[1].name = "1": repeats the name of wells[0].stages[0]`},
 		{"unknown known-fracture file", `[fluids.water]`, "[known_fractures]\nfile = \"missing.csv\"\n[fluids.water]", `known_fractures.file = "missing.csv": cannot open`},
 	}
 	for _, tc := range tests {

@@ -48,10 +48,7 @@ func writeTable(b *strings.Builder, path string, t reflect.Type, arrayElem bool)
 			continue
 		}
 		ft := f.Type
-		isTable := ft.Kind() == reflect.Struct ||
-			ft.Kind() == reflect.Map ||
-			(ft.Kind() == reflect.Slice && ft.Elem().Kind() == reflect.Struct && ft.Elem() != reflect.TypeFor[Point]())
-		if isTable {
+		if ft.Kind() == reflect.Struct || ft.Kind() == reflect.Map || isTableList(ft) {
 			subs = append(subs, f)
 			continue
 		}

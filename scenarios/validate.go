@@ -73,16 +73,13 @@ func (d *decoder) validateSets(s *Scenario) {
 	if len(s.Sets) == 0 && len(s.KnownFractures.Fractures) == 0 {
 		d.failKey("sets", "the scenario needs at least one fracture set ([[sets]]) or a known_fractures.file")
 	}
-	seen := map[string]int{}
+	names := make([]string, len(s.Sets))
+	for i, set := range s.Sets {
+		names[i] = set.Name
+	}
+	d.checkNames("sets", names)
 	for i, set := range s.Sets {
 		p := fmt.Sprintf("sets[%d]", i)
-		if set.Name == "" {
-			d.failKey(p+".name", "must not be empty")
-		}
-		if j, dup := seen[set.Name]; dup {
-			d.failKey(p+".name", "repeats the name of sets[%d]", j)
-		}
-		seen[set.Name] = i
 		if set.Size.Distribution == "power_law" && set.Size.Min >= set.Size.Max {
 			d.failKey(p+".size.max", "must exceed %s.size.min = %s", p, formatQuantity(set.Size.Min, kindLength))
 		}
@@ -97,28 +94,25 @@ func (d *decoder) validateSets(s *Scenario) {
 }
 
 func (d *decoder) validateWells(s *Scenario) {
-	seen := map[string]int{}
+	names := make([]string, len(s.Wells))
+	for i, w := range s.Wells {
+		names[i] = w.Name
+	}
+	d.checkNames("wells", names)
 	for i, w := range s.Wells {
 		p := fmt.Sprintf("wells[%d]", i)
-		if w.Name == "" {
-			d.failKey(p+".name", "must not be empty")
-		}
-		if j, dup := seen[w.Name]; dup {
-			d.failKey(p+".name", "repeats the name of wells[%d]", j)
-		}
-		seen[w.Name] = i
 		if len(w.Path) < 2 {
 			d.failKey(p+".path", "needs at least two points [x, y, depth]")
 			continue
 		}
 		length := w.PathLength()
-		stages := map[string]int{}
+		stageNames := make([]string, len(w.Stages))
+		for j, st := range w.Stages {
+			stageNames[j] = st.Name
+		}
+		d.checkNames(p+".stages", stageNames)
 		for j, st := range w.Stages {
 			sp := fmt.Sprintf("%s.stages[%d]", p, j)
-			if k, dup := stages[st.Name]; dup {
-				d.failKey(sp+".name", "repeats the name of %s.stages[%d]", p, k)
-			}
-			stages[st.Name] = j
 			if len(st.Clusters) == 0 {
 				d.failKey(sp+".clusters", "needs at least one cluster position")
 			}
@@ -133,6 +127,21 @@ func (d *decoder) validateWells(s *Scenario) {
 				}
 			}
 		}
+	}
+}
+
+// checkNames reports empty and repeated names of the list at path.
+func (d *decoder) checkNames(path string, names []string) {
+	seen := map[string]int{}
+	for i, name := range names {
+		key := fmt.Sprintf("%s[%d].name", path, i)
+		if name == "" {
+			d.failKey(key, "must not be empty")
+		}
+		if j, dup := seen[name]; dup {
+			d.failKey(key, "repeats the name of %s[%d]", path, j)
+		}
+		seen[name] = i
 	}
 }
 

@@ -7,14 +7,12 @@ import (
 
 	"github.com/spf13/cobra"
 
-	"slipfront/internal/outdir"
 	"slipfront/scenarios"
 )
 
 // demoOptions are the flags of "slipfront demo".
 type demoOptions struct {
-	out   string
-	force bool
+	folderOptions
 }
 
 func newDemoCmd(g *globalOptions, stdout, stderr io.Writer) *cobra.Command {
@@ -40,7 +38,7 @@ func runDemo(ctx context.Context, o *demoOptions, g *globalOptions, stdout, stde
 	if err != nil {
 		return err
 	}
-	if err := outdir.Prepare(o.out, o.force); err != nil {
+	if err := o.prepare(); err != nil {
 		return err
 	}
 	fmt.Fprintf(stdout, "%s: %d wells, %d stages, %d fracture sets and %d mapped fault(s)\n",

@@ -14,9 +14,8 @@ import (
 // generateOptions are the flags of "slipfront generate".
 type generateOptions struct {
 	scenarioOptions
+	folderOptions
 	scenario string
-	out      string
-	force    bool
 }
 
 func newGenerateCmd(g *globalOptions, stdout, stderr io.Writer) *cobra.Command {
@@ -32,10 +31,8 @@ func newGenerateCmd(g *globalOptions, stdout, stderr io.Writer) *cobra.Command {
 			return runGenerate(cmd.Context(), &o, stdout, statusWriter(g, stderr))
 		},
 	}
-	o.addFlags(cmd)
-	cmd.Flags().StringVarP(&o.out, "out", "o", "", "output folder (required)")
-	cmd.Flags().BoolVar(&o.force, "force", false, "write into an existing, non-empty output folder")
-	cmd.MarkFlagRequired("out")
+	o.scenarioOptions.addFlags(cmd)
+	o.folderOptions.addFlags(cmd)
 	return cmd
 }
 
@@ -46,7 +43,7 @@ func runGenerate(_ context.Context, o *generateOptions, stdout, status io.Writer
 	if err != nil {
 		return err
 	}
-	if err := outdir.Prepare(o.out, o.force); err != nil {
+	if err := o.prepare(); err != nil {
 		return err
 	}
 	net, err := generateNetwork(s, 0)

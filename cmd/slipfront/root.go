@@ -122,6 +122,22 @@ func (o *scenarioOptions) addFlags(cmd *cobra.Command) {
 	cmd.Flags().Int64Var(&o.seed, "seed", -1, "scenario seed (same as --set seed=N)")
 }
 
+// folderOptions are the flags of every command that writes an output
+// folder.
+type folderOptions struct {
+	out   string
+	force bool
+}
+
+func (o *folderOptions) addFlags(cmd *cobra.Command) {
+	cmd.Flags().StringVarP(&o.out, "out", "o", "", "output folder (required)")
+	cmd.Flags().BoolVar(&o.force, "force", false, "write into an existing, non-empty output folder")
+	cmd.MarkFlagRequired("out")
+}
+
+// prepare creates the output folder or checks that it may be written to.
+func (o *folderOptions) prepare() error { return outdir.Prepare(o.out, o.force) }
+
 // load reads the scenario at path (or an embedded example by name) with
 // the overrides applied.
 func (o *scenarioOptions) load(path string) (*scenarios.Scenario, error) {

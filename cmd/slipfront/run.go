@@ -21,9 +21,8 @@ import (
 // runOptions are the flags of "slipfront run".
 type runOptions struct {
 	scenarioOptions
+	folderOptions
 	scenario string
-	out      string
-	force    bool
 }
 
 func newRunCmd(g *globalOptions, stdout, stderr io.Writer) *cobra.Command {
@@ -42,10 +41,8 @@ func newRunCmd(g *globalOptions, stdout, stderr io.Writer) *cobra.Command {
 			return runRun(cmd.Context(), &o, g, stdout, stderr)
 		},
 	}
-	o.addFlags(cmd)
-	cmd.Flags().StringVarP(&o.out, "out", "o", "", "output folder (required)")
-	cmd.Flags().BoolVar(&o.force, "force", false, "write into an existing, non-empty output folder")
-	cmd.MarkFlagRequired("out")
+	o.scenarioOptions.addFlags(cmd)
+	o.folderOptions.addFlags(cmd)
 	return cmd
 }
 
@@ -54,7 +51,7 @@ func runRun(ctx context.Context, o *runOptions, g *globalOptions, stdout, stderr
 	if err != nil {
 		return err
 	}
-	if err := outdir.Prepare(o.out, o.force); err != nil {
+	if err := o.prepare(); err != nil {
 		return err
 	}
 	return simulate(ctx, s, o.out, g, stdout, stderr)

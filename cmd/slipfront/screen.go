@@ -16,9 +16,8 @@ import (
 // screenOptions are the flags of "slipfront screen".
 type screenOptions struct {
 	scenarioOptions
+	folderOptions
 	scenario string
-	out      string
-	force    bool
 }
 
 func newScreenCmd(g *globalOptions, stdout, stderr io.Writer) *cobra.Command {
@@ -34,10 +33,8 @@ func newScreenCmd(g *globalOptions, stdout, stderr io.Writer) *cobra.Command {
 			return runScreen(cmd.Context(), &o, stdout, statusWriter(g, stderr))
 		},
 	}
-	o.addFlags(cmd)
-	cmd.Flags().StringVarP(&o.out, "out", "o", "", "output folder (required)")
-	cmd.Flags().BoolVar(&o.force, "force", false, "write into an existing, non-empty output folder")
-	cmd.MarkFlagRequired("out")
+	o.scenarioOptions.addFlags(cmd)
+	o.folderOptions.addFlags(cmd)
 	return cmd
 }
 
@@ -56,7 +53,7 @@ func runScreen(_ context.Context, o *screenOptions, stdout, status io.Writer) er
 	if err != nil {
 		return badInput(err)
 	}
-	if err := outdir.Prepare(o.out, o.force); err != nil {
+	if err := o.prepare(); err != nil {
 		return err
 	}
 	net, err := generateNetwork(s, 0)

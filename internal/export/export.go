@@ -84,17 +84,7 @@ func exportRun(ctx context.Context, dir string, o Options) error {
 		if err != nil {
 			return err
 		}
-		if o.Layer != "" {
-			l, err := pick(layers, o.Layer)
-			if err != nil {
-				return err
-			}
-			layers = []gis.Layer{l}
-		}
-		if o.Force {
-			os.Remove(o.Out)
-		}
-		return WriteGeoPackage(ctx, o.Out, pl, layers)
+		return writeLayers(ctx, o, pl, layers)
 	case "geojson":
 		if o.Layer == "" {
 			return inputErrorf("geojson writes one layer: choose it with --layer (%s)", strings.Join(LayerNames, ", "))
@@ -135,6 +125,21 @@ func (r *Run) catalog() gis.Catalog {
 	return c
 }
 
+// writeLayers writes the layers, or only o.Layer, to a GeoPackage.
+func writeLayers(ctx context.Context, o Options, pl gis.Placement, layers []gis.Layer) error {
+	if o.Layer != "" {
+		l, err := pick(layers, o.Layer)
+		if err != nil {
+			return err
+		}
+		layers = []gis.Layer{l}
+	}
+	if o.Force {
+		os.Remove(o.Out) // SQLite writes a new file; CheckNewFile allowed this
+	}
+	return WriteGeoPackage(ctx, o.Out, pl, layers)
+}
+
 func pick(layers []gis.Layer, name string) (gis.Layer, error) {
 	var names []string
 	for _, l := range layers {
@@ -160,17 +165,7 @@ func exportBatch(ctx context.Context, dir string, o Options) error {
 	}
 	switch o.Format {
 	case "gpkg":
-		if o.Layer != "" {
-			l, err := pick(layers, o.Layer)
-			if err != nil {
-				return err
-			}
-			layers = []gis.Layer{l}
-		}
-		if o.Force {
-			os.Remove(o.Out)
-		}
-		return WriteGeoPackage(ctx, o.Out, pl, layers)
+		return writeLayers(ctx, o, pl, layers)
 	case "geojson":
 		l, err := pickDefault(layers, o.Layer)
 		if err != nil {
