@@ -3,12 +3,18 @@ package main
 import (
 	"bytes"
 	"context"
+	"encoding/csv"
+	"fmt"
 	"os"
 	"os/exec"
 	"path/filepath"
 	"slices"
+	"strconv"
 	"strings"
+	"sync"
 	"testing"
+
+	"slipfront/scenarios"
 )
 
 // runCLI runs the command line in-process and returns the exit code and
@@ -125,18 +131,43 @@ func TestScreen(t *testing.T) {
 // quickRun are overrides that make the demo fast enough for tests.
 var quickRun = []string{"--set", "schedule.volume=30 bbl", "--set", "numerics.element_length=30 m"}
 
-// runQuickDemo runs the quick demo into a new folder and returns it.
+var (
+	quickDemoOnce sync.Once
+	quickDemoDir  string
+	quickDemoErr  string
+)
+
+// runQuickDemo runs the quick demo once into a shared folder and returns
+// it; tests only read it.
 func runQuickDemo(t *testing.T) string {
 	t.Helper()
-	dir := filepath.Join(t.TempDir(), "run")
-	code, out, stderr := runCLI(t, append([]string{"run", "demo", "--out", dir}, quickRun...)...)
-	if code != exitOK {
-		t.Fatalf("run: exit %d: %s", code, stderr)
+	quickDemoOnce.Do(func() {
+		dir, err := os.MkdirTemp("", "slipfront-quick-demo-")
+		if err != nil {
+			quickDemoErr = err.Error()
+			return
+		}
+		quickDemoDir = filepath.Join(dir, "run")
+		code, out, stderr := runCLI(t, append([]string{"run", "demo", "--out", quickDemoDir}, quickRun...)...)
+		switch {
+		case code != exitOK:
+			quickDemoErr = fmt.Sprintf("run: exit %d: %s", code, stderr)
+		case !strings.Contains(out, "W2:3") || !strings.Contains(out, "Caution"):
+			quickDemoErr = "stage table lacks a stage or the caution:\n" + out
+		}
+	})
+	if quickDemoErr != "" {
+		t.Fatal(quickDemoErr)
 	}
-	if !strings.Contains(out, "W2:3") || !strings.Contains(out, "Caution") {
-		t.Errorf("stage table lacks a stage or the caution:\n%s", out)
+	return quickDemoDir
+}
+
+func TestMain(m *testing.M) {
+	code := m.Run()
+	if quickDemoDir != "" {
+		os.RemoveAll(filepath.Dir(quickDemoDir))
 	}
-	return dir
+	os.Exit(code)
 }
 
 func TestRunOutputs(t *testing.T) {
@@ -164,17 +195,19 @@ func TestRunOutputs(t *testing.T) {
 	}
 }
 
-// A viscosity sweep: 1 worker and 2 workers give the same bytes, and an
-// interrupted batch resumes (issue 6; the batch package tests the rest).
+// A viscosity sweep through the command line: one process and merged
+// shards give the same bytes, and the maps and charts are written (issue
+// 6; the batch package tests workers, resume, Slurm and the rest). The
+// single-fracture example keeps it quick.
 func TestBatchAndMerge(t *testing.T) {
 	dir := t.TempDir()
 	base := func(out string, extra ...string) []string {
-		a := []string{"batch", "demo", "--realizations", "2", "--set", "schedule.volume=20 bbl",
-			"--set", "numerics.element_length=30 m", "--out", filepath.Join(dir, out)}
+		a := []string{"batch", "single-fracture", "--realizations", "2", "--set", "numerics.element_length=40 m",
+			"--out", filepath.Join(dir, out)}
 		return append(a, extra...)
 	}
 	args := func(out string, extra ...string) []string {
-		return base(out, append([]string{"--sweep", "fluids.slickwater.viscosity=1cP,20cP"}, extra...)...)
+		return base(out, append([]string{"--sweep", "fluids.water.viscosity=1cP,20cP"}, extra...)...)
 	}
 	if code, _, stderr := runCLI(t, args("one", "--workers", "1")...); code != exitOK {
 		t.Fatalf("batch: exit %d: %s", code, stderr)
@@ -187,6 +220,25 @@ func TestBatchAndMerge(t *testing.T) {
 	code, out, stderr := runCLI(t, "merge", filepath.Join(dir, "s1"), filepath.Join(dir, "s0"), "--out", filepath.Join(dir, "merged"))
 	if code != exitOK || !strings.Contains(out, "viscosity=20cP") {
 		t.Fatalf("merge: exit %d: %s\n%s", code, stderr, out)
+	}
+	// 20 cP diffuses 20 times slower than 1 cP (D = e²/(12μc_f)), so the
+	// same injection stimulates less: compare the P50 final areas.
+	f, err := os.Open(filepath.Join(dir, "merged", "comparison.csv"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	r := csv.NewReader(f)
+	r.Comment = '#'
+	rows, err := r.ReadAll()
+	if err != nil || len(rows) != 3 {
+		t.Fatalf("comparison.csv: %v, %d rows", err, len(rows))
+	}
+	col := slices.Index(rows[0], "p50_final_area_m2")
+	thin, _ := strconv.ParseFloat(rows[1][col], 64)
+	thick, _ := strconv.ParseFloat(rows[2][col], 64)
+	if !(thin > thick) {
+		t.Errorf("P50 final area %g m² at 1 cP, %g m² at 20 cP: want less at 20 cP", thin, thick)
 	}
 	for _, name := range []string{"realizations.csv", "percentiles.csv", "comparison.csv", "probability/case-0001.csv"} {
 		a, _ := os.ReadFile(filepath.Join(dir, "one", name))
@@ -206,7 +258,7 @@ func TestBatchAndMerge(t *testing.T) {
 	}{
 		{args("x", "--shard", "2/2"), "shard"},
 		{base("y", "--sweep", "rock.frction=0.5,0.6"), `did you mean "friction_`},
-		{base("z", "--sweep", "fluids.slickwater.viscosity=1cP,-2cP"), "must be > 0"},
+		{base("z", "--sweep", "fluids.water.viscosity=1cP,-2cP"), "must be > 0"},
 	}
 	for _, tc := range bad {
 		if code, _, stderr := runCLI(t, tc.args...); code != exitBadInput || !strings.Contains(stderr, tc.want) {
@@ -266,5 +318,22 @@ func TestExportRun(t *testing.T) {
 	b, err = cmd.CombinedOutput()
 	if err != nil || !strings.Contains(string(b), `ID["EPSG",32614]`) || !strings.Contains(string(b), "Size is 160, 100") {
 		t.Errorf("gdalinfo: %v\n%s", err, b)
+	}
+}
+
+// run and inspect work on every embedded example (issue 5).
+func TestEveryExampleRunsAndInspects(t *testing.T) {
+	for _, name := range scenarios.Examples() {
+		t.Run(name, func(t *testing.T) {
+			dir := filepath.Join(t.TempDir(), name)
+			code, _, stderr := runCLI(t, "run", name, "--out", dir, "--set", "numerics.element_length=30 m", "--set", "schedule.volume=20 bbl")
+			if code != exitOK {
+				t.Fatalf("run %s: exit %d: %s", name, code, stderr)
+			}
+			code, out, stderr := runCLI(t, "inspect", filepath.Join(dir, "run.snap"), "--csv")
+			if code != exitOK || strings.Count(out, "\n") < 2 {
+				t.Errorf("inspect %s: exit %d: %s", name, code, stderr)
+			}
+		})
 	}
 }
