@@ -2,6 +2,7 @@ package sim
 
 import (
 	"encoding/csv"
+	"encoding/json"
 	"errors"
 	"fmt"
 	"io"
@@ -72,4 +73,86 @@ func parseEvent(rec []string, stages map[string]int) (Event, error) {
 	}
 	return Event{Time: v[0], X: v[1], Y: v[2], Depth: v[3], Fracture: int(v[4]), Trace: -1, Stage: stage,
 		Slip: v[5], Area: v[6], Moment: v[7], Magnitude: v[8]}, nil
+}
+
+// ReadTimeline reads a timeline.csv written by WriteTimeline for scenario
+// s. name is used in messages.
+func ReadTimeline(r io.Reader, name string, s *scenarios.Scenario) ([]Sample, error) {
+	cr := csv.NewReader(r)
+	cr.FieldsPerRecord = len(strings.Split(TimelineHeader, ","))
+	header, err := cr.Read()
+	if err != nil {
+		return nil, fmt.Errorf("%s: %w", name, noEOF(err))
+	}
+	if strings.Join(header, ",") != TimelineHeader {
+		return nil, fmt.Errorf("%s:1: header %q, want %q", name, strings.Join(header, ","), TimelineHeader)
+	}
+	stages := map[string]int{"": -1}
+	for k, p := range s.PumpingOrder() {
+		stages[p.Name] = k
+	}
+	var out []Sample
+	for line := 2; ; line++ {
+		rec, err := cr.Read()
+		if err == io.EOF {
+			return out, nil
+		}
+		if err != nil {
+			return nil, fmt.Errorf("%s: %w", name, err)
+		}
+		x, err := parseSample(rec, stages)
+		if err != nil {
+			return nil, fmt.Errorf("%s:%d: %w", name, line, err)
+		}
+		if len(out) > 0 && x.Time < out[len(out)-1].Time {
+			return nil, fmt.Errorf("%s:%d: time %g s goes back", name, line, x.Time)
+		}
+		out = append(out, x)
+	}
+}
+
+// parseSample converts one timeline record; empty rate and pressure
+// fields (no well yet) read as NaN.
+func parseSample(rec []string, stages map[string]int) (Sample, error) {
+	stage, ok := stages[rec[1]]
+	if !ok {
+		return Sample{}, fmt.Errorf("stage %q is not in the scenario's schedule", rec[1])
+	}
+	var v [9]float64
+	for k, c := range []int{0, 2, 3, 4, 5, 6, 8, 9, 10} {
+		if rec[c] == "" && (c == 2 || c == 4) {
+			v[k] = math.NaN()
+			continue
+		}
+		x, err := strconv.ParseFloat(rec[c], 64)
+		if err != nil || math.IsNaN(x) || math.IsInf(x, 0) {
+			return Sample{}, fmt.Errorf("column %d = %q: not a finite number", c+1, rec[c])
+		}
+		v[k] = x
+	}
+	if v[6] != math.Trunc(v[6]) || v[7] != math.Trunc(v[7]) || v[6] < 0 || v[7] < 0 {
+		return Sample{}, fmt.Errorf("element and event counts must be whole numbers ≥ 0")
+	}
+	return Sample{Time: v[0], Stage: stage, Rate: v[1], Injected: v[2], BHP: v[3] * 1e6,
+		StimulatedArea: v[4], FractureArea: v[5], SlippedElements: int(v[6]), Events: int(v[7]), MaxPressure: v[8] * 1e6}, nil
+}
+
+// ReadSummary reads the per-stage summaries and the warnings from a
+// summary.json written by WriteSummary.
+func ReadSummary(r io.Reader, name string) (stages []StageSummary, warnings []string, err error) {
+	var sj summaryJSON
+	if err := json.NewDecoder(r).Decode(&sj); err != nil {
+		return nil, nil, fmt.Errorf("%s: %w", name, err)
+	}
+	out := make([]StageSummary, len(sj.Stages))
+	for i, st := range sj.Stages {
+		mw := math.NaN()
+		if st.MaxMagnitude != nil {
+			mw = *st.MaxMagnitude
+		}
+		out[i] = StageSummary{Name: st.Name, Start: st.StartS, PumpEnd: st.PumpEndS, End: st.EndS,
+			Injected: st.InjectedM3, PeakBHP: st.PeakBHPMPa * 1e6, NewArea: st.NewAreaM2, Events: st.Events,
+			MaxMagnitude: mw, Capped: st.Capped, Steps: st.Steps}
+	}
+	return out, sj.Warnings, nil
 }

@@ -334,3 +334,64 @@ func FuzzReadEvents(f *testing.F) {
 		}
 	})
 }
+
+// timeline.csv and the stages of summary.json read back.
+func TestTimelineAndStagesRoundTrip(t *testing.T) {
+	s, res := runSmallDemo(t)
+	var b bytes.Buffer
+	if err := WriteTimeline(&b, s, res); err != nil {
+		t.Fatal(err)
+	}
+	got, err := ReadTimeline(bytes.NewReader(b.Bytes()), "timeline.csv", s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(got) != len(res.Timeline) {
+		t.Fatalf("%d rows read, %d written", len(got), len(res.Timeline))
+	}
+	for i, x := range got {
+		w := res.Timeline[i]
+		numtest.Abs(t, "time", x.Time, w.Time, 5e-4)
+		numtest.Abs(t, "area", x.StimulatedArea, w.StimulatedArea, 0.05)
+		if x.Stage != w.Stage || x.Events != w.Events {
+			t.Fatalf("row %d: stage or events differ", i)
+		}
+	}
+	b.Reset()
+	net, err := dfn.Generate(s, 0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := WriteSummary(&b, s, net, res, nil); err != nil {
+		t.Fatal(err)
+	}
+	stages, _, err := ReadSummary(bytes.NewReader(b.Bytes()), "summary.json")
+	if err != nil || len(stages) != len(res.Stages) {
+		t.Fatalf("stages: %v, %d of %d", err, len(stages), len(res.Stages))
+	}
+	numtest.Abs(t, "stage start", stages[1].Start, res.Stages[1].Start, 0)
+	if _, err := ReadTimeline(strings.NewReader(TimelineHeader+"\n5,,0,0,,0,0,0,0,0,31\n1,,0,0,,0,0,0,0,0,31\n"), "t.csv", s); err == nil {
+		t.Error("a timeline going back in time was accepted")
+	}
+}
+
+func FuzzReadTimeline(f *testing.F) {
+	s, err := scenarios.LoadExample("demo")
+	if err != nil {
+		f.Fatal(err)
+	}
+	f.Add([]byte(TimelineHeader + "\n0,,,0,31.2,0,0,0,0,0,31.2\n300,W1:1,2.6e-02,7.9,49.1,100.0,250.0,3000.0,4,7,49.1\n"))
+	f.Fuzz(func(t *testing.T, data []byte) {
+		rows, err := ReadTimeline(bytes.NewReader(data), "fuzz.csv", s)
+		if err != nil {
+			return
+		}
+		var b bytes.Buffer
+		if err := WriteTimeline(&b, s, &Result{Timeline: rows}); err != nil {
+			t.Fatal(err)
+		}
+		if again, err := ReadTimeline(bytes.NewReader(b.Bytes()), "again.csv", s); err != nil || len(again) != len(rows) {
+			t.Fatalf("written timeline does not read back: %v", err)
+		}
+	})
+}

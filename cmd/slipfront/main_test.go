@@ -252,6 +252,12 @@ func TestBatchAndMerge(t *testing.T) {
 			t.Error(err)
 		}
 	}
+	if code, _, stderr := runCLI(t, "report", filepath.Join(dir, "merged"), "--out", filepath.Join(dir, "report")); code != exitOK {
+		t.Errorf("report: exit %d: %s", code, stderr)
+	}
+	if page, _ := os.ReadFile(filepath.Join(dir, "report", "index.html")); !strings.Contains(string(page), "fan_0001.png") {
+		t.Error("the batch report does not show the second case's fan chart")
+	}
 	bad := []struct {
 		args []string
 		want string
@@ -303,6 +309,22 @@ func TestExportRun(t *testing.T) {
 		}
 		if code, _, stderr := runCLI(t, args...); code != exitBadInput || !strings.Contains(stderr, tc.want) {
 			t.Errorf("%v: exit %d, %s", tc.args, code, stderr)
+		}
+	}
+	// The report of the run folder: pictures and a page naming them.
+	rep := filepath.Join(out, "report")
+	if code, _, stderr := runCLI(t, "report", dir, "--out", rep); code != exitOK {
+		t.Fatalf("report: exit %d: %s", code, stderr)
+	}
+	page, _ := os.ReadFile(filepath.Join(rep, "index.html"))
+	for _, want := range []string{`src="map.png"`, `src="growth.png"`, "W2:3", "screening and comparison tool"} {
+		if !strings.Contains(string(page), want) {
+			t.Errorf("index.html lacks %q", want)
+		}
+	}
+	for _, name := range []string{"map.png", "growth.png"} {
+		if _, err := os.Stat(filepath.Join(rep, name)); err != nil {
+			t.Error(err)
 		}
 	}
 	if _, err := exec.LookPath("ogrinfo"); err != nil {

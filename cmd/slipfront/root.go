@@ -69,6 +69,7 @@ func run(ctx context.Context, args []string, stdout, stderr io.Writer) int {
 		newBatchCmd(&g, stdout, stderr),
 		newMergeCmd(stdout),
 		newExportCmd(&g, stderr),
+		newReportCmd(&g, stderr),
 	)
 	markStarted(root, &started)
 	err := root.ExecuteContext(ctx)

@@ -82,9 +82,6 @@ func WriteBatchMaps(ctx context.Context, dir string) error {
 	if err := WriteGeoPackage(ctx, filepath.Join(dir, "maps.gpkg"), pl, layers); err != nil {
 		return err
 	}
-	conv := Convention(m.Realizations)
-	cmp := &report.Comparison{Title: m.Scenario.Name + " — final stimulated area by case", Convention: conv,
-		Sweep: sweepLabel(m)}
 	for i := range aggs {
 		a := &aggs[i]
 		r, pl, err := ProbabilityRaster(a)
@@ -96,13 +93,23 @@ func WriteBatchMaps(ctx context.Context, dir string) error {
 		}); err != nil {
 			return err
 		}
+	}
+	return writeBatchCharts(dir, m, aggs)
+}
+
+// writeBatchCharts writes one fan chart per case (fan_NNNN.png) and the
+// comparison of the final stimulated area across cases (comparison.png).
+func writeBatchCharts(dir string, m *batch.Manifest, aggs []batch.CaseAggregate) error {
+	conv := Convention(m.Realizations)
+	cmp := &report.Comparison{Title: m.Scenario.Name + " — final stimulated area by case", Convention: conv,
+		Sweep: sweepLabel(m)}
+	for i := range aggs {
+		a := &aggs[i]
 		fan := &report.Fan{Title: fmt.Sprintf("%s — stimulated area, %s", m.Scenario.Name, caseTitle(a)), Convention: conv, Time: a.Times}
 		for _, s := range a.Area {
 			fan.P10, fan.P50, fan.P90, fan.Mean = append(fan.P10, s.P10), append(fan.P50, s.P50), append(fan.P90, s.P90), append(fan.Mean, s.Mean)
 		}
-		if err := outdir.WriteFile(dir, fmt.Sprintf("fan_%04d.png", a.Case.Index), func(w io.Writer) error {
-			return fan.WritePNG(w, report.Size{})
-		}); err != nil {
+		if err := outdir.WriteFile(dir, fanName(a), func(w io.Writer) error { return fan.WritePNG(w, report.Size{}) }); err != nil {
 			return err
 		}
 		cmp.Categories = append(cmp.Categories, caseTitle(a))
@@ -111,6 +118,8 @@ func WriteBatchMaps(ctx context.Context, dir string) error {
 	}
 	return outdir.WriteFile(dir, "comparison.png", func(w io.Writer) error { return cmp.WritePNG(w, report.Size{}) })
 }
+
+func fanName(a *batch.CaseAggregate) string { return fmt.Sprintf("fan_%04d.png", a.Case.Index) }
 
 // caseTitle is the case's sweep values, or "all realizations".
 func caseTitle(a *batch.CaseAggregate) string {

@@ -1,0 +1,151 @@
+package export
+
+import (
+	"context"
+	"fmt"
+	"io"
+	"math"
+	"os"
+	"path/filepath"
+
+	"slipfront/batch"
+	"slipfront/internal/outdir"
+	"slipfront/report"
+	"slipfront/sim"
+)
+
+// Run folder files read by WriteReport besides those of LoadRun.
+const (
+	TimelineFile = "timeline.csv"
+	SummaryFile  = "summary.json"
+)
+
+// WriteReport writes the pictures and an index.html of the run or batch
+// folder dir into the folder out.
+func WriteReport(ctx context.Context, dir, out string) error {
+	switch {
+	case IsRunDir(dir):
+		return writeRunReport(dir, out)
+	case isBatchDir(dir):
+		return writeBatchReport(ctx, dir, out)
+	}
+	return inputErrorf("%s is neither a run folder (%s, %s) nor a batch folder (%s)", dir, ScenarioFile, SnapshotFile, batch.ManifestName)
+}
+
+func writeRunReport(dir, out string) error {
+	r, err := LoadRun(dir, math.NaN())
+	if err != nil {
+		return err
+	}
+	var warnings []string
+	if err := readFile(filepath.Join(dir, TimelineFile), func(f io.Reader) (err error) {
+		r.Result.Timeline, err = sim.ReadTimeline(f, TimelineFile, r.Scenario)
+		return err
+	}); err != nil {
+		return err
+	}
+	if err := readFile(filepath.Join(dir, SummaryFile), func(f io.Reader) (err error) {
+		r.Result.Stages, warnings, err = sim.ReadSummary(f, SummaryFile)
+		return err
+	}); err != nil {
+		return err
+	}
+	m, err := r.MapPicture()
+	if err != nil {
+		return err
+	}
+	g := r.GrowthPicture()
+	for _, p := range []struct {
+		name string
+		pic  interface {
+			WritePNG(io.Writer, report.Size) error
+		}
+	}{{"map.png", m}, {"growth.png", g}} {
+		if err := outdir.WriteFile(out, p.name, func(w io.Writer) error { return p.pic.WritePNG(w, report.Size{}) }); err != nil {
+			return err
+		}
+	}
+	page := r.page(warnings)
+	return outdir.WriteFile(out, "index.html", page.WriteHTML)
+}
+
+func readFile(path string, read func(io.Reader) error) error {
+	f, err := os.Open(path)
+	if err != nil {
+		return err
+	}
+	defer f.Close()
+	return read(f)
+}
+
+// page is the HTML page of a run.
+func (r *Run) page(warnings []string) *report.Page {
+	s, res := r.Scenario, r.Result
+	var last sim.Sample
+	if n := len(res.Timeline); n > 0 {
+		last = res.Timeline[n-1]
+	}
+	maxMw := math.NaN()
+	for _, e := range res.Events {
+		maxMw = math.Max(e.Magnitude, nanTo(maxMw, e.Magnitude))
+	}
+	p := &report.Page{
+		Title: s.Name + " — run",
+		Facts: [][2]string{
+			{"scenario digest", s.Digest}, {"seed, realization", fmt.Sprintf("%d, %d", s.Seed, r.Network.Realization)},
+			{"duration", fmt.Sprintf("%.2f h", r.Time/3600)}, {"injected", fmt.Sprintf("%.1f m³", last.Injected)},
+			{"stimulated map area", fmt.Sprintf("%.0f m²", last.StimulatedArea)},
+			{"stimulated fracture area", fmt.Sprintf("%.0f m²", last.FractureArea)},
+			{"events", fmt.Sprintf("%d (largest Mw %s)", len(res.Events), optionalMw(maxMw))},
+		},
+		Notes:  warnings,
+		Images: []report.Image{{File: "map.png", Caption: "Traces by first-slip time, events, stimulated area"}, {File: "growth.png", Caption: "Stimulated area and bottom-hole pressure over time"}},
+	}
+	t := report.Table{Caption: "Stages in pumping order", Header: []string{"stage", "injected m³", "peak BHP MPa", "new area m²", "events", "max Mw"}}
+	for _, st := range res.Stages {
+		t.Rows = append(t.Rows, []string{st.Name, fmt.Sprintf("%.1f", st.Injected), fmt.Sprintf("%.2f", st.PeakBHP/1e6),
+			fmt.Sprintf("%.0f", st.NewArea), fmt.Sprint(st.Events), optionalMw(st.MaxMagnitude)})
+	}
+	p.Tables = []report.Table{t}
+	return p
+}
+
+func nanTo(v, alt float64) float64 {
+	if math.IsNaN(v) {
+		return alt
+	}
+	return v
+}
+
+func optionalMw(v float64) string {
+	if math.IsNaN(v) {
+		return "-"
+	}
+	return fmt.Sprintf("%.2f", v)
+}
+
+func writeBatchReport(ctx context.Context, dir, out string) error {
+	m, aggs, err := batch.ReadAggregates(ctx, dir)
+	if err != nil {
+		return err
+	}
+	if err := writeBatchCharts(out, m, aggs); err != nil {
+		return err
+	}
+	p := &report.Page{
+		Title: m.Scenario.Name + " — batch",
+		Facts: [][2]string{{"scenario digest", m.Scenario.Digest}, {"seed", fmt.Sprint(m.Scenario.Seed)},
+			{"cases × realizations", fmt.Sprintf("%d × %d", len(m.Cases), m.Realizations)}, {"percentiles", Convention(m.Realizations)}},
+		Images: []report.Image{{File: "comparison.png", Caption: "Final stimulated area by case"}},
+	}
+	t := report.Table{Caption: "Cases", Header: []string{"case", "P10 area m²", "P50 area m²", "P90 area m²", "mean events", "max Mw", "P50 peak BHP MPa"}}
+	for i := range aggs {
+		a := &aggs[i]
+		t.Rows = append(t.Rows, []string{caseTitle(a), fmt.Sprintf("%.0f", a.Final.P10), fmt.Sprintf("%.0f", a.Final.P50),
+			fmt.Sprintf("%.0f", a.Final.P90), fmt.Sprintf("%.1f", a.Events.Mean), optionalMw(a.MaxMagnitude),
+			fmt.Sprintf("%.2f", a.PeakPressure.P50/1e6)})
+		p.Images = append(p.Images, report.Image{File: fanName(a), Caption: "Stimulated area over time, " + caseTitle(a)})
+	}
+	p.Tables = []report.Table{t}
+	return outdir.WriteFile(out, "index.html", p.WriteHTML)
+}
