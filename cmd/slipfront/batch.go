@@ -107,14 +107,6 @@ func runBatch(ctx context.Context, o *batchOptions, g *globalOptions, stdout, st
 	return finishBatch(ctx, o.out, stdout)
 }
 
-// withSeed returns the --set overrides with --seed added.
-func (o *scenarioOptions) withSeed() []string {
-	if o.seed < 0 {
-		return o.sets
-	}
-	return append(slices.Clone(o.sets), fmt.Sprintf("seed=%d", o.seed))
-}
-
 // finishBatch writes the maps and charts of a complete batch folder and
 // prints the comparison of its cases.
 func finishBatch(ctx context.Context, dir string, stdout io.Writer) error {

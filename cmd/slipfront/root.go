@@ -5,6 +5,7 @@ import (
 	"errors"
 	"fmt"
 	"io"
+	"slices"
 
 	"github.com/spf13/cobra"
 
@@ -115,12 +116,20 @@ func isInputError(err error) bool {
 // scenarioOptions are the flags of every command that reads a scenario.
 type scenarioOptions struct {
 	sets []string
-	seed int64
+	seed string
 }
 
 func (o *scenarioOptions) addFlags(cmd *cobra.Command) {
 	cmd.Flags().StringArrayVar(&o.sets, "set", nil, "override a scenario value by its dotted key, with unit, e.g. --set fluids.slickwater.viscosity=20cP (repeatable)")
-	cmd.Flags().Int64Var(&o.seed, "seed", -1, "scenario seed (same as --set seed=N)")
+	cmd.Flags().StringVar(&o.seed, "seed", "", "scenario seed, a whole number ≥ 0 (same as --set seed=N); default the scenario's")
+}
+
+// withSeed returns the --set overrides with --seed added.
+func (o *scenarioOptions) withSeed() []string {
+	if o.seed == "" {
+		return o.sets
+	}
+	return append(slices.Clone(o.sets), "seed="+o.seed)
 }
 
 // folderOptions are the flags of every command that writes an output
