@@ -129,5 +129,5 @@ func ExampleScreen() {
 	//    flat          1   0.0%   0.0%   0.0%   0.0%    0.0%
 	//     all          3   0.0%   0.0%   0.0%   0.0%   66.7%
 	//
-	// Caution: screening and comparison tool; pump pressures, well integrity and induced-seismicity limits follow local regulation and licensed engineering practice.
+	// Caution: slipfront is a screening and comparison tool, not a design code: pump pressures, well integrity and induced-seismicity limits follow local regulation and licensed engineering practice.
 }

@@ -4,14 +4,14 @@ import (
 	"fmt"
 	"math"
 	"slices"
+	"slipfront/internal/caution"
 	"sort"
 
 	"gonum.org/v1/gonum/spatial/r3"
 )
 
 // Caution is the statement every screening output carries.
-const Caution = "screening and comparison tool; pump pressures, well integrity and induced-seismicity limits " +
-	"follow local regulation and licensed engineering practice"
+const Caution = caution.Text
 
 // DefaultCurveStep is the pressure step of the slip-versus-pressure curve,
 // Pa.

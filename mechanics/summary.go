@@ -56,7 +56,7 @@ func (sc *Screening) WriteSummary(w io.Writer) error {
 		fmt.Fprintln(tw)
 	}
 	tw.Flush()
-	fmt.Fprintf(&b, "\nCaution: %s.\n", Caution)
+	fmt.Fprintf(&b, "\nCaution: %s\n", Caution)
 	_, err := io.WriteString(w, b.String())
 	return err
 }

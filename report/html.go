@@ -3,6 +3,7 @@ package report
 import (
 	"html/template"
 	"io"
+	"slipfront/internal/caution"
 )
 
 // Page is an HTML page that gathers a run's or a batch's numbers and
@@ -68,4 +69,4 @@ func (p *Page) WriteHTML(w io.Writer) error {
 }
 
 // PageCaution is the caution printed on every HTML page.
-const PageCaution = "slipfront is a screening and comparison tool, not a design code. Pump pressures, well integrity and induced-seismicity limits follow local regulation and licensed engineering practice."
+const PageCaution = caution.Text

@@ -7,6 +7,7 @@ import (
 	"image/png"
 	"io"
 	"math"
+	"slipfront/internal/caution"
 
 	xfont "golang.org/x/image/font"
 	"gonum.org/v1/plot"
@@ -18,7 +19,7 @@ import (
 )
 
 // Caution is the one-line note printed at the bottom of every picture.
-const Caution = "Screening and comparison tool — not for design; see README cautions"
+const Caution = caution.Short
 
 // Size is a picture size in pixels. The zero Size means DefaultSize.
 type Size struct {

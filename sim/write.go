@@ -6,6 +6,7 @@ import (
 	"fmt"
 	"io"
 	"math"
+	"slipfront/internal/caution"
 	"strconv"
 	"strings"
 
@@ -16,7 +17,7 @@ import (
 )
 
 // Caution is written into every summary of a run.
-const Caution = "slipfront is a screening and comparison tool, not a design code: pump pressures, well integrity and induced-seismicity limits follow local regulation and licensed engineering practice"
+const Caution = caution.Text
 
 // num formats v with prec decimals; NaN and ±Inf as an empty field.
 func num(v float64, prec int) string {

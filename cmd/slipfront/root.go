@@ -6,6 +6,7 @@ import (
 	"fmt"
 	"io"
 	"slices"
+	cautionpkg "slipfront/internal/caution"
 
 	"github.com/spf13/cobra"
 
@@ -22,8 +23,7 @@ const (
 )
 
 // caution is printed with every result that could inform field work.
-const caution = "Caution: slipfront is a screening and comparison tool. Pump pressures, well integrity and " +
-	"induced-seismicity limits follow local regulation and licensed engineering practice."
+const caution = "Caution: " + cautionpkg.Text
 
 // inputError marks an error caused by the user's input (exit code 2).
 type inputError struct{ err error }
