@@ -87,6 +87,21 @@ func (m ApertureModel) Evaluate(sigmaN, p, slip float64, patch Patch) (e, dedp f
 	return free - eff/k, 1 / k
 }
 
+// SlipDerivative returns ∂e/∂D, the change of aperture with slip at fixed
+// stress and pressure (dimensionless): tan φ_dil / (1 + 9·σn′/σn,ref) when
+// closed, tan φ_dil when open, and 0 once the slip has reached the
+// dilation limit.
+func (m ApertureModel) SlipDerivative(sigmaN, p, slip float64) float64 {
+	if slip >= m.DilationSlipLimit || m.DilationAngle == 0 {
+		return 0
+	}
+	t := math.Tan(m.DilationAngle)
+	if eff := sigmaN - p; eff >= 0 {
+		return t / (1 + 9*eff/m.ClosureStress)
+	}
+	return t
+}
+
 // dilation returns min(max(D, 0), Dmax)·tan φ_dil, m.
 func (m ApertureModel) dilation(slip float64) float64 {
 	d := math.Min(math.Max(slip, 0), m.DilationSlipLimit)

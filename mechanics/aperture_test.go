@@ -149,3 +149,19 @@ func TestApertureValidate(t *testing.T) {
 		}
 	}
 }
+
+// ∂e/∂D against a central finite difference (gonum/diff/fd), closed and
+// open, and zero past the dilation limit (Willis-Richards et al. 1996 form).
+func TestSlipDerivative(t *testing.T) {
+	m := ApertureModel{ZeroStress: 1e-4, ClosureStress: 40e6, DilationAngle: 2.5 * math.Pi / 180,
+		DilationSlipLimit: 5e-3, ShearModulus: 30e9, PoissonRatio: 0.25}
+	patch := Patch{Length: 20, Height: 10}
+	for _, c := range []struct{ sigmaN, p, slip float64 }{{50e6, 30e6, 1e-3}, {50e6, 52e6, 2e-3}, {50e6, 30e6, 0}} {
+		want := fd.Derivative(func(d float64) float64 { return m.Aperture(c.sigmaN, c.p, d, patch) }, c.slip+1e-5,
+			&fd.Settings{Formula: fd.Central, Step: 1e-6})
+		numtest.Rel(t, "∂e/∂D", m.SlipDerivative(c.sigmaN, c.p, c.slip+1e-5), want, 1e-6)
+	}
+	if m.SlipDerivative(50e6, 30e6, 6e-3) != 0 {
+		t.Error("dilation past its limit")
+	}
+}

@@ -23,7 +23,10 @@
 // 1996), with crack opening where p > σn. An element that slipped in one
 // iteration of a step stays slipping for the rest of that step (slip is
 // irreversible), which keeps the iterations from cycling across the
-// threshold. The step is accepted when pressures, apertures and the mass
+// threshold. The aperture's pressure derivative handed to the flow solver
+// includes how an element's own pressure changes its patch's slip and so
+// its dilation, a diagonal Newton-like term that lets the linearised
+// storage see the pore volume slip opens. The step is accepted when pressures, apertures and the mass
 // balance have converged; it is cut when they do not, or when the new slip
 // of an element exceeds numerics.slip_max (down to 16 times the minimum
 // step: a single patch's slip cannot be split). The next step grows or

@@ -18,7 +18,10 @@ type mechState struct {
 	// The trial of the current step, and whether an element slipped in any
 	// iteration of it.
 	trialSlip, trialTau []float64
-	latched             []bool
+	// dslip is ∂D/∂p of each element's own pressure on its patch's trial
+	// slip, m/Pa (0 outside patches).
+	dslip   []float64
+	latched []bool
 	patches             []patch
 	// Propped aperture, m, and opening stiffness, Pa/m, of conduit elements
 	// (0 for natural elements).
@@ -38,7 +41,7 @@ func newMechState(m *model) *mechState {
 	n := len(m.elements)
 	ms := &mechState{m: m,
 		slip: make([]float64, n), tau: append([]float64(nil), m.tau0...),
-		trialSlip: make([]float64, n), trialTau: make([]float64, n),
+		trialSlip: make([]float64, n), trialTau: make([]float64, n), dslip: make([]float64, n),
 		latched: make([]bool, n), conduitAperture0: make([]float64, n), conduitStiffness: make([]float64, n),
 		firstSlip: make([]float64, n), firstStage: make([]int, n),
 	}
@@ -61,7 +64,12 @@ func (ms *mechState) beginStep() { clear(ms.latched) }
 
 // apertures is the flow.ApertureFunc of the coupled step: slip at the
 // pressures p, then apertures from the effective normal stress and the
-// trial slip.
+// trial slip. The derivative includes, besides the fracture's normal
+// compliance, how an element's own pressure changes its patch's slip and
+// so its dilation (∂e/∂D · ∂D/∂p): the storage of the linearised step then
+// sees the pore volume that slip opens, which keeps the iterations from
+// swinging where dilation is strong. (The coupling through the other
+// elements of a patch is left out: it would fill the matrix.)
 func (ms *mechState) apertures(p, e, dedp []float64) {
 	ms.trialSlipAt(p)
 	ap := ms.m.aperture
@@ -70,7 +78,11 @@ func (ms *mechState) apertures(p, e, dedp []float64) {
 			e[i], dedp[i] = ms.conduitAperture(i, p[i])
 			continue
 		}
-		e[i], dedp[i] = ap.Evaluate(ms.m.sigmaN[i], p[i], ms.trialSlip[i], ms.m.openPatch[i])
+		sn := ms.m.sigmaN[i]
+		e[i], dedp[i] = ap.Evaluate(sn, p[i], ms.trialSlip[i], ms.m.openPatch[i])
+		if ms.dslip[i] != 0 {
+			dedp[i] += ap.SlipDerivative(sn, p[i], ms.trialSlip[i]) * ms.dslip[i]
+		}
 	}
 }
 
@@ -94,11 +106,12 @@ func (ms *mechState) trialSlipAt(p []float64) {
 	sm := m.slip
 	copy(ms.trialSlip, ms.slip)
 	copy(ms.trialTau, ms.tau)
+	clear(ms.dslip)
 	ms.patches = ms.patches[:0]
 	slips := func(i int) bool {
 		return ms.latched[i] || sm.Criterion.Slips(m.sigmaN[i], ms.tau[i], p[i])
 	}
-	for k, run := range m.runs {
+	for trace, run := range m.runs {
 		for i := run[0]; i >= 0 && i < run[1]; {
 			if !slips(i) {
 				i++
@@ -114,11 +127,17 @@ func (ms *mechState) trialSlipAt(p []float64) {
 				ms.trialTau[j] = math.Min(ms.tau[j], residual)
 			}
 			h := m.elements[i].Height
-			d := drop / length / sm.Stiffness.ShearStiffness(mechanics.Patch{Length: length, Height: h})
+			k := sm.Stiffness.ShearStiffness(mechanics.Patch{Length: length, Height: h})
+			d := drop / length / k
 			for q := i; q < j; q++ {
 				ms.trialSlip[q] += d
+				// drop_q = τ_q − μd (σn_q − p_q) grows with p_q while the
+				// element is closed and above its residual strength.
+				if m.sigmaN[q] > p[q] && ms.tau[q] > sm.ResidualFriction*(m.sigmaN[q]-p[q]) {
+					ms.dslip[q] = sm.ResidualFriction * m.elements[q].Length / (length * k)
+				}
 			}
-			ms.patches = append(ms.patches, patch{trace: k, first: i, end: j, slip: d, area: length * h})
+			ms.patches = append(ms.patches, patch{trace: trace, first: i, end: j, slip: d, area: length * h})
 			i = j
 		}
 	}
