@@ -22,7 +22,7 @@ type mechState struct {
 	// slip, m/Pa (0 outside patches).
 	dslip   []float64
 	latched []bool
-	patches             []patch
+	patches []patch
 	// Propped aperture, m, and opening stiffness, Pa/m, of conduit elements
 	// (0 for natural elements).
 	conduitAperture0, conduitStiffness []float64
