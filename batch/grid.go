@@ -7,9 +7,6 @@ import (
 	"slipfront/scenarios"
 )
 
-// MaxTimePoints caps the points of a time grid.
-const MaxTimePoints = 1 << 20
-
 // Grid is the stimulated-area map grid of a case (scenarios.Grid) with the
 // CRS and origin that place it on a map.
 type Grid struct {
@@ -68,9 +65,9 @@ func TimeGridFor(s *scenarios.Scenario) (TimeGrid, error) {
 	if !(dt > 0) || !(length >= 0) || !finite(length) {
 		return TimeGrid{}, inputErrorf("time grid: need output_interval > 0 and a finite schedule; got %g s and %g s", dt, length)
 	}
-	if points := s.OutputPoints(); points > MaxTimePoints {
+	if points := s.OutputPoints(); points > scenarios.MaxOutputPoints {
 		return TimeGrid{}, inputErrorf("time grid: numerics.output_interval = %g s over a %g s schedule gives %d points; at most %d allowed",
-			dt, length, points, MaxTimePoints)
+			dt, length, points, scenarios.MaxOutputPoints)
 	}
 	return TimeGrid{Interval: dt, Points: s.OutputPoints()}, nil
 }
@@ -80,8 +77,8 @@ func (g TimeGrid) Time(k int) float64 { return float64(k) * g.Interval }
 
 // valid checks a time grid read from a file.
 func (g TimeGrid) valid() error {
-	if !(g.Interval > 0) || !finite(g.Interval) || g.Points < 1 || g.Points > MaxTimePoints {
-		return fmt.Errorf("time grid of %d points %g s apart: want 1 to %d points and an interval > 0", g.Points, g.Interval, MaxTimePoints)
+	if !(g.Interval > 0) || !finite(g.Interval) || g.Points < 1 || g.Points > scenarios.MaxOutputPoints {
+		return fmt.Errorf("time grid of %d points %g s apart: want 1 to %d points and an interval > 0", g.Points, g.Interval, scenarios.MaxOutputPoints)
 	}
 	return nil
 }

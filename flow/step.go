@@ -40,6 +40,9 @@ type State struct {
 	Aperture []float64
 	// Content of every element, m³ at the reference density.
 	Content []float64
+	// InitialContent is the content of every element in the state NewState
+	// made, m³; leak-off never takes an element below it.
+	InitialContent []float64
 	// Exposed is the time each element started leaking off (Carter), s;
 	// NaN while it has not.
 	Exposed []float64
@@ -73,6 +76,11 @@ type StepSettings struct {
 	// pressure (slip, crack opening) a capped iteration approaches the
 	// solution instead of overshooting into another branch.
 	MaxIterationChange float64
+	// Restart, when set, is called before the first iteration of every
+	// attempt at the step: Step may solve under rate control, find the
+	// pressure cap exceeded and solve again at the cap, and the caller's
+	// aperture model must then forget what the discarded attempt did.
+	Restart func()
 }
 
 func (s StepSettings) withDefaults() StepSettings {
@@ -120,7 +128,7 @@ func (s *System) NewState(p0 float64, ap ApertureFunc) *State {
 	n := s.nElem
 	st := &State{
 		Pressure: make([]float64, n), Aperture: make([]float64, n),
-		Content: make([]float64, n), Exposed: make([]float64, n), BHP: p0,
+		Content: make([]float64, n), InitialContent: make([]float64, n), Exposed: make([]float64, n), BHP: p0,
 	}
 	dedp := make([]float64, n)
 	for i := range st.Pressure {
@@ -131,16 +139,8 @@ func (s *System) NewState(p0 float64, ap ApertureFunc) *State {
 	for i := range st.Content {
 		st.Content[i] = s.Content(i, st.Aperture[i], p0)
 	}
+	copy(st.InitialContent, st.Content)
 	return st
-}
-
-// CopyTo copies st into dst, which must have the same size.
-func (st *State) CopyTo(dst *State) {
-	dst.Time, dst.BHP, dst.Capped = st.Time, st.BHP, st.Capped
-	copy(dst.Pressure, st.Pressure)
-	copy(dst.Aperture, st.Aperture)
-	copy(dst.Content, st.Content)
-	copy(dst.Exposed, st.Exposed)
 }
 
 // Step advances cur by dt into next (backward Euler) under ctl, with
@@ -195,6 +195,9 @@ func (s *System) Step(cur, next *State, dt float64, ctl Control, ap ApertureFunc
 // solve runs the Picard iterations of one step under one control.
 func (s *System) solve(cur, next *State, dt float64, ctl Control, pressureControl bool, ap ApertureFunc, set StepSettings) (StepResult, error) {
 	n := s.nElem
+	if set.Restart != nil {
+		set.Restart()
+	}
 	p := next.Pressure
 	copy(p, cur.Pressure)
 	e, dedp, ePrev := s.work()
@@ -354,7 +357,8 @@ const epsilon = 0x1p-52
 // from both faces: 2·h·L · 2 C_L (√(t+dt−t₀) − √(t−t₀)) (Carter 1957, in
 // Howard & Fast, Drilling and Production Practice, API), computed from the
 // state at the start of the step (so the system stays symmetric) and
-// limited to the element's fluid above its initial content.
+// limited to the element's fluid above its initial content (so an element
+// that cannot take more from its neighbours does not drain below it).
 func (s *System) leakoff(cur *State, dt float64) []float64 {
 	leak := s.leak
 	cl := s.cfg.Fluid.Leakoff
@@ -366,8 +370,7 @@ func (s *System) leakoff(cur *State, dt float64) []float64 {
 		}
 		el := &s.mesh.Elements[i]
 		v := 4 * el.Height * el.Length * cl * (math.Sqrt(cur.Time+dt-t0) - math.Sqrt(cur.Time-t0))
-		excess := cur.Content[i] - s.Content(i, cur.Aperture[i], s.cfg.ReferencePressure)
-		leak[i] = math.Max(0, math.Min(v, excess))
+		leak[i] = math.Max(0, math.Min(v, cur.Content[i]-cur.InitialContent[i]))
 	}
 	return leak
 }

@@ -2,10 +2,14 @@ package scenarios
 
 import "math"
 
-// MaxGridCells caps the cells of the map grid (a 10 m cell covers
-// 33.5 km × 33.5 km), so a cell size typed in the wrong unit fails with a
+// MaxGridCells caps the cells of the map grid (with 10 m cells, a square
+// 57.9 km on a side), so a cell size typed in the wrong unit fails with a
 // clear error instead of exhausting memory.
 const MaxGridCells = 1 << 25
+
+// MaxOutputPoints caps the output times of a schedule (frames, timeline
+// rows, batch time grids), for the same reason.
+const MaxOutputPoints = 1 << 20
 
 // Grid is the map grid on which stimulated area and probabilities are
 // counted: Cols × Rows square cells of CellSize metres whose south-west
@@ -38,14 +42,18 @@ func ceilCount(v float64) float64 {
 }
 
 // MapGrid returns the grid of the scenario's map area with the numerics
-// cell size.
+// cell size. The scenario must be valid (validation keeps the cell count
+// within MaxGridCells, see gridCells).
 func (s *Scenario) MapGrid() Grid {
 	d, c := s.Domain, s.Numerics.CellSize
-	return Grid{
-		Cols:     int(math.Max(1, ceilCount((d.XMax-d.XMin)/c))),
-		Rows:     int(math.Max(1, ceilCount((d.YMax-d.YMin)/c))),
-		CellSize: c, XMin: d.XMin, YMin: d.YMin,
-	}
+	cols, rows := gridCells(d, c)
+	return Grid{Cols: int(cols), Rows: int(rows), CellSize: c, XMin: d.XMin, YMin: d.YMin}
+}
+
+// gridCells returns the columns and rows of the map grid as floats, so that
+// a huge domain or a tiny cell is caught before conversion to int.
+func gridCells(d Domain, cell float64) (cols, rows float64) {
+	return math.Max(1, ceilCount((d.XMax-d.XMin)/cell)), math.Max(1, ceilCount((d.YMax-d.YMin)/cell))
 }
 
 // Cells returns the number of cells, Cols·Rows.

@@ -39,16 +39,16 @@ type Scenario struct {
 // Domain is the map area of interest in local East-North coordinates and
 // its place on a projected map.
 type Domain struct {
-	XMin float64 `toml:"x_min" unit:"length" doc:"west edge of the map area (local east coordinate)" example:"-1000 m"`
-	XMax float64 `toml:"x_max" unit:"length" doc:"east edge of the map area" example:"1000 m"`
-	YMin float64 `toml:"y_min" unit:"length" doc:"south edge of the map area (local north coordinate)" example:"-1000 m"`
-	YMax float64 `toml:"y_max" unit:"length" doc:"north edge of the map area" example:"1000 m"`
+	XMin float64 `toml:"x_min" unit:"length" range:"[-1e7,1e7]" doc:"west edge of the map area (local east coordinate)" example:"-1000 m"`
+	XMax float64 `toml:"x_max" unit:"length" range:"[-1e7,1e7]" doc:"east edge of the map area" example:"1000 m"`
+	YMin float64 `toml:"y_min" unit:"length" range:"[-1e7,1e7]" doc:"south edge of the map area (local north coordinate)" example:"-1000 m"`
+	YMax float64 `toml:"y_max" unit:"length" range:"[-1e7,1e7]" doc:"north edge of the map area" example:"1000 m"`
 	// CRS is "EPSG:<code>" of a projected CRS, or "" for an undefined
 	// Cartesian frame.
 	CRS string `toml:"crs" default:"" doc:"projected CRS of the origin, e.g. \"EPSG:32614\"; empty for an undefined local frame"`
 	// OriginEasting and OriginNorthing place local (0, 0) in the CRS, m.
-	OriginEasting  float64 `toml:"origin_easting" unit:"length" default:"0 m" doc:"easting of local (0,0) in the CRS"`
-	OriginNorthing float64 `toml:"origin_northing" unit:"length" default:"0 m" doc:"northing of local (0,0) in the CRS"`
+	OriginEasting  float64 `toml:"origin_easting" unit:"length" range:"[-1e8,1e8]" default:"0 m" doc:"easting of local (0,0) in the CRS"`
+	OriginNorthing float64 `toml:"origin_northing" unit:"length" range:"[-1e8,1e8]" default:"0 m" doc:"northing of local (0,0) in the CRS"`
 }
 
 // Layer is the simulated reservoir interval.
@@ -250,7 +250,7 @@ type Numerics struct {
 	// CouplingTolerance is the relative aperture change that ends the
 	// flow–mechanics iterations.
 	CouplingTolerance     float64 `toml:"coupling_tolerance" range:"(0,1)" default:"1e-4" doc:"relative aperture change that ends the flow-mechanics iterations"`
-	CouplingMaxIterations int     `toml:"coupling_max_iterations" range:"[1,1000]" default:"30" doc:"flow-mechanics iterations before the step is cut"`
+	CouplingMaxIterations int     `toml:"coupling_max_iterations" range:"[2,1000]" default:"30" doc:"flow-mechanics iterations before the step is cut"`
 	LinearTolerance       float64 `toml:"linear_tolerance" range:"(0,1)" default:"1e-10" doc:"relative residual of the iterative linear solver"`
 	// Solver is "auto", "cholesky", "pcg-jacobi" or "pcg-ic0".
 	Solver string `toml:"solver" default:"auto" range:"auto|cholesky|pcg-jacobi|pcg-ic0" doc:"linear solver: auto picks sparse Cholesky unless the system is too large to factor"`

@@ -122,3 +122,9 @@ func (s *Scenario) exampleStageName() string {
 	}
 	return "A:1"
 }
+
+// InitialPorePressure is the pore pressure at the layer's mid-plane before
+// pumping, Pa: pore_pressure_gradient × layer.depth.
+func (s *Scenario) InitialPorePressure() float64 {
+	return s.Stress.PorePressureGradient * s.Layer.Depth
+}

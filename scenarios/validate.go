@@ -6,7 +6,6 @@ import (
 	"math"
 	"regexp"
 	"slices"
-	"strconv"
 	"strings"
 	"time"
 
@@ -42,16 +41,6 @@ func (d *decoder) validateDomain(s *Scenario) {
 	if dm.CRS != "" && !crsPattern.MatchString(dm.CRS) {
 		d.failKey("domain.crs", `must be "EPSG:<code>" of a projected CRS, e.g. "EPSG:32614", or "" for none`)
 	}
-}
-
-// EPSG returns the EPSG code of the domain's CRS, or 0 when it has none.
-func (dm Domain) EPSG() int {
-	m := crsPattern.FindStringSubmatch(dm.CRS)
-	if m == nil {
-		return 0
-	}
-	n, _ := strconv.Atoi(m[1])
-	return n
 }
 
 func (d *decoder) validateStress(s *Scenario) {
@@ -104,6 +93,11 @@ func (d *decoder) validateWells(s *Scenario) {
 		if len(w.Path) < 2 {
 			d.failKey(p+".path", "needs at least two points [x, y, depth]")
 			continue
+		}
+		for j := 1; j < len(w.Path); j++ {
+			if math.Hypot(w.Path[j].X-w.Path[j-1].X, w.Path[j].Y-w.Path[j-1].Y) < 1e-3 {
+				d.failKey(fmt.Sprintf("%s.path[%d]", p, j), "lies on the previous point in map view; the model needs a well path with map-view legs of at least 1 mm")
+			}
 		}
 		length := w.PathLength()
 		stageNames := make([]string, len(w.Stages))
@@ -189,9 +183,20 @@ func (d *decoder) validateSchedule(s *Scenario) {
 	if len(d.errs) > 0 {
 		return
 	}
+	p0 := s.InitialPorePressure()
+	above := fmt.Sprintf("must exceed the initial pore pressure, %s (pore_pressure_gradient × layer.depth): below it the well would produce", formatQuantity(p0, kindPressure))
+	if sc.Control == "pressure" && sc.InjectionPressure <= p0 {
+		d.failKey("schedule.injection_pressure", "%s", above)
+	}
+	if sc.PressureCap <= p0 {
+		d.failKey("schedule.pressure_cap", "%s", above)
+	}
 	for _, ps := range s.PumpingOrder() {
 		if ps.Volume == 0 && ps.Duration == 0 {
 			d.failKey(d.stageKey(ps)+".volume", "stage %s has no volume and no duration (set schedule.volume or schedule.duration, or the stage's own)", ps.Name)
+		}
+		if st := s.Wells[ps.Well].Stages[ps.Stage]; st.PressureCap != nil && *st.PressureCap <= p0 {
+			d.failKey(d.stageKey(ps)+".pressure_cap", "%s", above)
 		}
 	}
 }
@@ -211,10 +216,14 @@ func (d *decoder) validateNumerics(s *Scenario) {
 	if len(d.errs) > 0 {
 		return
 	}
-	if g := s.MapGrid(); float64(g.Cols)*float64(g.Rows) > MaxGridCells {
-		d.failKey("numerics.cell_size", "gives %d × %d map cells over the domain; at most %d allowed, use a larger cell", g.Cols, g.Rows, MaxGridCells)
+	if cols, rows := gridCells(s.Domain, n.CellSize); !(cols*rows <= MaxGridCells) {
+		d.failKey("numerics.cell_size", "gives %.4g × %.4g map cells over the domain; at most %d allowed, use a larger cell", cols, rows, MaxGridCells)
 	}
 	total := s.ScheduleLength()
+	if points := total/n.OutputInterval + 1; !(points <= MaxOutputPoints) {
+		d.failKey("numerics.output_interval", "gives %.4g output times over the %s schedule; at most %d allowed, use a longer interval",
+			points, formatQuantity(total, kindTime), MaxOutputPoints)
+	}
 	if total > 0 && n.OutputInterval > total {
 		d.failKey("numerics.output_interval", "is longer than the whole schedule (%s at nominal rates)", formatQuantity(total, kindTime))
 	}

@@ -65,8 +65,8 @@ func benchmarkCoupledStep(b *testing.B, overrides ...string) {
 	b.ResetTimer()
 	var iterations int
 	for range b.N {
-		r.ms.beginStep()
-		res, err := sys.Step(start, work, s.Numerics.TimeStepInitial, ctl, r.ms.apertures, flow.StepSettings{MaxIterationChange: s.Numerics.PressureChangeMax})
+		res, err := sys.Step(start, work, s.Numerics.TimeStepInitial, ctl, r.ms.apertures,
+			flow.StepSettings{MaxIterationChange: s.Numerics.PressureChangeMax, Restart: r.ms.beginStep})
 		if err != nil {
 			b.Fatal(err)
 		}

@@ -59,7 +59,8 @@ func newMechState(m *model) *mechState {
 	return ms
 }
 
-// beginStep forgets the previous step's latches.
+// beginStep forgets the latches of the previous step or of a discarded
+// attempt at this one.
 func (ms *mechState) beginStep() { clear(ms.latched) }
 
 // apertures is the flow.ApertureFunc of the coupled step: slip at the

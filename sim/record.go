@@ -57,7 +57,7 @@ func (r *Recorder) Begin(elements []Element) error {
 	h.Static = []snapshot.StaticField{sets}
 	sw, err := snapshot.NewWriter(r.w, h)
 	if err != nil {
-		return fmt.Errorf("snapshot: %w", err)
+		return err
 	}
 	r.sw = sw
 	n := len(elements)

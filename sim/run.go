@@ -88,7 +88,9 @@ type Result struct {
 	Events     []Event
 	Stages     []StageSummary
 	Warnings   []string
-	// Totals: Injected, Leaked, m³; MassBalanceError relative to Injected.
+	// Totals: Injected, Leaked, m³; MassBalanceError: the sum over the steps
+	// of |injected − leaked − stored| relative to the fluid moved (the sum
+	// of the larger of |injected| and |stored| per step).
 	Injected, Leaked, MassBalanceError float64
 	// PeakBHP, Pa; StimulatedArea, FractureArea, m²; StimulatedVolume, m³.
 	PeakBHP, StimulatedArea, FractureArea, StimulatedVolume float64
@@ -136,7 +138,10 @@ type runner struct {
 	// The last accepted step's rate (m³/s) and bottom-hole pressure (Pa).
 	lastRate, lastBHP float64
 	lastFrame         float64 // time of the last frame, s
-	flags             []byte
+	// massError sums |injected − leaked − stored| over the steps and moved
+	// the larger of |injected| and |stored| per step, m³.
+	massError, moved float64
+	flags            []byte
 }
 
 func newRunner(m *model, opt Options) *runner {
@@ -310,7 +315,7 @@ func (r *runner) runPhase(ctx context.Context, sys *flow.System, p *phase, sum *
 	n := r.m.s.Numerics
 	z := flow.StepSize{Dt: n.TimeStepInitial, Min: n.TimeStepMin, Max: n.TimeStepMax, MaxChange: n.PressureChangeMax}
 	settings := flow.StepSettings{ApertureTol: n.CouplingTolerance, MaxIterations: n.CouplingMaxIterations,
-		MaxIterationChange: n.PressureChangeMax}
+		MaxIterationChange: n.PressureChangeMax, Restart: r.ms.beginStep}
 	for !p.done(r.t) {
 		if err := ctx.Err(); err != nil {
 			return err
@@ -348,7 +353,9 @@ func (r *runner) runPhase(ctx context.Context, sys *flow.System, p *phase, sum *
 func (r *runner) step(sys *flow.System, p *phase, sum *StageSummary, end float64, set flow.StepSettings, z *flow.StepSize) error {
 	n := r.m.s.Numerics
 	dt := end - r.t
-	r.ms.beginStep()
+	if !(dt > 0) {
+		return fmt.Errorf("%w: the step %g s is lost in the time %g s", flow.ErrStepTooSmall, z.Dt, r.t)
+	}
 	res, err := sys.Step(r.cur, r.next, dt, p.ctl, r.ms.apertures, set)
 	if err != nil {
 		return err
@@ -368,7 +375,8 @@ func (r *runner) step(sys *flow.System, p *phase, sum *StageSummary, end float64
 	}
 	r.res.Injected += res.Injected
 	r.res.Leaked += res.Leaked
-	r.res.MassBalanceError += res.MassError
+	r.massError += math.Abs(res.MassError)
+	r.moved += math.Max(math.Abs(res.Injected), math.Abs(res.Stored))
 	r.res.Steps++
 	sum.Steps++
 	sum.Injected += res.Injected
@@ -470,8 +478,8 @@ func (r *runner) result() *Result {
 	res.StimulatedArea, res.FractureArea = r.stim.area(), r.stim.fracArea
 	res.StimulatedVolume = res.StimulatedArea * m.s.Layer.Thickness
 	res.Duration = r.t
-	if res.Injected > 0 {
-		res.MassBalanceError = math.Abs(res.MassBalanceError) / res.Injected
+	if r.moved > 0 {
+		res.MassBalanceError = r.massError / r.moved
 	}
 	return &res
 }

@@ -248,12 +248,15 @@ func (m *model) elementStresses(stress mechanics.Stress) {
 func PointAlong(path []r2.Vec, d float64) r2.Vec {
 	for i := 1; i < len(path); i++ {
 		leg := r2.Norm(r2.Sub(path[i], path[i-1]))
+		if leg == 0 {
+			continue
+		}
 		if d <= leg || i == len(path)-1 {
 			return r2.Add(path[i-1], r2.Scale(math.Min(d, leg)/leg, r2.Sub(path[i], path[i-1])))
 		}
 		d -= leg
 	}
-	return path[0]
+	return path[len(path)-1]
 }
 
 func appendUnique(list []int, v int) []int {

@@ -395,3 +395,14 @@ func FuzzReadTimeline(f *testing.F) {
 		}
 	})
 }
+
+// Slip found in an attempt that the pressure cap discards must not carry
+// into the capped attempt: with the cap (30 MPa) below the critical
+// pressure (p0 + Δp_c = 33.51 MPa), nothing may slip.
+func TestCapAttemptLeavesNoSlip(t *testing.T) {
+	_, _, res := runExample(t, "single-fracture", "schedule.control=rate", "schedule.rate=100 bbl/min",
+		"schedule.pressure_cap=30 MPa", "rock.friction_residual=0.1", "numerics.element_length=20 m")
+	if len(res.Events) != 0 || res.PeakBHP > 30e6*(1+1e-12) {
+		t.Errorf("%d events, peak BHP %.6g MPa with the cap at 30 MPa", len(res.Events), res.PeakBHP/1e6)
+	}
+}

@@ -273,7 +273,8 @@ func WriteSummary(w io.Writer, s *scenarios.Scenario, net *dfn.Network, res *Res
 	return enc.Encode(sj)
 }
 
-// WriteStageTable prints the per-stage summary for people.
+// WriteStageTable prints the per-stage summary for people (warnings are
+// the caller's to print).
 func WriteStageTable(w io.Writer, res *Result) error {
 	var b strings.Builder
 	fmt.Fprintf(&b, "%-10s %12s %14s %16s %8s %9s\n", "stage", "injected m3", "peak BHP MPa", "new area m2", "events", "max Mw")
@@ -286,9 +287,6 @@ func WriteStageTable(w io.Writer, res *Result) error {
 	}
 	fmt.Fprintf(&b, "total: %.1f m3 injected, stimulated area %.0f m2 (fracture surface %.0f m2), %d events, peak BHP %.2f MPa\n",
 		res.Injected, res.StimulatedArea, res.FractureArea, len(res.Events), res.PeakBHP/1e6)
-	for _, wmsg := range res.Warnings {
-		fmt.Fprintf(&b, "warning: %s\n", wmsg)
-	}
 	_, err := io.WriteString(w, b.String())
 	return err
 }

@@ -71,7 +71,11 @@ func runBatch(ctx context.Context, o *batchOptions, g *globalOptions, stdout, st
 	}
 	opt := batch.Options{
 		Load: func(extra ...scenarios.Override) (*scenarios.Scenario, error) {
-			return scenarios.Load(o.scenario, append(slices.Clone(base), extra...)...)
+			s, err := scenarios.Load(o.scenario, append(slices.Clone(base), extra...)...)
+			if err != nil {
+				return nil, err
+			}
+			return s, badInput(checkCRS(s))
 		},
 		Realizations: o.realizations, Workers: o.workers, Out: o.out, Resume: o.resume, Force: o.force,
 		Run: runRealization,

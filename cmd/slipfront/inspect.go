@@ -64,8 +64,8 @@ func runInspect(o *inspectOptions, stdout io.Writer) error {
 			return badInput(fmt.Errorf("--time %s: %v", o.time, err))
 		}
 	}
-	if t > frames[len(frames)-1].Time {
-		return badInput(fmt.Errorf("--time %s: the snapshot ends at %g s", o.time, frames[len(frames)-1].Time))
+	if first, last := frames[0].Time, frames[len(frames)-1].Time; t < first || t > last {
+		return badInput(fmt.Errorf("--time %s: the snapshot holds frames from %.6g s to %.6g s", o.time, first, last))
 	}
 	if o.csv {
 		return snapshot.WriteFrameCSV(stdout, r, t)

@@ -42,6 +42,8 @@ func TestExitCodes(t *testing.T) {
 		{"missing file", []string{"scenario", "check", filepath.Join(dir, "none.toml")}, exitBadInput, "no such file"},
 		{"too many fractures", []string{"generate", "demo", "--set", "numerics.max_fractures=10", "--out", filepath.Join(dir, "cap")}, exitBadInput, "max_fractures"},
 		{"check ok", []string{"scenario", "check", "demo"}, exitOK, ""},
+		{"geographic CRS", []string{"run", "single-fracture", "--set", "domain.crs=EPSG:4326", "--out", filepath.Join(dir, "geo")}, exitBadInput, "projected CRS"},
+		{"negative inspect time", []string{"inspect", "../../snapshot/testdata/small.snap", "--time", "-5s"}, exitBadInput, "--time"},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
@@ -190,7 +192,7 @@ func TestRunOutputs(t *testing.T) {
 	if code != exitOK || !strings.HasPrefix(out, "element_id,fracture_id,x0_m,y0_m,x1_m,y1_m,pressure_MPa,aperture_mm,slip_mm,state") {
 		t.Errorf("inspect --csv: exit %d\n%.200s", code, out)
 	}
-	if code, _, stderr := runCLI(t, "inspect", filepath.Join(dir, "run.snap"), "--time", "99h"); code != exitBadInput || !strings.Contains(stderr, "ends at") {
+	if code, _, stderr := runCLI(t, "inspect", filepath.Join(dir, "run.snap"), "--time", "99h"); code != exitBadInput || !strings.Contains(stderr, "holds frames from") {
 		t.Errorf("time beyond the run: exit %d, %s", code, stderr)
 	}
 }

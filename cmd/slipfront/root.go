@@ -10,6 +10,7 @@ import (
 
 	"github.com/spf13/cobra"
 
+	"slipfront/gis"
 	"slipfront/internal/outdir"
 	"slipfront/scenarios"
 )
@@ -156,5 +157,17 @@ func (o *scenarioOptions) load(path string) (*scenarios.Scenario, error) {
 		return nil, badInput(err)
 	}
 	s, err := scenarios.Load(path, ov...)
-	return s, badInput(err)
+	if err != nil {
+		return nil, badInput(err)
+	}
+	return s, badInput(checkCRS(s))
+}
+
+// checkCRS refuses, before any work, a CRS the maps cannot be written in
+// (a geographic one: local metres need a projected CRS).
+func checkCRS(s *scenarios.Scenario) error {
+	if _, err := gis.ParseCRS(s.Domain.CRS); err != nil {
+		return fmt.Errorf("%s: domain.crs = %q: %v", s.Source, s.Domain.CRS, err)
+	}
+	return nil
 }

@@ -7,6 +7,7 @@ import (
 	"math"
 	"os"
 	"path/filepath"
+	"slices"
 	"strings"
 	"time"
 
@@ -35,7 +36,7 @@ type Options struct {
 
 // Export writes one file from a run or batch folder.
 func Export(ctx context.Context, dir string, o Options) error {
-	if !contains(Formats, o.Format) {
+	if !slices.Contains(Formats, o.Format) {
 		return inputErrorf("format %q: use one of %s", o.Format, strings.Join(Formats, ", "))
 	}
 	if err := outdir.CheckNewFile(o.Out, o.Force); err != nil {
@@ -53,15 +54,6 @@ func Export(ctx context.Context, dir string, o Options) error {
 func isBatchDir(dir string) bool {
 	_, err := os.Stat(filepath.Join(dir, batch.ManifestName))
 	return err == nil
-}
-
-func contains(list []string, s string) bool {
-	for _, x := range list {
-		if x == s {
-			return true
-		}
-	}
-	return false
 }
 
 // writeOut writes the output file atomically.
@@ -134,10 +126,7 @@ func writeLayers(ctx context.Context, o Options, pl gis.Placement, layers []gis.
 		}
 		layers = []gis.Layer{l}
 	}
-	if o.Force {
-		os.Remove(o.Out) // SQLite writes a new file; CheckNewFile allowed this
-	}
-	return WriteGeoPackage(ctx, o.Out, pl, layers)
+	return WriteGeoPackage(ctx, o.Out, pl, layers) // a new file, renamed over o.Out
 }
 
 func pick(layers []gis.Layer, name string) (gis.Layer, error) {

@@ -2,10 +2,12 @@ package export
 
 import (
 	"context"
+	"errors"
 	"io"
 	"math"
 	"os"
 	"path/filepath"
+	"strings"
 	"testing"
 
 	"slipfront/dfn"
@@ -140,4 +142,21 @@ func TestOutlinesGrow(t *testing.T) {
 		prev = area
 	}
 	numtest.Rel(t, "final outline area", prev, mem.Result.StimulatedArea, 1e-12)
+}
+
+// A folder whose scenario.json is not the run's own is refused, not drawn.
+func TestLoadRunRefusesMixedFolder(t *testing.T) {
+	dir, _ := runFolder(t)
+	other, err := scenarios.LoadExample("single-fracture")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := outdir.WriteFile(dir, ScenarioFile, func(w io.Writer) error { return scenarios.WriteResolved(w, other) }); err != nil {
+		t.Fatal(err)
+	}
+	_, err = LoadRun(dir, math.NaN())
+	var ie *InputError
+	if !errors.As(err, &ie) || !strings.Contains(err.Error(), "mixes two runs") {
+		t.Errorf("error %v", err)
+	}
 }

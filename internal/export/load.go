@@ -79,9 +79,18 @@ func LoadRun(dir string, t float64) (*Run, error) {
 		return nil, inputErrorf("time %g s is outside the run: its frames span %g s to %g s", t, frames[0].Time, last)
 	}
 	h := rd.Header()
+	if h.Digest != s.Digest {
+		return nil, inputErrorf("%s belongs to scenario %.12s…, but %s is scenario %.12s…: the folder mixes two runs",
+			SnapshotFile, h.Digest, ScenarioFile, s.Digest)
+	}
 	net, err := dfn.Generate(s, h.Realization)
 	if err != nil {
 		return nil, err
+	}
+	for i, e := range h.Elements {
+		if int(e.Fracture) >= len(net.Fractures) {
+			return nil, inputErrorf("%s: element %d names fracture %d, but the network has %d", SnapshotFile, i, e.Fracture, len(net.Fractures))
+		}
 	}
 	res, times, err := replay(rd, &h, t)
 	if err != nil {
