@@ -5,6 +5,8 @@ import (
 	"regexp"
 	"strconv"
 	"strings"
+
+	"github.com/BurntSushi/toml"
 )
 
 // Override is one command-line "--set key=value": a dotted scenario key
@@ -67,6 +69,19 @@ func parseKeyPath(k string) ([]keySegment, error) {
 	return segs, nil
 }
 
+// value is the override's value for the tree: a string, as a file's
+// quoted value, or a list written as in TOML (["90 m", "120 m"]).
+func (o Override) value() (any, error) {
+	if !strings.HasPrefix(o.Value, "[") {
+		return o.Value, nil
+	}
+	var t map[string]any
+	if _, err := toml.Decode("v = "+o.Value, &t); err != nil {
+		return nil, fmt.Errorf("a list must be written as in TOML, e.g. [\"90 m\", \"120 m\"]: %v", err)
+	}
+	return t["v"], nil
+}
+
 // apply writes the override into the generic TOML tree and returns the
 // normalised key path it set.
 func (o Override) apply(tree map[string]any) (string, error) {
@@ -97,10 +112,17 @@ func (o Override) apply(tree map[string]any) (string, error) {
 			continue
 		}
 		if last {
-			if _, isTable := node[s.name].(map[string]any); isTable {
+			switch node[s.name].(type) {
+			case map[string]any:
 				return fail("%s is a table; set one of its keys", path)
+			case []map[string]any:
+				return fail("%s is a list of tables; give an index and a key, e.g. %s[0].name", path, path)
 			}
-			node[s.name] = o.Value
+			v, err := o.value()
+			if err != nil {
+				return fail("%v", err)
+			}
+			node[s.name] = v
 			return path, nil
 		}
 		switch next := node[s.name].(type) {
@@ -110,6 +132,8 @@ func (o Override) apply(tree map[string]any) (string, error) {
 			m := map[string]any{}
 			node[s.name] = m
 			node = m
+		case []map[string]any:
+			return fail("%s is a list of tables; give an index, e.g. %s[0]", path, path)
 		default:
 			return fail("%s is a value, not a table", path)
 		}

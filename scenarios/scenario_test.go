@@ -186,7 +186,7 @@ func TestAllErrorsAtOnce(t *testing.T) {
 
 func TestOverrides(t *testing.T) {
 	s, err := parseText(t, minimal, "fluids.water.viscosity=20cP", "sets[1].orientation.kappa=15",
-		"numerics.cell_size = 5 m", "schedule.rate=80 bbl/min", "seed=9")
+		"numerics.cell_size = 5 m", "schedule.rate=80 bbl/min", "seed=9", `wells[0].stages[1].clusters=["480 m", "510 m"]`)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -196,6 +196,9 @@ func TestOverrides(t *testing.T) {
 	numtest.Rel(t, "rate", s.Schedule.Rate, 0.21198305990400002, 1e-12) // NIST SP 811 barrel
 	if s.Seed != 9 {
 		t.Errorf("seed %d", s.Seed)
+	}
+	if c := s.Wells[0].Stages[1].Clusters; len(c) != 2 || c[1] != 510 {
+		t.Errorf("list override: clusters %v", c)
 	}
 	base, _ := parseText(t, minimal)
 	if base.Digest == s.Digest {
@@ -210,6 +213,9 @@ func TestOverrideErrors(t *testing.T) {
 		{"numerics.cel_size=5 m", `--set numerics.cel_size=5 m: unknown key (did you mean "cell_size"?)`},
 		{"fluids.water.viscosity=20 cQ", `--set fluids.water.viscosity=20 cQ: unknown unit "cQ"`},
 		{"layer=5", "--set layer=5: layer is a table; set one of its keys"},
+		{"wells.name=x", "--set wells.name=x: wells is a list of tables; give an index, e.g. wells[0]"},
+		{"sets=x", "sets is a list of tables; give an index and a key, e.g. sets[0].name"},
+		{`schedule.sequence=["A:1"`, "a list must be written as in TOML"},
 		{"kappa", "want key=value"},
 		{"sets[x].name=a", "bad key"},
 	}

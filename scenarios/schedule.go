@@ -29,6 +29,15 @@ func (p PlannedStage) NominalLength() float64 {
 	return t
 }
 
+// StageNameAt returns the name of stage k of a pumping order, or "" when
+// k is not one (−1: before the first stage).
+func StageNameAt(order []PlannedStage, k int) string {
+	if k < 0 || k >= len(order) {
+		return ""
+	}
+	return order[k].Name
+}
+
 // StageName is the "WELL:STAGE" name used in schedule.sequence and outputs.
 func StageName(well, stage string) string { return well + ":" + stage }
 

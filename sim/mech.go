@@ -199,3 +199,15 @@ type Event struct {
 	// (Hanks & Kanamori 1979, IASPEI 2013 form).
 	Slip, Area, Moment, Magnitude float64
 }
+
+// MaxMagnitude returns the largest moment magnitude of the events, or NaN
+// when there are none.
+func MaxMagnitude(events []Event) float64 {
+	mw := math.NaN()
+	for _, e := range events {
+		if math.IsNaN(mw) || e.Magnitude > mw {
+			mw = e.Magnitude
+		}
+	}
+	return mw
+}

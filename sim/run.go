@@ -232,9 +232,13 @@ func (r *runner) runStage(ctx context.Context, k int, ps scenarios.PlannedStage)
 		return err
 	}
 	if ps.Duration == 0 && !pump.done(math.Inf(-1)) {
+		why := "the pressure cap held the rate down"
+		if ctl.Mode == flow.PressureControl {
+			why = "the injection pressure could not drive the planned rate"
+		}
 		r.res.Warnings = append(r.res.Warnings, fmt.Sprintf(
-			"stage %s: pumped %.1f of %.1f m³ in %.0f s (%d times its nominal length) before it was ended; the pressure cap held the rate down",
-			ps.Name, pump.injected, ps.Volume, r.t-sum.Start, maxStretch))
+			"stage %s: pumped %.1f of %.1f m³ in %.0f s (%d times its nominal length) before it was ended; %s",
+			ps.Name, pump.injected, ps.Volume, r.t-sum.Start, maxStretch, why))
 	}
 	sum.PumpEnd = r.t
 	if err := r.record(false); err != nil {
@@ -247,11 +251,7 @@ func (r *runner) runStage(ctx context.Context, k int, ps scenarios.PlannedStage)
 	sum.End = r.t
 	sum.NewArea = r.stim.area() - area0
 	sum.Events = len(r.res.Events) - events0
-	for _, e := range r.res.Events[events0:] {
-		if math.IsNaN(sum.MaxMagnitude) || e.Magnitude > sum.MaxMagnitude {
-			sum.MaxMagnitude = e.Magnitude
-		}
-	}
+	sum.MaxMagnitude = MaxMagnitude(r.res.Events[events0:])
 	r.res.Stages = append(r.res.Stages, sum)
 	return r.record(false)
 }

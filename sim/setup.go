@@ -99,6 +99,10 @@ func newModel(s *scenarios.Scenario, net *dfn.Network) (*model, error) {
 		}
 	}
 	paths, junctions := m.paths()
+	if n := estimateElements(paths, s.Numerics.ElementLength); n > MaxElements {
+		return nil, inputErrorf("numerics.element_length = %g m would split the %d traces and conduits into about %.3g elements; at most %d are allowed: use longer elements or a smaller map",
+			s.Numerics.ElementLength, len(paths), n, MaxElements)
+	}
 	clusterNodes, err := m.clusterCuts(paths)
 	if err != nil {
 		return nil, err
@@ -165,6 +169,21 @@ func (m *model) paths() ([]flow.Path, []flow.Junction) {
 		}
 	}
 	return paths, junctions
+}
+
+// MaxElements caps the flow elements of a run (about 10⁹ bytes of state
+// and factor), so an element length typed in the wrong unit fails with a
+// clear error instead of exhausting memory.
+const MaxElements = 5_000_000
+
+// estimateElements is the number of elements the paths split into,
+// without the extra boundaries at junctions.
+func estimateElements(paths []flow.Path, elementLength float64) float64 {
+	var n float64
+	for _, p := range paths {
+		n += math.Ceil(r2.Norm(r2.Sub(p.P1, p.P0)) / elementLength)
+	}
+	return n
 }
 
 // feed is a position on a path fed by a perforation cluster.

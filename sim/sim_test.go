@@ -406,3 +406,21 @@ func TestCapAttemptLeavesNoSlip(t *testing.T) {
 		t.Errorf("%d events, peak BHP %.6g MPa with the cap at 30 MPa", len(res.Events), res.PeakBHP/1e6)
 	}
 }
+
+// An element length typed in the wrong unit is refused before the mesh
+// is built, not by running out of memory.
+func TestElementCap(t *testing.T) {
+	s, err := scenarios.LoadExample("single-fracture", scenarios.Override{Key: "numerics.element_length", Value: "0.1 mm"})
+	if err != nil {
+		t.Fatal(err)
+	}
+	net, err := dfn.Generate(s, 0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	_, err = Run(context.Background(), s, net, Options{})
+	var ie *InputError
+	if !errors.As(err, &ie) || !strings.Contains(err.Error(), "numerics.element_length") {
+		t.Errorf("error %v", err)
+	}
+}

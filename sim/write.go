@@ -39,13 +39,6 @@ func sci(v float64, prec int) string {
 	return strconv.FormatFloat(v, 'e', prec, 64)
 }
 
-func stageName(order []scenarios.PlannedStage, k int) string {
-	if k < 0 || k >= len(order) {
-		return ""
-	}
-	return order[k].Name
-}
-
 // TimelineHeader is the header of timeline.csv.
 const TimelineHeader = "time_s,stage,rate_m3_s,injected_m3,bhp_MPa,stimulated_area_m2,stimulated_fracture_area_m2,stimulated_volume_m3,slipped_elements,events,max_pressure_MPa"
 
@@ -57,7 +50,7 @@ func WriteTimeline(w io.Writer, s *scenarios.Scenario, res *Result) error {
 	order := s.PumpingOrder()
 	for _, x := range res.Timeline {
 		cw.Write([]string{
-			num(x.Time, 3), stageName(order, x.Stage), sci(x.Rate, 6), num(x.Injected, 6), num(x.BHP/1e6, 6),
+			num(x.Time, 3), scenarios.StageNameAt(order, x.Stage), sci(x.Rate, 6), num(x.Injected, 6), num(x.BHP/1e6, 6),
 			num(x.StimulatedArea, 1), num(x.FractureArea, 1), num(x.StimulatedArea*s.Layer.Thickness, 1),
 			strconv.Itoa(x.SlippedElements), strconv.Itoa(x.Events), num(x.MaxPressure/1e6, 6),
 		})
@@ -77,7 +70,7 @@ func WriteEvents(w io.Writer, s *scenarios.Scenario, res *Result) error {
 	for _, e := range res.Events {
 		cw.Write([]string{
 			num(e.Time, 3), num(e.X, 3), num(e.Y, 3), num(e.Depth, 3), strconv.Itoa(e.Fracture),
-			stageName(order, e.Stage), sci(e.Slip, 6), num(e.Area, 3), sci(e.Moment, 6), num(e.Magnitude, 4),
+			scenarios.StageNameAt(order, e.Stage), sci(e.Slip, 6), num(e.Area, 3), sci(e.Moment, 6), num(e.Magnitude, 4),
 		})
 	}
 	cw.Flush()
@@ -168,7 +161,7 @@ func WriteFractures(w io.Writer, s *scenarios.Scenario, net *dfn.Network, res *R
 			num(f.Dip*180/math.Pi, 3), num(f.DipDirection*180/math.Pi, 3), num(f.TraceLength, 3), num(f.Height, 3),
 			strconv.Itoa(f.Elements), num(f.MaxSlip*1e3, 6), num(f.MeanSlip*1e3, 6),
 			num(f.InitialAperture*1e3, 6), num(f.MeanAperture*1e3, 6), num(f.PermeabilityGain, 4), num(f.MaxPermeabilityGain, 4),
-			num(f.FirstSlip, 3), stageName(order, f.FirstSlipStage), num(f.StimulatedLength, 3),
+			num(f.FirstSlip, 3), scenarios.StageNameAt(order, f.FirstSlipStage), num(f.StimulatedLength, 3),
 		})
 	}
 	cw.Flush()
@@ -238,12 +231,7 @@ func optional(v float64) *float64 {
 // WriteSummary writes summary.json; failure, when not nil, is recorded as
 // the reason the run stopped early.
 func WriteSummary(w io.Writer, s *scenarios.Scenario, net *dfn.Network, res *Result, failure error) error {
-	maxMw := math.NaN()
-	for _, e := range res.Events {
-		if math.IsNaN(maxMw) || e.Magnitude > maxMw {
-			maxMw = e.Magnitude
-		}
-	}
+	maxMw := MaxMagnitude(res.Events)
 	sj := summaryJSON{
 		Program: "slipfront " + version.Version, Caution: Caution, Scenario: s.Name, Digest: s.Digest,
 		Seed: s.Seed, Realization: net.Realization, NetworkHash: net.Digest(), Start: s.Schedule.Start,

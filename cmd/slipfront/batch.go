@@ -151,13 +151,8 @@ func runRealization(ctx context.Context, s *scenarios.Scenario, r int) (*batch.O
 		return nil, fmt.Errorf("realization %d: %w", r, err)
 	}
 	out := &batch.Outcome{NetworkDigest: net.Digest(), FinalArea: res.StimulatedArea, FractureArea: res.FractureArea,
-		Events: len(res.Events), MaxMagnitude: math.NaN(), PeakPressure: res.PeakBHP, InjectedVolume: res.Injected,
-		Cells: res.Cells}
-	for _, e := range res.Events {
-		if math.IsNaN(out.MaxMagnitude) || e.Magnitude > out.MaxMagnitude {
-			out.MaxMagnitude = e.Magnitude
-		}
-	}
+		Events: len(res.Events), MaxMagnitude: sim.MaxMagnitude(res.Events), PeakPressure: res.PeakBHP,
+		InjectedVolume: res.Injected, Cells: res.Cells}
 	for _, x := range res.Timeline {
 		out.Times = append(out.Times, x.Time)
 		out.Areas = append(out.Areas, x.StimulatedArea)

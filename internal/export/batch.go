@@ -64,7 +64,7 @@ func ProbabilityLayers(aggs []batch.CaseAggregate) ([]gis.Layer, gis.Placement, 
 		}
 		layers = append(layers, l)
 	}
-	return layers, pl, nil
+	return withCaution(layers), pl, nil
 }
 
 // WriteBatchMaps writes into a complete batch folder: maps.gpkg with the

@@ -85,10 +85,7 @@ func (r *Run) page(warnings []string) *report.Page {
 	if n := len(res.Timeline); n > 0 {
 		last = res.Timeline[n-1]
 	}
-	maxMw := math.NaN()
-	for _, e := range res.Events {
-		maxMw = math.Max(e.Magnitude, nanTo(maxMw, e.Magnitude))
-	}
+	maxMw := sim.MaxMagnitude(res.Events)
 	p := &report.Page{
 		Title: s.Name + " — run",
 		Facts: [][2]string{
@@ -108,13 +105,6 @@ func (r *Run) page(warnings []string) *report.Page {
 	}
 	p.Tables = []report.Table{t}
 	return p
-}
-
-func nanTo(v, alt float64) float64 {
-	if math.IsNaN(v) {
-		return alt
-	}
-	return v
 }
 
 func optionalMw(v float64) string {

@@ -9,6 +9,7 @@ import (
 
 	"slipfront/dfn"
 	"slipfront/gis"
+	"slipfront/internal/caution"
 	"slipfront/scenarios"
 	"slipfront/sim"
 )
@@ -50,7 +51,16 @@ func (r *Run) Layers() ([]gis.Layer, error) {
 	if err != nil {
 		return nil, err
 	}
-	return []gis.Layer{r.fractureLayer(), r.conduitLayer(), outlines, r.eventLayer(), r.wellLayer(), r.clusterLayer()}, nil
+	return withCaution([]gis.Layer{r.fractureLayer(), r.conduitLayer(), outlines, r.eventLayer(), r.wellLayer(), r.clusterLayer()}), nil
+}
+
+// withCaution adds the caution to every layer's description, so it travels
+// with the map into a GIS.
+func withCaution(layers []gis.Layer) []gis.Layer {
+	for i := range layers {
+		layers[i].Description += " — " + caution.Short
+	}
+	return layers
 }
 
 // Layer builds the named layer.
@@ -79,12 +89,12 @@ func nullable(v float64) any {
 	return v
 }
 
+// stageName is stage k's name, or nil (NULL) for none.
 func (r *Run) stageName(k int) any {
-	order := r.Scenario.PumpingOrder()
-	if k < 0 || k >= len(order) {
-		return nil
+	if name := scenarios.StageNameAt(r.Scenario.PumpingOrder(), k); name != "" {
+		return name
 	}
-	return order[k].Name
+	return nil
 }
 
 func (r *Run) fractureLayer() gis.Layer {

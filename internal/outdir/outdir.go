@@ -13,9 +13,9 @@ import (
 	"path/filepath"
 )
 
-// ErrExists is returned by Prepare when the folder holds files and force is
-// not set.
-var ErrExists = errors.New("output folder is not empty")
+// ErrExists is returned when an output folder holds files, or an output
+// file exists, and force is not set.
+var ErrExists = errors.New("output already exists")
 
 // Prepare creates dir, or checks that an existing dir may be written to:
 // an empty one always, a non-empty one only with force.
