@@ -94,6 +94,9 @@ func normalizeUnit(u string) string {
 		u = "1/" + strings.TrimSuffix(u, "⁻¹")
 	}
 	u = r.Replace(u)
+	if strings.HasPrefix(u, "/") {
+		u = "1" + u // "/m" for "1/m"
+	}
 	switch u {
 	case "m/sqrt(s)", "m/s^(1/2)", "m/s0.5":
 		return "m/s^0.5"

@@ -37,6 +37,7 @@ func TestParseQuantity(t *testing.T) {
 		{"N10W", kindAzimuth, 350 * math.Pi / 180, "quadrant bearing, common practice"},
 		{"S30E", kindAzimuth, 150 * math.Pi / 180, "quadrant bearing, common practice"},
 		{"0.02 1/m", kindIntensity, 0.02, "SI"},
+		{"0.03/m", kindIntensity, 0.03, "SI, written as a rate"},
 		{"2 m³", kindVolume, 2, "typographic variant of m3"},
 		{"1e-5 m/sqrt(s)", kindLeakoff, 1e-5, "SI"},
 		{"2600m", kindLength, 2600, "no space between number and unit"},

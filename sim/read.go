@@ -16,33 +16,51 @@ import (
 // ReadEvents reads an events.csv written by WriteEvents for scenario s
 // (whose pumping order names the stages). name is used in messages.
 func ReadEvents(r io.Reader, name string, s *scenarios.Scenario) ([]Event, error) {
-	cr := csv.NewReader(r)
-	cr.FieldsPerRecord = len(strings.Split(EventsHeader, ","))
-	header, err := cr.Read()
-	if err != nil {
-		return nil, fmt.Errorf("%s: %w", name, noEOF(err))
-	}
-	if strings.Join(header, ",") != EventsHeader {
-		return nil, fmt.Errorf("%s:1: header %q, want %q", name, strings.Join(header, ","), EventsHeader)
-	}
-	stages := map[string]int{}
+	stages := stageIndex(s)
+	var out []Event
+	err := readRecords(r, name, EventsHeader, func(rec []string) error {
+		e, err := parseEvent(rec, stages)
+		if err == nil {
+			out = append(out, e)
+		}
+		return err
+	})
+	return out, err
+}
+
+// stageIndex maps stage names to their index in the pumping order ("" to
+// −1, before the first stage).
+func stageIndex(s *scenarios.Scenario) map[string]int {
+	stages := map[string]int{"": -1}
 	for k, p := range s.PumpingOrder() {
 		stages[p.Name] = k
 	}
-	var out []Event
+	return stages
+}
+
+// readRecords reads a CSV file that starts with the given header and
+// passes every record to parse; errors name the file and line.
+func readRecords(r io.Reader, name, header string, parse func(rec []string) error) error {
+	cr := csv.NewReader(r)
+	cr.FieldsPerRecord = len(strings.Split(header, ","))
+	head, err := cr.Read()
+	if err != nil {
+		return fmt.Errorf("%s: %w", name, noEOF(err))
+	}
+	if strings.Join(head, ",") != header {
+		return fmt.Errorf("%s:1: header %q, want %q", name, strings.Join(head, ","), header)
+	}
 	for line := 2; ; line++ {
 		rec, err := cr.Read()
 		if err == io.EOF {
-			return out, nil
+			return nil
 		}
 		if err != nil {
-			return nil, fmt.Errorf("%s: %w", name, err)
+			return fmt.Errorf("%s: %w", name, err)
 		}
-		e, err := parseEvent(rec, stages)
-		if err != nil {
-			return nil, fmt.Errorf("%s:%d: %w", name, line, err)
+		if err := parse(rec); err != nil {
+			return fmt.Errorf("%s:%d: %w", name, line, err)
 		}
-		out = append(out, e)
 	}
 }
 
@@ -78,37 +96,20 @@ func parseEvent(rec []string, stages map[string]int) (Event, error) {
 // ReadTimeline reads a timeline.csv written by WriteTimeline for scenario
 // s. name is used in messages.
 func ReadTimeline(r io.Reader, name string, s *scenarios.Scenario) ([]Sample, error) {
-	cr := csv.NewReader(r)
-	cr.FieldsPerRecord = len(strings.Split(TimelineHeader, ","))
-	header, err := cr.Read()
-	if err != nil {
-		return nil, fmt.Errorf("%s: %w", name, noEOF(err))
-	}
-	if strings.Join(header, ",") != TimelineHeader {
-		return nil, fmt.Errorf("%s:1: header %q, want %q", name, strings.Join(header, ","), TimelineHeader)
-	}
-	stages := map[string]int{"": -1}
-	for k, p := range s.PumpingOrder() {
-		stages[p.Name] = k
-	}
+	stages := stageIndex(s)
 	var out []Sample
-	for line := 2; ; line++ {
-		rec, err := cr.Read()
-		if err == io.EOF {
-			return out, nil
-		}
-		if err != nil {
-			return nil, fmt.Errorf("%s: %w", name, err)
-		}
+	err := readRecords(r, name, TimelineHeader, func(rec []string) error {
 		x, err := parseSample(rec, stages)
 		if err != nil {
-			return nil, fmt.Errorf("%s:%d: %w", name, line, err)
+			return err
 		}
 		if len(out) > 0 && x.Time < out[len(out)-1].Time {
-			return nil, fmt.Errorf("%s:%d: time %g s goes back", name, line, x.Time)
+			return fmt.Errorf("time %g s goes back", x.Time)
 		}
 		out = append(out, x)
-	}
+		return nil
+	})
+	return out, err
 }
 
 // parseSample converts one timeline record; empty rate and pressure

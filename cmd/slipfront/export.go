@@ -47,11 +47,7 @@ func newExportCmd(g *globalOptions, stderr io.Writer) *cobra.Command {
 				}
 				o.Time = t
 			}
-			err := export.Export(cmd.Context(), o.dir, o.Options)
-			var ie *export.InputError
-			if errors.As(err, &ie) {
-				return badInput(err)
-			}
+			err := exportError(export.Export(cmd.Context(), o.dir, o.Options))
 			if err == nil {
 				fmt.Fprintf(statusWriter(g, stderr), "wrote %s\n", o.Out)
 			}
@@ -67,4 +63,13 @@ func newExportCmd(g *globalOptions, stderr io.Writer) *cobra.Command {
 	cmd.MarkFlagRequired("format")
 	cmd.MarkFlagRequired("out")
 	return cmd
+}
+
+// exportError marks the export package's input errors as bad input.
+func exportError(err error) error {
+	var ie *export.InputError
+	if errors.As(err, &ie) {
+		return badInput(err)
+	}
+	return err
 }

@@ -11,34 +11,22 @@ import (
 	"slipfront/internal/outdir"
 )
 
-// generateOptions are the flags of "slipfront generate".
-type generateOptions struct {
-	scenarioOptions
-	folderOptions
-	scenario string
-}
-
 func newGenerateCmd(g *globalOptions, stdout, stderr io.Writer) *cobra.Command {
-	var o generateOptions
+	var o scenarioToFolder
 	cmd := &cobra.Command{
 		Use:   "generate SCENARIO --out DIR",
 		Short: "Generate one fracture network: fractures, mid-plane traces and network statistics",
 		Example: "  slipfront generate scenarios/examples/demo.toml --out net\n" +
 			"  slipfront generate demo --seed 7 --set sets[0].intensity.p32=0.03/m --out net7",
-		Args: cobra.ExactArgs(1),
-		RunE: func(cmd *cobra.Command, args []string) error {
-			o.scenario = args[0]
-			return runGenerate(cmd.Context(), &o, stdout, statusWriter(g, stderr))
-		},
 	}
-	o.scenarioOptions.addFlags(cmd)
-	o.folderOptions.addFlags(cmd)
-	return cmd
+	return newScenarioToFolderCmd(cmd, &o, func(ctx context.Context) error {
+		return runGenerate(ctx, &o, stdout, statusWriter(g, stderr))
+	})
 }
 
 // runGenerate writes fractures.csv, traces.csv and network.json and prints
 // the network summary.
-func runGenerate(_ context.Context, o *generateOptions, stdout, status io.Writer) error {
+func runGenerate(_ context.Context, o *scenarioToFolder, stdout, status io.Writer) error {
 	s, err := o.load(o.scenario)
 	if err != nil {
 		return err

@@ -4,8 +4,6 @@ import (
 	"fmt"
 	"io"
 
-	"errors"
-
 	"github.com/spf13/cobra"
 
 	"slipfront/internal/export"
@@ -23,11 +21,7 @@ func newReportCmd(g *globalOptions, stderr io.Writer) *cobra.Command {
 			if err := o.prepare(); err != nil {
 				return err
 			}
-			err := export.WriteReport(cmd.Context(), args[0], o.out)
-			var ie *export.InputError
-			if errors.As(err, &ie) {
-				return badInput(err)
-			}
+			err := exportError(export.WriteReport(cmd.Context(), args[0], o.out))
 			if err == nil {
 				fmt.Fprintf(statusWriter(g, stderr), "wrote %s/index.html\n", o.out)
 			}

@@ -133,6 +133,27 @@ func (o *scenarioOptions) withSeed() []string {
 	return append(slices.Clone(o.sets), "seed="+o.seed)
 }
 
+// scenarioToFolder are the options of the commands that read one scenario
+// and write one folder (generate, screen, run).
+type scenarioToFolder struct {
+	scenarioOptions
+	folderOptions
+	scenario string
+}
+
+// newScenarioToFolderCmd completes such a command: one SCENARIO argument,
+// the scenario and folder flags, and run called with the options filled.
+func newScenarioToFolderCmd(cmd *cobra.Command, o *scenarioToFolder, run func(ctx context.Context) error) *cobra.Command {
+	cmd.Args = cobra.ExactArgs(1)
+	cmd.RunE = func(c *cobra.Command, args []string) error {
+		o.scenario = args[0]
+		return run(c.Context())
+	}
+	o.scenarioOptions.addFlags(cmd)
+	o.folderOptions.addFlags(cmd)
+	return cmd
+}
+
 // folderOptions are the flags of every command that writes an output
 // folder.
 type folderOptions struct {

@@ -18,15 +18,8 @@ import (
 	"slipfront/sim"
 )
 
-// runOptions are the flags of "slipfront run".
-type runOptions struct {
-	scenarioOptions
-	folderOptions
-	scenario string
-}
-
 func newRunCmd(g *globalOptions, stdout, stderr io.Writer) *cobra.Command {
-	var o runOptions
+	var o scenarioToFolder
 	cmd := &cobra.Command{
 		Use:   "run SCENARIO --out DIR",
 		Short: "Simulate the pumping schedule on one fracture network",
@@ -35,18 +28,13 @@ func newRunCmd(g *globalOptions, stdout, stderr io.Writer) *cobra.Command {
 			"map.png and growth.png.\n\n" + caution,
 		Example: "  slipfront run scenarios/examples/demo.toml --out run1\n" +
 			"  slipfront run demo --set fluids.slickwater.viscosity=20cP --out run-20cp",
-		Args: cobra.ExactArgs(1),
-		RunE: func(cmd *cobra.Command, args []string) error {
-			o.scenario = args[0]
-			return runRun(cmd.Context(), &o, g, stdout, stderr)
-		},
 	}
-	o.scenarioOptions.addFlags(cmd)
-	o.folderOptions.addFlags(cmd)
-	return cmd
+	return newScenarioToFolderCmd(cmd, &o, func(ctx context.Context) error {
+		return runRun(ctx, &o, g, stdout, stderr)
+	})
 }
 
-func runRun(ctx context.Context, o *runOptions, g *globalOptions, stdout, stderr io.Writer) error {
+func runRun(ctx context.Context, o *scenarioToFolder, g *globalOptions, stdout, stderr io.Writer) error {
 	s, err := o.load(o.scenario)
 	if err != nil {
 		return err

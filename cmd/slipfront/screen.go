@@ -13,34 +13,22 @@ import (
 	"slipfront/scenarios"
 )
 
-// screenOptions are the flags of "slipfront screen".
-type screenOptions struct {
-	scenarioOptions
-	folderOptions
-	scenario string
-}
-
 func newScreenCmd(g *globalOptions, stdout, stderr io.Writer) *cobra.Command {
-	var o screenOptions
+	var o scenarioToFolder
 	cmd := &cobra.Command{
 		Use:   "screen SCENARIO --out DIR",
 		Short: "Resolve the in-situ stress on every fracture and the pressure increase each needs to slip",
 		Example: "  slipfront screen scenarios/examples/demo.toml --out screen\n" +
 			"  slipfront screen demo --set rock.friction_static=0.7 --out screen-mu07",
-		Args: cobra.ExactArgs(1),
-		RunE: func(cmd *cobra.Command, args []string) error {
-			o.scenario = args[0]
-			return runScreen(cmd.Context(), &o, stdout, statusWriter(g, stderr))
-		},
 	}
-	o.scenarioOptions.addFlags(cmd)
-	o.folderOptions.addFlags(cmd)
-	return cmd
+	return newScenarioToFolderCmd(cmd, &o, func(ctx context.Context) error {
+		return runScreen(ctx, &o, stdout, statusWriter(g, stderr))
+	})
 }
 
 // runScreen generates the network and writes screen.csv, screen.json and
 // slip-vs-dp.csv.
-func runScreen(_ context.Context, o *screenOptions, stdout, status io.Writer) error {
+func runScreen(_ context.Context, o *scenarioToFolder, stdout, status io.Writer) error {
 	s, err := o.load(o.scenario)
 	if err != nil {
 		return err
