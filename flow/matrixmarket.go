@@ -3,7 +3,6 @@ package flow
 import (
 	"bufio"
 	"bytes"
-	"cmp"
 	"errors"
 	"fmt"
 	"io"
@@ -358,7 +357,7 @@ func (t *triplets) toCSR(n int) (*CSR, error) {
 	out := 0
 	for r := range n {
 		lo, hi := rowPtr[r], rowPtr[r+1]
-		sortRowByCol(col[lo:hi], val[lo:hi])
+		sortPaired(col[lo:hi], val[lo:hi])
 		rowPtr[r] = out
 		for p := lo; p < hi; p++ {
 			if out > rowPtr[r] && col[out-1] == col[p] {
@@ -374,23 +373,6 @@ func (t *triplets) toCSR(n int) (*CSR, error) {
 	}
 	rowPtr[n] = out
 	return &CSR{N: n, RowPtr: rowPtr, ColIdx: col[:out:out], Val: val[:out:out]}, nil
-}
-
-// sortRowByCol sorts one row's entries by column, keeping the order of
-// duplicates in input order (insertion sort for short rows).
-func sortRowByCol(col []int, val []float64) {
-	if len(col) > 64 {
-		sortLongRow(col, val)
-		return
-	}
-	for i := 1; i < len(col); i++ {
-		c, v := col[i], val[i]
-		j := i
-		for ; j > 0 && col[j-1] > c; j-- {
-			col[j], val[j] = col[j-1], val[j-1]
-		}
-		col[j], val[j] = c, v
-	}
 }
 
 // ReadMatrixMarketVector reads a dense column vector stored as "array
@@ -535,21 +517,4 @@ func checkSymmetricValues(a *CSR) error {
 		}
 	}
 	return nil
-}
-
-// sortLongRow sorts a long row by column, keeping duplicates in input
-// order.
-func sortLongRow(col []int, val []float64) {
-	type entry struct {
-		c int
-		v float64
-	}
-	e := make([]entry, len(col))
-	for k := range col {
-		e[k] = entry{col[k], val[k]}
-	}
-	slices.SortStableFunc(e, func(a, b entry) int { return cmp.Compare(a.c, b.c) })
-	for k := range e {
-		col[k], val[k] = e[k].c, e[k].v
-	}
 }

@@ -1,10 +1,5 @@
 package flow
 
-import (
-	"cmp"
-	"slices"
-)
-
 // Symbolic analysis of a sparse Cholesky factorization (Davis 2006, ch. 4):
 // the elimination tree, its postorder, and the pattern of L computed row by
 // row from row subtrees. Everything here depends on the pattern only and is
@@ -33,7 +28,7 @@ func permutedPattern(a *CSR, perm, iperm []int32) *sparsePattern {
 			q++
 		}
 		c.ptr[k+1] = q
-		sortRowBySrc(c.col[c.ptr[k]:q], c.src[c.ptr[k]:q])
+		sortPaired(c.col[c.ptr[k]:q], c.src[c.ptr[k]:q])
 	}
 	return c
 }
@@ -50,7 +45,7 @@ func (c *sparsePattern) permute(q, iq []int32) *sparsePattern {
 			t++
 		}
 		d.ptr[k+1] = t
-		sortRowBySrc(d.col[d.ptr[k]:t], d.src[d.ptr[k]:t])
+		sortPaired(d.col[d.ptr[k]:t], d.src[d.ptr[k]:t])
 	}
 	return d
 }
@@ -83,40 +78,6 @@ func (c *sparsePattern) upper() *permutedUpper {
 		u.ptr[k+1] = q
 	}
 	return u
-}
-
-// sortRowBySrc sorts a short row by column (insertion sort: rows of a
-// network matrix hold a handful of entries; long rows, such as a well's,
-// fall back to the standard library), carrying src along.
-func sortRowBySrc(col []int32, src []int) {
-	if len(col) > 32 {
-		sortLongRowBySrc(col, src)
-		return
-	}
-	for i := 1; i < len(col); i++ {
-		c, s := col[i], src[i]
-		j := i
-		for ; j > 0 && col[j-1] > c; j-- {
-			col[j] = col[j-1]
-			src[j] = src[j-1]
-		}
-		col[j], src[j] = c, s
-	}
-}
-
-func sortLongRowBySrc(col []int32, src []int) {
-	type entry struct {
-		c int32
-		s int
-	}
-	e := make([]entry, len(col))
-	for k := range col {
-		e[k] = entry{col[k], src[k]}
-	}
-	slices.SortFunc(e, func(x, y entry) int { return cmp.Compare(x.c, y.c) })
-	for k := range e {
-		col[k], src[k] = e[k].c, e[k].s
-	}
 }
 
 // eliminationTree returns parent[k] of each column of C (−1 for a root),
