@@ -3,49 +3,27 @@ package batch
 import (
 	"errors"
 	"fmt"
-)
 
-// ErrInput marks errors caused by bad input: options, sweep or shard
-// syntax, scenario values, or folders that do not belong together. A
-// command maps errors.Is(err, ErrInput) to exit code 2.
-var ErrInput = errors.New("bad input")
+	"slipfront/internal/badinput"
+)
 
 // ErrFormat marks a result or probability-grid file that is not in the
 // expected format (corrupt, cut, or not such a file).
 var ErrFormat = errors.New("malformed batch file")
 
-// InputError is a bad-input error. It wraps the underlying error (for
-// example a scenarios.Errors from loading a sweep value), and matches
-// ErrInput under errors.Is.
-type InputError struct {
-	// Msg says what is wrong and what is allowed.
-	Msg string
-	// Err is the underlying error, or nil.
-	Err error
-}
-
-func (e *InputError) Error() string {
-	switch {
-	case e.Err == nil:
-		return "batch: " + e.Msg
-	case e.Msg == "":
-		return "batch: " + e.Err.Error()
-	}
-	return "batch: " + e.Msg + ": " + e.Err.Error()
-}
-
-// Unwrap returns the underlying error.
-func (e *InputError) Unwrap() error { return e.Err }
-
-// Is reports whether target is ErrInput.
-func (e *InputError) Is(target error) bool { return target == ErrInput }
-
+// inputErrorf returns a bad-input error (matching badinput.Err) with the
+// package prefix.
 func inputErrorf(format string, args ...any) error {
-	return &InputError{Msg: fmt.Sprintf(format, args...)}
+	return badinput.Errorf("batch: "+format, args...)
+}
+
+// inputError returns err, marked as bad input, under what it concerns.
+func inputError(what string, err error) error {
+	return badinput.Errorf("batch: %s: %w", what, err)
 }
 
 // MismatchError is returned when a folder's manifest differs from the batch
-// being resumed or the folders being merged. It matches ErrInput.
+// being resumed or the folders being merged. It matches badinput.Err.
 type MismatchError struct {
 	// Field names the first difference, e.g. "scenario digest" or
 	// "cases[1].label".
@@ -62,8 +40,8 @@ func (e *MismatchError) Error() string {
 		e.Dir, e.WantFrom, e.Field, e.Got, e.Want, e.WantFrom)
 }
 
-// Is reports whether target is ErrInput.
-func (e *MismatchError) Is(target error) bool { return target == ErrInput }
+// Is reports whether target is badinput.Err.
+func (e *MismatchError) Is(target error) bool { return target == badinput.Err }
 
 // FormatError is a malformed file: what is wrong and at which byte offset
 // (or line, for text files) it was found. It matches ErrFormat.

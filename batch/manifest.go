@@ -119,10 +119,10 @@ func (m *Manifest) check() error {
 			return fmt.Errorf("cases[%d] has no digest", i)
 		}
 		if err := mc.Grid.valid(); err != nil {
-			return fmt.Errorf("cases[%d]: %v", i, err)
+			return fmt.Errorf("cases[%d]: %w", i, err)
 		}
 		if err := mc.TimeGrid.valid(); err != nil {
-			return fmt.Errorf("cases[%d]: %v", i, err)
+			return fmt.Errorf("cases[%d]: %w", i, err)
 		}
 	}
 	return nil

@@ -16,7 +16,7 @@ import (
 // Merge combines the shard folders of one batch into out and writes the
 // aggregates there. The folders must hold the same batch (manifests equal
 // apart from the shard index), one folder per shard 0 … n−1, each
-// complete; otherwise Merge returns an error matching ErrInput that names
+// complete; otherwise Merge returns an error matching badinput.Err that names
 // the folder and the difference or what is missing. out must not exist or
 // be empty. Result files are hard-linked when possible, else copied. The
 // merged folder is a complete batch of one shard: its files are the same
@@ -32,7 +32,7 @@ func Merge(ctx context.Context, dirs []string, out string) error {
 			return inputErrorf("merge: %s is not a batch folder: it has no %s", d, ManifestName)
 		}
 		if err != nil {
-			return &InputError{Msg: "merge", Err: err}
+			return inputError("merge", err)
 		}
 		if i > 0 {
 			if field, want, got, differ := ms[0].difference(m, false); differ {
@@ -50,7 +50,7 @@ func Merge(ctx context.Context, dirs []string, out string) error {
 		}
 	}
 	if err := outdir.Prepare(out, false); err != nil {
-		return &InputError{Msg: "merge", Err: err}
+		return inputError("merge", err)
 	}
 	merged := *ms[0]
 	merged.Shard = Shard{Index: 0, Count: 1}

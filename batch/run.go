@@ -98,7 +98,7 @@ type job struct{ c, r int }
 // the aggregates. A cancelled ctx stops handing out work; running
 // realizations finish or are abandoned (the runner sees ctx), and Run
 // returns an error wrapping ctx.Err() with the folder ready for Resume.
-// Bad options or input return an error matching ErrInput before any work
+// Bad options or input return an error matching badinput.Err before any work
 // starts. The Summary is returned whenever work was attempted.
 func Run(ctx context.Context, opts Options) (*Summary, error) {
 	start := time.Now()
@@ -167,14 +167,14 @@ func (o *Options) check() error {
 func makePlan(opts Options) (*Manifest, []Case, error) {
 	base, err := opts.Load()
 	if err != nil {
-		return nil, nil, &InputError{Msg: "scenario", Err: err}
+		return nil, nil, inputError("scenario", err)
 	}
 	for _, sw := range opts.Sweeps {
 		digests := map[string]string{}
 		for _, v := range sw.Values {
 			s, err := opts.Load(scenarios.Override{Key: sw.Key, Value: v})
 			if err != nil {
-				return nil, nil, &InputError{Msg: fmt.Sprintf("--sweep %s: value %q", sw.Key, v), Err: err}
+				return nil, nil, inputError(fmt.Sprintf("--sweep %s: value %q", sw.Key, v), err)
 			}
 			if other, dup := digests[s.Digest]; dup {
 				return nil, nil, inputErrorf("--sweep %s: values %q and %q give the same scenario", sw.Key, other, v)
@@ -194,15 +194,15 @@ func makePlan(opts Options) (*Manifest, []Case, error) {
 	for _, c := range cases {
 		s, err := opts.Load(c.Overrides...)
 		if err != nil {
-			return nil, nil, &InputError{Msg: "case " + c.Label(), Err: err}
+			return nil, nil, inputError("case "+c.Label(), err)
 		}
 		g, err := GridFor(s)
 		if err != nil {
-			return nil, nil, &InputError{Msg: "case " + c.Label(), Err: err}
+			return nil, nil, inputError("case "+c.Label(), err)
 		}
 		tg, err := TimeGridFor(s)
 		if err != nil {
-			return nil, nil, &InputError{Msg: "case " + c.Label(), Err: err}
+			return nil, nil, inputError("case "+c.Label(), err)
 		}
 		m.Cases = append(m.Cases, ManifestCase{
 			Index: c.Index, Label: c.Label(), Values: c.Values, Digest: s.Digest, Grid: g, TimeGrid: tg,
@@ -224,13 +224,13 @@ func prepareFolder(opts Options, m *Manifest) error {
 			return &MismatchError{Field: field, Want: want, Got: got, WantFrom: "this batch", Dir: opts.Out}
 		}
 	case err == nil && !opts.Force:
-		return &InputError{Msg: opts.Out + " holds a batch; use --resume to continue it or --force to start over", Err: outdir.ErrExists}
+		return inputError(opts.Out+" holds a batch; use --resume to continue it or --force to start over", outdir.ErrExists)
 	case err != nil && !errors.Is(err, fs.ErrNotExist) && !opts.Force:
-		return &InputError{Msg: "cannot use " + opts.Out + " (use --force to start over)", Err: err}
+		return inputError("cannot use "+opts.Out+" (use --force to start over)", err)
 	case errors.Is(err, fs.ErrNotExist) && !opts.Force:
 		entries, rerr := os.ReadDir(opts.Out)
 		if rerr == nil && len(entries) > 0 {
-			return &InputError{Msg: fmt.Sprintf("%s holds %d entries but no %s; use --force to write the batch into it", opts.Out, len(entries), ManifestName), Err: outdir.ErrExists}
+			return inputError(fmt.Sprintf("%s holds %d entries but no %s; use --force to write the batch into it", opts.Out, len(entries), ManifestName), outdir.ErrExists)
 		}
 	}
 	if opts.Force {

@@ -14,6 +14,7 @@ import (
 	"testing"
 
 	"slipfront/dfn"
+	"slipfront/internal/badinput"
 	"slipfront/scenarios"
 )
 
@@ -203,7 +204,7 @@ func TestRunnerErrorStopsBatch(t *testing.T) {
 		return fakeRun(ctx, s, r)
 	}
 	_, err := Run(context.Background(), opts)
-	if err == nil || !strings.Contains(err.Error(), "realization 2") || !strings.Contains(err.Error(), "did not converge") || errors.Is(err, ErrInput) {
+	if err == nil || !strings.Contains(err.Error(), "realization 2") || !strings.Contains(err.Error(), "did not converge") || errors.Is(err, badinput.Err) {
 		t.Errorf("err = %v, want the runner's error naming realization 2, not a bad-input error", err)
 	}
 	opts.Run = func(ctx context.Context, s *scenarios.Scenario, r int) (*Outcome, error) {
@@ -318,7 +319,7 @@ func TestBadInput(t *testing.T) {
 			}
 			tc.modify(&o)
 			_, err := Run(context.Background(), o)
-			if !errors.Is(err, ErrInput) || !strings.Contains(err.Error(), tc.want) {
+			if !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), tc.want) {
 				t.Fatalf("err = %v, want a bad-input error mentioning %s", err, tc.want)
 			}
 			if called {
@@ -337,13 +338,13 @@ func TestFolderRules(t *testing.T) {
 	o.Realizations = 2
 	runBatch(t, o)
 
-	if _, err := Run(context.Background(), o); !errors.Is(err, ErrInput) || !strings.Contains(err.Error(), "--resume") {
+	if _, err := Run(context.Background(), o); !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), "--resume") {
 		t.Errorf("rerun into a batch folder: err = %v, want bad input suggesting --resume", err)
 	}
 	o.Resume = true
 	o.Realizations = 3
 	var mm *MismatchError
-	if _, err := Run(context.Background(), o); !errors.As(err, &mm) || mm.Field != "realizations" || !errors.Is(err, ErrInput) {
+	if _, err := Run(context.Background(), o); !errors.As(err, &mm) || mm.Field != "realizations" || !errors.Is(err, badinput.Err) {
 		t.Errorf("resume with other realizations: err = %v, want a MismatchError on realizations", err)
 	}
 	o.Realizations, o.Shard = 2, Shard{Index: 0, Count: 2}
@@ -362,7 +363,7 @@ func TestFolderRules(t *testing.T) {
 	other := t.TempDir()
 	os.WriteFile(filepath.Join(other, "notes.txt"), []byte("mine"), 0o644)
 	o2 := testOptions(t, other)
-	if _, err := Run(context.Background(), o2); !errors.Is(err, ErrInput) {
+	if _, err := Run(context.Background(), o2); !errors.Is(err, badinput.Err) {
 		t.Errorf("batch into a folder of other files: err = %v, want bad input", err)
 	}
 }
@@ -394,17 +395,17 @@ func TestMergeRefuses(t *testing.T) {
 	if err := Merge(context.Background(), []string{a0, d0}, filepath.Join(root, "m3")); !errors.As(err, &mm) || mm.Field != "shard count" {
 		t.Errorf("different shard counts: err = %v", err)
 	}
-	if err := Merge(context.Background(), []string{a0}, filepath.Join(root, "m4")); !errors.Is(err, ErrInput) || !strings.Contains(err.Error(), "shard 1/2 missing") {
+	if err := Merge(context.Background(), []string{a0}, filepath.Join(root, "m4")); !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), "shard 1/2 missing") {
 		t.Errorf("missing shard: err = %v", err)
 	}
-	if err := Merge(context.Background(), []string{a0, a0}, filepath.Join(root, "m5")); !errors.Is(err, ErrInput) || !strings.Contains(err.Error(), "both shard 0/2") {
+	if err := Merge(context.Background(), []string{a0, a0}, filepath.Join(root, "m5")); !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), "both shard 0/2") {
 		t.Errorf("same shard twice: err = %v", err)
 	}
-	if err := Merge(context.Background(), []string{a0, root}, filepath.Join(root, "m6")); !errors.Is(err, ErrInput) || !strings.Contains(err.Error(), "not a batch folder") {
+	if err := Merge(context.Background(), []string{a0, root}, filepath.Join(root, "m6")); !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), "not a batch folder") {
 		t.Errorf("not a batch folder: err = %v", err)
 	}
 	os.Remove(filepath.Join(a1, ResultName(2, 3)))
-	if err := Merge(context.Background(), []string{a0, a1}, filepath.Join(root, "m7")); !errors.Is(err, ErrInput) || !strings.Contains(err.Error(), "incomplete") {
+	if err := Merge(context.Background(), []string{a0, a1}, filepath.Join(root, "m7")); !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), "incomplete") {
 		t.Errorf("incomplete shard: err = %v", err)
 	}
 	for _, m := range []string{"m1", "m2", "m3", "m4", "m5", "m6", "m7"} {

@@ -44,7 +44,7 @@ func ParseSweep(text string) (Sweep, error) {
 		}
 		seen[v] = i
 		if _, err := scenarios.ParseOverride(key + "=" + v); err != nil {
-			return Sweep{}, &InputError{Msg: fmt.Sprintf("--sweep %q", text), Err: err}
+			return Sweep{}, inputError(fmt.Sprintf("--sweep %q", text), err)
 		}
 		sw.Values = append(sw.Values, v)
 	}

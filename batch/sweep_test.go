@@ -4,6 +4,8 @@ import (
 	"errors"
 	"strings"
 	"testing"
+
+	"slipfront/internal/badinput"
 )
 
 func TestParseSweep(t *testing.T) {
@@ -27,7 +29,7 @@ func TestParseSweep(t *testing.T) {
 		{"seed=1\t2", "control character"},
 	} {
 		_, err := ParseSweep(tc.in)
-		if !errors.Is(err, ErrInput) || !strings.Contains(err.Error(), tc.want) {
+		if !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), tc.want) {
 			t.Errorf("ParseSweep(%q): err = %v, want bad input mentioning %q", tc.in, err, tc.want)
 		}
 	}
@@ -53,7 +55,7 @@ func TestParseShard(t *testing.T) {
 		{"", "want i/n"},
 	} {
 		_, err := ParseShard(tc.in)
-		if !errors.Is(err, ErrInput) || !strings.Contains(err.Error(), tc.want) {
+		if !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), tc.want) {
 			t.Errorf("ParseShard(%q): err = %v, want bad input mentioning %q", tc.in, err, tc.want)
 		}
 	}

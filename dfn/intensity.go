@@ -7,6 +7,7 @@ import (
 
 	"gonum.org/v1/gonum/spatial/r3"
 
+	"slipfront/internal/badinput"
 	"slipfront/internal/orient"
 	"slipfront/scenarios"
 )
@@ -19,7 +20,8 @@ const DefaultMaxFractures = 2_000_000
 // meaningless.
 const minC13 = 1e-6
 
-// ErrTooManyFractures is matched (errors.Is) by a *CapError.
+// ErrTooManyFractures is matched (errors.Is) by a *CapError, which also
+// matches badinput.Err.
 var ErrTooManyFractures = errors.New("dfn: too many fractures")
 
 // CapError reports a scenario whose expected fracture count exceeds the cap.
@@ -40,8 +42,11 @@ func (e *CapError) Error() string {
 		e.Total, e.Set, e.SetExpected, e.Cap)
 }
 
-// Is reports whether target is ErrTooManyFractures.
-func (e *CapError) Is(target error) bool { return target == ErrTooManyFractures }
+// Is reports whether target is ErrTooManyFractures or badinput.Err (a
+// scenario that asks for too many fractures is bad input).
+func (e *CapError) Is(target error) bool {
+	return target == ErrTooManyFractures || target == badinput.Err
+}
 
 // SetModel is a fracture set ready to generate in a counting volume.
 type SetModel struct {

@@ -3,6 +3,8 @@ package mechanics
 import (
 	"fmt"
 	"math"
+
+	"slipfront/internal/badinput"
 )
 
 // InputError reports a parameter outside its allowed range. Name is the
@@ -12,6 +14,10 @@ type InputError struct {
 	Value float64 // offending value, SI units
 	Want  string  // the allowed range, e.g. "must be > 0"
 }
+
+// Is reports whether target is badinput.Err: a parameter out of range is
+// bad input.
+func (e *InputError) Is(target error) bool { return target == badinput.Err }
 
 func (e *InputError) Error() string {
 	return fmt.Sprintf("mechanics: %s = %g: %s", e.Name, e.Value, e.Want)

@@ -4,8 +4,9 @@ import (
 	"fmt"
 	"math"
 	"slices"
-	"slipfront/internal/caution"
 	"sort"
+
+	"slipfront/internal/caution"
 
 	"gonum.org/v1/gonum/spatial/r3"
 )

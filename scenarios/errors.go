@@ -3,6 +3,8 @@ package scenarios
 import (
 	"fmt"
 	"strings"
+
+	"slipfront/internal/badinput"
 )
 
 // FieldError is a problem with one value of a scenario: the file and line
@@ -42,6 +44,10 @@ func (e *FieldError) Error() string {
 	return b.String()
 }
 
+// Is reports whether target is badinput.Err: every FieldError is bad
+// input.
+func (e *FieldError) Is(target error) bool { return target == badinput.Err }
+
 // Errors is every problem found in one scenario, in file order.
 type Errors []*FieldError
 
@@ -52,6 +58,9 @@ func (e Errors) Error() string {
 	}
 	return strings.Join(lines, "\n")
 }
+
+// Is reports whether target is badinput.Err.
+func (e Errors) Is(target error) bool { return target == badinput.Err }
 
 // overrideSource marks values that came from --set.
 const overrideSource = "--set"

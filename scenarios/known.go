@@ -99,7 +99,7 @@ func knownFracture(rec []string, col map[string]int, name string, line int) (Kno
 func csvError(name string, err error) error {
 	var pe *csv.ParseError
 	if errors.As(err, &pe) {
-		return fmt.Errorf("%s:%d: %v", name, pe.Line, pe.Err)
+		return fmt.Errorf("%s:%d: %w", name, pe.Line, pe.Err)
 	}
-	return fmt.Errorf("%s: %v", name, err)
+	return fmt.Errorf("%s: %w", name, err)
 }

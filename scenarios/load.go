@@ -6,7 +6,6 @@ import (
 	"encoding/hex"
 	"encoding/json"
 	"errors"
-	"fmt"
 	"io/fs"
 	"os"
 	"path"
@@ -14,6 +13,8 @@ import (
 	"reflect"
 	"sort"
 	"strings"
+
+	"slipfront/internal/badinput"
 
 	"github.com/BurntSushi/toml"
 )
@@ -36,7 +37,7 @@ func Examples() []string {
 func ExampleSource(name string) ([]byte, error) {
 	src, err := examples.ReadFile("examples/" + strings.TrimSuffix(name, ".toml") + ".toml")
 	if err != nil {
-		return nil, fmt.Errorf("no example scenario %q; examples: %s", name, strings.Join(Examples(), ", "))
+		return nil, badinput.Errorf("no example scenario %q; examples: %s", name, strings.Join(Examples(), ", "))
 	}
 	return src, nil
 }
@@ -63,7 +64,7 @@ func Load(p string, overrides ...Override) (*Scenario, error) {
 		}
 	}
 	if err != nil {
-		return nil, fmt.Errorf("reading scenario: %w", err)
+		return nil, badinput.Errorf("reading scenario: %w", err)
 	}
 	return Parse(p, src, os.DirFS(filepath.Dir(p)), overrides...)
 }

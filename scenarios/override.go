@@ -6,6 +6,8 @@ import (
 	"strconv"
 	"strings"
 
+	"slipfront/internal/badinput"
+
 	"github.com/BurntSushi/toml"
 )
 
@@ -24,10 +26,10 @@ func ParseOverride(s string) (Override, error) {
 	k, v, ok := strings.Cut(s, "=")
 	k, v = strings.TrimSpace(k), strings.TrimSpace(v)
 	if !ok || k == "" || v == "" {
-		return Override{}, fmt.Errorf("--set %s: want key=value, e.g. fluids.slickwater.viscosity=20cP", s)
+		return Override{}, badinput.Errorf("--set %s: want key=value, e.g. fluids.slickwater.viscosity=20cP", s)
 	}
 	if _, err := parseKeyPath(k); err != nil {
-		return Override{}, fmt.Errorf("--set %s: %v", s, err)
+		return Override{}, badinput.Errorf("--set %s: %w", s, err)
 	}
 	return Override{Key: k, Value: v}, nil
 }
@@ -77,7 +79,7 @@ func (o Override) value() (any, error) {
 	}
 	var t map[string]any
 	if _, err := toml.Decode("v = "+o.Value, &t); err != nil {
-		return nil, fmt.Errorf("a list must be written as in TOML, e.g. [\"90 m\", \"120 m\"]: %v", err)
+		return nil, fmt.Errorf("a list must be written as in TOML, e.g. [\"90 m\", \"120 m\"]: %w", err)
 	}
 	return t["v"], nil
 }

@@ -104,7 +104,7 @@ type Result struct {
 
 // Run simulates the scenario's schedule on the network. On failure it
 // returns the result so far together with the error; a scenario that
-// cannot be simulated as given is an *InputError.
+// cannot be simulated as given matches badinput.Err.
 func Run(ctx context.Context, s *scenarios.Scenario, net *dfn.Network, opt Options) (*Result, error) {
 	m, err := newModel(s, net)
 	if err != nil {
@@ -337,7 +337,7 @@ func (r *runner) runPhase(ctx context.Context, sys *flow.System, p *phase, sum *
 			r.res.CutSteps++
 			z.Dt = math.Min(z.Dt, dt)
 			if cerr := z.Cut(); cerr != nil {
-				return fmt.Errorf("stage %s at t = %.6g s: %w after repeated cuts (last: %v)", sum.Name, r.t, cerr, err)
+				return fmt.Errorf("stage %s at t = %.6g s: %w after repeated cuts (last: %w)", sum.Name, r.t, cerr, err)
 			}
 			continue
 		}

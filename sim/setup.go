@@ -1,29 +1,17 @@
 package sim
 
 import (
-	"fmt"
 	"math"
 
 	"gonum.org/v1/gonum/spatial/r2"
 
 	"slipfront/dfn"
 	"slipfront/flow"
+	"slipfront/internal/badinput"
 	"slipfront/internal/orient"
 	"slipfront/mechanics"
 	"slipfront/scenarios"
 )
-
-// InputError is a scenario that cannot be simulated as given (a stage that
-// touches no fracture, an invalid rock property): bad input, not a failed
-// run.
-type InputError struct{ Err error }
-
-func (e *InputError) Error() string { return e.Err.Error() }
-func (e *InputError) Unwrap() error { return e.Err }
-
-func inputErrorf(format string, args ...any) error {
-	return &InputError{fmt.Errorf(format, args...)}
-}
 
 // Conduit is a primary conduit: a vertical planar feature of fixed
 // aperture from one perforation cluster, striking along SHmax.
@@ -81,15 +69,15 @@ type model struct {
 func newModel(s *scenarios.Scenario, net *dfn.Network) (*model, error) {
 	stress, err := mechanics.StressFromScenario(s.Stress, s.Layer.Depth)
 	if err != nil {
-		return nil, &InputError{err}
+		return nil, badinput.Mark(err)
 	}
 	slip, err := mechanics.SlipModelFromScenario(s.Rock)
 	if err != nil {
-		return nil, &InputError{err}
+		return nil, badinput.Mark(err)
 	}
 	ap, err := mechanics.ApertureFromScenario(s.Rock)
 	if err != nil {
-		return nil, &InputError{err}
+		return nil, badinput.Mark(err)
 	}
 	m := &model{s: s, net: net, order: s.PumpingOrder(), slip: slip, aperture: ap,
 		p0: stress.PorePressure(), grid: s.MapGrid()}
@@ -100,7 +88,7 @@ func newModel(s *scenarios.Scenario, net *dfn.Network) (*model, error) {
 	}
 	paths, junctions := m.paths()
 	if n := estimateElements(paths, s.Numerics.ElementLength); n > MaxElements {
-		return nil, inputErrorf("numerics.element_length = %g m would split the %d traces and conduits into about %.3g elements; at most %d are allowed: use longer elements or a smaller map",
+		return nil, badinput.Errorf("numerics.element_length = %g m would split the %d traces and conduits into about %.3g elements; at most %d are allowed: use longer elements or a smaller map",
 			s.Numerics.ElementLength, len(paths), n, MaxElements)
 	}
 	clusterNodes, err := m.clusterCuts(paths)
@@ -219,7 +207,7 @@ func (m *model) clusterCuts(paths []flow.Path) ([][]feed, error) {
 			}
 		}
 		if len(feeds[k]) == 0 {
-			return nil, inputErrorf("stage %s: its clusters meet no fracture within the perforation reach (%.3g m) and the well has no primary conduits; widen wells[%d].perforation_reach or set wells[%d].conduit_half_length",
+			return nil, badinput.Errorf("stage %s: its clusters meet no fracture within the perforation reach (%.3g m) and the well has no primary conduits; widen wells[%d].perforation_reach or set wells[%d].conduit_half_length",
 				st.Name, w.PerforationReach, st.Well, st.Well)
 		}
 	}

@@ -15,6 +15,7 @@ import (
 	"gonum.org/v1/gonum/stat/distuv"
 
 	"slipfront/dfn"
+	"slipfront/internal/badinput"
 	"slipfront/internal/numtest"
 	"slipfront/mechanics"
 	"slipfront/scenarios"
@@ -238,9 +239,8 @@ func TestStageTouchingNoFracture(t *testing.T) {
 		t.Fatal(err)
 	}
 	_, err = Run(context.Background(), s, net, Options{})
-	var ie *InputError
-	if !errors.As(err, &ie) || !strings.Contains(err.Error(), "stage V:1") {
-		t.Fatalf("error %v, want an InputError naming stage V:1", err)
+	if !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), "stage V:1") {
+		t.Fatalf("error %v, want a bad-input error naming stage V:1", err)
 	}
 }
 
@@ -419,8 +419,7 @@ func TestElementCap(t *testing.T) {
 		t.Fatal(err)
 	}
 	_, err = Run(context.Background(), s, net, Options{})
-	var ie *InputError
-	if !errors.As(err, &ie) || !strings.Contains(err.Error(), "numerics.element_length") {
+	if !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), "numerics.element_length") {
 		t.Errorf("error %v", err)
 	}
 }

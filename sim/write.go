@@ -6,9 +6,10 @@ import (
 	"fmt"
 	"io"
 	"math"
-	"slipfront/internal/caution"
 	"strconv"
 	"strings"
+
+	"slipfront/internal/caution"
 
 	"slipfront/dfn"
 	"slipfront/internal/version"

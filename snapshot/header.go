@@ -126,7 +126,7 @@ func (h *Header) validate() error {
 	}
 	for i, e := range h.Elements {
 		if err := e.validate(); err != nil {
-			return fmt.Errorf("elements[%d]: %v", i, err)
+			return fmt.Errorf("elements[%d]: %w", i, err)
 		}
 	}
 	return validateFields(h.Fields, h.Static, len(h.Elements))

@@ -2,7 +2,6 @@ package main
 
 import (
 	"context"
-	"errors"
 	"fmt"
 	"io"
 	"math"
@@ -178,10 +177,4 @@ func newMergeCmd(stdout io.Writer) *cobra.Command {
 	cmd.Flags().StringVarP(&out, "out", "o", "", "merged batch folder, new or empty (required)")
 	cmd.MarkFlagRequired("out")
 	return cmd
-}
-
-// isBatchInput reports the batch errors caused by bad input.
-func isBatchInput(err error) bool {
-	var ie *sim.InputError
-	return errors.Is(err, batch.ErrInput) || errors.As(err, &ie)
 }

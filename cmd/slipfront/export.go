@@ -1,7 +1,6 @@
 package main
 
 import (
-	"errors"
 	"fmt"
 	"io"
 	"math"
@@ -43,11 +42,11 @@ func newExportCmd(g *globalOptions, stderr io.Writer) *cobra.Command {
 			if o.time != "" {
 				t, err := scenarios.ParseDuration(o.time)
 				if err != nil {
-					return badInput(fmt.Errorf("--time %s: %v", o.time, err))
+					return badInput(fmt.Errorf("--time %s: %w", o.time, err))
 				}
 				o.Time = t
 			}
-			err := exportError(export.Export(cmd.Context(), o.dir, o.Options))
+			err := export.Export(cmd.Context(), o.dir, o.Options)
 			if err == nil {
 				fmt.Fprintf(statusWriter(g, stderr), "wrote %s\n", o.Out)
 			}
@@ -63,13 +62,4 @@ func newExportCmd(g *globalOptions, stderr io.Writer) *cobra.Command {
 	cmd.MarkFlagRequired("format")
 	cmd.MarkFlagRequired("out")
 	return cmd
-}
-
-// exportError marks the export package's input errors as bad input.
-func exportError(err error) error {
-	var ie *export.InputError
-	if errors.As(err, &ie) {
-		return badInput(err)
-	}
-	return err
 }

@@ -61,7 +61,7 @@ func runInspect(o *inspectOptions, stdout io.Writer) error {
 	t := frames[len(frames)-1].Time
 	if o.time != "" {
 		if t, err = scenarios.ParseDuration(o.time); err != nil {
-			return badInput(fmt.Errorf("--time %s: %v", o.time, err))
+			return badInput(fmt.Errorf("--time %s: %w", o.time, err))
 		}
 	}
 	if first, last := frames[0].Time, frames[len(frames)-1].Time; t < first || t > last {

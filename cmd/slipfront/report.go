@@ -21,7 +21,7 @@ func newReportCmd(g *globalOptions, stderr io.Writer) *cobra.Command {
 			if err := o.prepare(); err != nil {
 				return err
 			}
-			err := exportError(export.WriteReport(cmd.Context(), args[0], o.out))
+			err := export.WriteReport(cmd.Context(), args[0], o.out)
 			if err == nil {
 				fmt.Fprintf(statusWriter(g, stderr), "wrote %s/index.html\n", o.out)
 			}

@@ -6,6 +6,8 @@ import (
 	"fmt"
 	"io"
 	"slices"
+
+	"slipfront/internal/badinput"
 	cautionpkg "slipfront/internal/caution"
 
 	"github.com/spf13/cobra"
@@ -26,19 +28,9 @@ const (
 // caution is printed with every result that could inform field work.
 const caution = "Caution: " + cautionpkg.Text
 
-// inputError marks an error caused by the user's input (exit code 2).
-type inputError struct{ err error }
-
-func (e inputError) Error() string { return e.err.Error() }
-func (e inputError) Unwrap() error { return e.err }
-
-// badInput marks err as caused by the user's input; nil stays nil.
-func badInput(err error) error {
-	if err == nil {
-		return nil
-	}
-	return inputError{err}
-}
+// badInput marks err as caused by the user's input (exit code 2); nil
+// stays nil.
+func badInput(err error) error { return badinput.Mark(err) }
 
 // globalOptions are the flags shared by every command.
 type globalOptions struct {
@@ -83,7 +75,7 @@ func run(ctx context.Context, args []string, stdout, stderr io.Writer) int {
 	case errors.Is(err, context.Canceled) || ctx.Err() != nil:
 		fmt.Fprintln(stderr, "slipfront: interrupted; files already written are kept")
 		return exitInterrupted
-	case !started, isInputError(err):
+	case !started, errors.Is(err, badinput.Err):
 		return exitBadInput
 	default:
 		return exitFailure
@@ -103,15 +95,6 @@ func markStarted(c *cobra.Command, started *bool) {
 	for _, sub := range c.Commands() {
 		markStarted(sub, started)
 	}
-}
-
-// isInputError reports whether err comes from the user's input: marked by
-// badInput, a scenario problem, or an existing output without --force.
-func isInputError(err error) bool {
-	var ie inputError
-	var fe *scenarios.FieldError
-	var fes scenarios.Errors
-	return errors.As(err, &ie) || errors.As(err, &fe) || errors.As(err, &fes) || errors.Is(err, outdir.ErrExists) || isBatchInput(err)
 }
 
 // scenarioOptions are the flags of every command that reads a scenario.
@@ -188,7 +171,7 @@ func (o *scenarioOptions) load(path string) (*scenarios.Scenario, error) {
 // (a geographic one: local metres need a projected CRS).
 func checkCRS(s *scenarios.Scenario) error {
 	if _, err := gis.ParseCRS(s.Domain.CRS); err != nil {
-		return fmt.Errorf("%s: domain.crs = %q: %v", s.Source, s.Domain.CRS, err)
+		return fmt.Errorf("%s: domain.crs = %q: %w", s.Source, s.Domain.CRS, err)
 	}
 	return nil
 }

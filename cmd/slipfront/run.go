@@ -2,7 +2,6 @@ package main
 
 import (
 	"context"
-	"errors"
 	"fmt"
 	"io"
 	"os"
@@ -71,10 +70,6 @@ func simulate(ctx context.Context, s *scenarios.Scenario, out string, g *globalO
 		Progress: func(t, end float64) { bar.set(t / end) }})
 	bar.done()
 	if res == nil {
-		var ie *sim.InputError
-		if errors.As(runErr, &ie) {
-			return badInput(runErr)
-		}
 		return runErr
 	}
 	if err := rec.Close(); err != nil && runErr == nil {

@@ -13,6 +13,7 @@ import (
 
 	"slipfront/batch"
 	"slipfront/gis"
+	"slipfront/internal/badinput"
 	"slipfront/internal/outdir"
 )
 
@@ -37,7 +38,7 @@ type Options struct {
 // Export writes one file from a run or batch folder.
 func Export(ctx context.Context, dir string, o Options) error {
 	if !slices.Contains(Formats, o.Format) {
-		return inputErrorf("format %q: use one of %s", o.Format, strings.Join(Formats, ", "))
+		return badinput.Errorf("format %q: use one of %s", o.Format, strings.Join(Formats, ", "))
 	}
 	if err := outdir.CheckNewFile(o.Out, o.Force); err != nil {
 		return err
@@ -48,7 +49,7 @@ func Export(ctx context.Context, dir string, o Options) error {
 	case isBatchDir(dir):
 		return exportBatch(ctx, dir, o)
 	}
-	return inputErrorf("%s is neither a run folder (%s, %s) nor a batch folder (%s)", dir, ScenarioFile, SnapshotFile, batch.ManifestName)
+	return badinput.Errorf("%s is neither a run folder (%s, %s) nor a batch folder (%s)", dir, ScenarioFile, SnapshotFile, batch.ManifestName)
 }
 
 func isBatchDir(dir string) bool {
@@ -79,28 +80,28 @@ func exportRun(ctx context.Context, dir string, o Options) error {
 		return writeLayers(ctx, o, pl, layers)
 	case "geojson":
 		if o.Layer == "" {
-			return inputErrorf("geojson writes one layer: choose it with --layer (%s)", strings.Join(LayerNames, ", "))
+			return badinput.Errorf("geojson writes one layer: choose it with --layer (%s)", strings.Join(LayerNames, ", "))
 		}
 		l, err := r.Layer(o.Layer)
 		if err != nil {
-			return inputErrorf("%v", err)
+			return badinput.Mark(err)
 		}
 		if _, err := pl.Geographic(); err != nil {
-			return inputErrorf("%v", err)
+			return badinput.Mark(err)
 		}
 		return writeOut(o.Out, func(w io.Writer) error { return gis.WriteGeoJSON(w, pl, l, nil) })
 	case "geotiff":
 		if o.Layer == "" {
-			return inputErrorf("geotiff writes one raster: choose it with --layer (%s)", strings.Join(RasterNames, ", "))
+			return badinput.Errorf("geotiff writes one raster: choose it with --layer (%s)", strings.Join(RasterNames, ", "))
 		}
 		rs, err := r.Raster(o.Layer)
 		if err != nil {
-			return inputErrorf("%v", err)
+			return badinput.Mark(err)
 		}
 		return writeOut(o.Out, func(w io.Writer) error { return gis.WriteGeoTIFF(w, pl, rs) })
 	default: // quakeml
 		if _, err := pl.Geographic(); err != nil {
-			return inputErrorf("%v", err)
+			return badinput.Mark(err)
 		}
 		return writeOut(o.Out, func(w io.Writer) error { return gis.WriteQuakeML(w, pl, r.catalog()) })
 	}
@@ -137,12 +138,12 @@ func pick(layers []gis.Layer, name string) (gis.Layer, error) {
 		}
 		names = append(names, l.Name)
 	}
-	return gis.Layer{}, inputErrorf("no layer %q; layers: %s", name, strings.Join(names, ", "))
+	return gis.Layer{}, badinput.Errorf("no layer %q; layers: %s", name, strings.Join(names, ", "))
 }
 
 func exportBatch(ctx context.Context, dir string, o Options) error {
 	if !math.IsNaN(o.Time) {
-		return inputErrorf("--time applies to a run folder; a batch folder holds final probabilities")
+		return badinput.Errorf("--time applies to a run folder; a batch folder holds final probabilities")
 	}
 	_, aggs, err := batch.ReadAggregates(ctx, dir)
 	if err != nil {
@@ -161,7 +162,7 @@ func exportBatch(ctx context.Context, dir string, o Options) error {
 			return err
 		}
 		if _, err := pl.Geographic(); err != nil {
-			return inputErrorf("%v", err)
+			return badinput.Mark(err)
 		}
 		return writeOut(o.Out, func(w io.Writer) error { return gis.WriteGeoJSON(w, pl, l, nil) })
 	case "geotiff":
@@ -179,7 +180,7 @@ func exportBatch(ctx context.Context, dir string, o Options) error {
 			}
 		}
 	}
-	return inputErrorf("a batch folder exports gpkg, geojson or geotiff, not %s", o.Format)
+	return badinput.Errorf("a batch folder exports gpkg, geojson or geotiff, not %s", o.Format)
 }
 
 // pickDefault picks the named layer, or the only one.
@@ -192,7 +193,7 @@ func pickDefault(layers []gis.Layer, name string) (gis.Layer, error) {
 		for _, l := range layers {
 			names = append(names, l.Name)
 		}
-		return gis.Layer{}, inputErrorf("the batch has %d cases: choose one with --layer (%s)", len(layers), strings.Join(names, ", "))
+		return gis.Layer{}, badinput.Errorf("the batch has %d cases: choose one with --layer (%s)", len(layers), strings.Join(names, ", "))
 	}
 	return pick(layers, name)
 }

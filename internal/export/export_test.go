@@ -11,6 +11,7 @@ import (
 	"testing"
 
 	"slipfront/dfn"
+	"slipfront/internal/badinput"
 	"slipfront/internal/numtest"
 	"slipfront/internal/outdir"
 	"slipfront/scenarios"
@@ -155,8 +156,7 @@ func TestLoadRunRefusesMixedFolder(t *testing.T) {
 		t.Fatal(err)
 	}
 	_, err = LoadRun(dir, math.NaN())
-	var ie *InputError
-	if !errors.As(err, &ie) || !strings.Contains(err.Error(), "mixes two runs") {
+	if !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), "mixes two runs") {
 		t.Errorf("error %v", err)
 	}
 }

@@ -9,22 +9,11 @@ import (
 	"gonum.org/v1/gonum/spatial/r2"
 
 	"slipfront/dfn"
+	"slipfront/internal/badinput"
 	"slipfront/scenarios"
 	"slipfront/sim"
 	"slipfront/snapshot"
 )
-
-// InputError is a request a folder cannot satisfy (a time beyond the
-// run, an unknown layer, a folder that is not a run): bad input, not a
-// failure.
-type InputError struct{ Err error }
-
-func (e *InputError) Error() string { return e.Err.Error() }
-func (e *InputError) Unwrap() error { return e.Err }
-
-func inputErrorf(format string, args ...any) error {
-	return &InputError{fmt.Errorf(format, args...)}
-}
 
 // Run folder files read back by LoadRun.
 const (
@@ -69,18 +58,18 @@ func LoadRun(dir string, t float64) (*Run, error) {
 	}
 	frames := rd.Frames()
 	if len(frames) == 0 {
-		return nil, inputErrorf("%s holds no frames", filepath.Join(dir, SnapshotFile))
+		return nil, badinput.Errorf("%s holds no frames", filepath.Join(dir, SnapshotFile))
 	}
 	last := frames[len(frames)-1].Time
 	if math.IsNaN(t) {
 		t = last
 	}
 	if t < frames[0].Time || t > last {
-		return nil, inputErrorf("time %g s is outside the run: its frames span %g s to %g s", t, frames[0].Time, last)
+		return nil, badinput.Errorf("time %g s is outside the run: its frames span %g s to %g s", t, frames[0].Time, last)
 	}
 	h := rd.Header()
 	if h.Digest != s.Digest {
-		return nil, inputErrorf("%s belongs to scenario %.12s…, but %s is scenario %.12s…: the folder mixes two runs",
+		return nil, badinput.Errorf("%s belongs to scenario %.12s…, but %s is scenario %.12s…: the folder mixes two runs",
 			SnapshotFile, h.Digest, ScenarioFile, s.Digest)
 	}
 	net, err := dfn.Generate(s, h.Realization)
@@ -89,7 +78,7 @@ func LoadRun(dir string, t float64) (*Run, error) {
 	}
 	for i, e := range h.Elements {
 		if int(e.Fracture) >= len(net.Fractures) {
-			return nil, inputErrorf("%s: element %d names fracture %d, but the network has %d", SnapshotFile, i, e.Fracture, len(net.Fractures))
+			return nil, badinput.Errorf("%s: element %d names fracture %d, but the network has %d", SnapshotFile, i, e.Fracture, len(net.Fractures))
 		}
 	}
 	res, times, err := replay(rd, &h, t)

@@ -9,6 +9,7 @@ import (
 	"path/filepath"
 
 	"slipfront/batch"
+	"slipfront/internal/badinput"
 	"slipfront/internal/outdir"
 	"slipfront/report"
 	"slipfront/sim"
@@ -29,7 +30,7 @@ func WriteReport(ctx context.Context, dir, out string) error {
 	case isBatchDir(dir):
 		return writeBatchReport(ctx, dir, out)
 	}
-	return inputErrorf("%s is neither a run folder (%s, %s) nor a batch folder (%s)", dir, ScenarioFile, SnapshotFile, batch.ManifestName)
+	return badinput.Errorf("%s is neither a run folder (%s, %s) nor a batch folder (%s)", dir, ScenarioFile, SnapshotFile, batch.ManifestName)
 }
 
 func writeRunReport(dir, out string) error {

@@ -11,10 +11,13 @@ import (
 	"io/fs"
 	"os"
 	"path/filepath"
+
+	"slipfront/internal/badinput"
 )
 
-// ErrExists is returned when an output folder holds files, or an output
-// file exists, and force is not set.
+// ErrExists is matched by the error returned when an output folder holds
+// files, or an output file exists, and force is not set; that error also
+// matches badinput.Err.
 var ErrExists = errors.New("output already exists")
 
 // Prepare creates dir, or checks that an existing dir may be written to:
@@ -30,7 +33,7 @@ func Prepare(dir string, force bool) error {
 	case err != nil:
 		return fmt.Errorf("output folder %s: %w", dir, err)
 	case len(entries) > 0 && !force:
-		return fmt.Errorf("%w: %s holds %d entries; use --force to write into it (files of the same name are replaced)", ErrExists, dir, len(entries))
+		return badinput.Errorf("%w: %s holds %d entries; use --force to write into it (files of the same name are replaced)", ErrExists, dir, len(entries))
 	}
 	return nil
 }
@@ -86,7 +89,7 @@ func Commit(tmp, final string) error {
 // for commands that write one file rather than a folder.
 func CheckNewFile(path string, force bool) error {
 	if _, err := os.Stat(path); err == nil && !force {
-		return fmt.Errorf("%w: %s exists; use --force to replace it", ErrExists, path)
+		return badinput.Errorf("%w: %s exists; use --force to replace it", ErrExists, path)
 	}
 	return nil
 }
