@@ -3,7 +3,11 @@ package sim
 import (
 	"fmt"
 	"io"
+	"math"
+	"slices"
 	"strconv"
+
+	"gonum.org/v1/gonum/spatial/r2"
 
 	"slipfront/internal/version"
 	"slipfront/scenarios"
@@ -26,6 +30,25 @@ func NewRecorder(w io.Writer, s *scenarios.Scenario, realization int) *Recorder 
 	return &Recorder{w: w, s: s, realization: realization}
 }
 
+// recordedFields are the per-element fields of every frame, in the order
+// Frame.recorded lists them; Replay reads them back by name.
+var recordedFields = [...]snapshot.Field{
+	{Name: snapshot.FieldPressure, Unit: "Pa"},
+	{Name: snapshot.FieldAperture, Unit: "m"},
+	{Name: snapshot.FieldSlip, Unit: "m"},
+}
+
+// recorded returns the frame's arrays in the order of recordedFields.
+func (f *Frame) recorded() [len(recordedFields)][]float64 {
+	return [...][]float64{f.Pressure, f.Aperture, f.Slip}
+}
+
+// setRecorded sets the frame's arrays from fields in the order of
+// recordedFields.
+func (f *Frame) setRecorded(fields [len(recordedFields)][]float64) {
+	f.Pressure, f.Aperture, f.Slip = fields[0], fields[1], fields[2]
+}
+
 // Metadata keys of the snapshot header written by Recorder.
 const (
 	MetaProgram        = "program"
@@ -46,7 +69,7 @@ func (r *Recorder) Begin(elements []Element) error {
 			MetaStimulatedSlip: strconv.FormatFloat(s.Numerics.StimulatedSlip, 'g', -1, 64),
 			MetaCellSize:       strconv.FormatFloat(s.Numerics.CellSize, 'g', -1, 64),
 		},
-		Fields: []snapshot.Field{{Name: snapshot.FieldPressure, Unit: "Pa"}, {Name: snapshot.FieldAperture, Unit: "m"}, {Name: snapshot.FieldSlip, Unit: "m"}},
+		Fields: slices.Clone(recordedFields[:]),
 	}
 	sets := snapshot.StaticField{Field: snapshot.Field{Name: "set", Unit: "index"}, Values: make([]int32, len(elements))}
 	for i, el := range elements {
@@ -61,7 +84,10 @@ func (r *Recorder) Begin(elements []Element) error {
 	}
 	r.sw = sw
 	n := len(elements)
-	r.frame.Fields = [][]float32{make([]float32, n), make([]float32, n), make([]float32, n)}
+	r.frame.Fields = make([][]float32, len(recordedFields))
+	for k := range r.frame.Fields {
+		r.frame.Fields[k] = make([]float32, n)
+	}
 	return nil
 }
 
@@ -70,7 +96,7 @@ func (r *Recorder) Frame(f *Frame) error {
 	if r.sw == nil {
 		return fmt.Errorf("sim: Recorder.Frame before Begin")
 	}
-	for k, src := range [][]float64{f.Pressure, f.Aperture, f.Slip} {
+	for k, src := range f.recorded() {
 		dst := r.frame.Fields[k]
 		for i, v := range src {
 			dst[i] = float32(v)
@@ -87,4 +113,85 @@ func (r *Recorder) Close() error {
 		return nil
 	}
 	return r.sw.Close()
+}
+
+// Replay reads the frames of a snapshot written by a Recorder up to time t,
+// s, into a result: the elements, the state of the last of those frames,
+// the first frame at which each element had slipped and was stimulated
+// (so those times are known to the output interval), and the times of the
+// frames read.
+func Replay(rd *snapshot.Reader, t float64) (*Result, []float64, error) {
+	h := rd.Header()
+	n := len(h.Elements)
+	res := &Result{
+		Elements: make([]Element, n), FirstSlip: nanSlice(n), FirstSlipStage: make([]int, n),
+		StimulatedAt: nanSlice(n), Stimulated: make([]bool, n),
+	}
+	var sets []int32
+	for _, st := range h.Static {
+		if st.Name == "set" {
+			sets = st.Values
+		}
+	}
+	for i, e := range h.Elements {
+		el := Element{Trace: -1, Fracture: int(e.Fracture), Set: ConduitSet,
+			P0: r2.Vec{X: e.X0, Y: e.Y0}, P1: r2.Vec{X: e.X1, Y: e.Y1}, Length: e.Length, Height: e.Height}
+		if sets != nil {
+			el.Set = int(sets[i])
+		}
+		res.Elements[i] = el
+		res.FirstSlipStage[i] = -1
+	}
+	var index [len(recordedFields)]int
+	for k, f := range recordedFields {
+		if index[k] = h.FieldIndex(f.Name); index[k] < 0 {
+			return nil, nil, fmt.Errorf("sim: the snapshot lacks the %s field", f.Name)
+		}
+	}
+	var times []float64
+	var fr snapshot.Frame
+	var state Frame
+	for i, info := range rd.Frames() {
+		if info.Time > t {
+			break
+		}
+		if err := rd.ReadFrameInto(&fr, i); err != nil {
+			return nil, nil, err
+		}
+		times = append(times, info.Time)
+		for j, flag := range fr.Flags {
+			if flag&snapshot.FlagSlipped != 0 && math.IsNaN(res.FirstSlip[j]) {
+				res.FirstSlip[j], res.FirstSlipStage[j] = info.Time, int(info.Stage)
+			}
+			if flag&snapshot.FlagStimulated != 0 && math.IsNaN(res.StimulatedAt[j]) {
+				res.StimulatedAt[j], res.Stimulated[j] = info.Time, true
+			}
+		}
+		var fields [len(recordedFields)][]float64
+		for k, at := range index {
+			fields[k] = float64s(fr.Fields[at])
+		}
+		state.setRecorded(fields)
+		if i == 0 {
+			res.InitialAperture = state.Aperture
+		}
+	}
+	res.Pressure, res.Aperture, res.Slip = state.Pressure, state.Aperture, state.Slip
+	return res, times, nil
+}
+
+func nanSlice(n int) []float64 {
+	v := make([]float64, n)
+	for i := range v {
+		v[i] = math.NaN()
+	}
+	return v
+}
+
+func float64s(v []float32) []float64 {
+	out := make([]float64, len(v))
+	for i, x := range v {
+		out[i] = float64(x)
+	}
+	return out
 }

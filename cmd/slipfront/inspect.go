@@ -3,7 +3,6 @@ package main
 import (
 	"fmt"
 	"io"
-	"os"
 
 	"github.com/spf13/cobra"
 
@@ -38,21 +37,13 @@ func newInspectCmd(stdout io.Writer) *cobra.Command {
 }
 
 func runInspect(o *inspectOptions, stdout io.Writer) error {
-	f, err := os.Open(o.file)
+	r, err := snapshot.Open(o.file)
 	if err != nil {
 		return badInput(err)
 	}
-	defer f.Close()
-	info, err := f.Stat()
-	if err != nil {
-		return err
-	}
-	r, err := snapshot.NewReader(f, info.Size())
-	if err != nil {
-		return badInput(fmt.Errorf("%s: %w", o.file, err))
-	}
+	defer r.Close()
 	if o.time == "" && !o.csv {
-		return snapshot.Describe(stdout, r)
+		return snapshot.Describe(stdout, r.Reader)
 	}
 	frames := r.Frames()
 	if len(frames) == 0 {
@@ -68,7 +59,7 @@ func runInspect(o *inspectOptions, stdout io.Writer) error {
 		return badInput(fmt.Errorf("--time %s: the snapshot holds frames from %.6g s to %.6g s", o.time, first, last))
 	}
 	if o.csv {
-		return snapshot.WriteFrameCSV(stdout, r, t)
+		return snapshot.WriteFrameCSV(stdout, r.Reader, t)
 	}
-	return snapshot.DescribeFrame(stdout, r, t)
+	return snapshot.DescribeFrame(stdout, r.Reader, t)
 }

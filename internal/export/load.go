@@ -1,12 +1,9 @@
 package export
 
 import (
-	"fmt"
 	"math"
 	"os"
 	"path/filepath"
-
-	"gonum.org/v1/gonum/spatial/r2"
 
 	"slipfront/dfn"
 	"slipfront/internal/badinput"
@@ -43,19 +40,11 @@ func LoadRun(dir string, t float64) (*Run, error) {
 	if err != nil {
 		return nil, err
 	}
-	f, err := os.Open(filepath.Join(dir, SnapshotFile))
+	rd, err := snapshot.Open(filepath.Join(dir, SnapshotFile))
 	if err != nil {
 		return nil, err
 	}
-	defer f.Close()
-	info, err := f.Stat()
-	if err != nil {
-		return nil, err
-	}
-	rd, err := snapshot.NewReader(f, info.Size())
-	if err != nil {
-		return nil, fmt.Errorf("%s: %w", SnapshotFile, err)
-	}
+	defer rd.Close()
 	frames := rd.Frames()
 	if len(frames) == 0 {
 		return nil, badinput.Errorf("%s holds no frames", filepath.Join(dir, SnapshotFile))
@@ -81,7 +70,7 @@ func LoadRun(dir string, t float64) (*Run, error) {
 			return nil, badinput.Errorf("%s: element %d names fracture %d, but the network has %d", SnapshotFile, i, e.Fracture, len(net.Fractures))
 		}
 	}
-	res, times, err := replay(rd, &h, t)
+	res, times, err := sim.Replay(rd.Reader, t)
 	if err != nil {
 		return nil, err
 	}
@@ -109,76 +98,4 @@ func readScenario(path string) (*scenarios.Scenario, error) {
 	}
 	defer f.Close()
 	return scenarios.ReadResolved(f, path)
-}
-
-// replay reads the frames up to time t into a result: the state of the
-// last of them, and the first frame at which each element had slipped and
-// was stimulated.
-func replay(rd *snapshot.Reader, h *snapshot.Header, t float64) (*sim.Result, []float64, error) {
-	n := len(h.Elements)
-	res := &sim.Result{
-		Elements: make([]sim.Element, n), FirstSlip: nanSlice(n), FirstSlipStage: make([]int, n),
-		StimulatedAt: nanSlice(n), Stimulated: make([]bool, n),
-	}
-	var sets []int32
-	for _, st := range h.Static {
-		if st.Name == "set" {
-			sets = st.Values
-		}
-	}
-	for i, e := range h.Elements {
-		el := sim.Element{Trace: -1, Fracture: int(e.Fracture), Set: sim.ConduitSet,
-			P0: r2.Vec{X: e.X0, Y: e.Y0}, P1: r2.Vec{X: e.X1, Y: e.Y1}, Length: e.Length, Height: e.Height}
-		if sets != nil {
-			el.Set = int(sets[i])
-		}
-		res.Elements[i] = el
-		res.FirstSlipStage[i] = -1
-	}
-	fields := [3]int{h.FieldIndex(snapshot.FieldPressure), h.FieldIndex(snapshot.FieldAperture), h.FieldIndex(snapshot.FieldSlip)}
-	for _, k := range fields {
-		if k < 0 {
-			return nil, nil, fmt.Errorf("%s lacks a pressure, aperture or slip field", SnapshotFile)
-		}
-	}
-	var times []float64
-	var fr snapshot.Frame
-	for i, info := range rd.Frames() {
-		if info.Time > t {
-			break
-		}
-		if err := rd.ReadFrameInto(&fr, i); err != nil {
-			return nil, nil, err
-		}
-		times = append(times, info.Time)
-		for j, flag := range fr.Flags {
-			if flag&snapshot.FlagSlipped != 0 && math.IsNaN(res.FirstSlip[j]) {
-				res.FirstSlip[j], res.FirstSlipStage[j] = info.Time, int(info.Stage)
-			}
-			if flag&snapshot.FlagStimulated != 0 && math.IsNaN(res.StimulatedAt[j]) {
-				res.StimulatedAt[j], res.Stimulated[j] = info.Time, true
-			}
-		}
-		if i == 0 {
-			res.InitialAperture = float64s(fr.Fields[fields[1]])
-		}
-		res.Pressure, res.Aperture, res.Slip = float64s(fr.Fields[fields[0]]), float64s(fr.Fields[fields[1]]), float64s(fr.Fields[fields[2]])
-	}
-	return res, times, nil
-}
-
-func nanSlice(n int) []float64 {
-	v := make([]float64, n)
-	for i := range v {
-		v[i] = math.NaN()
-	}
-	return v
-}
-
-func float64s(v []float32) []float64 {
-	out := make([]float64, len(v))
-	for i, x := range v {
-		out[i] = float64(x)
-	}
-	return out
 }
