@@ -12,10 +12,8 @@ import (
 	"golang.org/x/term"
 
 	"slipfront/batch"
-	"slipfront/dfn"
-	"slipfront/internal/export"
+	"slipfront/pipeline"
 	"slipfront/scenarios"
-	"slipfront/sim"
 )
 
 // batchOptions are the flags of "slipfront batch".
@@ -77,7 +75,7 @@ func runBatch(ctx context.Context, o *batchOptions, g *globalOptions, stdout, st
 			return s, badInput(checkCRS(s))
 		},
 		Realizations: o.realizations, Workers: o.workers, Out: o.out, Resume: o.resume, Force: o.force,
-		Run: runRealization,
+		Run: pipeline.Realization,
 	}
 	for _, s := range o.sweeps {
 		sw, err := batch.ParseSweep(s)
@@ -113,14 +111,14 @@ func runBatch(ctx context.Context, o *batchOptions, g *globalOptions, stdout, st
 // finishBatch writes the maps and charts of a complete batch folder and
 // prints the comparison of its cases.
 func finishBatch(ctx context.Context, dir string, stdout io.Writer) error {
-	if err := export.WriteBatchMaps(ctx, dir); err != nil {
+	if err := pipeline.WriteBatchMaps(ctx, dir); err != nil {
 		return err
 	}
 	m, aggs, err := batch.ReadAggregates(ctx, dir)
 	if err != nil {
 		return err
 	}
-	fmt.Fprintf(stdout, "%s (%s)\n", export.Convention(m.Realizations), "areas in m2")
+	fmt.Fprintf(stdout, "%s (%s)\n", pipeline.Convention(m.Realizations), "areas in m2")
 	fmt.Fprintf(stdout, "%-40s %12s %12s %12s %8s %8s\n", "case", "P10 area", "P50 area", "P90 area", "events", "max Mw")
 	for i := range aggs {
 		a := &aggs[i]
@@ -136,27 +134,6 @@ func finishBatch(ctx context.Context, dir string, stdout io.Writer) error {
 	}
 	fmt.Fprintln(stdout, caution)
 	return nil
-}
-
-// runRealization is the batch's runner: generate realization r's network
-// and simulate the schedule on it.
-func runRealization(ctx context.Context, s *scenarios.Scenario, r int) (*batch.Outcome, error) {
-	net, err := dfn.Generate(s, r)
-	if err != nil {
-		return nil, err
-	}
-	res, err := sim.Run(ctx, s, net, sim.Options{})
-	if err != nil {
-		return nil, fmt.Errorf("realization %d: %w", r, err)
-	}
-	out := &batch.Outcome{NetworkDigest: net.Digest(), FinalArea: res.StimulatedArea, FractureArea: res.FractureArea,
-		Events: len(res.Events), MaxMagnitude: sim.MaxMagnitude(res.Events), PeakPressure: res.PeakBHP,
-		InjectedVolume: res.Injected, Cells: res.Cells}
-	for _, x := range res.Timeline {
-		out.Times = append(out.Times, x.Time)
-		out.Areas = append(out.Areas, x.StimulatedArea)
-	}
-	return out, nil
 }
 
 func newMergeCmd(stdout io.Writer) *cobra.Command {

@@ -8,7 +8,7 @@ import (
 
 	"github.com/spf13/cobra"
 
-	"slipfront/internal/export"
+	"slipfront/pipeline"
 	"slipfront/scenarios"
 )
 
@@ -16,7 +16,7 @@ import (
 type exportOptions struct {
 	dir  string
 	time string
-	export.Options
+	pipeline.ExportOptions
 }
 
 func newExportCmd(g *globalOptions, stderr io.Writer) *cobra.Command {
@@ -27,8 +27,8 @@ func newExportCmd(g *globalOptions, stderr io.Writer) *cobra.Command {
 		Long: "export reads a run folder (its scenario.json, run.snap and events.csv) at a time T or at the\n" +
 			"end, or a batch folder, and writes one file in the scenario's projected CRS (GeoJSON and\n" +
 			"QuakeML: WGS 84 longitude/latitude).\n\n" +
-			"Run layers: " + strings.Join(export.LayerNames, ", ") + "\n" +
-			"Run rasters: " + strings.Join(export.RasterNames, ", ") + "\n" +
+			"Run layers: " + strings.Join(pipeline.LayerNames, ", ") + "\n" +
+			"Run rasters: " + strings.Join(pipeline.RasterNames, ", ") + "\n" +
 			"Batch layers and rasters: probability_NNNN (one per sweep case)\n\n" + caution,
 		Example: "  slipfront export slipfront-demo --format gpkg --out demo.gpkg\n" +
 			"  slipfront export slipfront-demo --format geojson --layer stimulated_area --time 2h --out area-2h.geojson\n" +
@@ -46,7 +46,7 @@ func newExportCmd(g *globalOptions, stderr io.Writer) *cobra.Command {
 				}
 				o.Time = t
 			}
-			err := export.Export(cmd.Context(), o.dir, o.Options)
+			err := pipeline.Export(cmd.Context(), o.dir, o.ExportOptions)
 			if err == nil {
 				fmt.Fprintf(statusWriter(g, stderr), "wrote %s\n", o.Out)
 			}

@@ -8,7 +8,7 @@ import (
 	"github.com/spf13/cobra"
 
 	"slipfront/dfn"
-	"slipfront/internal/outdir"
+	"slipfront/pipeline"
 )
 
 func newGenerateCmd(g *globalOptions, stdout, stderr io.Writer) *cobra.Command {
@@ -24,36 +24,19 @@ func newGenerateCmd(g *globalOptions, stdout, stderr io.Writer) *cobra.Command {
 	})
 }
 
-// runGenerate writes fractures.csv, traces.csv and network.json and prints
-// the network summary.
+// runGenerate writes the generate folder and prints the network summary.
 func runGenerate(_ context.Context, o *scenarioToFolder, stdout, status io.Writer) error {
 	s, err := o.load(o.scenario)
 	if err != nil {
 		return err
 	}
-	if err := o.prepare(); err != nil {
-		return err
-	}
-	net, err := generateNetwork(s, 0)
+	net, st, err := pipeline.Generate(s, o.folder())
 	if err != nil {
 		return err
-	}
-	st := net.Stats()
-	for _, f := range []struct {
-		name  string
-		write func(io.Writer) error
-	}{
-		{"fractures.csv", func(w io.Writer) error { return dfn.WriteFractures(w, net) }},
-		{"traces.csv", func(w io.Writer) error { return dfn.WriteTraces(w, net) }},
-		{"network.json", func(w io.Writer) error { return dfn.WriteNetworkJSON(w, net, st) }},
-	} {
-		if err := outdir.WriteFile(o.out, f.name, f.write); err != nil {
-			return err
-		}
 	}
 	if err := dfn.WriteSummary(stdout, net, st); err != nil {
 		return err
 	}
-	fmt.Fprintf(status, "wrote fractures.csv, traces.csv, network.json to %s\n", o.out)
+	fmt.Fprintf(status, "wrote %s, %s, %s to %s\n", pipeline.NetworkFracturesFile, pipeline.TracesFile, pipeline.NetworkFile, o.out)
 	return nil
 }

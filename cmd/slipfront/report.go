@@ -3,10 +3,11 @@ package main
 import (
 	"fmt"
 	"io"
+	"path/filepath"
 
 	"github.com/spf13/cobra"
 
-	"slipfront/internal/export"
+	"slipfront/pipeline"
 )
 
 func newReportCmd(g *globalOptions, stderr io.Writer) *cobra.Command {
@@ -18,12 +19,12 @@ func newReportCmd(g *globalOptions, stderr io.Writer) *cobra.Command {
 			"  slipfront report visc --out visc-report",
 		Args: cobra.ExactArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
-			if err := o.prepare(); err != nil {
+			if err := o.folder().Prepare(); err != nil {
 				return err
 			}
-			err := export.WriteReport(cmd.Context(), args[0], o.out)
+			err := pipeline.WriteReport(cmd.Context(), args[0], o.out)
 			if err == nil {
-				fmt.Fprintf(statusWriter(g, stderr), "wrote %s/index.html\n", o.out)
+				fmt.Fprintf(statusWriter(g, stderr), "wrote %s\n", filepath.Join(o.out, pipeline.ReportPageFile))
 			}
 			return err
 		},

@@ -9,11 +9,11 @@ import (
 
 	"slipfront/internal/badinput"
 	cautionpkg "slipfront/internal/caution"
+	"slipfront/pipeline"
 
 	"github.com/spf13/cobra"
 
 	"slipfront/gis"
-	"slipfront/internal/outdir"
 	"slipfront/scenarios"
 )
 
@@ -31,6 +31,14 @@ const caution = "Caution: " + cautionpkg.Text
 // badInput marks err as caused by the user's input (exit code 2); nil
 // stays nil.
 func badInput(err error) error { return badinput.Mark(err) }
+
+// statusWriter is where status lines go: stderr, or nowhere with --quiet.
+func statusWriter(g *globalOptions, stderr io.Writer) io.Writer {
+	if g.quiet {
+		return io.Discard
+	}
+	return stderr
+}
 
 // globalOptions are the flags shared by every command.
 type globalOptions struct {
@@ -150,8 +158,8 @@ func (o *folderOptions) addFlags(cmd *cobra.Command) {
 	cmd.MarkFlagRequired("out")
 }
 
-// prepare creates the output folder or checks that it may be written to.
-func (o *folderOptions) prepare() error { return outdir.Prepare(o.out, o.force) }
+// folder is the output folder the flags name.
+func (o *folderOptions) folder() pipeline.Folder { return pipeline.Folder{Dir: o.out, Force: o.force} }
 
 // load reads the scenario at path (or an embedded example by name) with
 // the overrides applied.

@@ -1,4 +1,4 @@
-package export
+package pipeline
 
 import (
 	"context"
@@ -79,7 +79,7 @@ func WriteBatchMaps(ctx context.Context, dir string) error {
 	if err != nil {
 		return err
 	}
-	if err := WriteGeoPackage(ctx, filepath.Join(dir, "maps.gpkg"), pl, layers); err != nil {
+	if err := writeGeoPackage(ctx, filepath.Join(dir, MapsFile), pl, layers); err != nil {
 		return err
 	}
 	for i := range aggs {
@@ -88,7 +88,7 @@ func WriteBatchMaps(ctx context.Context, dir string) error {
 		if err != nil {
 			return err
 		}
-		if err := outdir.WriteFile(dir, fmt.Sprintf("probability_%04d.tif", a.Case.Index), func(w io.Writer) error {
+		if err := outdir.WriteFile(dir, probabilityRasterFile(a.Case.Index), func(w io.Writer) error {
 			return gis.WriteGeoTIFF(w, pl, r)
 		}); err != nil {
 			return err
@@ -109,17 +109,15 @@ func writeBatchCharts(dir string, m *batch.Manifest, aggs []batch.CaseAggregate)
 		for _, s := range a.Area {
 			fan.P10, fan.P50, fan.P90, fan.Mean = append(fan.P10, s.P10), append(fan.P50, s.P50), append(fan.P90, s.P90), append(fan.Mean, s.Mean)
 		}
-		if err := outdir.WriteFile(dir, fanName(a), func(w io.Writer) error { return fan.WritePNG(w, report.Size{}) }); err != nil {
+		if err := outdir.WriteFile(dir, fanPictureFile(a.Case.Index), func(w io.Writer) error { return fan.WritePNG(w, report.Size{}) }); err != nil {
 			return err
 		}
 		cmp.Categories = append(cmp.Categories, caseTitle(a))
 		cmp.P10, cmp.P50, cmp.P90 = append(cmp.P10, a.Final.P10), append(cmp.P50, a.Final.P50), append(cmp.P90, a.Final.P90)
 		cmp.Mean = append(cmp.Mean, a.Final.Mean)
 	}
-	return outdir.WriteFile(dir, "comparison.png", func(w io.Writer) error { return cmp.WritePNG(w, report.Size{}) })
+	return outdir.WriteFile(dir, ComparisonPictureFile, func(w io.Writer) error { return cmp.WritePNG(w, report.Size{}) })
 }
-
-func fanName(a *batch.CaseAggregate) string { return fmt.Sprintf("fan_%04d.png", a.Case.Index) }
 
 // caseTitle is the case's sweep values, or "all realizations".
 func caseTitle(a *batch.CaseAggregate) string {

@@ -1,12 +1,10 @@
-package export
+package pipeline
 
 import (
 	"context"
 	"errors"
 	"io"
 	"math"
-	"os"
-	"path/filepath"
 	"strings"
 	"testing"
 
@@ -15,11 +13,10 @@ import (
 	"slipfront/internal/numtest"
 	"slipfront/internal/outdir"
 	"slipfront/scenarios"
-	"slipfront/sim"
 )
 
-// runFolder simulates a small demo into a folder the way the run command
-// does and returns the in-memory run too.
+// runFolder simulates a small demo into a folder with Simulate, as the run
+// command does, and returns the in-memory run too.
 func runFolder(t *testing.T) (string, *Run) {
 	t.Helper()
 	ov, err := scenarios.ParseOverrides([]string{"schedule.volume=30 bbl", "numerics.element_length=30 m"})
@@ -30,32 +27,14 @@ func runFolder(t *testing.T) (string, *Run) {
 	if err != nil {
 		t.Fatal(err)
 	}
+	dir := t.TempDir()
+	res, err := Simulate(context.Background(), s, SimulateOptions{Out: Folder{Dir: dir}})
+	if err != nil {
+		t.Fatal(err)
+	}
 	net, err := dfn.Generate(s, 0)
 	if err != nil {
 		t.Fatal(err)
-	}
-	dir := t.TempDir()
-	snap, err := os.Create(filepath.Join(dir, SnapshotFile))
-	if err != nil {
-		t.Fatal(err)
-	}
-	rec := sim.NewRecorder(snap, s, 0)
-	res, err := sim.Run(context.Background(), s, net, sim.Options{Begin: rec.Begin, Frame: rec.Frame})
-	if err != nil {
-		t.Fatal(err)
-	}
-	if err := rec.Close(); err != nil {
-		t.Fatal(err)
-	}
-	snap.Close()
-	write := map[string]func(io.Writer) error{
-		ScenarioFile: func(w io.Writer) error { return scenarios.WriteResolved(w, s) },
-		EventsFile:   func(w io.Writer) error { return sim.WriteEvents(w, s, res) },
-	}
-	for name, f := range write {
-		if err := outdir.WriteFile(dir, name, f); err != nil {
-			t.Fatal(err)
-		}
 	}
 	return dir, &Run{Scenario: s, Network: net, Result: res, Time: res.Duration, OutlineTimes: res.FrameTimes}
 }

@@ -1,11 +1,10 @@
-package export
+package pipeline
 
 import (
 	"context"
 	"fmt"
 	"io"
 	"math"
-	"os"
 	"path/filepath"
 	"slices"
 	"strings"
@@ -20,8 +19,8 @@ import (
 // Formats accepted by Export.
 var Formats = []string{"gpkg", "geojson", "geotiff", "quakeml"}
 
-// Options select what Export writes.
-type Options struct {
+// ExportOptions select what Export writes.
+type ExportOptions struct {
 	// Format is one of Formats.
 	Format string
 	// Layer names the layer (gpkg: all when empty; geojson: required) or
@@ -36,7 +35,7 @@ type Options struct {
 }
 
 // Export writes one file from a run or batch folder.
-func Export(ctx context.Context, dir string, o Options) error {
+func Export(ctx context.Context, dir string, o ExportOptions) error {
 	if !slices.Contains(Formats, o.Format) {
 		return badinput.Errorf("format %q: use one of %s", o.Format, strings.Join(Formats, ", "))
 	}
@@ -52,17 +51,12 @@ func Export(ctx context.Context, dir string, o Options) error {
 	return badinput.Errorf("%s is neither a run folder (%s, %s) nor a batch folder (%s)", dir, ScenarioFile, SnapshotFile, batch.ManifestName)
 }
 
-func isBatchDir(dir string) bool {
-	_, err := os.Stat(filepath.Join(dir, batch.ManifestName))
-	return err == nil
-}
-
 // writeOut writes the output file atomically.
 func writeOut(path string, write func(io.Writer) error) error {
 	return outdir.WriteFile(filepath.Dir(path), filepath.Base(path), write)
 }
 
-func exportRun(ctx context.Context, dir string, o Options) error {
+func exportRun(ctx context.Context, dir string, o ExportOptions) error {
 	r, err := LoadRun(dir, o.Time)
 	if err != nil {
 		return err
@@ -119,7 +113,7 @@ func (r *Run) catalog() gis.Catalog {
 }
 
 // writeLayers writes the layers, or only o.Layer, to a GeoPackage.
-func writeLayers(ctx context.Context, o Options, pl gis.Placement, layers []gis.Layer) error {
+func writeLayers(ctx context.Context, o ExportOptions, pl gis.Placement, layers []gis.Layer) error {
 	if o.Layer != "" {
 		l, err := pick(layers, o.Layer)
 		if err != nil {
@@ -127,7 +121,7 @@ func writeLayers(ctx context.Context, o Options, pl gis.Placement, layers []gis.
 		}
 		layers = []gis.Layer{l}
 	}
-	return WriteGeoPackage(ctx, o.Out, pl, layers) // a new file, renamed over o.Out
+	return writeGeoPackage(ctx, o.Out, pl, layers) // a new file, renamed over o.Out
 }
 
 func pick(layers []gis.Layer, name string) (gis.Layer, error) {
@@ -141,7 +135,7 @@ func pick(layers []gis.Layer, name string) (gis.Layer, error) {
 	return gis.Layer{}, badinput.Errorf("no layer %q; layers: %s", name, strings.Join(names, ", "))
 }
 
-func exportBatch(ctx context.Context, dir string, o Options) error {
+func exportBatch(ctx context.Context, dir string, o ExportOptions) error {
 	if !math.IsNaN(o.Time) {
 		return badinput.Errorf("--time applies to a run folder; a batch folder holds final probabilities")
 	}

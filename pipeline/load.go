@@ -1,4 +1,4 @@
-package export
+package pipeline
 
 import (
 	"math"
@@ -12,22 +12,14 @@ import (
 	"slipfront/snapshot"
 )
 
-// Run folder files read back by LoadRun.
-const (
-	ScenarioFile = "scenario.json"
-	SnapshotFile = "run.snap"
-	EventsFile   = "events.csv"
-)
-
 // IsRunDir reports whether dir holds a run (a resolved scenario and a
 // snapshot).
-func IsRunDir(dir string) bool {
-	for _, f := range []string{ScenarioFile, SnapshotFile} {
-		if _, err := os.Stat(filepath.Join(dir, f)); err != nil {
-			return false
-		}
-	}
-	return true
+func IsRunDir(dir string) bool { return exists(dir, ScenarioFile) && exists(dir, SnapshotFile) }
+
+// exists reports whether dir/name exists.
+func exists(dir, name string) bool {
+	_, err := os.Stat(filepath.Join(dir, name))
+	return err == nil
 }
 
 // LoadRun reads a run folder back at time t, s (NaN: the last frame): the

@@ -1,4 +1,4 @@
-package export
+package pipeline
 
 import (
 	"context"
@@ -13,12 +13,6 @@ import (
 	"slipfront/internal/outdir"
 	"slipfront/report"
 	"slipfront/sim"
-)
-
-// Run folder files read by WriteReport besides those of LoadRun.
-const (
-	TimelineFile = "timeline.csv"
-	SummaryFile  = "summary.json"
 )
 
 // WriteReport writes the pictures and an index.html of the run or batch
@@ -51,23 +45,11 @@ func writeRunReport(dir, out string) error {
 	}); err != nil {
 		return err
 	}
-	m, err := r.MapPicture()
-	if err != nil {
+	if err := writeRunPictures(out, r); err != nil {
 		return err
 	}
-	g := r.GrowthPicture()
-	for _, p := range []struct {
-		name string
-		pic  interface {
-			WritePNG(io.Writer, report.Size) error
-		}
-	}{{"map.png", m}, {"growth.png", g}} {
-		if err := outdir.WriteFile(out, p.name, func(w io.Writer) error { return p.pic.WritePNG(w, report.Size{}) }); err != nil {
-			return err
-		}
-	}
 	page := r.page(warnings)
-	return outdir.WriteFile(out, "index.html", page.WriteHTML)
+	return outdir.WriteFile(out, ReportPageFile, page.WriteHTML)
 }
 
 func readFile(path string, read func(io.Reader) error) error {
@@ -97,7 +79,7 @@ func (r *Run) page(warnings []string) *report.Page {
 			{"events", fmt.Sprintf("%d (largest Mw %s)", len(res.Events), optionalMw(maxMw))},
 		},
 		Notes:  warnings,
-		Images: []report.Image{{File: "map.png", Caption: "Traces by first-slip time, events, stimulated area"}, {File: "growth.png", Caption: "Stimulated area and bottom-hole pressure over time"}},
+		Images: []report.Image{{File: MapPictureFile, Caption: "Traces by first-slip time, events, stimulated area"}, {File: GrowthPictureFile, Caption: "Stimulated area and bottom-hole pressure over time"}},
 	}
 	t := report.Table{Caption: "Stages in pumping order", Header: []string{"stage", "injected m³", "peak BHP MPa", "new area m²", "events", "max Mw"}}
 	for _, st := range res.Stages {
@@ -127,7 +109,7 @@ func writeBatchReport(ctx context.Context, dir, out string) error {
 		Title: m.Scenario.Name + " — batch",
 		Facts: [][2]string{{"scenario digest", m.Scenario.Digest}, {"seed", fmt.Sprint(m.Scenario.Seed)},
 			{"cases × realizations", fmt.Sprintf("%d × %d", len(m.Cases), m.Realizations)}, {"percentiles", Convention(m.Realizations)}},
-		Images: []report.Image{{File: "comparison.png", Caption: "Final stimulated area by case"}},
+		Images: []report.Image{{File: ComparisonPictureFile, Caption: "Final stimulated area by case"}},
 	}
 	t := report.Table{Caption: "Cases", Header: []string{"case", "P10 area m²", "P50 area m²", "P90 area m²", "mean events", "max Mw", "P50 peak BHP MPa"}}
 	for i := range aggs {
@@ -135,8 +117,8 @@ func writeBatchReport(ctx context.Context, dir, out string) error {
 		t.Rows = append(t.Rows, []string{caseTitle(a), fmt.Sprintf("%.0f", a.Final.P10), fmt.Sprintf("%.0f", a.Final.P50),
 			fmt.Sprintf("%.0f", a.Final.P90), fmt.Sprintf("%.1f", a.Events.Mean), optionalMw(a.MaxMagnitude),
 			fmt.Sprintf("%.2f", a.PeakPressure.P50/1e6)})
-		p.Images = append(p.Images, report.Image{File: fanName(a), Caption: "Stimulated area over time, " + caseTitle(a)})
+		p.Images = append(p.Images, report.Image{File: fanPictureFile(a.Case.Index), Caption: "Stimulated area over time, " + caseTitle(a)})
 	}
 	p.Tables = []report.Table{t}
-	return outdir.WriteFile(out, "index.html", p.WriteHTML)
+	return outdir.WriteFile(out, ReportPageFile, p.WriteHTML)
 }

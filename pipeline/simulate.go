@@ -1,0 +1,139 @@
+package pipeline
+
+import (
+	"context"
+	"fmt"
+	"io"
+	"os"
+	"path/filepath"
+	"time"
+
+	"slipfront/batch"
+	"slipfront/dfn"
+	"slipfront/report"
+	"slipfront/scenarios"
+	"slipfront/sim"
+)
+
+// SimulateOptions control Simulate.
+type SimulateOptions struct {
+	// Out is the run folder.
+	Out Folder
+	// Status, when set, receives status lines (network size, run time).
+	Status io.Writer
+	// Progress, when set, is called after every accepted step with the
+	// simulated time and the schedule's nominal end, s.
+	Progress func(t, end float64)
+}
+
+// Simulate runs realization 0 of the scenario and writes the run folder:
+// ScenarioFile first, SnapshotFile frame by frame during the run (so a
+// stopped run keeps every complete frame), then SummaryFile, TimelineFile,
+// EventsFile, FracturesFile and the maps. A run that fails part way still
+// writes what it computed and returns its result with the error; a nil
+// result means no complete folder was written.
+func Simulate(ctx context.Context, s *scenarios.Scenario, o SimulateOptions) (*sim.Result, error) {
+	status := o.Status
+	if status == nil {
+		status = io.Discard
+	}
+	if err := o.Out.Prepare(); err != nil {
+		return nil, err
+	}
+	out := o.Out.Dir
+	if err := writeFiles(out, namedWriter{ScenarioFile, func(w io.Writer) error { return scenarios.WriteResolved(w, s) }}); err != nil {
+		return nil, err
+	}
+	net, err := dfn.Generate(s, 0)
+	if err != nil {
+		return nil, err
+	}
+	fmt.Fprintf(status, "network: %d fractures, %d traces, %d intersections\n", len(net.Fractures), len(net.Traces), len(net.Intersections))
+	snap, err := os.Create(filepath.Join(out, SnapshotFile))
+	if err != nil {
+		return nil, err
+	}
+	defer snap.Close()
+	rec := sim.NewRecorder(snap, s, 0)
+	start := time.Now()
+	res, runErr := sim.Run(ctx, s, net, sim.Options{Begin: rec.Begin, Frame: rec.Frame, Progress: o.Progress})
+	if res == nil {
+		return nil, runErr
+	}
+	if err := rec.Close(); err != nil && runErr == nil {
+		runErr = err
+	}
+	fmt.Fprintf(status, "simulated %.2f h in %d steps (%d repeated) in %.1f s; mass balance error %.1e\n",
+		res.Duration/3600, res.Steps, res.CutSteps, time.Since(start).Seconds(), res.MassBalanceError)
+	if err := writeRunFiles(ctx, out, s, net, res, runErr); err != nil {
+		return nil, err
+	}
+	return res, runErr
+}
+
+// writeRunFiles writes the tables, the summary and the maps of a run.
+func writeRunFiles(ctx context.Context, out string, s *scenarios.Scenario, net *dfn.Network, res *sim.Result, runErr error) error {
+	err := writeFiles(out,
+		namedWriter{SummaryFile, func(w io.Writer) error { return sim.WriteSummary(w, s, net, res, runErr) }},
+		namedWriter{TimelineFile, func(w io.Writer) error { return sim.WriteTimeline(w, s, res) }},
+		namedWriter{EventsFile, func(w io.Writer) error { return sim.WriteEvents(w, s, res) }},
+		namedWriter{FracturesFile, func(w io.Writer) error { return sim.WriteFractures(w, s, net, res) }},
+	)
+	if err != nil {
+		return err
+	}
+	r := &Run{Scenario: s, Network: net, Result: res, Time: res.Duration, OutlineTimes: res.FrameTimes}
+	return writeRunMaps(ctx, out, r)
+}
+
+// writeRunMaps writes MapsFile, MapPictureFile and GrowthPictureFile of a
+// finished run into dir.
+func writeRunMaps(ctx context.Context, dir string, r *Run) error {
+	pl, err := r.Placement()
+	if err != nil {
+		return err
+	}
+	layers, err := r.Layers()
+	if err != nil {
+		return err
+	}
+	if err := writeGeoPackage(ctx, filepath.Join(dir, MapsFile), pl, layers); err != nil {
+		return err
+	}
+	return writeRunPictures(dir, r)
+}
+
+// writeRunPictures writes MapPictureFile and GrowthPictureFile into dir.
+func writeRunPictures(dir string, r *Run) error {
+	m, err := r.MapPicture()
+	if err != nil {
+		return err
+	}
+	g := r.GrowthPicture()
+	return writeFiles(dir,
+		namedWriter{MapPictureFile, func(w io.Writer) error { return m.WritePNG(w, report.Size{}) }},
+		namedWriter{GrowthPictureFile, func(w io.Writer) error { return g.WritePNG(w, report.Size{}) }},
+	)
+}
+
+// Realization is the batch runner (a batch.RunFunc): it generates
+// realization r's network and simulates the schedule on it, keeping only
+// what a batch aggregates.
+func Realization(ctx context.Context, s *scenarios.Scenario, r int) (*batch.Outcome, error) {
+	net, err := dfn.Generate(s, r)
+	if err != nil {
+		return nil, err
+	}
+	res, err := sim.Run(ctx, s, net, sim.Options{})
+	if err != nil {
+		return nil, fmt.Errorf("realization %d: %w", r, err)
+	}
+	out := &batch.Outcome{NetworkDigest: net.Digest(), FinalArea: res.StimulatedArea, FractureArea: res.FractureArea,
+		Events: len(res.Events), MaxMagnitude: sim.MaxMagnitude(res.Events), PeakPressure: res.PeakBHP,
+		InjectedVolume: res.Injected, Cells: res.Cells}
+	for _, x := range res.Timeline {
+		out.Times = append(out.Times, x.Time)
+		out.Areas = append(out.Areas, x.StimulatedArea)
+	}
+	return out, nil
+}
