@@ -120,7 +120,8 @@ func Run(ctx context.Context, opts Options) (*Summary, error) {
 	jobs := pendingJobs(opts, m, sum)
 	prog := newProgress(opts.Progress, opts.IsTerminal, opts.ProgressInterval)
 	prog.start(len(jobs), sum.Resumed, sum.Owned)
-	err = runJobs(ctx, opts, m, cases, jobs, sum, prog)
+	jr := &jobRunner{opts: opts, m: m, cases: cases, sum: sum, prog: prog}
+	err = jr.run(ctx, jobs)
 	prog.finish(err == nil)
 	sum.Elapsed = time.Since(start)
 	if err != nil {
@@ -274,11 +275,44 @@ func pendingJobs(opts Options, m *Manifest, sum *Summary) []job {
 	return jobs
 }
 
-// runJobs runs jobs on opts.Workers goroutines until done, the first
-// failure, or cancellation.
-func runJobs(parent context.Context, opts Options, m *Manifest, cases []Case, jobs []job, sum *Summary, prog progress) error {
+// jobRunner runs the jobs of a batch on its workers and keeps the tally.
+type jobRunner struct {
+	opts  Options
+	m     *Manifest
+	cases []Case
+	sum   *Summary
+	prog  progress
+	// cancel stops the other workers after the first failure.
+	cancel context.CancelFunc
+
+	mu       sync.Mutex // guards sum, prog and firstErr
+	firstErr error
+}
+
+// run runs jobs on the workers until done, the first failure, or
+// cancellation.
+func (jr *jobRunner) run(parent context.Context, jobs []job) error {
 	ctx, cancel := context.WithCancel(parent)
 	defer cancel()
+	jr.cancel = cancel
+	feed := feedJobs(ctx, jobs)
+	var wg sync.WaitGroup
+	for range min(jr.opts.Workers, len(jobs)) {
+		wg.Go(func() { jr.work(ctx, feed) })
+	}
+	wg.Wait()
+	switch {
+	case jr.firstErr != nil:
+		return jr.firstErr
+	case parent.Err() != nil:
+		return fmt.Errorf("batch: interrupted with %d of %d results done; run again with --resume to finish: %w",
+			jr.sum.Resumed+jr.sum.Ran, jr.sum.Owned, parent.Err())
+	}
+	return nil
+}
+
+// feedJobs sends the jobs in order until they are all taken or ctx ends.
+func feedJobs(ctx context.Context, jobs []job) <-chan job {
 	feed := make(chan job)
 	go func() {
 		defer close(feed)
@@ -290,45 +324,38 @@ func runJobs(parent context.Context, opts Options, m *Manifest, cases []Case, jo
 			}
 		}
 	}()
-	var (
-		mu       sync.Mutex
-		firstErr error
-		wg       sync.WaitGroup
-	)
-	for range min(opts.Workers, len(jobs)) {
-		wg.Go(func() {
-			for j := range feed {
-				if ctx.Err() != nil {
-					continue
-				}
-				err := runOne(ctx, opts, m, cases, j)
-				mu.Lock()
-				switch {
-				case err == nil:
-					sum.Ran++
-					prog.step()
-					if opts.Hooks.AfterResult != nil {
-						opts.Hooks.AfterResult(sum.Ran)
-					}
-				case ctx.Err() != nil:
-					sum.Abandoned++
-				default:
-					firstErr = err
-					cancel()
-				}
-				mu.Unlock()
-			}
-		})
+	return feed
+}
+
+// work runs the jobs it takes from feed; after a cancellation it drains
+// feed without running them.
+func (jr *jobRunner) work(ctx context.Context, feed <-chan job) {
+	for j := range feed {
+		if ctx.Err() != nil {
+			continue
+		}
+		jr.record(ctx, runOne(ctx, jr.opts, jr.m, jr.cases, j))
 	}
-	wg.Wait()
+}
+
+// record counts a finished job, or keeps the first failure and cancels the
+// others.
+func (jr *jobRunner) record(ctx context.Context, err error) {
+	jr.mu.Lock()
+	defer jr.mu.Unlock()
 	switch {
-	case firstErr != nil:
-		return firstErr
-	case parent.Err() != nil:
-		return fmt.Errorf("batch: interrupted with %d of %d results done; run again with --resume to finish: %w",
-			sum.Resumed+sum.Ran, sum.Owned, parent.Err())
+	case err == nil:
+		jr.sum.Ran++
+		jr.prog.step()
+		if jr.opts.Hooks.AfterResult != nil {
+			jr.opts.Hooks.AfterResult(jr.sum.Ran)
+		}
+	case ctx.Err() != nil:
+		jr.sum.Abandoned++
+	default:
+		jr.firstErr = err
+		jr.cancel()
 	}
-	return nil
 }
 
 // runOne runs and stores one realization of one case.

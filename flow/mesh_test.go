@@ -130,7 +130,7 @@ func TestStarDeltaConservesFlux(t *testing.T) {
 	}
 	s.conductances(e)
 	s.as.Reset()
-	s.assembleFlux(Control{}, false)
+	s.assembleFlux(Control{})
 	a := s.as.Matrix()
 	ap := make([]float64, len(p))
 	a.MulVecTo(ap, p) // (A p)_i = Σ_j T_ij (p_i − p_j)

@@ -160,81 +160,113 @@ func (s *System) Step(cur, next *State, dt float64, ctl Control, ap ApertureFunc
 	}
 	set = set.withDefaults()
 	if !s.HasWell() || ctl.Mode == PressureControl || ctl.Cap <= 0 {
-		res, err := s.solve(cur, next, dt, ctl, ctl.Mode == PressureControl && s.HasWell(), ap, set)
+		res, err := s.solve(s.newIteration(cur, next, dt, ctl), ap, set)
 		next.Capped = false
 		return res, err
 	}
-	capped := ctl
-	capped.Pressure = ctl.Cap
+	capped := Control{Mode: PressureControl, Pressure: ctl.Cap}
 	if !cur.Capped {
-		res, err := s.solve(cur, next, dt, ctl, false, ap, set)
+		res, err := s.solve(s.newIteration(cur, next, dt, ctl), ap, set)
 		if err != nil || res.BHP <= ctl.Cap {
 			next.Capped = false
 			return res, err
 		}
 	} else {
-		res, err := s.solve(cur, next, dt, capped, true, ap, set)
+		res, err := s.solve(s.newIteration(cur, next, dt, capped), ap, set)
 		if err != nil || res.Rate <= ctl.Rate {
 			res.Capped = err == nil
 			next.Capped = res.Capped
 			return res, err
 		}
 		// The network now takes more than the target rate below the cap.
-		res, err = s.solve(cur, next, dt, ctl, false, ap, set)
+		res, err = s.solve(s.newIteration(cur, next, dt, ctl), ap, set)
 		if err != nil || res.BHP <= ctl.Cap {
 			next.Capped = false
 			return res, err
 		}
 	}
-	res, err := s.solve(cur, next, dt, capped, true, ap, set)
+	res, err := s.solve(s.newIteration(cur, next, dt, capped), ap, set)
 	res.Capped = err == nil
 	next.Capped = res.Capped
 	return res, err
 }
 
+// iteration is the state of the Picard iterations of one step under one
+// control.
+type iteration struct {
+	// cur is the state at the start of the step and next the state being
+	// solved for; dt is the step, s.
+	cur, next *State
+	dt        float64
+	// ctl is the well's control; under PressureControl the bottom-hole
+	// pressure is held at ctl.Pressure (a pressure cap is such a control).
+	ctl Control
+	// p is the pressure iterate (next.Pressure), Pa, and pw the
+	// bottom-hole pressure iterate, Pa.
+	p  []float64
+	pw float64
+	// e and dedp are the apertures (m) at p and their pressure derivatives
+	// (m/Pa); ePrev are the apertures of the previous iterate, m.
+	e, dedp, ePrev []float64
+	// leak is each element's leak-off volume over the step, m³.
+	leak []float64
+}
+
+// newIteration starts the iterations of a step from the pressures of cur,
+// with the System's work arrays.
+func (s *System) newIteration(cur, next *State, dt float64, ctl Control) *iteration {
+	if s.e == nil {
+		n := s.nElem
+		s.e, s.dedp, s.ePrev, s.leak = make([]float64, n), make([]float64, n), make([]float64, n), make([]float64, n)
+	}
+	copy(next.Pressure, cur.Pressure)
+	return &iteration{cur: cur, next: next, dt: dt, ctl: ctl, p: next.Pressure, pw: cur.BHP,
+		e: s.e, dedp: s.dedp, ePrev: s.ePrev, leak: s.leakoff(cur, dt)}
+}
+
+// holdsPressure reports whether the iteration holds the bottom-hole
+// pressure (pressure control with a well).
+func (s *System) holdsPressure(ctl Control) bool { return s.HasWell() && ctl.Mode == PressureControl }
+
 // solve runs the Picard iterations of one step under one control.
-func (s *System) solve(cur, next *State, dt float64, ctl Control, pressureControl bool, ap ApertureFunc, set StepSettings) (StepResult, error) {
-	n := s.nElem
+func (s *System) solve(it *iteration, ap ApertureFunc, set StepSettings) (StepResult, error) {
 	if set.Restart != nil {
 		set.Restart()
 	}
-	p := next.Pressure
-	copy(p, cur.Pressure)
-	e, dedp, ePrev := s.work()
-	leak := s.leakoff(cur, dt)
+	n := s.nElem
+	cur, next, p := it.cur, it.next, it.p
 	var res StepResult
-	pw := cur.BHP
 	var dp float64
-	for it := 0; ; it++ {
-		ap(p, e, dedp)
-		if it > 0 {
-			res.Stored, res.MassError = s.balance(cur, p, e, res.Injected, leak)
-			if dp <= set.PressureTol && relChange(e, ePrev) <= set.ApertureTol &&
-				math.Abs(res.MassError) <= s.massTolerance(set.MassTol, res.Injected, leak, res.Stored, cur.Content) {
-				res.Iterations = it
+	for k := 0; ; k++ {
+		ap(p, it.e, it.dedp)
+		if k > 0 {
+			res.Stored, res.MassError = s.balance(cur, p, it.e, res.Injected, it.leak)
+			if dp <= set.PressureTol && relChange(it.e, it.ePrev) <= set.ApertureTol &&
+				math.Abs(res.MassError) <= s.massTolerance(set.MassTol, res.Injected, it.leak, res.Stored, cur.Content) {
+				res.Iterations = k
 				break
 			}
 		}
-		if it == set.MaxIterations {
-			return res, fmt.Errorf("%w in %d iterations at t = %.6g s (dt = %.3g s)", ErrStepNotConverged, it, cur.Time, dt)
+		if k == set.MaxIterations {
+			return res, fmt.Errorf("%w in %d iterations at t = %.6g s (dt = %.3g s)", ErrStepNotConverged, k, cur.Time, it.dt)
 		}
-		copy(ePrev, e)
-		if err := s.linearSolve(cur, p, pw, e, dedp, dt, leak, ctl, pressureControl); err != nil {
+		copy(it.ePrev, it.e)
+		if err := s.linearSolve(it); err != nil {
 			return res, err
 		}
-		s.relax(s.sol, it, set.MaxIterationChange)
+		s.relax(s.sol, k, set.MaxIterationChange)
 		dp = maxAbsDiff(s.sol[:n], p)
 		copy(p, s.sol[:n])
-		pw = s.bhp(ctl, pressureControl)
-		res.Rate = s.wellRate(p, pw)
-		res.Injected = res.Rate * dt
+		it.pw = s.bhp(it.ctl)
+		res.Rate = s.wellRate(p, it.pw)
+		res.Injected = res.Rate * it.dt
 	}
-	res.BHP, res.Leaked = pw, total(leak)
+	res.BHP, res.Leaked = it.pw, total(it.leak)
 	res.MaxChange = maxAbsDiff(p, cur.Pressure)
-	next.Time, next.BHP = cur.Time+dt, pw
-	copy(next.Aperture, e)
+	next.Time, next.BHP = cur.Time+it.dt, it.pw
+	copy(next.Aperture, it.e)
 	for i := range n {
-		next.Content[i] = s.Content(i, e[i], p[i])
+		next.Content[i] = s.Content(i, it.e[i], p[i])
 		next.Exposed[i] = cur.Exposed[i]
 		if math.IsNaN(next.Exposed[i]) && p[i] > s.cfg.ReferencePressure+exposureRise {
 			next.Exposed[i] = next.Time
@@ -245,20 +277,21 @@ func (s *System) solve(cur, next *State, dt float64, ctl Control, pressureContro
 
 // linearSolve assembles one Picard iteration and solves it for the
 // increment s.delta from the iterate s.sol = [p; p_w].
-func (s *System) linearSolve(cur *State, p []float64, pw float64, e, dedp []float64, dt float64, leak []float64, ctl Control, pressureControl bool) error {
+func (s *System) linearSolve(it *iteration) error {
 	s.as.Reset()
 	clear(s.rhs)
-	s.conductances(e)
+	s.conductances(it.e)
 	cf, pref := s.cfg.Fluid.Compressibility, s.cfg.ReferencePressure
+	p, e, dt := it.p, it.e, it.dt
 	for i := range s.nElem {
 		el := &s.mesh.Elements[i]
 		hl := el.Height * el.Length
-		storage := hl * (dedp[i]*(1+cf*(p[i]-pref)) + e[i]*cf)
+		storage := hl * (it.dedp[i]*(1+cf*(p[i]-pref)) + e[i]*cf)
 		content := hl * e[i] * (1 + cf*(p[i]-pref))
 		s.as.AddDiagonal(i, storage/dt)
-		s.rhs[i] = storage/dt*p[i] - (content-cur.Content[i])/dt - leak[i]/dt
+		s.rhs[i] = storage/dt*p[i] - (content-it.cur.Content[i])/dt - it.leak[i]/dt
 	}
-	s.assembleFlux(ctl, pressureControl)
+	s.assembleFlux(it.ctl)
 	a := s.as.Matrix()
 	if err := s.ls.Factor(a); err != nil {
 		return err
@@ -269,7 +302,7 @@ func (s *System) linearSolve(cur *State, p []float64, pw float64, e, dedp []floa
 	x := s.sol
 	copy(x, p)
 	if s.HasWell() {
-		x[s.nElem] = pw
+		x[s.nElem] = it.pw
 	}
 	a.MulVecTo(s.res, x)
 	for i := range s.res {
@@ -323,11 +356,11 @@ func maxAbs(v []float64) float64 {
 }
 
 // bhp returns the bottom-hole pressure after a solve.
-func (s *System) bhp(ctl Control, pressureControl bool) float64 {
+func (s *System) bhp(ctl Control) float64 {
 	switch {
 	case !s.HasWell():
 		return math.NaN()
-	case pressureControl:
+	case s.holdsPressure(ctl):
 		return ctl.Pressure
 	}
 	return s.sol[s.nElem]
@@ -373,15 +406,6 @@ func (s *System) leakoff(cur *State, dt float64) []float64 {
 		leak[i] = math.Max(0, math.Min(v, cur.Content[i]-cur.InitialContent[i]))
 	}
 	return leak
-}
-
-// work returns the System's per-element work arrays.
-func (s *System) work() (e, dedp, ePrev []float64) {
-	if s.e == nil {
-		n := s.nElem
-		s.e, s.dedp, s.ePrev, s.leak = make([]float64, n), make([]float64, n), make([]float64, n), make([]float64, n)
-	}
-	return s.e, s.dedp, s.ePrev
 }
 
 // relChange returns max |a_i − b_i| / |b_i|.

@@ -156,7 +156,8 @@ func (s *System) conductances(e []float64) {
 // assembleFlux adds the transmissibilities of the mesh connections and of
 // the well (rate control: a connection; pressure control: diagonal terms
 // and the given pressure on the right-hand side).
-func (s *System) assembleFlux(ctl Control, pressureControl bool) {
+func (s *System) assembleFlux(ctl Control) {
+	pressureControl := s.holdsPressure(ctl)
 	m := s.mesh
 	k := 0
 	for n := range s.sumA {
