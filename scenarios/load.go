@@ -57,7 +57,7 @@ func LoadExample(name string, overrides ...Override) (*Scenario, error) {
 // file exists at path but path names an embedded example ("demo"), the
 // example is loaded.
 func Load(p string, overrides ...Override) (*Scenario, error) {
-	src, err := os.ReadFile(p)
+	src, err := readInputFile(p)
 	if errors.Is(err, fs.ErrNotExist) && !strings.ContainsRune(p, filepath.Separator) {
 		if _, exErr := ExampleSource(p); exErr == nil {
 			return LoadExample(p, overrides...)
@@ -108,7 +108,7 @@ func (d *decoder) readKnownFractures(s *Scenario, files fs.FS) {
 	if s.KnownFractures.File == "" {
 		return
 	}
-	f, err := files.Open(filepath.ToSlash(s.KnownFractures.File))
+	f, err := openInput(files, filepath.ToSlash(s.KnownFractures.File))
 	if err != nil {
 		d.failKey("known_fractures.file", "cannot open: %v", err)
 		return

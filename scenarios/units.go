@@ -7,6 +7,7 @@ import (
 	"sort"
 	"strconv"
 	"strings"
+	"unicode"
 )
 
 // Conversion factors to SI. Exact values where the definition is exact;
@@ -85,7 +86,7 @@ func unitNames(k unitKind) string {
 // normalizeUnit maps typographic variants to the spellings of unitTable.
 func normalizeUnit(u string) string {
 	r := strings.NewReplacer(
-		"³", "3", "µ", "u", "μ", "u", "·", ".", "*", ".", "°", "deg", " ", "",
+		"³", "3", "µ", "u", "μ", "u", "·", ".", "*", ".", "°", "deg",
 	)
 	switch {
 	case strings.HasSuffix(u, "^-1"):
@@ -139,10 +140,13 @@ func parseQuantity(s string, k unitKind) (float64, error) {
 	}
 	v, err := strconv.ParseFloat(m[1], 64)
 	if err != nil || math.IsInf(v, 0) {
-		return 0, fmt.Errorf("number %q out of range", m[1])
+		return 0, fmt.Errorf("number %s out of range", echo(m[1]))
 	}
 	if m[2] == "" {
 		return 0, fmt.Errorf("needs a unit (%s: %s), e.g. \"%s %s\"", k, unitNames(k), m[1], unitTable[k][0].name)
+	}
+	if strings.ContainsFunc(m[2], unicode.IsSpace) {
+		return 0, fmt.Errorf("the unit %s has a space inside; write it without spaces, e.g. \"%s %s\"", echo(m[2]), m[1], unitTable[k][0].name)
 	}
 	u := normalizeUnit(m[2])
 	for _, e := range unitTable[k] {
@@ -150,7 +154,7 @@ func parseQuantity(s string, k unitKind) (float64, error) {
 			return v * e.factor, nil
 		}
 	}
-	return 0, fmt.Errorf("unknown unit %q for a %s; use one of: %s%s", m[2], k, unitNames(k), suggest(u, unitSpellings(k)))
+	return 0, fmt.Errorf("unknown unit %s for a %s; use one of: %s%s", echo(m[2]), k, unitNames(k), suggest(u, unitSpellings(k)))
 }
 
 // parseBearing converts a quadrant bearing (N75E: 75° east of north) to an

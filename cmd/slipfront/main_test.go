@@ -37,7 +37,7 @@ func TestExitCodes(t *testing.T) {
 		{"version", []string{"version"}, exitOK, ""},
 		{"unknown command", []string{"bogus"}, exitBadInput, "unknown command"},
 		{"missing flag", []string{"generate", "demo"}, exitBadInput, `"out" not set`},
-		{"bad override", []string{"scenario", "check", "demo", "--set", "sets[1].orientation.kappa=-3"}, exitBadInput, "--set sets[1].orientation.kappa=-3: must be > 0"},
+		{"bad override", []string{"scenario", "check", "demo", "--set", "sets[1].orientation.kappa=-3"}, exitBadInput, "--set sets[1].orientation.kappa=-3: must be within (0, 1e6]"},
 		{"unknown key", []string{"scenario", "check", "demo", "--set", "rock.fricton_static=0.5"}, exitBadInput, `did you mean "friction_static"?`},
 		{"missing file", []string{"scenario", "check", filepath.Join(dir, "none.toml")}, exitBadInput, "no such file"},
 		{"too many fractures", []string{"generate", "demo", "--set", "numerics.max_fractures=10", "--out", filepath.Join(dir, "cap")}, exitBadInput, "max_fractures"},
@@ -266,7 +266,7 @@ func TestBatchAndMerge(t *testing.T) {
 	}{
 		{args("x", "--shard", "2/2"), "shard"},
 		{base("y", "--sweep", "rock.frction=0.5,0.6"), `did you mean "friction_`},
-		{base("z", "--sweep", "fluids.water.viscosity=1cP,-2cP"), "must be > 0"},
+		{base("z", "--sweep", "fluids.water.viscosity=1cP,-2cP"), "must be within [1e-5, 1000] Pa.s"},
 	}
 	for _, tc := range bad {
 		if code, _, stderr := runCLI(t, tc.args...); code != exitBadInput || !strings.Contains(stderr, tc.want) {
