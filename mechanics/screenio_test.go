@@ -95,7 +95,7 @@ func TestWriteCSVReadBack(t *testing.T) {
 	if got := strings.Join(recs[0], ","); got != ScreenCSVHeader {
 		t.Fatalf("header %q", got)
 	}
-	// The issue's required columns come first, in order.
+	// The README's required columns come first, in order.
 	required := "fracture_id,set,dip_deg,dip_direction_deg,sigma_n_MPa,tau_MPa,slip_tendency,dilation_tendency,critical_dp_MPa"
 	if !strings.HasPrefix(ScreenCSVHeader, required+",") {
 		t.Errorf("header lacks the required columns: %q", ScreenCSVHeader)
@@ -134,7 +134,7 @@ func TestWriteCSVReadBack(t *testing.T) {
 	}
 }
 
-// screen.json carries the keys the issue asks for, with the tensor in MPa.
+// screen.json carries the keys the README lists, with the tensor in MPa.
 func TestWriteJSONContent(t *testing.T) {
 	sc := fixtureScreening(t)
 	var doc map[string]any
@@ -148,7 +148,7 @@ func TestWriteJSONContent(t *testing.T) {
 		}
 	}
 	tensor := doc["stress_tensor_MPa"].([]any)
-	// REFERENCES.md §7.4 step 1, printed to 6 decimals here.
+	// docs/references.md §7.4 step 1, printed to 6 decimals here.
 	numtest.Abs(t, "S_EN", tensor[0].([]any)[1].(float64), 15.1554445662, 0.5e-6)
 	numtest.Abs(t, "S_UU", tensor[2].([]any)[2].(float64), 75, 0)
 	numtest.Abs(t, "pore pressure", doc["pore_pressure_MPa"].(float64), 30, 0)

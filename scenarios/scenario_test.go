@@ -105,7 +105,7 @@ func TestExamplesParse(t *testing.T) {
 		t.Fatal(err)
 	}
 	if len(demo.Wells) != 2 || len(demo.Sets) != 2 || len(demo.KnownFractures.Fractures) != 1 {
-		t.Errorf("demo has %d wells, %d sets, %d known fractures; issue 2 asks for 2, 2, 1",
+		t.Errorf("demo has %d wells, %d sets, %d known fractures; the README describes 2, 2, 1",
 			len(demo.Wells), len(demo.Sets), len(demo.KnownFractures.Fractures))
 	}
 }

@@ -56,17 +56,17 @@ func slipFront(res *Result) float64 {
 
 // The slipped region of one long fracture under constant-pressure
 // injection ends where the erfc solution's pressure increase equals the
-// critical increase (Carslaw & Jaeger 1959 §2.4; REFERENCES.md §12.1):
+// critical increase (Carslaw & Jaeger 1959 §2.4; docs/references.md §12.1):
 //
 //	x_c = 2 √(D t) · erfc⁻¹(Δp_c / Δp),   D = e²/(12 μ c_f),
 //
-// with Δp_c = σn − p0 − τ/μs (REFERENCES.md §7.2). The error shrinks as the
+// with Δp_c = σn − p0 − τ/μs (docs/references.md §7.2). The error shrinks as the
 // elements are refined. Dilation then carries the front farther.
 func TestSlipFrontFollowsPressureFront(t *testing.T) {
 	const (
 		e, mu, cf = 1e-4, 1e-3, 4.5e-10 // the example's aperture and fluid
 		dp, tEnd  = 20e6, 60.0          // injection at 40 MPa over p0 = 20 MPa
-		sigmaN    = 46.5e6              // 60·cos²60° + 42·sin²60° MPa (§7.1)
+		sigmaN    = 46.5e6              // 60·cos²60° + 42·sin²60° MPa (docs/references.md §7.1)
 		tau       = 7.794228634e6       // (60 − 42)·sin 60°·cos 60° MPa
 	)
 	dpc := sigmaN - 20e6 - tau/0.6
@@ -130,11 +130,12 @@ func runSmallDemo(t *testing.T) (*scenarios.Scenario, *Result) {
 	return smallDemoInput, smallDemoResult
 }
 
-// TestDemoInvariants checks the invariants of issue 5 on the small demo.
+// TestDemoInvariants checks the run invariants on the small demo: mass
+// balance, a growing stimulated area, events that account for all slip.
 func TestDemoInvariants(t *testing.T) {
 	s, res := runSmallDemo(t)
 	if res.MassBalanceError > 1e-8 {
-		t.Errorf("mass balance error %.3g > 1e-8 relative (issue 5)", res.MassBalanceError)
+		t.Errorf("mass balance error %.3g > 1e-8 relative", res.MassBalanceError)
 	}
 	for i := 1; i < len(res.Timeline); i++ {
 		a, b := res.Timeline[i-1], res.Timeline[i]
@@ -197,7 +198,8 @@ func checkGainOnlyWhereSlipped(t *testing.T, s *scenarios.Scenario, res *Result)
 	}
 }
 
-// Same scenario and seed → identical timeline.csv and events.csv (issue 5).
+// Same scenario and seed → identical timeline.csv and events.csv (every
+// draw is seeded, maps are iterated in order).
 func TestDeterministic(t *testing.T) {
 	write := func(s *scenarios.Scenario, res *Result) ([]byte, []byte) {
 		var tl, ev bytes.Buffer
@@ -221,7 +223,7 @@ func TestDeterministic(t *testing.T) {
 }
 
 // A stage whose clusters meet no fracture is bad input that names the
-// stage (issue 4).
+// stage.
 func TestStageTouchingNoFracture(t *testing.T) {
 	src, err := scenarios.ExampleSource("single-fracture")
 	if err != nil {
