@@ -200,7 +200,10 @@ func TestOverrides(t *testing.T) {
 	if c := s.Wells[0].Stages[1].Clusters; len(c) != 2 || c[1] != 510 {
 		t.Errorf("list override: clusters %v", c)
 	}
-	base, _ := parseText(t, minimal)
+	base, err := parseText(t, minimal)
+	if err != nil {
+		t.Fatal(err)
+	}
 	if base.Digest == s.Digest {
 		t.Error("overrides did not change the digest")
 	}
@@ -324,7 +327,10 @@ func FuzzParse(f *testing.F) {
 	f.Add([]byte(minimal))
 	f.Add([]byte(Template()))
 	for _, name := range Examples() {
-		src, _ := ExampleSource(name)
+		src, err := ExampleSource(name)
+		if err != nil {
+			f.Fatal(err)
+		}
 		f.Add(src)
 	}
 	files := fstest.MapFS{"faults.csv": {Data: []byte(knownCSV)}}
@@ -345,7 +351,10 @@ func FuzzParse(f *testing.F) {
 
 func FuzzReadKnownFractures(f *testing.F) {
 	f.Add([]byte(knownCSV))
-	src, _ := examples.ReadFile("examples/demo-faults.csv")
+	src, err := examples.ReadFile("examples/demo-faults.csv")
+	if err != nil {
+		f.Fatal(err)
+	}
 	f.Add(src)
 	f.Fuzz(func(t *testing.T, data []byte) {
 		k, err := ReadKnownFractures(strings.NewReader(string(data)), "fuzz.csv")
