@@ -179,7 +179,10 @@ func TestSetModelIntensity(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		law, _ := NewOrientationLaw(o)
+		law, err := NewOrientationLaw(o)
+		if err != nil {
+			t.Fatal(err)
+		}
 		want := 0.04 / C13(law, rad(90), 0)
 		if o.Distribution != "fisher" {
 			want = 0.08 // C13 = 1/2 in both other cases
