@@ -64,7 +64,7 @@
 //
 // Fracture-network systems are nearly planar graphs made mostly of chains,
 // so a fill-reducing ordering keeps L small (about 4·10⁶ entries for 10⁶
-// unknowns of the reference model in ../shared/bench) and the direct
+// unknowns of the reference model of docs/bench.md) and the direct
 // method beats conjugate gradients, which need about 10³ iterations, by an
 // order of magnitude.
 //

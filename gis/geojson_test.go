@@ -309,8 +309,17 @@ func TestGeoJSONVersusCS2CS(t *testing.T) {
 		}
 		for i, line := range lines {
 			fs := strings.Fields(line)
-			lon, _ := strconv.ParseFloat(fs[0], 64)
-			lat, _ := strconv.ParseFloat(fs[1], 64)
+			if len(fs) < 2 {
+				t.Fatalf("cs2cs line %d: %q", i, line)
+			}
+			lon, err := strconv.ParseFloat(fs[0], 64)
+			if err != nil {
+				t.Fatal(err)
+			}
+			lat, err := strconv.ParseFloat(fs[1], 64)
+			if err != nil {
+				t.Fatal(err)
+			}
 			got := fc.Features[i].Geometry.(orb.Point)
 			// Metres per degree: ~111.32 km of latitude, times cos φ for
 			// longitude (spherical approximation, adequate for a 1 mm check).

@@ -193,7 +193,7 @@ func TestGeoTIFFBadInput(t *testing.T) {
 }
 
 // gdalInfo is the part of `gdalinfo -json -stats` the tests read
-// (ecosystem.md §2 lists the keys).
+// (the keys GDAL 3.6 prints; the rest is ignored).
 type gdalInfo struct {
 	Size             []int
 	GeoTransform     []float64

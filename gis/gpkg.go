@@ -13,7 +13,7 @@ import (
 	_ "modernc.org/sqlite" // pure-Go SQLite driver "sqlite"
 )
 
-// GeoPackage file identification (OGC 12-128r18, Req 2; ecosystem.md §3).
+// GeoPackage file identification (OGC 12-128r18, Req 2).
 const (
 	gpkgApplicationID = 0x47504B47 // "GPKG"
 	gpkgUserVersion   = 10300      // GeoPackage 1.3

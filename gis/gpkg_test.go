@@ -134,7 +134,7 @@ func layerBound(l Layer) (orb.Bound, bool) {
 
 // TestGeoPackageGeometryHeader decodes every blob: the envelope must be in
 // the order minx, maxx, miny, maxy (OGC 12-128r18 §2.1.3.1.1; GDAL does not
-// notice a wrong order, ecosystem.md §3), match the geometry's bounds, and
+// notice a wrong order: it re-reads the geometry), match its bounds, and
 // the srs_id must equal the column's (Req 33).
 func TestGeoPackageGeometryHeader(t *testing.T) {
 	path, layers := writeSample(t, samplePlacement)
@@ -300,7 +300,7 @@ func TestGeoPackageBadInput(t *testing.T) {
 
 // TestGeoPackageOGRInfo checks with GDAL that every layer opens with the
 // right EPSG code, geometry type and feature count and that GDAL prints
-// nothing on stderr (ecosystem.md §2).
+// nothing on stderr (GDAL reports format problems as warnings there).
 func TestGeoPackageOGRInfo(t *testing.T) {
 	ogrinfo := needTool(t, "ogrinfo")
 	for _, pl := range []Placement{samplePlacement, {CRS: CRS{EPSG: 26914}}, {CRS: CRS{EPSG: 32760}}, {CRS: CRS{EPSG: 2056}, Easting: 2.6e6, Northing: 1.2e6}} {
@@ -336,7 +336,7 @@ func TestGeoPackageOGRInfoUndefined(t *testing.T) {
 }
 
 // TestGeoPackageValidator runs GDAL's GeoPackage conformance checker
-// (python3-gdal, ecosystem.md §2); it prints nothing and exits 0 on a
+// (validate_gpkg of python3-gdal); it prints nothing and exits 0 on a
 // valid file.
 func TestGeoPackageValidator(t *testing.T) {
 	needGDALPython(t)

@@ -17,7 +17,7 @@ const (
 	// angleTol, degrees: cs2cs prints 10 decimals (±5e-11°); 1e-9° is
 	// about 0.1 mm on the ground, the accuracy the brief asks for.
 	angleTol = 1e-9
-	// lengthTol, m: 1 mm, the accuracy the issue asks for against PROJ.
+	// lengthTol, m: 1 mm, well below what a map needs, against PROJ.
 	lengthTol = 1e-3
 	// roundTripTol, m: Karney (2011, §4) bounds the order-6 series error by
 	// 5 nm and double rounding at 1e7 m is ~2e-9 m; 1 µm leaves margin.

@@ -22,7 +22,7 @@
 //
 // Coordinates are East-North-Up (x east, y north, z up); azimuths are
 // clockwise from north. Orientation conversions come from
-// slipfront/internal/orient (REFERENCES.md §1.5).
+// slipfront/internal/orient (docs/references.md §1.5).
 //
 // Stress is compression-positive (the rock-mechanics convention): S is the
 // total stress tensor, p the pore pressure and σn′ = σn − p the effective
@@ -35,10 +35,10 @@
 // the footwall, ŝ = −(S·n − σn·n)/τ, and the rake follows Aki & Richards:
 // rake = atan2(−ŝ·d, ŝ·s) with s the right-hand-rule strike and d the
 // down-dip vector, so −90° is normal slip, +90° reverse, 0 left-lateral
-// and ±180° right-lateral (REFERENCES.md §7.2).
+// and ±180° right-lateral (docs/references.md §7.2).
 //
 // The screening assumes that a pore-pressure increase leaves the total
-// stresses unchanged. A poroelastic stress path (REFERENCES.md §13,
+// stresses unchanged. A poroelastic stress path (docs/references.md §13,
 // ΔSh = α(1−2ν)/(1−ν)·Δp under uniaxial strain) would raise the horizontal
 // stresses with the pressure and so raise the critical increase; the
 // screening does not include it.
@@ -93,8 +93,8 @@
 // Zoback, M.D. (2007), Reservoir Geomechanics, Cambridge University Press,
 // ch. 4 (frictional limit of the stress ratio).
 //
-// The check values of the tests are those of the project's REFERENCES.md
+// The check values of the tests are those of docs/references.md
 // §6.2, §7 and §8, which cite these sources; there only Hanks & Kanamori
 // (1979) was seen in a source text, the other citations and formulas are
-// as commonly cited (REFERENCES.md tags them [MEM]).
+// as commonly cited (docs/references.md marks them "from memory").
 package mechanics

@@ -13,7 +13,7 @@ import (
 
 const deg = math.Pi / 180
 
-// The worked example of REFERENCES.md §7.4: a fracture dipping 80° to
+// The worked example of docs/references.md §7.4: a fracture dipping 80° to
 // N120°E in a strike-slip state with SHmax at N060°E.
 func ExampleStress_Resolve() {
 	s, err := mechanics.NewAndersonian(mechanics.Andersonian{

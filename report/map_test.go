@@ -178,31 +178,55 @@ func TestMapAllNaN(t *testing.T) {
 	}
 }
 
-// TestMapDegenerate draws valid but sparse maps: each must render a frame.
+// TestMapDegenerate draws valid but sparse maps and checks that each
+// feature is drawn where it is, in its colour (probes in map coordinates):
+// a trace of the only value in the middle colour of viridis (the colour
+// range is one unit about it), wells in their near-black, outlines in
+// vermilion, an event as a grey ring of 5.5 pt (12 px at 160 dpi) about its
+// epicentre; and nothing where nothing lies.
 func TestMapDegenerate(t *testing.T) {
 	ext := Extent{MinEast: 0, MaxEast: 100, MinNorth: 0, MaxNorth: 100}
+	mid := Viridis(0.5)
+	ring := color.NRGBA{85, 85, 85, 255} // Black at alpha 170 over white.
+	const ringRadius = 12                // Pixels: 5.5 pt at 160 dpi is 12.2 px.
 	for _, tc := range []struct {
-		name string
-		m    Map
+		name   string
+		m      Map
+		probes []probe
 	}{
-		{"empty with extent", Map{Extent: ext}},
-		{"no traces", Map{Extent: ext, Wells: []Well{{Name: "W", Path: []Point{{10, 50}, {90, 50}}}}}},
-		{"no events", Map{Traces: []Trace{{A: Point{0, 0}, B: Point{10, 10}, Value: 1}}}},
-		{"one value", Map{Traces: []Trace{{A: Point{0, 0}, B: Point{10, 10}, Value: 3}, {A: Point{5, 0}, B: Point{5, 10}, Value: 3}}}},
-		{"single point fitted", Map{Events: []Event{{At: Point{3, 4}, Magnitude: -1}}}},
-		{"vertical well", Map{Wells: []Well{{Name: "V", Path: []Point{{0, 0}}}}}},
+		{"empty with extent", Map{Extent: ext}, []probe{{fx: 50, fy: 50, colour: white}}},
+		{"no traces", Map{Extent: ext, Wells: []Well{{Name: "W", Path: []Point{{10, 50}, {90, 50}}}}},
+			[]probe{{fx: 30, fy: 50, colour: colourWell}, {fx: 70, fy: 50, colour: colourWell}}},
+		{"no events", Map{Traces: []Trace{{A: Point{0, 0}, B: Point{10, 10}, Value: 1}}},
+			[]probe{{fx: 5, fy: 5, colour: mid}}},
+		{"one value", Map{Traces: []Trace{{A: Point{0, 0}, B: Point{10, 10}, Value: 3}, {A: Point{5, 0}, B: Point{5, 10}, Value: 3}}},
+			[]probe{{fx: 2, fy: 2, colour: mid}, {fx: 5, fy: 8, colour: mid}}},
+		{"single point fitted", Map{Events: []Event{{At: Point{3, 4}, Magnitude: -1}}},
+			[]probe{{fx: 3, fy: 4, colour: white}, {fx: 3, fy: 4, colour: ring, r: ringRadius + 2}}},
+		{"vertical well", Map{Wells: []Well{{Name: "V", Path: []Point{{0, 0}}}}},
+			[]probe{{fx: 0, fy: 0, colour: colourWell}}},
 		{"features outside", Map{Extent: ext, Traces: []Trace{{A: Point{-500, -500}, B: Point{-400, 900}, Value: 1}},
 			Events: []Event{{At: Point{1e6, 0}, Magnitude: 0}}, Wells: []Well{{Name: "far", Path: []Point{{-1e5, 0}, {-2e5, 0}}}},
-			Clusters: []Cluster{{At: Point{-900, 0}, Stage: "S"}}, Outline: []Polygon{{{{-10, -10}, {-5, -10}, {-5, -5}}}}}},
-		{"trace through", Map{Extent: ext, Traces: []Trace{{A: Point{-1e6, 50}, B: Point{1e6, 50}, Value: 1}}}},
-		{"outline with hole", Map{Outline: []Polygon{{{{0, 0}, {100, 0}, {100, 100}, {0, 100}}, {{40, 40}, {60, 40}, {60, 60}}}}}},
-		{"zero-length trace", Map{Extent: ext, Traces: []Trace{{A: Point{50, 50}, B: Point{50, 50}, Value: 1}}}},
-		{"tiny extent", Map{Extent: Extent{0, 0.02, 0, 0.02}, Traces: []Trace{{A: Point{0, 0}, B: Point{0.01, 0.01}, Value: 1}}}},
-		{"huge extent", Map{Extent: Extent{-5e6, 5e6, -5e6, 5e6}, Traces: []Trace{{A: Point{0, 0}, B: Point{1e6, 1e6}, Value: 1}}}},
+			Clusters: []Cluster{{At: Point{-900, 0}, Stage: "S"}}, Outline: []Polygon{{{{-10, -10}, {-5, -10}, {-5, -5}}}}},
+			[]probe{{fx: 50, fy: 50, colour: white}, {fx: 3, fy: 50, colour: mid, absent: true}, {fx: 3, fy: 3, colour: okabeVermillion, absent: true}}},
+		{"trace through", Map{Extent: ext, Traces: []Trace{{A: Point{-1e6, 50}, B: Point{1e6, 50}, Value: 1}}},
+			[]probe{{fx: 5, fy: 50, colour: mid}, {fx: 50, fy: 50, colour: mid}, {fx: 95, fy: 50, colour: mid}}},
+		// The dashes (6 pt on, 3 pt off) leave gaps of 7 px: a 17 px
+		// window always holds part of a dash.
+		{"outline with hole", Map{Outline: []Polygon{{{{0, 0}, {100, 0}, {100, 100}, {0, 100}}, {{40, 40}, {60, 40}, {60, 60}}}}},
+			[]probe{{fx: 50, fy: 40, colour: okabeVermillion, r: 8}, {fx: 60, fy: 50, colour: okabeVermillion, r: 8}, {fx: 50, fy: 30, colour: white}}},
+		// A point has no length to stroke: nothing is drawn.
+		{"zero-length trace", Map{Extent: ext, Traces: []Trace{{A: Point{50, 50}, B: Point{50, 50}, Value: 1}}},
+			[]probe{{fx: 50, fy: 50, colour: mid, absent: true}}},
+		{"tiny extent", Map{Extent: Extent{0, 0.02, 0, 0.02}, Traces: []Trace{{A: Point{0, 0}, B: Point{0.01, 0.01}, Value: 1}}},
+			[]probe{{fx: 0.005, fy: 0.005, colour: mid}}},
+		{"huge extent", Map{Extent: Extent{-5e6, 5e6, -5e6, 5e6}, Traces: []Trace{{A: Point{0, 0}, B: Point{1e6, 1e6}, Value: 1}}},
+			[]probe{{fx: 5e5, fy: 5e5, colour: mid}}},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
-			img := decodePNG(t, &tc.m, Size{Width: 640, Height: 480})
-			checkPicture(t, img, Size{Width: 640, Height: 480}, minInkedFrame, 4)
+			img, f := renderDecoded(t, &tc.m, DefaultSize)
+			checkPicture(t, img, DefaultSize, minInkedFrame, 4)
+			checkProbes(t, img, func(e, n float64) (x, y float64) { return f.pixel(Point{e, n}) }, tc.probes)
 		})
 	}
 }

@@ -105,7 +105,7 @@ func TestExamplesParse(t *testing.T) {
 		t.Fatal(err)
 	}
 	if len(demo.Wells) != 2 || len(demo.Sets) != 2 || len(demo.KnownFractures.Fractures) != 1 {
-		t.Errorf("demo has %d wells, %d sets, %d known fractures; issue 2 asks for 2, 2, 1",
+		t.Errorf("demo has %d wells, %d sets, %d known fractures; the README describes 2, 2, 1",
 			len(demo.Wells), len(demo.Sets), len(demo.KnownFractures.Fractures))
 	}
 }
@@ -212,7 +212,10 @@ func TestOverrides(t *testing.T) {
 	if c := s.Wells[0].Stages[1].Clusters; len(c) != 2 || c[1] != 510 {
 		t.Errorf("list override: clusters %v", c)
 	}
-	base, _ := parseText(t, minimal)
+	base, err := parseText(t, minimal)
+	if err != nil {
+		t.Fatal(err)
+	}
 	if base.Digest == s.Digest {
 		t.Error("overrides did not change the digest")
 	}
@@ -336,7 +339,10 @@ func FuzzParse(f *testing.F) {
 	f.Add([]byte(minimal))
 	f.Add([]byte(Template()))
 	for _, name := range Examples() {
-		src, _ := ExampleSource(name)
+		src, err := ExampleSource(name)
+		if err != nil {
+			f.Fatal(err)
+		}
 		f.Add(src)
 	}
 	files := fstest.MapFS{"faults.csv": {Data: []byte(knownCSV)}}
@@ -357,7 +363,10 @@ func FuzzParse(f *testing.F) {
 
 func FuzzReadKnownFractures(f *testing.F) {
 	f.Add([]byte(knownCSV))
-	src, _ := examples.ReadFile("examples/demo-faults.csv")
+	src, err := examples.ReadFile("examples/demo-faults.csv")
+	if err != nil {
+		f.Fatal(err)
+	}
 	f.Add(src)
 	f.Fuzz(func(t *testing.T, data []byte) {
 		k, err := ReadKnownFractures(strings.NewReader(string(data)), "fuzz.csv")

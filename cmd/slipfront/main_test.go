@@ -67,7 +67,8 @@ func TestTemplateAndShow(t *testing.T) {
 }
 
 // TestGenerateDeterministic: same scenario and seed → byte-identical files
-// (issue 2); another seed → a different network.
+// (every draw is seeded by scenario seed, realization and purpose);
+// another seed → a different network.
 func TestGenerateDeterministic(t *testing.T) {
 	dir := t.TempDir()
 	read := func(sub string) map[string][]byte {
@@ -198,8 +199,8 @@ func TestRunOutputs(t *testing.T) {
 }
 
 // A viscosity sweep through the command line: one process and merged
-// shards give the same bytes, and the maps and charts are written (issue
-// 6; the batch package tests workers, resume, Slurm and the rest). The
+// shards give the same bytes, and the maps and charts are written (the
+// batch package tests workers, resume, Slurm and the rest). The
 // single-fracture example keeps it quick.
 func TestBatchAndMerge(t *testing.T) {
 	dir := t.TempDir()
@@ -345,7 +346,7 @@ func TestExportRun(t *testing.T) {
 	}
 }
 
-// run and inspect work on every embedded example (issue 5).
+// run and inspect work on every embedded example, as the README promises.
 func TestEveryExampleRunsAndInspects(t *testing.T) {
 	for _, name := range scenarios.Examples() {
 		t.Run(name, func(t *testing.T) {
