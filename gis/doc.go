@@ -74,9 +74,10 @@
 // Butler, H., Daly, M., Doyle, A., Gillies, S., Hagen, S. & Schaub, T.
 // (2016), The GeoJSON Format, IETF RFC 7946, doi:10.17487/RFC7946.
 //
-// Kitware (2006), The VTK User's Guide, 11th ed., ch. 19 "VTK File
-// Formats" (XML formats: PolyData, Collection), and the VTK file-format
-// documentation at docs.vtk.org.
+// Kitware (2010), The VTK User's Guide, 11th ed., chapter "VTK File
+// Formats", XML formats: PolyData and Collection (edition and year from
+// memory); the same layout is kept in the VTK file-format documentation
+// at docs.vtk.org.
 //
 // Schorlemmer, D., Euchner, F., Kästli, P. & Saul, J. (2011), QuakeML: status
 // of the XML-based seismological data exchange format, Annals of Geophysics
