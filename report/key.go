@@ -71,13 +71,16 @@ func (m *Map) keyRows(l mapLayers) []keyRow {
 	if len(m.Wells) > 0 {
 		rows = append(rows, keyRow{text: "Well path", symbol: lineSymbol(draw.LineStyle{Color: colourWell, Width: widthWell})})
 	}
+	if len(m.Conduits) > 0 {
+		rows = append(rows, keyRow{text: "Primary conduit", symbol: lineSymbol(styleConduit)})
+	}
 	if len(m.Clusters) > 0 {
 		rows = append(rows, keyRow{text: "Perforation cluster", height: 2 * radiusCluster,
 			symbol: func(c draw.Canvas, at vg.Point) { drawDiamond(c, at, radiusCluster) }})
 	}
 	if len(m.Outline) > 0 {
 		rows = append(rows, keyRow{text: "Stimulated-area outline",
-			symbol: lineSymbol(draw.LineStyle{Color: okabeVermillion, Width: widthOutline, Dashes: dashOutline})})
+			symbol: lineSymbol(styleOutline)})
 	}
 	if len(l.levels) > 0 {
 		rows = append(rows, keyRow{text: "Synthetic events"})

@@ -58,13 +58,22 @@ type Event struct {
 	Magnitude float64 // Moment magnitude Mw.
 }
 
+// Segment is a straight map-view segment, such as a primary conduit.
+type Segment struct {
+	A, B Point // Ends, m.
+}
+
 // Polygon is an area outline: the first ring is the outer boundary, any
 // further rings are holes. Rings need not repeat their first point.
 type Polygon [][]Point
 
 // Map is the quick-look map of a run: fracture traces coloured by a value,
-// wells, clusters, events, the stimulated-area outline, a scale bar and a
-// north arrow.
+// primary conduits, wells, clusters, events, the stimulated-area outline,
+// a scale bar, a north arrow and, optionally, the SHmax direction.
+//
+// The stimulated traces read first: events are light grey rings drawn
+// beneath the coloured traces, the outline is a thin line, and labels are
+// placed clear of the cluster markers, the events and each other.
 type Map struct {
 	Title string // Drawn at the top; the caller's words.
 	// Extent is the area shown (always whole; widened along one axis for
@@ -81,6 +90,13 @@ type Map struct {
 	Clusters []Cluster
 	Events   []Event
 	Outline  []Polygon // Stimulated area, drawn as outlines.
+	// Conduits are primary conduits (map-view segments), drawn as dashed
+	// dark lines above the traces.
+	Conduits []Segment
+	// SHmax, when not nil, is the azimuth of the maximum horizontal
+	// stress, radians clockwise from north, drawn as a double-headed
+	// arrow in the upper-left corner.
+	SHmax *float64
 }
 
 // WritePNG draws the map at size s (zero: DefaultSize) and writes it to w
@@ -120,6 +136,17 @@ func (m *Map) validate() error {
 		if err := checkPoint("Clusters", i, "At", c.At); err != nil {
 			return err
 		}
+	}
+	for i, c := range m.Conduits {
+		if err := checkPoint("Conduits", i, "A", c.A); err != nil {
+			return err
+		}
+		if err := checkPoint("Conduits", i, "B", c.B); err != nil {
+			return err
+		}
+	}
+	if m.SHmax != nil && !finite(*m.SHmax) {
+		return fmt.Errorf("report: map SHmax azimuth = %g rad: must be finite", *m.SHmax)
 	}
 	for i, e := range m.Events {
 		if err := checkPoint("Events", i, "At", e.At); err != nil {
@@ -237,6 +264,10 @@ func (m *Map) bounds() (Extent, bool) {
 	for _, c := range m.Clusters {
 		add(c.At)
 	}
+	for _, c := range m.Conduits {
+		add(c.A)
+		add(c.B)
+	}
 	for _, e := range m.Events {
 		add(e.At)
 	}
@@ -273,16 +304,26 @@ func (m *Map) colourRange() (lo, hi float64, ok bool) {
 	return lo, hi, true
 }
 
-// magnitudeLevels returns the integer magnitudes of the size key: from
-// floor(min Mw) up to the first level at or above max Mw, in steps of
-// one or more so that there are at most five levels.
+// magnitudeLevels returns the integer magnitudes of the map's size key.
 func (m *Map) magnitudeLevels() []float64 {
-	if len(m.Events) == 0 {
+	mws := make([]float64, len(m.Events))
+	for i, e := range m.Events {
+		mws[i] = e.Magnitude
+	}
+	return magnitudeLevels(mws)
+}
+
+// magnitudeLevels returns the integer magnitudes of a size key: from
+// floor(min Mw) up to the first level at or above max Mw, in steps of
+// one or more so that there are at most five levels; nil for no
+// magnitudes.
+func magnitudeLevels(mws []float64) []float64 {
+	if len(mws) == 0 {
 		return nil
 	}
 	lo, hi := math.Inf(1), math.Inf(-1)
-	for _, e := range m.Events {
-		lo, hi = math.Min(lo, e.Magnitude), math.Max(hi, e.Magnitude)
+	for _, mw := range mws {
+		lo, hi = math.Min(lo, mw), math.Max(hi, mw)
 	}
 	lo, hi = math.Floor(lo), math.Ceil(hi)
 	const maxLevels = 5
