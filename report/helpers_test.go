@@ -138,6 +138,21 @@ func decodePNG(t testing.TB, w interface {
 	return img
 }
 
+// decodeImage encodes a drawn page as PNG and decodes it, failing the test
+// on any error: the pixels a reader of the file sees.
+func decodeImage(t testing.TB, pg *page) image.Image {
+	t.Helper()
+	var buf bytes.Buffer
+	if err := pg.writePNG(&buf); err != nil {
+		t.Fatal(err)
+	}
+	img, err := png.Decode(&buf)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return img
+}
+
 // nrgbaAt returns the colour of pixel (x, y) as 8-bit NRGBA.
 func nrgbaAt(img image.Image, x, y int) color.NRGBA {
 	return color.NRGBAModel.Convert(img.At(x, y)).(color.NRGBA)

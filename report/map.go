@@ -172,16 +172,7 @@ func (m *Map) validate() error {
 }
 
 // validateScale checks the colour range.
-func (m *Map) validateScale() error {
-	c := m.Colour
-	if c.Min == 0 && c.Max == 0 {
-		return nil
-	}
-	if !finite(c.Min) || !finite(c.Max) || !(c.Max > c.Min) {
-		return fmt.Errorf("report: map Colour range [%g, %g]: need finite Min < Max (or both zero for the data range)", c.Min, c.Max)
-	}
-	return nil
-}
+func (m *Map) validateScale() error { return checkColourRange("map", m.Colour) }
 
 // checkPoint returns an error when p has a NaN or infinite coordinate.
 func checkPoint(list string, i int, what string, p Point) error {
@@ -284,24 +275,13 @@ func (m *Map) bounds() (Extent, bool) {
 // colourRange returns the value range of the colour scale, and false when
 // no trace has a value.
 func (m *Map) colourRange() (lo, hi float64, ok bool) {
-	if m.Colour.Min != 0 || m.Colour.Max != 0 {
-		return m.Colour.Min, m.Colour.Max, true
-	}
-	lo, hi = math.Inf(1), math.Inf(-1)
-	for _, t := range m.Traces {
-		if !math.IsNaN(t.Value) {
-			lo, hi = math.Min(lo, t.Value), math.Max(hi, t.Value)
+	return valueRange(m.Colour, func(yield func(float64) bool) {
+		for _, t := range m.Traces {
+			if !yield(t.Value) {
+				return
+			}
 		}
-	}
-	if lo > hi {
-		return 0, 0, false
-	}
-	if lo == hi {
-		// One value: a unit-wide range centred on it, so the colour bar
-		// has a range to show.
-		lo, hi = lo-0.5, hi+0.5
-	}
-	return lo, hi, true
+	})
 }
 
 // magnitudeLevels returns the integer magnitudes of the map's size key.

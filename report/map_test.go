@@ -4,7 +4,6 @@ import (
 	"bytes"
 	"image"
 	"image/color"
-	"image/png"
 	"math"
 	"strings"
 	"testing"
@@ -43,15 +42,7 @@ func renderDecoded(t *testing.T, m *Map, s Size) (image.Image, mapFrame) {
 	if err != nil {
 		t.Fatalf("render: %v", err)
 	}
-	var buf bytes.Buffer
-	if err := pg.writePNG(&buf); err != nil {
-		t.Fatal(err)
-	}
-	img, err := png.Decode(&buf)
-	if err != nil {
-		t.Fatal(err)
-	}
-	return img, f
+	return decodeImage(t, pg), f
 }
 
 // sample is one pixel of an image.

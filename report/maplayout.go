@@ -6,6 +6,7 @@ import (
 	"math"
 
 	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/palette"
 	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
@@ -266,22 +267,39 @@ func drawNorthArrow(c draw.Canvas) {
 // drawSidePanel draws the colour bar (or a note when no trace has a value)
 // and the key of the map's symbols.
 func (m *Map) drawSidePanel(c draw.Canvas, l mapLayers) {
+	var notes []string
+	if l.cmap == nil && len(m.Traces) > 0 {
+		notes = []string{"No trace has a value:", "all are drawn grey."}
+	}
+	var cmap palette.ColorMap
+	if l.cmap != nil {
+		cmap = l.cmap
+	}
+	drawColourPanel(c, cmap, m.Colour.axisLabel(), notes, m.keyRows(l))
+}
+
+// drawColourPanel draws, from the top of c down: a vertical colour bar of
+// cmap over 42 % of the height (nothing when cmap is nil), the note lines,
+// then the key rows.
+func drawColourPanel(c draw.Canvas, cmap palette.ColorMap, label string, notes []string, rows []keyRow) {
 	height := c.Max.Y - c.Min.Y
 	top := c.Max.Y
-	if l.cmap != nil {
+	if cmap != nil {
 		barArea := c
 		barArea.Min.Y = c.Max.Y - 0.42*height
-		drawColourBar(barArea, l.cmap, m.Colour.axisLabel())
+		drawColourBar(barArea, cmap, label)
 		top = barArea.Min.Y - 14
-	} else if len(m.Traces) > 0 {
+	}
+	if len(notes) > 0 {
 		st := textStyle(sizeKey, false, draw.XLeft, draw.YTop)
-		c.FillText(st, vg.Point{X: c.Min.X, Y: top}, "No trace has a value:")
-		top -= st.FontExtents().Height
-		c.FillText(st, vg.Point{X: c.Min.X, Y: top}, "all are drawn grey.")
-		top -= st.FontExtents().Height + 14
+		for _, n := range notes {
+			c.FillText(st, vg.Point{X: c.Min.X, Y: top}, n)
+			top -= st.FontExtents().Height
+		}
+		top -= 14
 	}
 	c.Max.Y = top
-	drawKey(c, m.keyRows(l))
+	drawKey(c, rows)
 }
 
 // axisLabel returns "Label, Unit" for the colour bar.
@@ -296,9 +314,9 @@ func (s ColourScale) axisLabel() string {
 	return label + ", " + s.Unit
 }
 
-// drawColourBar draws a vertical viridis bar with its axis and label at the
+// drawColourBar draws a vertical colour bar with its axis and label at the
 // left of area.
-func drawColourBar(area draw.Canvas, cmap *ViridisMap, label string) {
+func drawColourBar(area draw.Canvas, cmap palette.ColorMap, label string) {
 	const barWidth = 16 // Points.
 	p := newPlot("", label)
 	p.HideX()
