@@ -64,13 +64,7 @@ type mapSpec struct {
 // bar and a north arrow, and a side panel on the right.
 func renderMapPage(s Size, spec mapSpec) (*page, mapFrame) {
 	pg := newPage(s)
-	body := frame(pg.dc, spec.title, spec.note)
-
-	const gap = 12 // Between map and side panel, points.
-	side := vg.Length(math.Min(220, math.Max(150, 0.22*float64(body.Max.X-body.Min.X))))
-	mapArea, sideArea := body, body
-	mapArea.Max.X -= side + gap
-	sideArea.Min.X = sideArea.Max.X - side
+	mapArea, sideArea := splitSide(frame(pg.dc, spec.title, spec.note))
 
 	p := newPlot("Easting (local), m", "Northing (local), m")
 	p.X.Padding, p.Y.Padding = 0, 0

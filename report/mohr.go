@@ -5,7 +5,6 @@ import (
 	"image/color"
 	"io"
 	"math"
-	"strconv"
 
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
@@ -208,10 +207,10 @@ func (m *Mohr) render(s Size) (*page, error) {
 	}
 	rows := []keyRow{
 		{text: "Mohr circles", symbol: lineSymbol(styleCircle)},
-		{text: fmt.Sprintf("τ = c + μσn′, c = %s MPa, μ = %s", trimFloat(m.Cohesion*1e-6), trimFloat(m.Friction)), symbol: lineSymbol(styleEnvelope)},
+		{text: fmt.Sprintf("τ = c + μσn′, c = %s MPa, μ = %s", trimFloatDigits(m.Cohesion*1e-6, 3), trimFloatDigits(m.Friction, 3)), symbol: lineSymbol(styleEnvelope)},
 	}
 	if m.Increase > 0 {
-		rows = append(rows, keyRow{text: fmt.Sprintf("After Δp = %s MPa", trimFloat(m.Increase*1e-6)), symbol: lineSymbol(styleShifted)})
+		rows = append(rows, keyRow{text: fmt.Sprintf("After Δp = %s MPa", trimFloatDigits(m.Increase*1e-6, 3)), symbol: lineSymbol(styleShifted)})
 	}
 	for k, idx := range mp.groups {
 		pts := make(plotter.XYs, len(idx))
@@ -238,9 +237,4 @@ func (m *Mohr) groupName(g int) string {
 		return m.Groups[g]
 	}
 	return fmt.Sprintf("group %d", g)
-}
-
-// trimFloat writes v with up to three decimals, no trailing zeros.
-func trimFloat(v float64) string {
-	return minus(strconv.FormatFloat(math.Round(v*1000)/1000, 'f', -1, 64))
 }

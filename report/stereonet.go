@@ -183,11 +183,7 @@ func (n *Stereonet) render(s Size) (*page, netFrame, error) {
 	}
 	pg := newPage(s)
 	body := frame(pg.dc, n.Title, n.Note, "Lower hemisphere, equal area (Schmidt net); poles to planes")
-	const gap = 12
-	side := vg.Length(math.Min(220, math.Max(150, 0.22*float64(body.Max.X-body.Min.X))))
-	netArea, sideArea := body, body
-	netArea.Max.X -= side + gap
-	sideArea.Min.X = sideArea.Max.X - side
+	netArea, sideArea := splitSide(body)
 	const labelRoom = 18 // Around the net for the N tick and its letter, points.
 	r := min(netArea.Max.X-netArea.Min.X, netArea.Max.Y-netArea.Min.Y)/2 - labelRoom
 	f := netFrame{pg: pg, centre: netArea.Center(), radius: r}
