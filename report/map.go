@@ -188,12 +188,7 @@ func checkPoint(list string, i int, what string, p Point) error {
 func (m *Map) extent() (Extent, error) {
 	e := m.Extent
 	if e != (Extent{}) {
-		if !finite(e.MinEast) || !finite(e.MaxEast) || !finite(e.MinNorth) || !finite(e.MaxNorth) ||
-			!(e.MaxEast > e.MinEast) || !(e.MaxNorth > e.MinNorth) {
-			return e, fmt.Errorf("report: map Extent east [%g, %g] m, north [%g, %g] m: need finite edges with MinEast < MaxEast and MinNorth < MaxNorth",
-				e.MinEast, e.MaxEast, e.MinNorth, e.MaxNorth)
-		}
-		return e, checkSides(e)
+		return e, checkExtent(e)
 	}
 	b, ok := m.bounds()
 	if !ok {
@@ -208,6 +203,16 @@ func (m *Map) extent() (Extent, error) {
 		return b, fmt.Errorf("%w (extent fitted to the features; set Map.Extent)", err)
 	}
 	return b, nil
+}
+
+// checkExtent requires finite edges in order and sides within limits.
+func checkExtent(e Extent) error {
+	if !finite(e.MinEast) || !finite(e.MaxEast) || !finite(e.MinNorth) || !finite(e.MaxNorth) ||
+		!(e.MaxEast > e.MinEast) || !(e.MaxNorth > e.MinNorth) {
+		return fmt.Errorf("report: map Extent east [%g, %g] m, north [%g, %g] m: need finite edges with MinEast < MaxEast and MinNorth < MaxNorth",
+			e.MinEast, e.MaxEast, e.MinNorth, e.MaxNorth)
+	}
+	return checkSides(e)
 }
 
 // Limits of the sides of a map extent, m.

@@ -41,7 +41,7 @@ var (
 // plot.Plotter.
 type mapLayers struct {
 	m      *Map
-	cmap   *ViridisMap // nil when no trace has a value.
+	cmap   *ColourMap // nil when no trace has a value.
 	levels []float64   // Magnitudes of the event size key.
 	// placed, when not nil, receives the boxes of the labels drawn, page
 	// points (for tests).

@@ -293,7 +293,7 @@ var (
 type sectionLayers struct {
 	x      *CrossSection
 	sp     sectionPlot
-	cmap   *ViridisMap
+	cmap   *ColourMap
 	levels []float64
 }
 

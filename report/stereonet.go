@@ -188,7 +188,7 @@ func (n *Stereonet) render(s Size) (*page, netFrame, error) {
 	r := min(netArea.Max.X-netArea.Min.X, netArea.Max.Y-netArea.Min.Y)/2 - labelRoom
 	f := netFrame{pg: pg, centre: netArea.Center(), radius: r}
 
-	var cmap *ViridisMap
+	var cmap *ColourMap
 	if lo, hi, ok := valueRange(n.Colour, func(yield func(float64) bool) {
 		for _, p := range n.Planes {
 			if !yield(p.Value) {
@@ -216,7 +216,7 @@ func (n *Stereonet) render(s Size) (*page, netFrame, error) {
 
 // drawPoles draws every pole: those without a value first, in grey, then
 // by increasing value so that the highest lie on top.
-func (n *Stereonet) drawPoles(c draw.Canvas, f netFrame, cmap *ViridisMap) {
+func (n *Stereonet) drawPoles(c draw.Canvas, f netFrame, cmap *ColourMap) {
 	order := make([]int, len(n.Planes))
 	for i := range order {
 		order[i] = i
@@ -328,7 +328,7 @@ func drawAxisGlyph(c draw.Canvas, i int, pt vg.Point) {
 
 // keyRows returns the key: the stress axes, and the grey pole when some
 // plane has no value.
-func (n *Stereonet) keyRows(cmap *ViridisMap) []keyRow {
+func (n *Stereonet) keyRows(cmap *ColourMap) []keyRow {
 	var rows []keyRow
 	for i, a := range n.Axes {
 		rows = append(rows, keyRow{text: a.Name + " axis", height: 16,
