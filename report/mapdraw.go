@@ -42,7 +42,7 @@ var (
 type mapLayers struct {
 	m      *Map
 	cmap   *ColourMap // nil when no trace has a value.
-	levels []float64   // Magnitudes of the event size key.
+	levels []float64  // Magnitudes of the event size key.
 	// placed, when not nil, receives the boxes of the labels drawn, page
 	// points (for tests).
 	placed *[]placedLabel
