@@ -19,9 +19,8 @@ import (
 //	r = √(4πD(t − Start))
 //
 // for each hydraulic diffusivity D given (Shapiro, Huenges & Borm 1997,
-// "Estimating the crust permeability from fluid-injection-induced seismic
-// emission at the KTB site", Geophysical Journal International 131,
-// F15–F18, eq. 4). The diffusivities are the caller's choice (fitted or
+// Geophysical Journal International 131, F15–F18; the equation of the
+// triggering front, its number in the paper not recalled). The diffusivities are the caller's choice (fitted or
 // bracketing); each is printed in the key.
 type DistanceTime struct {
 	Title string
@@ -71,7 +70,7 @@ func (d *DistanceTime) validate() error {
 }
 
 // triggeringFront returns r = √(4πD(t − start)), m, for t ≥ start, else 0
-// (Shapiro, Huenges & Borm 1997, eq. 4).
+// (Shapiro, Huenges & Borm 1997, the triggering front).
 func triggeringFront(D, start, t float64) float64 {
 	if t <= start {
 		return 0

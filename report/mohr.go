@@ -20,14 +20,14 @@ import (
 // Raising the pore pressure by Δp lowers every σn′ by Δp at fixed total
 // stress, so a plane slips when τ ≥ c + μ(σn′ − Δp): in the coordinates of
 // the initial state, the envelope moves right by Δp (Jaeger, Cook &
-// Zimmerman 2007, Fundamentals of Rock Mechanics, 4th ed., Blackwell,
-// ch. 4, effective stress and Mohr–Coulomb failure). The picture draws it
+// Zimmerman 2007, Fundamentals of Rock Mechanics, 4th ed., Blackwell:
+// effective stress and Mohr–Coulomb failure). The picture draws it
 // so, leaving the circles and points where they are.
 //
 // The circles have centres (σi′ + σj′)/2 and radii (σi′ − σj′)/2 for the
 // pairs (1, 3), (1, 2) and (2, 3); every plane's (σn′, |τ|) lies inside the
 // large circle and outside the two small ones (Jaeger, Cook & Zimmerman
-// 2007, ch. 2, the three-dimensional Mohr circle). Both axes are drawn to
+// 2007, the three-dimensional Mohr circle). Both axes are drawn to
 // the same scale, so the circles are round.
 type Mohr struct {
 	Title string

@@ -27,7 +27,7 @@ func demoDistanceTime() *DistanceTime {
 }
 
 // TestTriggeringFront checks r = √(4πDt) (Shapiro, Huenges & Borm 1997,
-// eq. 4) at one value computed by hand: D = 1 m²/s, t = 1/(4π) s → r = 1 m.
+// the triggering front) at one value computed by hand: D = 1 m²/s, t = 1/(4π) s → r = 1 m.
 func TestTriggeringFront(t *testing.T) {
 	const tol = 1e-15 // One rounding of √.
 	numtest.Abs(t, "r", triggeringFront(1, 10, 10+1/(4*math.Pi)), 1, tol)

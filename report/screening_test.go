@@ -24,7 +24,7 @@ func demoMohr(n int) *Mohr {
 	for i := range n {
 		// Direction cosines of a random plane normal in the principal frame;
 		// σn = Σ σi li², τ² = Σ σi² li² − σn² (Cauchy's formula; Jaeger,
-		// Cook & Zimmerman 2007, ch. 2).
+		// Cook & Zimmerman 2007).
 		l := [3]float64{rng.NormFloat64(), rng.NormFloat64(), rng.NormFloat64()}
 		norm := math.Sqrt(l[0]*l[0] + l[1]*l[1] + l[2]*l[2])
 		var sn, s2 float64
@@ -41,7 +41,7 @@ func demoMohr(n int) *Mohr {
 // TestMohrCircles reads the circles back from the plot content: centres
 // (σi′ + σj′)/2 and radii (σi′ − σj′)/2 of the principal pairs (1, 3),
 // (1, 2), (2, 3) (Jaeger, Cook & Zimmerman 2007, Fundamentals of Rock
-// Mechanics, ch. 2), in MPa; and the envelopes: τ = c + μσn′ and the one
+// Mechanics, the three-dimensional Mohr circle), in MPa; and the envelopes: τ = c + μσn′ and the one
 // shifted right by Δp.
 func TestMohrCircles(t *testing.T) {
 	m := demoMohr(10)

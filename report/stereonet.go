@@ -28,9 +28,8 @@ import (
 //
 // along the azimuth φ, on a net of unit radius: the polar Lambert
 // azimuthal equal-area projection, ρ = 2R·sin(c/2) (Snyder 1987, Map
-// Projections — A Working Manual, USGS Professional Paper 1395, ch. 24),
-// with R = 1/√2 so that the horizontal (θ = 90°) falls on the unit
-// circle. Equal solid angles of the hemisphere cover equal areas of the
+// Projections — A Working Manual, USGS Professional Paper 1395), with
+// R = 1/√2 so that the horizontal (θ = 90°) falls on the unit circle. Equal solid angles of the hemisphere cover equal areas of the
 // net, so pole densities can be read by eye.
 type Stereonet struct {
 	Title string

@@ -53,7 +53,7 @@ func demoStereonet(n int) *Stereonet {
 
 // TestEqualArea: poles of known planes land at r = √2·sin(θ/2) on a
 // unit-radius net, θ = 90° − plunge (polar Lambert azimuthal equal-area
-// projection; Snyder 1987, USGS PP 1395, ch. 24, ρ = 2R·sin(c/2) with
+// projection; Snyder 1987, USGS PP 1395, Lambert azimuthal equal-area, ρ = 2R·sin(c/2) with
 // R = 1/√2; the lower-hemisphere pole of a plane has trend = dip direction
 // + 180° and plunge = 90° − dip: Allmendinger, Cardozo & Fisher 2012).
 func TestEqualArea(t *testing.T) {
