@@ -53,6 +53,10 @@ func (m *MagnitudeFrequency) WritePNG(w io.Writer, s Size) error {
 	return pg.writePNG(w)
 }
 
+// minCount is the bottom of the count axis: half an event, so that a
+// count of one is inside it.
+const minCount = 0.5
+
 // maxMagnitudeBins bounds the number of cumulative-count points.
 const maxMagnitudeBins = 10000
 
@@ -149,20 +153,23 @@ func (m *MagnitudeFrequency) render(s Size) (*page, chartFrame, error) {
 	w := m.binWidth()
 	lo, hi := pts[0].X, pts[len(pts)-1].X
 	lo, hi = math.Min(lo, m.Completeness)-w, math.Max(hi, m.Completeness)+w
-	p.X.Min, p.X.Max, p.X.Padding = lo, hi, 0
-	nMax := pts[0].Y
-	p.Y.Min, p.Y.Max, p.Y.Padding = 0.5, math.Pow(10, math.Ceil(math.Log10(nMax)+0.3)), 0
 	p.Add(&plotter.Scatter{XYs: pts, GlyphStyle: glyphCumulative})
 	rows := []keyRow{{text: "Cumulative count", symbol: glyphSymbol(glyphCumulative)}}
 	if nc := countAt(pts, m.Completeness, w); nc > 0 {
 		a := math.Log10(nc) + m.BValue*m.Completeness
-		top := pts[len(pts)-1].X
+		// To the largest magnitude, or to where the line leaves the axis
+		// at N = minCount (log scales cannot take N ≤ 0).
+		top := math.Min(pts[len(pts)-1].X, m.Completeness+math.Log10(nc/minCount)/m.BValue)
 		line := plotter.XYs{{X: m.Completeness, Y: nc}, {X: top, Y: math.Pow(10, a-m.BValue*top)}}
 		p.Add(&plotter.Line{XYs: line, LineStyle: styleGR})
 		rows = append(rows, keyRow{text: fmt.Sprintf("log₁₀N = a − bM, b = %s ± %s, a = %s",
 			trimFloatDigits(m.BValue, 2), trimFloatDigits(m.BError, 2), trimFloatDigits(a, 2)), symbol: lineSymbol(styleGR)})
 	}
 	p.Add(verticalLine{x: m.Completeness, style: styleMc})
+	// Ranges last: plot.Add widens them to the data, and the line may
+	// reach counts far below one.
+	p.X.Min, p.X.Max, p.X.Padding = lo, hi, 0
+	p.Y.Min, p.Y.Max, p.Y.Padding = minCount, math.Pow(10, math.Ceil(math.Log10(pts[0].Y)+0.3)), 0
 	rows = append(rows, keyRow{text: "Mc = " + trimFloatDigits(m.Completeness, 2), symbol: lineSymbol(styleMc)})
 	body = keyBelow(body, rows)
 	p.Draw(body)
