@@ -92,26 +92,15 @@ func (f *FanPanels) render(s Size) (*page, []chartFrame, error) {
 	h := (body.Max.Y - body.Min.Y - gap*vg.Length(rows-1)) / vg.Length(rows)
 	plots := make([]*plot.Plot, n)
 	areas := make([]draw.Canvas, n)
-	for i, c := range f.Cases {
+	for i := range f.Cases {
 		col, row := i%cols, i/cols
-		p := newPlot("", "")
+		p := f.panel(i, panelAxes{tMin: tMin, tMax: tMax, p90: p90, factor: factor})
 		if i+cols >= n { // No panel below.
 			p.X.Label.Text = "Time, h"
 		}
 		if col == 0 {
 			p.Y.Label.Text = "Stimulated area, " + unit
 		}
-		setTimeAxis(p, tMin, tMax)
-		fromZero(&p.Y, p90, factor)
-		p.Add(horizontalGrid())
-		for j, o := range f.Cases {
-			if j != i {
-				addSeries(p, o.Time, o.P50, factor, styleOtherMedian)
-			}
-		}
-		p.Add(bandPolygon(c.Time, c.P10, c.P90, factor))
-		addSeries(p, c.Time, c.P50, factor, styleMedian)
-		p.Add(panelLabel(c.Label))
 		a := body
 		a.Min.X = body.Min.X + vg.Length(col)*(w+gap)
 		a.Max.X = a.Min.X + w
@@ -143,6 +132,32 @@ func (f *FanPanels) render(s Size) (*page, []chartFrame, error) {
 		frames[i] = newChartFrame(pg, p, areas[i])
 	}
 	return pg, frames, nil
+}
+
+// panelAxes are the ranges every fan panel shares.
+type panelAxes struct {
+	tMin, tMax float64   // Time range, h.
+	p90        []float64 // Every case's P90, m², for the area range.
+	factor     float64   // From m² to the drawn unit.
+}
+
+// panel returns the plot of case i: the other cases' medians in grey, its
+// band and median, and its name.
+func (f *FanPanels) panel(i int, ax panelAxes) *plot.Plot {
+	c := f.Cases[i]
+	p := newPlot("", "")
+	setTimeAxis(p, ax.tMin, ax.tMax)
+	fromZero(&p.Y, ax.p90, ax.factor)
+	p.Add(horizontalGrid())
+	for j, o := range f.Cases {
+		if j != i {
+			addSeries(p, o.Time, o.P50, ax.factor, styleOtherMedian)
+		}
+	}
+	p.Add(bandPolygon(c.Time, c.P10, c.P90, ax.factor))
+	addSeries(p, c.Time, c.P50, ax.factor, styleMedian)
+	p.Add(panelLabel(c.Label))
+	return p
 }
 
 // panelLabel writes a panel's case name in its upper-left corner. It is a
