@@ -1,12 +1,14 @@
 // Package gis places local map-view results on the Earth and writes them
-// in open GIS formats: GeoPackage, GeoJSON, GeoTIFF and QuakeML.
+// in open GIS formats: GeoPackage, GeoJSON, GeoTIFF and QuakeML, and 3-D
+// fracture outlines and events as VTK XML PolyData for 3-D viewers.
 //
 // The package knows nothing of the physics: it takes generic vector
 // layers (Layer: named fields and features with orb geometries), rasters
 // (Raster on a Grid) and point events (Catalog), all in the local
 // East-North frame, and a Placement that puts that frame in a projected
 // CRS. Outline and ContourLayer turn cell masks and value grids into
-// polygons.
+// polygons. VTKPolygons and VTKPoints carry 3-D outlines (DiscRing,
+// RectangleRing) and points with named float fields.
 //
 // # Units
 //
@@ -40,6 +42,14 @@
 // holes (RFC 7946 §3.1.6), whatever the input winding. Empty geometries
 // are written as no geometry (GeoPackage NULL, GeoJSON null).
 //
+// VTK files (.vtp) are 3-D: x and y are the CRS easting and northing
+// (local East and North plus the Placement's offsets, m) and z is the
+// elevation relative to the depth datum, m, positive up (z = −depth), so
+// that a 3-D viewer shows depth downwards without flipping an axis.
+// Polygons carry their fields as cell data, points as point data, in
+// binary (base64) little-endian doubles so that values round-trip exactly.
+// The local axes are assumed parallel to the CRS grid, as for the maps.
+//
 // GeoPackage needs a file path (SQLite works on files): WriteGeoPackage
 // refuses an existing path, and callers write to a temporary name and
 // rename. The other writers take an io.Writer.
@@ -63,6 +73,11 @@
 //
 // Butler, H., Daly, M., Doyle, A., Gillies, S., Hagen, S. & Schaub, T.
 // (2016), The GeoJSON Format, IETF RFC 7946, doi:10.17487/RFC7946.
+//
+// Kitware (2010), The VTK User's Guide, 11th ed., chapter "VTK File
+// Formats", XML formats: PolyData and Collection (edition and year from
+// memory); the same layout is kept in the VTK file-format documentation
+// at docs.vtk.org.
 //
 // Schorlemmer, D., Euchner, F., Kästli, P. & Saul, J. (2011), QuakeML: status
 // of the XML-based seismological data exchange format, Annals of Geophysics

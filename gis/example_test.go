@@ -5,14 +5,17 @@ import (
 	"context"
 	"fmt"
 	"log"
+	"math"
 	"os"
 	"path/filepath"
 	"strings"
 	"time"
 
 	"github.com/paulmach/orb"
+	"gonum.org/v1/gonum/spatial/r3"
 
 	"slipfront/gis"
+	"slipfront/internal/orient"
 )
 
 func ExampleParseCRS() {
@@ -142,4 +145,57 @@ func ExampleWriteQuakeML() {
 	// <value>-99</value>
 	// <value>2500</value>
 	// <value>-1.2</value>
+}
+
+// A fracture disc and a rectangle as VTK polygons with per-fracture
+// fields, in the CRS of the placement, z up (z = −depth).
+func ExampleWriteVTKPolygons() {
+	deg := math.Pi / 180
+	strike, downDip := orient.Strike(90*deg), orient.DownDip(60*deg, 90*deg) // dipping 60° east
+	polys := gis.VTKPolygons{
+		Rings: [][]r3.Vec{
+			gis.DiscRing(r3.Vec{X: 0, Y: 0, Z: -2600}, strike, downDip, 30, gis.DefaultDiscVertices),
+			gis.RectangleRing(r3.Vec{X: 100, Y: 0, Z: -2600}, strike, downDip, 80, 20),
+		},
+		Fields: []gis.VTKField{
+			{Name: "max_slip_mm", Values: []float64{1.2, 0}},
+			{Name: "first_slip_time_s", Values: []float64{5400, math.NaN()}}, // NaN: never slipped
+		},
+	}
+	pl := gis.Placement{CRS: gis.CRS{EPSG: 32614}, Easting: 500000, Northing: 3500000}
+	var buf bytes.Buffer
+	if err := gis.WriteVTKPolygons(&buf, pl, polys); err != nil {
+		log.Fatal(err)
+	}
+	for _, line := range strings.Split(buf.String(), "\n") {
+		if strings.HasPrefix(line, "<Piece") {
+			fmt.Println(line)
+		}
+	}
+	// Output:
+	// <Piece NumberOfPoints="36" NumberOfVerts="0" NumberOfLines="0" NumberOfStrips="0" NumberOfPolys="2">
+}
+
+// A collection of snapshot times for ParaView: each time has the
+// fractures (part 0) and the events so far (part 1).
+func ExampleWritePVD() {
+	err := gis.WritePVD(os.Stdout, []gis.PVDEntry{
+		{Time: 0, Part: 0, File: "fractures_0000.vtp"},
+		{Time: 0, Part: 1, File: "events_0000.vtp"},
+		{Time: 3600, Part: 0, File: "fractures_0001.vtp"},
+		{Time: 3600, Part: 1, File: "events_0001.vtp"},
+	})
+	if err != nil {
+		log.Fatal(err)
+	}
+	// Output:
+	// <?xml version="1.0"?>
+	// <VTKFile type="Collection" version="0.1" byte_order="LittleEndian">
+	// <Collection>
+	// <DataSet timestep="0" group="" part="0" file="fractures_0000.vtp"/>
+	// <DataSet timestep="0" group="" part="1" file="events_0000.vtp"/>
+	// <DataSet timestep="3600" group="" part="0" file="fractures_0001.vtp"/>
+	// <DataSet timestep="3600" group="" part="1" file="events_0001.vtp"/>
+	// </Collection>
+	// </VTKFile>
 }

@@ -15,9 +15,11 @@ import (
 )
 
 // demoMap returns an invented map scene (no real place): one horizontal
-// well along North = 0 with four stages of three clusters, n random traces
-// coloured by a first-slip time that grows with distance from the well's
-// middle, events on the slipped traces and an elliptical outline.
+// well along North = 0 with four stages of three clusters, a primary
+// conduit of 60 m half-length from each cluster along SHmax (azimuth 75°),
+// n random traces coloured by a first-slip time that grows with distance
+// from the well's middle, events on the slipped traces and an elliptical
+// outline.
 func demoMap(n int) *Map {
 	rng := rand.New(rand.NewPCG(1, 2))
 	m := &Map{
@@ -27,13 +29,18 @@ func demoMap(n int) *Map {
 		Colour:  ColourScale{Label: "First slip time", Unit: "h", NoValue: "Never slipped"},
 		Wells:   []Well{{Name: "Well A", Path: []Point{{-900, 0}, {900, 0}}}},
 	}
+	const strike = 75 * math.Pi / 180 // Trace and SHmax azimuth, radians from north.
+	az := strike
+	m.SHmax = &az
 	stages := []string{"Stage 1", "Stage 2", "Stage 3", "Stage 4"}
 	for i, s := range stages {
 		for j := range 3 {
-			m.Clusters = append(m.Clusters, Cluster{At: Point{East: 600 - 400*float64(i) - 60*float64(j), North: 0}, Stage: s})
+			at := Point{East: 600 - 400*float64(i) - 60*float64(j), North: 0}
+			m.Clusters = append(m.Clusters, Cluster{At: at, Stage: s})
+			d := Point{East: 60 * math.Sin(strike), North: 60 * math.Cos(strike)}
+			m.Conduits = append(m.Conduits, Segment{A: Point{at.East - d.East, at.North - d.North}, B: Point{at.East + d.East, at.North + d.North}})
 		}
 	}
-	const strike = 75 * math.Pi / 180 // Trace azimuth, radians from north.
 	for range n {
 		c := Point{East: -1000 + 2000*rng.Float64(), North: -700 + 1400*rng.Float64()}
 		half := 20 + 60*rng.Float64()
@@ -129,6 +136,21 @@ func decodePNG(t testing.TB, w interface {
 	img, err := png.Decode(&buf)
 	if err != nil {
 		t.Fatalf("png.Decode: %v", err)
+	}
+	return img
+}
+
+// decodeImage encodes a drawn page as PNG and decodes it, failing the test
+// on any error: the pixels a reader of the file sees.
+func decodeImage(t testing.TB, pg *page) image.Image {
+	t.Helper()
+	var buf bytes.Buffer
+	if err := pg.writePNG(&buf); err != nil {
+		t.Fatal(err)
+	}
+	img, err := png.Decode(&buf)
+	if err != nil {
+		t.Fatal(err)
 	}
 	return img
 }

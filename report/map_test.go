@@ -4,12 +4,12 @@ import (
 	"bytes"
 	"image"
 	"image/color"
-	"image/png"
 	"math"
 	"strings"
 	"testing"
 
 	"gonum.org/v1/plot/vg"
+	"gonum.org/v1/plot/vg/draw"
 
 	"slipfront/internal/numtest"
 )
@@ -42,15 +42,7 @@ func renderDecoded(t *testing.T, m *Map, s Size) (image.Image, mapFrame) {
 	if err != nil {
 		t.Fatalf("render: %v", err)
 	}
-	var buf bytes.Buffer
-	if err := pg.writePNG(&buf); err != nil {
-		t.Fatal(err)
-	}
-	img, err := png.Decode(&buf)
-	if err != nil {
-		t.Fatal(err)
-	}
-	return img, f
+	return decodeImage(t, pg), f
 }
 
 // sample is one pixel of an image.
@@ -360,11 +352,123 @@ func TestEventColour(t *testing.T) {
 	if c := eventColour(10); c != colourEvent {
 		t.Errorf("few events: %v, want the key colour %v", c, colourEvent)
 	}
-	// 800 events: alpha 170·√(200/800) = 85.
-	if c := eventColour(800); c.A != 85 {
-		t.Errorf("800 events: alpha %d, want 85", c.A)
+	// 800 events: alpha 150·√(200/800) = 75.
+	if c := eventColour(800); c.A != 75 {
+		t.Errorf("800 events: alpha %d, want 75", c.A)
 	}
 	if c := eventColour(1e7); c.A != 40 {
 		t.Errorf("10⁷ events: alpha %d, want the floor 40", c.A)
+	}
+}
+
+// TestMapLabelsClear places the well and stage labels of the demo map and
+// checks that each lies inside the data area, clear of every cluster
+// marker and of the other labels.
+func TestMapLabelsClear(t *testing.T) {
+	m := demoMap(400)
+	ext, err := m.extent()
+	if err != nil {
+		t.Fatal(err)
+	}
+	var placed []placedLabel
+	layers := mapLayers{m: m, levels: m.magnitudeLevels(), cmap: NewViridisMap(0, 6), placed: &placed}
+	_, f := renderMapPage(DefaultSize, mapSpec{extent: ext, layers: layers, side: func(draw.Canvas) {}})
+	wantLabels := 1 + 4 // One well, four stages.
+	if len(placed) != wantLabels {
+		t.Fatalf("%d labels placed, want %d: %+v", len(placed), wantLabels, placed)
+	}
+	at := func(q Point) vg.Point {
+		return vg.Point{
+			X: f.data.X((q.East - f.minE) / (f.maxE - f.minE)),
+			Y: f.data.Y((q.North - f.minN) / (f.maxN - f.minN)),
+		}
+	}
+	for i, a := range placed {
+		if !inside(a.box, f.data.Rectangle) {
+			t.Errorf("label %q at %v is not inside the data area %v", a.text, a.box, f.data.Rectangle)
+		}
+		for _, c := range m.Clusters {
+			if o := overlapArea(a.box, squareAround(at(c.At), radiusCluster)); o > 0 {
+				t.Errorf("label %q overlaps the cluster marker at %v by %.1f pt²", a.text, c.At, o)
+			}
+		}
+		for _, b := range placed[i+1:] {
+			if o := overlapArea(a.box, b.box); o > 0 {
+				t.Errorf("labels %q and %q overlap by %.1f pt²", a.text, b.text, o)
+			}
+		}
+	}
+}
+
+// TestMapConduitsAndSHmax: the conduits add dark dashed pixels along
+// their path and the SHmax arrow adds black pixels in the upper-left
+// corner; without them, those pixels are not there.
+func TestMapConduitsAndSHmax(t *testing.T) {
+	m := demoMap(200)
+	img, f := renderDecoded(t, m, DefaultSize)
+	bare := demoMap(200)
+	bare.Conduits, bare.SHmax = nil, nil
+	imgBare, _ := renderDecoded(t, bare, DefaultSize)
+	// Dark pixels under the middle of each conduit, off the well line
+	// (the points at ±40 m along the conduit, 10 m off the well).
+	hits, tried := 0, 0
+	for _, c := range m.Conduits {
+		for _, s := range []float64{0.1, 0.9} {
+			q := Point{c.A.East + s*(c.B.East-c.A.East), c.A.North + s*(c.B.North-c.A.North)}
+			x, y := f.pixel(q)
+			tried++
+			if d := darkest(img, int(x), int(y)); int(d.R)+int(d.G)+int(d.B) < 3*80 {
+				hits++
+			}
+		}
+	}
+	// A dash of 5 pt in 7.5: about two thirds of the samples fall on ink.
+	if tried == 0 || hits < tried/3 {
+		t.Errorf("%d of %d conduit samples are dark, want at least a third", hits, tried)
+	}
+	box := shmaxBox(f.data)
+	count := func(img image.Image) int {
+		n := 0
+		for y := int(f.pg.height) - int(box.Max.Y.Dots(f.pg.dpi)); y < int(f.pg.height)-int(box.Min.Y.Dots(f.pg.dpi)); y++ {
+			for x := int(box.Min.X.Dots(f.pg.dpi)); x < int(box.Max.X.Dots(f.pg.dpi)); x++ {
+				if c := nrgbaAt(img, x, y); c.R < 40 && c.G < 40 && c.B < 40 {
+					n++
+				}
+			}
+		}
+		return n
+	}
+	// The arrow: a 1.4 pt line 32 pt long (≈ 3 × 70 px) and two heads,
+	// plus the bold label.
+	const minArrowPixels = 150
+	if with, without := count(img), count(imgBare); with < without+minArrowPixels {
+		t.Errorf("black pixels in the SHmax panel: %d with the arrow, %d without; want at least %d more", with, without, minArrowPixels)
+	}
+}
+
+func TestLabelPlacer(t *testing.T) {
+	frame := vg.Rectangle{Max: vg.Point{X: 100, Y: 100}}
+	lp := newLabelPlacer(frame)
+	lp.block(squareAround(vg.Point{X: 50, Y: 60}, 5)) // A marker above the anchor.
+	cands := labelCandidates(vg.Point{X: 50, Y: 50}, 20, 8, 4)
+	if len(cands) != 24 {
+		t.Fatalf("%d candidates, want 24", len(cands))
+	}
+	got, ok := lp.place(cands)
+	// Above (y 54–62) overlaps the marker (55–65); below is free.
+	want := vg.Rectangle{Min: vg.Point{X: 40, Y: 38}, Max: vg.Point{X: 60, Y: 46}}
+	if !ok || got != want {
+		t.Errorf("placed at %v (%v), want below the anchor %v", got, ok, want)
+	}
+	// The second label at the same anchor goes elsewhere.
+	if got2, ok := lp.place(cands); !ok || overlapArea(got2, got) > 0 {
+		t.Errorf("second label at %v overlaps the first at %v", got2, got)
+	}
+	// Nothing fits in a frame smaller than the label.
+	if _, ok := newLabelPlacer(vg.Rectangle{Max: vg.Point{X: 10, Y: 10}}).place(cands); ok {
+		t.Error("a label larger than the frame was placed")
+	}
+	if a := overlapArea(squareAround(vg.Point{}, 1), squareAround(vg.Point{X: 1, Y: 1}, 1)); a != 1 {
+		t.Errorf("overlap of two unit-offset 2×2 squares = %v, want 1", a)
 	}
 }
