@@ -85,7 +85,7 @@ func TestGrowthDegenerate(t *testing.T) {
 		t.Run(tc.name, func(t *testing.T) {
 			img := decodePNG(t, &tc.g, DefaultSize)
 			checkPicture(t, img, DefaultSize, minInkedFrame, 4)
-			checkProbes(t, img, findChartFrame(t, img, DefaultSize).at, tc.probes)
+			checkProbes(t, img, findImageFrame(t, img, DefaultSize).at, tc.probes)
 		})
 	}
 }
@@ -169,7 +169,7 @@ func TestFanDegenerate(t *testing.T) {
 		t.Run(tc.name, func(t *testing.T) {
 			img := decodePNG(t, &tc.f, DefaultSize)
 			checkPicture(t, img, DefaultSize, minInkedFrame, 4)
-			checkProbes(t, img, findChartFrame(t, img, DefaultSize).at, tc.probes)
+			checkProbes(t, img, findImageFrame(t, img, DefaultSize).at, tc.probes)
 		})
 	}
 }
@@ -222,7 +222,7 @@ func TestComparisonDegenerate(t *testing.T) {
 	c := Comparison{Convention: "c", Categories: []string{"only"}, P10: []float64{0}, P50: []float64{0}, P90: []float64{0}}
 	img := decodePNG(t, &c, DefaultSize)
 	checkPicture(t, img, DefaultSize, minInkedFrame, 4)
-	checkProbes(t, img, findChartFrame(t, img, DefaultSize).at, []probe{{fx: 0.5, fy: 0, colour: okabeBlue}})
+	checkProbes(t, img, findImageFrame(t, img, DefaultSize).at, []probe{{fx: 0.5, fy: 0, colour: okabeBlue}})
 }
 
 func TestComparisonErrors(t *testing.T) {

@@ -243,20 +243,20 @@ func colourWithin(img image.Image, x, y float64, r int, c color.NRGBA, tol int) 
 	return false
 }
 
-// chartFrame is where a chart's data area lies on its picture, in image
+// imageFrame is where a chart's data area lies on its picture, in image
 // pixels (y down).
-type chartFrame struct {
+type imageFrame struct {
 	x0, x1        float64 // Left and right edges.
 	yTop, yBottom float64 // Top and bottom edges.
 }
 
 // at returns the pixel of the point at fractions (fx, fy) of the data
 // area's width and height, from its lower left corner.
-func (f chartFrame) at(fx, fy float64) (x, y float64) {
+func (f imageFrame) at(fx, fy float64) (x, y float64) {
 	return f.x0 + fx*(f.x1-f.x0), f.yBottom - fy*(f.yBottom-f.yTop)
 }
 
-// findChartFrame locates the data area of a chart drawn at size s from the
+// findImageFrame locates the data area of a chart drawn at size s from the
 // picture itself. The y axis is the longest vertical run of dark pixels
 // (gaps of up to two pixels are bridged: grid lines cross it); the charts
 // set no y padding (fromZero), so the run spans the data area's height,
@@ -264,7 +264,7 @@ func (f chartFrame) at(fx, fy float64) (x, y float64) {
 // padding) or the left edge of the padded area for the comparison. The
 // right edge is the page's right margin. With two panels the upper, taller
 // one is found.
-func findChartFrame(t *testing.T, img image.Image, s Size) chartFrame {
+func findImageFrame(t *testing.T, img image.Image, s Size) imageFrame {
 	t.Helper()
 	dark := func(x, y int) bool {
 		c := nrgbaAt(img, x, y)
@@ -296,7 +296,7 @@ func findChartFrame(t *testing.T, img image.Image, s Size) chartFrame {
 	}
 	pg := newPage(s)
 	right := float64(s.Width) - vg.Length(margin).Dots(pg.dpi)
-	return chartFrame{x0: float64(bestX) + 0.5, x1: right, yTop: float64(bestTop), yBottom: float64(bestTop + bestLen)}
+	return imageFrame{x0: float64(bestX) + 0.5, x1: right, yTop: float64(bestTop), yBottom: float64(bestTop + bestLen)}
 }
 
 // probe is a place on a picture that must (or must not) show a colour.

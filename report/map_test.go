@@ -174,13 +174,14 @@ func TestMapAllNaN(t *testing.T) {
 // feature is drawn where it is, in its colour (probes in map coordinates):
 // a trace of the only value in the middle colour of viridis (the colour
 // range is one unit about it), wells in their near-black, outlines in
-// vermilion, an event as a grey ring of 5.5 pt (12 px at 160 dpi) about its
-// epicentre; and nothing where nothing lies.
+// vermilion, an event as a light grey ring of 3.75 pt (8.3 px at 160 dpi;
+// the mean of the event radii, mapdraw.go) about its epicentre; and nothing
+// where nothing lies.
 func TestMapDegenerate(t *testing.T) {
 	ext := Extent{MinEast: 0, MaxEast: 100, MinNorth: 0, MaxNorth: 100}
 	mid := Viridis(0.5)
-	ring := color.NRGBA{85, 85, 85, 255} // Black at alpha 170 over white.
-	const ringRadius = 12                // Pixels: 5.5 pt at 160 dpi is 12.2 px.
+	ring := color.NRGBA{162, 162, 162, 255} // colourEvent (96 grey at alpha 150) over white.
+	const ringRadius = 8                    // Pixels: 3.75 pt at 160 dpi is 8.3 px.
 	for _, tc := range []struct {
 		name   string
 		m      Map
