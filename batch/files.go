@@ -151,3 +151,4 @@ func copyOrLink(src, dstDir, rel string) error {
 		return err
 	})
 }
+

@@ -292,3 +292,44 @@ func meanSD(v []float64) (mean, sd float64) {
 	}
 	return mean, math.Sqrt(sd / float64(len(v)-1))
 }
+
+// Estimate knows the demo network's size before it is drawn: the expected
+// fracture count, the trace length within the scatter of one realization,
+// and an upper estimate of the intersections.
+func TestEstimateDemo(t *testing.T) {
+	s, err := scenarios.LoadExample("demo")
+	if err != nil {
+		t.Fatal(err)
+	}
+	e, err := Estimate(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var length float64
+	var fractures, intersections int
+	const realizations = 4
+	for r := range realizations {
+		net, err := Generate(s, r)
+		if err != nil {
+			t.Fatal(err)
+		}
+		fractures += len(net.Fractures)
+		intersections += len(net.Intersections)
+		for _, tr := range net.Traces {
+			length += tr.Length
+		}
+	}
+	mean := func(v float64) float64 { return v / realizations }
+	// Poisson counts of about 5 400 fractures scatter by √5400 ≈ 1.4 %;
+	// four realizations by 0.7 %: 3 % is over four standard errors.
+	numtest.Rel(t, "expected fractures", mean(float64(fractures)), e.Fractures, 0.03)
+	// The trace length is an estimate through P21 ≤ P32 over an enlarged
+	// map (the demo's sets are near-vertical, so the bound is tight).
+	numtest.Rel(t, "trace length", mean(length), e.TraceLength, 0.15)
+	if got := mean(float64(intersections)); got > e.Intersections {
+		t.Errorf("%.0f intersections on average, more than the upper estimate %.0f", got, e.Intersections)
+	}
+	if e.Bytes <= 0 {
+		t.Errorf("estimated %g bytes", e.Bytes)
+	}
+}

@@ -25,6 +25,11 @@ type Run struct {
 	Time float64
 	// OutlineTimes are the times of the stimulated-area outlines.
 	OutlineTimes []float64
+	// Complete tells that the run was read from a complete folder (all its
+	// files checked against its contents list); Notes say what a reader had
+	// to assume otherwise (a stopped run, recovered or damaged frames).
+	Complete bool
+	Notes    []string
 }
 
 // Placement returns where the run's local coordinates lie on the map.

@@ -141,7 +141,7 @@
 // Professional Paper 1395 (Lambert azimuthal equal-area projection).
 //
 // Tol, P. (2021), "Colour schemes", SRON technical note
-// SRON/EPS/TN/09-002, issue 3.2 (from memory).
+// SRON/EPS/TN/09-002, version 3.2 (from memory).
 //
 // CIE 15:2004, Colorimetry, 3rd ed. (CIE 1976 L*), and IEC 61966-2-1:1999
 // (the sRGB transfer function), used by the tests to check that the colour

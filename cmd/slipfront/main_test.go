@@ -362,3 +362,48 @@ func TestEveryExampleRunsAndInspects(t *testing.T) {
 		})
 	}
 }
+
+// Unsafe input of every kind ends with exit 2, a message naming what to
+// change, and no output folder (not even a partial one) left behind, so
+// that the corrected command needs no --force.
+func TestUnsafeInputs(t *testing.T) {
+	dir := t.TempDir()
+	afile := filepath.Join(dir, "afile")
+	if err := os.WriteFile(afile, []byte("x"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	out := filepath.Join(dir, "out")
+	tests := []struct {
+		name string
+		args []string
+		want string
+	}{
+		{"space in a unit", []string{"run", "single-fracture", "--set", "layer.depth=2000 m m", "--out", out}, `the unit "m m" has a space inside`},
+		{"absurd rate", []string{"run", "single-fracture", "--set", "schedule.rate=1e300 m3/s", "--out", out}, "schedule.rate=1e300 m3/s: must be within (0, 10] m3/s"},
+		{"too many steps", []string{"run", "single-fracture", "--set", "numerics.time_step_initial=1e-6 s", "--set", "numerics.time_step_min=1e-6 s",
+			"--set", "numerics.time_step_max=1e-6 s", "--out", out}, "numerics.max_steps"},
+		{"device as scenario", []string{"run", "/dev/zero", "--out", out}, "not a regular file (a device)"},
+		{"output is a file", []string{"run", "single-fracture", "--out", afile}, "is a file, not a folder"},
+		{"empty output", []string{"run", "single-fracture", "--out", ""}, "no output folder"},
+		{"network beyond memory", []string{"generate", "demo", "--memory-limit", "1MB", "--out", out}, "more than the memory limit of 1 MB"},
+		{"run beyond memory", []string{"run", "single-fracture", "--set", "numerics.element_length=1 cm", "--memory-limit", "50MB", "--out", out},
+			"the simulation would take about"},
+		{"bad memory limit", []string{"run", "single-fracture", "--memory-limit", "lots", "--out", out}, "--memory-limit lots"},
+		{"realizations beyond any batch", []string{"batch", "single-fracture", "--realizations", "1000000000000", "--out", out}, "--realizations 1000000000000: must be 1 to 1000000"},
+		{"negative realization", []string{"run", "single-fracture", "--realization", "-1", "--out", out}, "realization -1: must be ≥ 0"},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			code, _, stderr := runCLI(t, tc.args...)
+			if code != exitBadInput || !strings.Contains(stderr, tc.want) {
+				t.Errorf("exit %d, stderr %q; want exit 2 and %q", code, stderr, tc.want)
+			}
+			for _, left := range []string{out, out + ".partial"} {
+				if _, err := os.Stat(left); !os.IsNotExist(err) {
+					t.Errorf("%s left behind (%v)", left, err)
+					os.RemoveAll(left)
+				}
+			}
+		})
+	}
+}
