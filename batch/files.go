@@ -151,4 +151,3 @@ func copyOrLink(src, dstDir, rel string) error {
 		return err
 	})
 }
-
