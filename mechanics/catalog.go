@@ -211,8 +211,8 @@ func MaxCurvatureCompleteness(mags []float64, o CompletenessOptions) (float64, e
 // a finite number.
 func checkMagnitudes(mags []float64) error {
 	for i, m := range mags {
-		if err := finite(fmt.Sprintf("magnitude[%d]", i), m); err != nil {
-			return err
+		if math.IsNaN(m) || math.IsInf(m, 0) {
+			return finite(fmt.Sprintf("magnitude[%d]", i), m)
 		}
 	}
 	return nil
