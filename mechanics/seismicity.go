@@ -81,11 +81,13 @@ func (m SeismicityRate) Step(gamma, dS float64) float64 {
 // interval. It is exact: with x = Ṡ·dt/(Aσ),
 //
 //	γ1 = γ0·e^(−x) + (dt/(Aσ))·(1 − e^(−x))/x
-//	N  = r·t_a·ln(1 + (dt/(Aσγ0))·(e^x − 1)/x)            (x ≤ 0)
-//	N  = r·t_a·[x + ln(1 + (1/(Ṡγ0) − 1)·(1 − e^(−x)))]    (x > 0)
+//	N  = r·t_a·ln(1 + (dt/(Aσγ0))·(e^x − 1)/x)             (x ≤ 0)
+//	N  = r·t_a·[x + ln(e^(−x) + (1 − e^(−x))/(Ṡγ0))]        (x > 0)
 //
 // the two forms of N being equal, each chosen where it cannot overflow;
-// (e^x − 1)/x is 1 at x = 0, so Ṡ = 0 needs no special case.
+// (e^x − 1)/x is 1 at x = 0, so Ṡ = 0 needs no special case. For x > 0
+// the logarithm, ln(γ1/γ0), is taken of a sum of positive terms, or as
+// ln(1 + y) with y = (1/(Ṡγ0) − 1)·(1 − e^(−x)) where γ1/γ0 is near 1.
 func (m SeismicityRate) Advance(gamma, stressingRate, dt float64) (gammaEnd, count float64) {
 	x := stressingRate * dt / m.ASigma
 	gammaEnd = gamma*math.Exp(-x) + dt/m.ASigma*expm1x(-x)
@@ -93,7 +95,12 @@ func (m SeismicityRate) Advance(gamma, stressingRate, dt float64) (gammaEnd, cou
 	if x <= 0 {
 		q = math.Log1p(dt / (m.ASigma * gamma) * expm1x(x))
 	} else {
-		q = x + math.Log1p((1/(stressingRate*gamma)-1)*-math.Expm1(-x))
+		c, decay := 1/(stressingRate*gamma), -math.Expm1(-x)
+		if ratio := math.Exp(-x) + c*decay; ratio < 0.5 || ratio > 2 {
+			q = x + math.Log(ratio)
+		} else {
+			q = x + math.Log1p((c-1)*decay)
+		}
 	}
 	return gammaEnd, m.BackgroundRate * m.Duration() * q
 }
