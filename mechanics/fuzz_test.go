@@ -92,10 +92,10 @@ func FuzzSeismicityAdvance(f *testing.F) {
 		if !(g1 > 0) || math.IsInf(g1, 0) || !(n >= 0) || math.IsInf(n, 0) {
 			t.Fatalf("γ1 = %g, N = %g", g1, n)
 		}
-		identity := m.Duration() * (rate*dt/aSigma + math.Log(g1/g0))
+		identity := m.AftershockDuration() * (rate*dt/aSigma + math.Log(g1/g0))
 		// ln(γ1/γ0) and ΔS/Aσ can each reach 600 and cancel: absolute
 		// round-off ≈ 600·1e−15 relative to them.
-		numtest.Close(t, "N identity", n, identity, 1e-12*m.Duration()*(1+math.Abs(rate*dt/aSigma)), 1e-9)
+		numtest.Close(t, "N identity", n, identity, 1e-12*m.AftershockDuration()*(1+math.Abs(rate*dt/aSigma)), 1e-9)
 		if n > 0 {
 			if tau := m.eventTime(g0, rate, n/2); !(tau >= 0 && tau <= dt*(1+1e-9)) {
 				t.Fatalf("half the count reached at %g s, outside [0, %g]", tau, dt)

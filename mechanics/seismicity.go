@@ -60,8 +60,9 @@ func (m SeismicityRate) Validate() error {
 // been loaded at the reference stressing rate for long: its rate is r.
 func (m SeismicityRate) SteadyState() float64 { return 1 / m.StressingRate }
 
-// Duration returns the aftershock duration t_a = Aσ/τ̇_r, s.
-func (m SeismicityRate) Duration() float64 { return m.ASigma / m.StressingRate }
+// AftershockDuration returns t_a = Aσ/τ̇_r, s: the time over which the rate
+// relaxes after a step (Dieterich 1994).
+func (m SeismicityRate) AftershockDuration() float64 { return m.ASigma / m.StressingRate }
 
 // Rate returns the seismicity rate R = r/(γ·τ̇_r), events/s, at state γ.
 func (m SeismicityRate) Rate(gamma float64) float64 {
@@ -102,7 +103,7 @@ func (m SeismicityRate) Advance(gamma, stressingRate, dt float64) (gammaEnd, cou
 			q = x + math.Log1p((c-1)*decay)
 		}
 	}
-	return gammaEnd, m.BackgroundRate * m.Duration() * q
+	return gammaEnd, m.BackgroundRate * m.AftershockDuration() * q
 }
 
 // eventTime returns the time after the start of a constant-rate interval,
@@ -114,7 +115,7 @@ func (m SeismicityRate) Advance(gamma, stressingRate, dt float64) (gammaEnd, cou
 // at Ṡ = 0 too, or, where y > 1 or e^q would overflow, as
 // (Aσ/Ṡ)·[q + ln(e^(−q) − Ṡγ0·(e^(−q) − 1))].
 func (m SeismicityRate) eventTime(gamma, stressingRate, n float64) float64 {
-	q := n / (m.BackgroundRate * m.Duration())
+	q := n / (m.BackgroundRate * m.AftershockDuration())
 	if stressingRate > 0 && (q > 700 || stressingRate*gamma*math.Expm1(q) > 1) {
 		return m.ASigma / stressingRate * (q + math.Log(math.Exp(-q)-stressingRate*gamma*math.Expm1(-q)))
 	}
@@ -147,7 +148,7 @@ func log1pRatio(y float64) float64 {
 // evaluated as r/[1 − exp(−t/t_a) + exp(−ΔS/(Aσ) − t/t_a)], a sum of
 // positive terms that keeps its precision early after a large step.
 func (m SeismicityRate) RateAfterStep(dS, t float64) float64 {
-	ta := m.Duration()
+	ta := m.AftershockDuration()
 	return m.BackgroundRate / (-math.Expm1(-t/ta) + math.Exp(-dS/m.ASigma-t/ta))
 }
 
@@ -160,7 +161,7 @@ func (m SeismicityRate) RateAfterStep(dS, t float64) float64 {
 // and r/(1 + t/t_a) for Ṡ = 0.
 func (m SeismicityRate) RateAfterRateChange(stressingRate, t float64) float64 {
 	if stressingRate == 0 {
-		return m.BackgroundRate / (1 + t/m.Duration())
+		return m.BackgroundRate / (1 + t/m.AftershockDuration())
 	}
 	k := stressingRate / m.StressingRate
 	return m.BackgroundRate * k / (1 + (k-1)*math.Exp(-stressingRate*t/m.ASigma))

@@ -43,7 +43,7 @@ func TestSeismicitySteadyState(t *testing.T) {
 // aftershock burst), a negative one (a shadow) and none.
 func TestSeismicityStepResponse(t *testing.T) {
 	m := testSeismicity
-	ta := m.Duration()
+	ta := m.AftershockDuration()
 	for _, dS := range []float64{1e6, 2e5, -2e5, 0} {
 		times := []float64{0, 0}
 		stress := []float64{0, dS}
@@ -82,7 +82,7 @@ func TestSeismicityStepResponse(t *testing.T) {
 // (injection-like), stopped (Ṡ = 0: r/(1 + t/t_a)) and reversed loading.
 func TestSeismicityRateChange(t *testing.T) {
 	m := testSeismicity
-	ta := m.Duration()
+	ta := m.AftershockDuration()
 	for _, rate := range []float64{1e4 * m.StressingRate, 10 * m.StressingRate, 0, -m.StressingRate} {
 		var quadN, prevT float64
 		g := m.SteadyState()
