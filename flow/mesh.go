@@ -110,9 +110,13 @@ type MeshSettings struct {
 // the same pair of paths and a cut still marks a node of its path. Two
 // junctions closer than L_min on a path share that path's node, which
 // then joins all the paths they meet (they would exchange flow through
-// the short element anyway). Between consecutive nodes the path is split
-// into ⌈gap/ElementLength⌉ equal elements, each at least
-// min(gap, ElementLength/2) ≥ L_min long since L_min ≤ ElementLength/2.
+// the short element anyway). Where three paths cross in a small triangle
+// whose sides on two of them are shorter than L_min, the third path's two
+// crossing nodes become one node and its elements between them hang from
+// it as a dead end (as with any merge distance). Between consecutive
+// nodes the path is split into ⌈gap/ElementLength⌉ equal elements, each
+// at least min(gap, ElementLength/2) ≥ L_min long since
+// L_min ≤ ElementLength/2.
 func BuildMesh(paths []Path, junctions []Junction, s MeshSettings) (*Mesh, error) {
 	if !(s.ElementLength > 0) || math.IsInf(s.ElementLength, 0) {
 		return nil, fmt.Errorf("flow: element length %g m must be finite and > 0", s.ElementLength)
