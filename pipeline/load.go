@@ -101,10 +101,14 @@ func frameTime(rd *snapshot.Reader, t float64) (float64, error) {
 	return t, nil
 }
 
-// eventTimeSlack is how far past the state's time an event may be written
-// and still belong to it: half a unit of the last decimal EventsFile
-// writes times with (sim.WriteEvents: 3 decimals).
+// eventTimeSlack is how far past the state's time an event may lie and
+// still belong to it: half a unit of the last decimal EventsFile writes
+// times with (sim.WriteEvents: 3 decimals), so that an event at the run's
+// last time belongs to its last state also when read back.
 const eventTimeSlack = 5e-4
+
+// shows reports whether an event at time t, s, belongs to the run's state.
+func (r *Run) shows(t float64) bool { return t <= r.Time+eventTimeSlack }
 
 // readEvents adds the events up to the run's time from EventsFile; a
 // stopped run has none to read.
@@ -123,7 +127,7 @@ func (r *Run) readEvents(dir string) error {
 		return err
 	}
 	for _, e := range events {
-		if e.Time <= r.Time+eventTimeSlack {
+		if r.shows(e.Time) {
 			r.Result.Events = append(r.Result.Events, e)
 		}
 	}

@@ -47,7 +47,7 @@ func (r *Run) MapPicture() (*report.Map, error) {
 		}
 	}
 	for _, e := range res.Events {
-		if e.Time <= r.Time {
+		if r.shows(e.Time) {
 			m.Events = append(m.Events, report.Event{At: rp(e.X, e.Y), Magnitude: e.Magnitude})
 		}
 	}

@@ -176,7 +176,7 @@ func (r *Run) eventLayer() gis.Layer {
 		}}
 	start, _ := time.Parse(time.RFC3339, r.Scenario.Schedule.Start)
 	for _, e := range r.Result.Events {
-		if e.Time > r.Time {
+		if !r.shows(e.Time) {
 			continue
 		}
 		utc := start.Add(time.Duration(e.Time * float64(time.Second))).UTC()
