@@ -178,7 +178,19 @@ func TestGeoTIFFBadInput(t *testing.T) {
 		{"zero cell", func(r *Raster, _ *Placement) { r.CellSize = 0 }, "cell size"},
 		{"NaN cell", func(r *Raster, _ *Placement) { r.CellSize = math.NaN() }, "cell size"},
 		{"infinite corner", func(r *Raster, _ *Placement) { r.XMin = math.Inf(-1) }, "corner"},
-		{"code too large", func(_ *Raster, p *Placement) { p.CRS = CRS{EPSG: 102100} }, "ProjectedCSTypeGeoKey"},
+		{"unknown code", func(_ *Raster, p *Placement) { p.CRS = CRS{EPSG: 102100} }, "not a projected CRS this program can place"},
+		{"code too large", func(_ *Raster, p *Placement) {
+			p.CRS = mustWKT(t, "tm-ftus-nad83.wkt1.prj")
+			w := *p.CRS.wkt
+			w.epsg = 40000
+			p.CRS.wkt = &w
+		}, "ProjectedCSTypeGeoKey"},
+		{"no GeoTIFF encoding", func(_ *Raster, p *Placement) {
+			p.CRS = mustWKT(t, "2056.wkt2.prj")
+			w := *p.CRS.wkt
+			w.epsg = 0
+			p.CRS.wkt = &w
+		}, "Hotine"},
 	}
 	for _, c := range cases {
 		r, pl := good, samplePlacement
