@@ -40,7 +40,7 @@ type crsDef struct {
 	tie           wgs84Tie
 	helmert       *helmert // the shift to WGS 84 when tie is tieHelmert
 	tieNote       string   // why longitude and latitude are refused, when tie is tieNone
-	wkt           string // the WKT text, compacted; "" for a table CRS
+	wkt           string   // the WKT text, compacted; "" for a table CRS
 }
 
 // EPSG codes and limits used by ParseCRS.
