@@ -348,6 +348,55 @@ func TestGeoPackageOGRInfo(t *testing.T) {
 	}
 }
 
+// TestGeoPackageSRSRows: the srs row of each kind of CRS, and the
+// feature coordinates in the CRS unit.
+func TestGeoPackageSRSRows(t *testing.T) {
+	const ftUS = 1200.0 / 3937
+	noID := mustWKT(t, "tm-ftus-nad83.wkt1.prj")
+	withID := mustWKT(t, "2277.wkt2.prj")
+	cases := []struct {
+		name string
+		pl   Placement
+		id   int
+		org  string
+		def  string
+		minX float64 // CRS unit
+	}{
+		{"code", Placement{CRS: CRS{EPSG: 2277}, Easting: 2.3e6 * ftUS}, 2277, "EPSG", mustLookup(t, 2277).wkt1(), 2.3e6 - 200/ftUS},
+		{"WKT with ID", Placement{CRS: withID}, 2277, "EPSG", withID.String(), -200 / ftUS},
+		{"WKT without ID", Placement{CRS: noID}, srsIDUserDefined, "NONE", noID.String(), -200 / ftUS},
+	}
+	for _, c := range cases {
+		path := tempPath(t, "m.gpkg")
+		l := Layer{Name: "p", Geometry: Point, Features: []Feature{{Geometry: orb.Point{-200, 5}}}}
+		if err := WriteGeoPackage(context.Background(), path, c.pl, []Layer{l}, nil); err != nil {
+			t.Fatal(err)
+		}
+		db := openGPKG(t, path)
+		var id, orgID int
+		var org, def string
+		var minX float64
+		err := db.QueryRow(`SELECT s.srs_id, s.organization, s.organization_coordsys_id, s.definition, c.min_x
+		  FROM gpkg_contents c JOIN gpkg_spatial_ref_sys s ON s.srs_id = c.srs_id WHERE c.table_name = 'p'`).Scan(&id, &org, &orgID, &def, &minX)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if id != c.id || orgID != c.id || org != c.org || def != c.def {
+			t.Errorf("%s: srs %d %s %d %q", c.name, id, org, orgID, def)
+		}
+		numtest.Abs(t, c.name+" min_x", minX, c.minX, 1e-9)
+	}
+}
+
+func mustLookup(t *testing.T, code int) *epsgCRS {
+	t.Helper()
+	e, ok := lookupEPSG(code)
+	if !ok {
+		t.Fatalf("EPSG:%d not in the table", code)
+	}
+	return e
+}
+
 // TestGeoPackageOGRInfoUndefined: GDAL 3.6 reads a layer in the undefined
 // Cartesian SRS (srs_id -1) as ENGCRS["Undefined Cartesian SRS", …] with
 // east/north metre axes.

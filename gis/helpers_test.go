@@ -63,18 +63,6 @@ func runTool(t *testing.T, env []string, name string, args ...string) string {
 	return stdout.String()
 }
 
-// runToolStdin is runTool with stdin.
-func runToolStdin(t *testing.T, stdin, name string, args ...string) string {
-	t.Helper()
-	cmd := exec.Command(name, args...)
-	var stdout, stderr bytes.Buffer
-	cmd.Stdin, cmd.Stdout, cmd.Stderr = strings.NewReader(stdin), &stdout, &stderr
-	if err := cmd.Run(); err != nil || stderr.Len() > 0 {
-		t.Fatalf("%s %s: %v\nstderr:\n%s", name, strings.Join(args, " "), err, stderr.String())
-	}
-	return stdout.String()
-}
-
 // testTime is a fixed time stamp for deterministic files.
 var testTime = time.Date(2030, 1, 2, 3, 4, 5, 600e6, time.UTC)
 
