@@ -57,6 +57,10 @@ const (
 // registry: the base CRSs of epsgTable and 4258 ETRS89.)
 var geographicCodes = map[int]bool{4326: true, 4269: true, 4152: true, 4759: true, 6318: true, 4617: true, 4267: true, 4258: true}
 
+// ErrUnsupportedCRS is returned (wrapped) for an EPSG code that is not a
+// projected CRS of this package's table; the message lists the table.
+var ErrUnsupportedCRS = errors.New("gis: not a projected CRS this program can place")
+
 // ErrNoGeographic is returned (wrapped) when a CRS cannot be converted to
 // WGS 84 longitude and latitude by this package.
 var ErrNoGeographic = errors.New("gis: no conversion to WGS 84 longitude/latitude")
@@ -86,7 +90,7 @@ func ParseCRS(s string) (CRS, error) {
 		return CRS{}, fmt.Errorf("gis: CRS %q is geographic (degrees); local coordinates in metres need a projected CRS such as a UTM zone", s)
 	}
 	if _, ok := lookupEPSG(n); !ok {
-		return CRS{}, fmt.Errorf("gis: CRS %q is not a projected CRS this program can place; supported: %s", s, supportedCRSs)
+		return CRS{}, fmt.Errorf("%w: %q; supported: %s", ErrUnsupportedCRS, s, supportedCRSs)
 	}
 	return CRS{EPSG: n}, nil
 }
@@ -133,7 +137,7 @@ func (c CRS) definition() (*crsDef, error) {
 	}
 	e, ok := lookupEPSG(c.EPSG)
 	if !ok {
-		return nil, fmt.Errorf("gis: %v is not a projected CRS this program can place; supported: %s", c, supportedCRSs)
+		return nil, fmt.Errorf("%w: %v; supported: %s", ErrUnsupportedCRS, c, supportedCRSs)
 	}
 	return e.definition(), nil
 }

@@ -139,6 +139,9 @@ func wktNumber(v float64) string {
 	return strconv.FormatFloat(v, 'g', 15, 64)
 }
 
+// SupportedCRSs describes the EPSG codes ParseCRS accepts, for messages.
+func SupportedCRSs() string { return supportedCRSs }
+
 // supportedCRSs describes the codes ParseCRS accepts, for messages.
 // TestSupportedCRSsMessage checks every range it names against the table.
 var supportedCRSs = fmt.Sprintf("EPSG:32601–32660 and 32701–32760 (WGS 84 / UTM), 26901–26923 (NAD83 / UTM), 26701–26722 (NAD27 / UTM), "+

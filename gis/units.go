@@ -15,10 +15,12 @@ type LinearUnit struct {
 }
 
 // The linear units of the CRSs this package knows by code (EPSG dataset,
-// units of measure 9001–9003). The US survey foot is 1200/3937 m exactly
-// and the international foot 0.3048 m exactly (NIST (2008), Guide for the
+// units of measure 9001–9003). The international foot is 0.3048 m exactly
+// and the US survey foot 1200/3937 m exactly (NIST (2008), Guide for the
 // Use of the International System of Units, Special Publication 811,
-// Appendix B.6 and B.8 footnote 22); the two differ by 2 parts per million.
+// Appendix B.8, "foot" and "foot (U.S. survey)"; the exact ratio from
+// memory, and the EPSG dataset's 0.304800609601219 agrees to 15 digits);
+// the two differ by 2 parts per million, 4.6 ft at 2 300 000 ft.
 var (
 	Metre        = LinearUnit{Name: "metre", Metres: 1, EPSG: 9001}
 	Foot         = LinearUnit{Name: "foot", Metres: 0.3048, EPSG: 9002}

@@ -20,7 +20,7 @@ import (
 // (PROJCRS › BASEGEOGCRS › ENSEMBLE › ELLIPSOID › LENGTHUNIT › ID);
 // common practice, no source.
 const (
-	maxWKTBytes = 1 << 20
+	MaxWKTBytes = 1 << 20 // the longest text ParseWKT reads
 	maxWKTDepth = 32
 	maxWKTNodes = 100000
 )
@@ -81,8 +81,8 @@ func wktErrorAt(src string, off int, format string, args ...any) *WKTError {
 // parseWKTTree parses one element filling the whole text (surrounding
 // space allowed).
 func parseWKTTree(src string) (*wktNode, error) {
-	if len(src) > maxWKTBytes {
-		return nil, wktErrorAt(src, 0, "the text is %d bytes long; at most %d allowed", len(src), maxWKTBytes)
+	if len(src) > MaxWKTBytes {
+		return nil, wktErrorAt(src, 0, "the text is %d bytes long; at most %d allowed", len(src), MaxWKTBytes)
 	}
 	p := &wktParser{src: src}
 	p.space()
