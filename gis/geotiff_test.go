@@ -205,7 +205,7 @@ func TestGeoTIFFBadInput(t *testing.T) {
 }
 
 // gdalInfo is the part of `gdalinfo -json -stats` the tests read
-// (ecosystem.md §2 lists the keys).
+// (keys as GDAL 3.6 prints them).
 type gdalInfo struct {
 	Size             []int
 	GeoTransform     []float64

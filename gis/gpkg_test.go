@@ -134,7 +134,7 @@ func layerBound(l Layer) (orb.Bound, bool) {
 
 // TestGeoPackageGeometryHeader decodes every blob: the envelope must be in
 // the order minx, maxx, miny, maxy (OGC 12-128r18 §2.1.3.1.1; GDAL does not
-// notice a wrong order, ecosystem.md §3), match the geometry's bounds, and
+// notice a wrong order), match the geometry's bounds, and
 // the srs_id must equal the column's (Req 33).
 func TestGeoPackageGeometryHeader(t *testing.T) {
 	path, layers := writeSample(t, samplePlacement)

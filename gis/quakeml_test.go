@@ -17,7 +17,7 @@ import (
 )
 
 // quakePublicIDRE is the QuakeML 1.2 ResourceIdentifier pattern
-// (QuakeML-BED-1.2 schema; quoted in ecosystem.md §5), anchored.
+// (QuakeML-BED-1.2 schema), anchored.
 var quakePublicIDRE = regexp.MustCompile(`^(smi|quakeml):[\w\d][\w\d\-\.\*\(\)_~']{2,}/[\w\d\-\.\*\(\)_~'][\w\d\-\.\*\(\)\+\?_~'=,;#/&]*$`)
 
 // quakeEventTypes is the EventType enumeration of the QuakeML 1.2 BED
@@ -217,7 +217,7 @@ func TestQuakeMLErrors(t *testing.T) {
 }
 
 // TestQuakeMLXmllint: libxml2 parses the file and finds the events in the
-// BED namespace (XPath from ecosystem.md §5).
+// BED namespace.
 func TestQuakeMLXmllint(t *testing.T) {
 	xmllint := needTool(t, "xmllint")
 	path := writeQuakeMLFile(t)
@@ -230,8 +230,7 @@ func TestQuakeMLXmllint(t *testing.T) {
 // TestQuakeMLSchema validates against the QuakeML 1.2 schemas when
 // QUAKEML_SCHEMA_DIR holds QuakeML-1.2.xsd and QuakeML-1.2.rng (with their
 // BED includes; they are not packaged by Debian, so this usually skips).
-// Both are used because each misses errors the other catches
-// (ecosystem.md §5).
+// Both are used because each misses errors the other catches.
 func TestQuakeMLSchema(t *testing.T) {
 	xmllint := needTool(t, "xmllint")
 	dir := os.Getenv("QUAKEML_SCHEMA_DIR")

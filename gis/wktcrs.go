@@ -133,6 +133,14 @@ var methodByName = map[string]Method{
 
 const esriLambert = "lambertconformalconic"
 
+// implementedMethod reports whether a method named name with EPSG code
+// code (0 if none) is one this package implements.
+func implementedMethod(name string, code int) bool {
+	_, ok := paramsOf[Method(code)]
+	n := normName(name)
+	return ok || methodByName[n] != 0 || n == esriLambert
+}
+
 // normName keeps the lower-case letters and digits of s.
 func normName(s string) string {
 	var b strings.Builder
@@ -389,7 +397,7 @@ func (r wktReader) wkt1(n *wktNode) (*crsDef, error) {
 	d.methodName = pn.name()
 	code := pn.epsgCode()
 	var ps wktParams
-	known := methodByName[normName(d.methodName)] != 0 || normName(d.methodName) == esriLambert || paramsOf[Method(code)][paramLonOrigin]
+	known := implementedMethod(d.methodName, code)
 	for _, p := range n.children("PARAMETER") {
 		v, ok := p.number(1)
 		if !ok {
@@ -444,8 +452,7 @@ func (r wktReader) wkt2(n *wktNode) (*crsDef, error) {
 	}
 	d.methodName = mn.name()
 	code := mn.epsgCode()
-	_, implemented := paramsOf[Method(code)]
-	known := implemented || methodByName[normName(d.methodName)] != 0 || normName(d.methodName) == esriLambert
+	known := implementedMethod(d.methodName, code)
 	var ps wktParams
 	for _, p := range cn.children("PARAMETER") {
 		v, ok := p.number(1)
