@@ -145,14 +145,16 @@ func (c CRS) definition() (*crsDef, error) {
 // Unit returns the length unit of c's axes: the metre for the undefined
 // frame, the zero LinearUnit for an EPSG code this package does not know.
 func (c CRS) Unit() LinearUnit {
-	d, err := c.definition()
 	switch {
-	case err != nil:
-		return LinearUnit{}
-	case d == nil:
+	case c.wkt != nil:
+		return c.wkt.unit
+	case c.EPSG == 0:
 		return Metre
 	}
-	return d.unit
+	if e, ok := lookupEPSG(c.EPSG); ok {
+		return e.unit
+	}
+	return LinearUnit{}
 }
 
 // Projection returns the map projection of c, in metres. It fails,

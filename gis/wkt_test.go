@@ -325,3 +325,14 @@ func hasNaN(cv Conversion) bool {
 	}
 	return false
 }
+
+// BenchmarkParseWKT reads a WKT2 State Plane definition (41 lines).
+func BenchmarkParseWKT(b *testing.B) {
+	text := readWKT(b, "2277.wkt2.prj")
+	b.SetBytes(int64(len(text)))
+	for b.Loop() {
+		if _, err := ParseWKT(text); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
