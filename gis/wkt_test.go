@@ -126,6 +126,14 @@ func TestParseWKTUnimplementedMethod(t *testing.T) {
 	if _, err := c.Projection(); !errors.Is(err, ErrNoGeographic) || !strings.Contains(err.Error(), "Hotine") {
 		t.Errorf("Projection: %v", err)
 	}
+	// The EPSG method code decides over the name: 9808 is transverse
+	// Mercator (south orientated), which is not implemented.
+	so, err := ParseWKT(strings.Replace(readWKT(t, "2277.wkt2.prj"), `METHOD["Lambert Conic Conformal (2SP)",
+            ID["EPSG",9802]]`, `METHOD["Transverse Mercator",
+            ID["EPSG",9808]]`, 1))
+	if err != nil || so.wkt.conv.Method != 0 {
+		t.Errorf("method code 9808: %v, %v", err, so.wkt)
+	}
 	q := Placement{CRS: c, Easting: 2.6e6, Northing: 1.2e6}.ToCRS([2]float64{10, 20})
 	if q[0] != 2600010 || q[1] != 1200020 {
 		t.Errorf("ToCRS %v", q)

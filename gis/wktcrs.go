@@ -133,12 +133,19 @@ var methodByName = map[string]Method{
 
 const esriLambert = "lambertconformalconic"
 
-// implementedMethod reports whether a method named name with EPSG code
-// code (0 if none) is one this package implements.
-func implementedMethod(name string, code int) bool {
-	_, ok := paramsOf[Method(code)]
+// methodOf returns the method named name with EPSG code code (0 if
+// none), 0 when it is not implemented; the code decides when there is
+// one. esri reports ESRI's "Lambert_Conformal_Conic", which the
+// parameters decide.
+func methodOf(name string, code int) (m Method, esri bool) {
+	if code != 0 {
+		if _, ok := paramsOf[Method(code)]; ok {
+			return Method(code), false
+		}
+		return 0, false
+	}
 	n := normName(name)
-	return ok || methodByName[n] != 0 || n == esriLambert
+	return methodByName[n], n == esriLambert
 }
 
 // normName keeps the lower-case letters and digits of s.
@@ -181,11 +188,8 @@ func (r wktReader) add(ps *wktParams, n *wktNode, known bool, convert func(wktPa
 
 // conversion builds the projection from method name and parameters.
 func (r wktReader) conversion(n *wktNode, methodName string, code int, ps *wktParams) (Conversion, error) {
-	m := Method(code)
-	if _, ok := paramsOf[m]; !ok {
-		m = methodByName[normName(methodName)]
-	}
-	if m == 0 && normName(methodName) == esriLambert {
+	m, esri := methodOf(methodName, code)
+	if esri {
 		m = MethodLambertConic1SP
 		if ps.set[paramStdParallel2] {
 			m = MethodLambertConic2SP
@@ -397,7 +401,8 @@ func (r wktReader) wkt1(n *wktNode) (*crsDef, error) {
 	d.methodName = pn.name()
 	code := pn.epsgCode()
 	var ps wktParams
-	known := implementedMethod(d.methodName, code)
+	m, esri := methodOf(d.methodName, code)
+	known := m != 0 || esri
 	for _, p := range n.children("PARAMETER") {
 		v, ok := p.number(1)
 		if !ok {
@@ -452,7 +457,8 @@ func (r wktReader) wkt2(n *wktNode) (*crsDef, error) {
 	}
 	d.methodName = mn.name()
 	code := mn.epsgCode()
-	known := implementedMethod(d.methodName, code)
+	m, esri := methodOf(d.methodName, code)
+	known := m != 0 || esri
 	var ps wktParams
 	for _, p := range cn.children("PARAMETER") {
 		v, ok := p.number(1)
