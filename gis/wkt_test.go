@@ -87,6 +87,8 @@ func TestParseWKT(t *testing.T) {
 		// Made-up CRSs: the parameters of make.sh's PROJ strings.
 		{"lcc1sp-ftus.wkt2.prj", "unknown", 0, USSurveyFoot, Conversion{Method: MethodLambertConic1SP, LatOrigin: 40.5, LonOrigin: -104.5,
 			Scale: 0.9999, FalseEasting: 300000, FalseNorthing: 50000}, tieNone, "Unknown based on GRS80 ellipsoid"},
+		{"lcc1sp-ftus.esri.prj", "unknown", 0, USSurveyFoot, Conversion{Method: MethodLambertConic1SP, LatOrigin: 40.5, LonOrigin: -104.5,
+			Scale: 0.9999, FalseEasting: 300000, FalseNorthing: 50000}, tieNone, "D_Unknown_based_on_GRS80_ellipsoid"},
 		{"tm-ftus-nad83.wkt1.prj", "unknown", 0, USSurveyFoot, Conversion{Method: MethodTransverseMercator, LatOrigin: 31, LonOrigin: -103.5,
 			Scale: 0.9999, FalseEasting: 200000}, tieMetre, "North_American_Datum_1983"},
 		{"lcc2sp-intl-towgs84.wkt1.prj", "unknown", 0, Metre, Conversion{Method: MethodLambertConic2SP, LatOrigin: 23, LonOrigin: -96,
@@ -230,6 +232,7 @@ func TestWKTVersusCS2CS(t *testing.T) {
 		{"32039.wkt1.prj", "EPSG:4267", false},
 		// No datum in common with EPSG:4326: cs2cs applies no shift.
 		{"lcc1sp-ftus.wkt2.prj", "EPSG:4326", false},
+		{"lcc1sp-ftus.esri.prj", "EPSG:4326", false},
 	}
 	for _, tc := range cases {
 		text := readWKT(t, tc.file)

@@ -196,7 +196,9 @@ func (r wktReader) conversion(n *wktNode, methodName string, code int, ps *wktPa
 		} else if !ps.set[paramLatOrigin] && ps.set[paramStdParallel1] {
 			ps.v[paramLatOrigin], ps.set[paramLatOrigin] = ps.v[paramStdParallel1], true
 		}
-		ps.set[paramStdParallel1] = m == MethodLambertConic2SP
+		if m == MethodLambertConic1SP { // ESRI repeats the latitude of origin as Standard_Parallel_1
+			ps.v[paramStdParallel1], ps.set[paramStdParallel1] = 0, false
+		}
 	}
 	if m == 0 {
 		return Conversion{}, nil
@@ -241,6 +243,18 @@ func (r wktReader) unit(n *wktNode) (string, float64, error) {
 		return "", 0, r.errorAt(n, "%s needs a name and a conversion factor > 0", n.keyword)
 	}
 	return n.name(), f, nil
+}
+
+// degree is the angle unit in radians. WKT prints it as
+// 0.0174532925199433 (15 digits); a factor within knownUnitTol of it is
+// taken as exactly π/180, so that degrees read back as printed.
+const degree = math.Pi / 180
+
+func canonicalAngle(f float64) float64 {
+	if math.Abs(f-degree) <= knownUnitTol*degree {
+		return degree
+	}
+	return f
 }
 
 // axes checks that the axes, if given, point east and north.
@@ -347,11 +361,12 @@ func (r wktReader) base(d *crsDef, gn *wktNode, datumKeywords ...string) (angle 
 		return 0, err
 	}
 	tie(d, dn)
-	angle = math.Pi / 180
+	angle = degree
 	if u := gn.child("UNIT", "ANGLEUNIT"); u != nil {
 		if _, angle, err = r.unit(u); err != nil {
 			return 0, err
 		}
+		angle = canonicalAngle(angle)
 	}
 	if pm := gn.child("PRIMEM", "PRIMEMERIDIAN"); pm != nil {
 		v, ok := pm.number(1)
@@ -363,8 +378,9 @@ func (r wktReader) base(d *crsDef, gn *wktNode, datumKeywords ...string) (angle 
 			if _, f, err = r.unit(u); err != nil {
 				return 0, err
 			}
+			f = canonicalAngle(f)
 		}
-		d.primeMeridian = v * f * 180 / math.Pi
+		d.primeMeridian = v * f / degree
 	}
 	return angle, nil
 }
@@ -411,7 +427,7 @@ func (r wktReader) wkt1(n *wktNode) (*crsDef, error) {
 		err := r.add(&ps, p, known, func(k wktParam) (float64, error) {
 			switch {
 			case k.isAngle():
-				return v * angle * 180 / math.Pi, nil
+				return v * angle / degree, nil
 			case k.isLength():
 				return v * d.unit.Metres, nil
 			}
@@ -469,7 +485,7 @@ func (r wktReader) wkt2(n *wktNode) (*crsDef, error) {
 			f := 1.0
 			switch {
 			case k.isAngle():
-				f = angle * 180 / math.Pi
+				f = angle
 			case k.isLength():
 				f = d.unit.Metres
 			}
@@ -480,8 +496,11 @@ func (r wktReader) wkt2(n *wktNode) (*crsDef, error) {
 				}
 				f = uf
 				if k.isAngle() {
-					f *= 180 / math.Pi
+					f = canonicalAngle(f)
 				}
+			}
+			if k.isAngle() {
+				return v * f / degree, nil
 			}
 			return v * f, nil
 		})

@@ -18,6 +18,7 @@ w WKT2_2015 6588.wkt2-2015.prj EPSG:6588
 w WKT2_2019 2056.wkt2.prj EPSG:2056
 w WKT2_2019 4326.wkt2.prj EPSG:4326
 w WKT2_2019 lcc1sp-ftus.wkt2.prj "+proj=lcc +lat_1=40.5 +lat_0=40.5 +lon_0=-104.5 +k_0=0.9999 +x_0=300000 +y_0=50000 +ellps=GRS80 +units=us-ft +type=crs"
+w WKT1_ESRI lcc1sp-ftus.esri.prj "+proj=lcc +lat_1=40.5 +lat_0=40.5 +lon_0=-104.5 +k_0=0.9999 +x_0=300000 +y_0=50000 +ellps=GRS80 +units=us-ft +type=crs"
 w WKT1_GDAL tm-ftus-nad83.wkt1.prj "+proj=tmerc +lat_0=31 +lon_0=-103.5 +k=0.9999 +x_0=200000 +y_0=0 +datum=NAD83 +units=us-ft +type=crs"
 w WKT1_GDAL lcc2sp-intl-towgs84.wkt1.prj "+proj=lcc +lat_1=33 +lat_2=45 +lat_0=23 +lon_0=-96 +x_0=0 +y_0=0 +ellps=intl +towgs84=0,0,0 +units=m +type=crs"
 echo "$v" > VERSION
