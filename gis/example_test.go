@@ -24,7 +24,42 @@ func ExampleParseCRS() {
 		log.Fatal(err)
 	}
 	fmt.Println(crs, "is", crs.Name())
-	// Output: EPSG:32614 is WGS 84 / UTM zone 14N
+	_, err = gis.ParseCRS("EPSG:2056") // an oblique Mercator
+	fmt.Println(err != nil)
+	// Output:
+	// EPSG:32614 is WGS 84 / UTM zone 14N
+	// true
+}
+
+func ExamplePlacement_ToCRS() {
+	// NAD83 / Texas Central (ftUS): the origin is given in metres (SI);
+	// map coordinates come out in US survey feet.
+	const ftUS = 1200.0 / 3937
+	pl := gis.Placement{CRS: gis.CRS{EPSG: 2277}, Easting: 2300000 * ftUS, Northing: 10000000 * ftUS}
+	q := pl.ToCRS(orb.Point{100, 0}) // 100 m east of the origin
+	fmt.Printf("%s: E %.3f, N %.3f %s\n", pl.CRS.Name(), q[0], q[1], pl.CRS.Unit().Name)
+	// Output: NAD83 / Texas Central (ftUS): E 2300328.083, N 10000000.000 US survey foot
+}
+
+func ExampleParseWKT() {
+	crs, err := gis.ParseWKT(`PROJCS["Local TM (ftUS)",
+	  GEOGCS["NAD83",DATUM["North_American_Datum_1983",SPHEROID["GRS 1980",6378137,298.257222101]],
+	    PRIMEM["Greenwich",0],UNIT["degree",0.0174532925199433]],
+	  PROJECTION["Transverse_Mercator"],
+	  PARAMETER["latitude_of_origin",31],PARAMETER["central_meridian",-103.5],PARAMETER["scale_factor",0.9999],
+	  PARAMETER["false_easting",656166.667],PARAMETER["false_northing",0],
+	  UNIT["US survey foot",0.304800609601219]]`)
+	if err != nil {
+		log.Fatal(err)
+	}
+	pl := gis.Placement{CRS: crs, Easting: 200000, Northing: 0}
+	geo, err := pl.Geographic()
+	if err != nil {
+		log.Fatal(err)
+	}
+	ll := geo.LonLat(orb.Point{0, 0}) // the natural origin
+	fmt.Printf("%s in %s: lon %.6f, lat %.6f\n", crs.Name(), crs.Unit().Name, ll[0], ll[1])
+	// Output: Local TM (ftUS) in US survey foot: lon -103.500000, lat 31.000000
 }
 
 func ExamplePlacement_Geographic() {
@@ -37,7 +72,7 @@ func ExamplePlacement_Geographic() {
 	// PROJ's cs2cs gives -99.0000000000 31.6351862200 for this point.
 	fmt.Printf("lon %.7f, lat %.7f\n", ll[0], ll[1])
 
-	_, err = gis.Placement{CRS: gis.CRS{EPSG: 2056}}.Geographic()
+	_, err = gis.Placement{CRS: gis.CRS{EPSG: 26714}}.Geographic() // NAD27: no datum shift here
 	fmt.Println(err != nil)
 	// Output:
 	// lon -99.0000000, lat 31.6351862

@@ -207,6 +207,9 @@ func TestQuakeMLErrors(t *testing.T) {
 	if err := WriteQuakeML(&buf, Placement{CRS: CRS{EPSG: 2056}}, c); !errors.Is(err, ErrNoGeographic) || !strings.Contains(err.Error(), "EPSG:2056") {
 		t.Errorf("unsupported CRS: %v", err)
 	}
+	if err := WriteQuakeML(&buf, Placement{CRS: CRS{EPSG: 32039}}, c); !errors.Is(err, ErrNoGeographic) || !strings.Contains(err.Error(), "NAD27 differs") {
+		t.Errorf("NAD27: %v", err)
+	}
 	cases := map[string]func(*Catalog){
 		"ID":         func(c *Catalog) { c.ID = "run 1" },
 		"start":      func(c *Catalog) { c.Start = time.Time{} },

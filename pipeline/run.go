@@ -34,7 +34,7 @@ type Run struct {
 
 // Placement returns where the run's local coordinates lie on the map.
 func (r *Run) Placement() (gis.Placement, error) {
-	crs, err := gis.ParseCRS(r.Scenario.Domain.CRS)
+	crs, err := gis.ParseCRS(r.Scenario.Domain.CRSSpec())
 	if err != nil {
 		return gis.Placement{}, err
 	}

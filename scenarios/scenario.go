@@ -43,12 +43,31 @@ type Domain struct {
 	XMax float64 `toml:"x_max" unit:"length" range:"[-1e7,1e7]" doc:"east edge of the map area" example:"1000 m"`
 	YMin float64 `toml:"y_min" unit:"length" range:"[-1e7,1e7]" doc:"south edge of the map area (local north coordinate)" example:"-1000 m"`
 	YMax float64 `toml:"y_max" unit:"length" range:"[-1e7,1e7]" doc:"north edge of the map area" example:"1000 m"`
-	// CRS is "EPSG:<code>" of a projected CRS, or "" for an undefined
-	// Cartesian frame.
-	CRS string `toml:"crs" default:"" doc:"projected CRS of the origin, e.g. \"EPSG:32614\"; empty for an undefined local frame"`
+	// CRS is "EPSG:<code>" of a projected CRS the gis package knows
+	// (gis.ParseCRS), or "" for an undefined Cartesian frame or when
+	// CRSWKT names the CRS.
+	CRS string `toml:"crs" default:"" doc:"projected CRS of the origin as \"EPSG:<code>\": UTM (\"EPSG:32614\"), US State Plane (\"EPSG:2277\", in US survey feet) and other transverse Mercator or Lambert conic CRSs on WGS 84, NAD83 or NAD27; empty for an undefined local frame"`
+	// CRSWKT is a file holding the projected CRS as WKT (WKT1 or WKT2),
+	// relative to the scenario file; "" for none. Exclusive with CRS.
+	CRSWKT string `toml:"crs_wkt" default:"" json:",omitempty" doc:"file with the projected CRS as WKT (WKT1 or WKT2, e.g. a .prj), relative to this file; instead of crs, for any projected CRS"`
+	// CRSDefinition is the text of CRSWKT on one line, read with the
+	// scenario; not a key.
+	CRSDefinition string `toml:"-" json:",omitempty"`
 	// OriginEasting and OriginNorthing place local (0, 0) in the CRS, m.
-	OriginEasting  float64 `toml:"origin_easting" unit:"length" range:"[-1e8,1e8]" default:"0 m" doc:"easting of local (0,0) in the CRS"`
-	OriginNorthing float64 `toml:"origin_northing" unit:"length" range:"[-1e8,1e8]" default:"0 m" doc:"northing of local (0,0) in the CRS"`
+	// They are lengths with a unit; the CRS's own unit is used on output,
+	// so "2300000 ftUS" in a US survey foot CRS lands on 2300000 exactly
+	// ("ft" is the international foot, 2 ppm shorter).
+	OriginEasting  float64 `toml:"origin_easting" unit:"length" range:"[-1e8,1e8]" default:"0 m" doc:"easting of local (0,0) in the CRS, with a unit: write \"ftUS\" for US survey feet (\"ft\" is the international foot)"`
+	OriginNorthing float64 `toml:"origin_northing" unit:"length" range:"[-1e8,1e8]" default:"0 m" doc:"northing of local (0,0) in the CRS, with a unit"`
+}
+
+// CRSSpec returns the CRS as gis.ParseCRS reads it: domain.crs, the WKT
+// text of domain.crs_wkt, or "" for an undefined local frame.
+func (d Domain) CRSSpec() string {
+	if d.CRSDefinition != "" {
+		return d.CRSDefinition
+	}
+	return d.CRS
 }
 
 // Layer is the simulated reservoir interval.

@@ -1,6 +1,7 @@
 package scenarios
 
 import (
+	"encoding/json"
 	"errors"
 	"math"
 	"strings"
@@ -57,11 +58,67 @@ func parseText(t *testing.T, src string, overrides ...string) (*Scenario, error)
 	if err != nil {
 		return nil, err
 	}
-	files := fstest.MapFS{"faults.csv": {Data: []byte(knownCSV)}}
+	files := fstest.MapFS{"faults.csv": {Data: []byte(knownCSV)}, "crs.prj": {Data: []byte(crsWKT)},
+		"bad.prj": {Data: []byte("PROJCS[\"x\",\n  GEOGCS[\"y\"")}}
 	return Parse("test.toml", []byte(src), files, ov...)
 }
 
+// crsWKT is a made-up transverse Mercator CRS in US survey feet on NAD83,
+// as projinfo writes WKT1 (PROJ 9.1.1).
+const crsWKT = `PROJCS["Local TM (ftUS)",
+    GEOGCS["NAD83",
+        DATUM["North_American_Datum_1983",
+            SPHEROID["GRS 1980",6378137,298.257222101]],
+        PRIMEM["Greenwich",0],
+        UNIT["degree",0.0174532925199433]],
+    PROJECTION["Transverse_Mercator"],
+    PARAMETER["latitude_of_origin",31],
+    PARAMETER["central_meridian",-103.5],
+    PARAMETER["scale_factor",0.9999],
+    PARAMETER["false_easting",656166.666666667],
+    PARAMETER["false_northing",0],
+    UNIT["US survey foot",0.304800609601219],
+    AXIS["Easting",EAST],
+    AXIS["Northing",NORTH]]
+`
+
 const knownCSV = "name,center_x_m,center_y_m,center_depth_m,dip_deg,dip_direction_deg,length_m,height_m\nF1,0,0,2000,80,90,300,100\n"
+
+// TestCRSWKT: a WKT file is read relative to the scenario, kept on one
+// line in the resolved scenario (so a run folder needs no other file),
+// and the origin may be written in US survey feet.
+func TestCRSWKT(t *testing.T) {
+	src := strings.Replace(minimal, `y_max = "500 m"`, "y_max = \"500 m\"\ncrs_wkt = \"crs.prj\"\norigin_easting = \"656166.667 ftUS\"", 1)
+	s, err := parseText(t, src)
+	if err != nil {
+		t.Fatal(err)
+	}
+	d := s.Domain
+	if d.CRS != "" || d.CRSWKT != "crs.prj" || strings.Contains(d.CRSDefinition, "\n") || !strings.HasPrefix(d.CRSDefinition, `PROJCS["Local TM (ftUS)",GEOGCS[`) {
+		t.Errorf("domain %+v", d)
+	}
+	if d.CRSSpec() != d.CRSDefinition {
+		t.Errorf("CRSSpec %q", d.CRSSpec())
+	}
+	// 656166.667 ftUS × 1200/3937 m (NIST SP 811 B.8).
+	numtest.Abs(t, "origin easting, m", d.OriginEasting, 656166.667*1200/3937, 1e-9)
+	base, err := parseText(t, minimal)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if base.Digest == s.Digest || base.Domain.CRSSpec() != "" {
+		t.Errorf("the CRS does not enter the digest, or a scenario without one has a CRS %q", base.Domain.CRSSpec())
+	}
+	// Scenarios without crs_wkt keep their digest: the new fields are
+	// left out of the canonical JSON when empty.
+	b, err := json.Marshal(base)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if strings.Contains(string(b), "CRSWKT") || strings.Contains(string(b), "CRSDefinition") {
+		t.Errorf("empty CRS WKT fields in the canonical JSON: %s", b)
+	}
+}
 
 func TestMinimal(t *testing.T) {
 	s, err := parseText(t, minimal)
@@ -151,6 +208,11 @@ func TestBadValues(t *testing.T) {
 		{"unknown stage in list", `volume = "100 m3"`, "volume = \"100 m3\"\norder = \"list\"\nsequence = [\"A:1\", \"A:7\"]", `schedule.sequence[1] = "A:7": well "A" has no stage "7"`},
 		{"output interval", `volume = "100 m3"`, "volume = \"100 m3\"\n[numerics]\noutput_interval = \"100 d\"", `numerics.output_interval = "100 d": is longer than the whole schedule`},
 		{"bad crs", `y_max = "500 m"`, "y_max = \"500 m\"\ncrs = \"UTM14\"", `test.toml:8: domain.crs = "UTM14": must be "EPSG:<code>"`},
+		{"unknown EPSG code", `y_max = "500 m"`, "y_max = \"500 m\"\ncrs = \"EPSG:999999\"", `test.toml:8: domain.crs = "EPSG:999999": not a projected CRS this program can place; supported are EPSG:32601–32660`},
+		{"geographic crs", `y_max = "500 m"`, "y_max = \"500 m\"\ncrs = \"EPSG:4326\"", `test.toml:8: domain.crs = "EPSG:4326": CRS "EPSG:4326" is geographic (degrees); local coordinates in metres need a projected CRS`},
+		{"crs twice", `y_max = "500 m"`, "y_max = \"500 m\"\ncrs = \"EPSG:32614\"\ncrs_wkt = \"crs.prj\"", `test.toml:9: domain.crs_wkt = "crs.prj": give the CRS once: domain.crs = "EPSG:32614" is set too`},
+		{"bad WKT", `y_max = "500 m"`, "y_max = \"500 m\"\ncrs_wkt = \"bad.prj\"", `test.toml:8: domain.crs_wkt = "bad.prj": bad.prj:2:13: GEOGCS is not closed`},
+		{"missing WKT", `y_max = "500 m"`, "y_max = \"500 m\"\ncrs_wkt = \"none.prj\"", `test.toml:8: domain.crs_wkt = "none.prj": cannot open`},
 		{"bad start", `volume = "100 m3"`, "volume = \"100 m3\"\nstart = \"May 6\"", `schedule.start = "May 6": must be an RFC 3339 UTC time`},
 		{"syntax", `name = "one"`, `name = "one`, "test.toml:18: TOML syntax"},
 		{"cap below the pore pressure", `volume = "100 m3"`, "volume = \"100 m3\"\npressure_cap = \"15 MPa\"", `schedule.pressure_cap = "15 MPa": must exceed the initial pore pressure, 20000000 Pa`},
@@ -345,7 +407,8 @@ func FuzzParse(f *testing.F) {
 		}
 		f.Add(src)
 	}
-	files := fstest.MapFS{"faults.csv": {Data: []byte(knownCSV)}}
+	files := fstest.MapFS{"faults.csv": {Data: []byte(knownCSV)}, "crs.prj": {Data: []byte(crsWKT)},
+		"bad.prj": {Data: []byte("PROJCS[\"x\",\n  GEOGCS[\"y\"")}}
 	f.Fuzz(func(t *testing.T, src []byte) {
 		s, err := Parse("fuzz.toml", src, files)
 		if err != nil {

@@ -15,6 +15,7 @@ import (
 // of the International System of Units", Appendix B.8 and B.9.
 const (
 	foot       = 0.3048                     // m, exact (SP 811 B.8: foot)
+	surveyFoot = 1200.0 / 3937              // m, exact (SP 811 B.8: foot (U.S. survey) 3.048006 E-01; the ratio from memory)
 	inch       = 0.0254                     // m, exact (SP 811 B.8: inch)
 	poundForce = 4.4482216152605            // N, exact (SP 811 B.8: pound-force)
 	psi        = poundForce / (inch * inch) // Pa = 6894.757293168 (SP 811 B.8: 6.894757 E+03)
@@ -54,7 +55,7 @@ var unitTable = map[unitKind][]struct {
 	name   string
 	factor float64
 }{
-	kindLength: {{"m", 1}, {"km", 1e3}, {"cm", 1e-2}, {"mm", 1e-3}, {"um", 1e-6}, {"ft", foot}, {"in", inch}},
+	kindLength: {{"m", 1}, {"km", 1e3}, {"cm", 1e-2}, {"mm", 1e-3}, {"um", 1e-6}, {"ft", foot}, {"ftUS", surveyFoot}, {"in", inch}},
 	kindPressure: {{"Pa", 1}, {"kPa", 1e3}, {"MPa", 1e6}, {"GPa", 1e9}, {"bar", 1e5}, {"psi", psi},
 		{"ksi", 1e3 * psi}},
 	kindGradient: {{"Pa/m", 1}, {"kPa/m", 1e3}, {"MPa/m", 1e6}, {"MPa/km", 1e3}, {"bar/m", 1e5},
@@ -109,6 +110,8 @@ func normalizeUnit(u string) string {
 		return "mPa.s"
 	case "bpm":
 		return "bbl/min"
+	case "us-ft", "usft", "USft", "US-ft", "ft_US", "ftus":
+		return "ftUS"
 	case "degrees", "degree":
 		return "deg"
 	case "sec":

@@ -1,6 +1,7 @@
 package scenarios
 
 import (
+	"errors"
 	"fmt"
 	"maps"
 	"math"
@@ -11,6 +12,7 @@ import (
 
 	"gonum.org/v1/gonum/spatial/r3"
 
+	"slipfront/gis"
 	"slipfront/internal/orient"
 )
 
@@ -38,8 +40,15 @@ func (d *decoder) validateDomain(s *Scenario) {
 	if dm.YMax <= dm.YMin {
 		d.failKey("domain.y_max", "must exceed domain.y_min = %s", formatQuantity(dm.YMin, kindLength))
 	}
-	if dm.CRS != "" && !crsPattern.MatchString(dm.CRS) {
-		d.failKey("domain.crs", `must be "EPSG:<code>" of a projected CRS, e.g. "EPSG:32614", or "" for none`)
+	if dm.CRS == "" {
+		return
+	}
+	if !crsPattern.MatchString(dm.CRS) {
+		d.failKey("domain.crs", `must be "EPSG:<code>" of a projected CRS, e.g. "EPSG:32614", or "" for none (or give a WKT file as domain.crs_wkt)`)
+	} else if _, err := gis.ParseCRS(dm.CRS); errors.Is(err, gis.ErrUnsupportedCRS) {
+		d.failKey("domain.crs", "not a projected CRS this program can place; supported are %s (domain.crs_wkt)", gis.SupportedCRSs())
+	} else if err != nil {
+		d.failKey("domain.crs", "%s", strings.TrimPrefix(err.Error(), "gis: "))
 	}
 }
 
