@@ -63,7 +63,7 @@ const (
 func (r *Recorder) Begin(elements []Element) error {
 	s := r.s
 	h := snapshot.Header{
-		Digest: s.Digest, Seed: s.Seed, Realization: r.realization, CRS: s.Domain.CRS,
+		Digest: s.Digest, Seed: s.Seed, Realization: r.realization, CRS: s.Domain.CRSSpec(),
 		OriginEasting: s.Domain.OriginEasting, OriginNorthing: s.Domain.OriginNorthing, LayerDepth: s.Layer.Depth,
 		Metadata: map[string]string{
 			MetaProgram: "slipfront " + version.Version, MetaScenario: s.Name, MetaStart: s.Schedule.Start,
