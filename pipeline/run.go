@@ -174,7 +174,7 @@ func (r *Run) eventLayer() gis.Layer {
 			{Name: "fracture_id", Type: gis.Int32}, {Name: "depth_m", Type: gis.Real}, {Name: "slip_mm", Type: gis.Real},
 			{Name: "area_m2", Type: gis.Real}, {Name: "moment_Nm", Type: gis.Real}, {Name: "magnitude_Mw", Type: gis.Real},
 		}}
-	start, _ := time.Parse(time.RFC3339, r.Scenario.Schedule.Start)
+	start := scheduleStart(r.Scenario.Schedule.Start)
 	for _, e := range r.Result.Events {
 		if !r.shows(e.Time) {
 			continue
