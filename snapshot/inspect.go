@@ -51,7 +51,7 @@ func Describe(w io.Writer, r *Reader) error {
 	if err := tw.Flush(); err != nil {
 		return err
 	}
-	if err := describeFrames(w, frames); err != nil {
+	if err := describeFrames(w, r, frames); err != nil {
 		return err
 	}
 	stored, raw := int64(0), int64(0)
@@ -68,14 +68,19 @@ func Describe(w io.Writer, r *Reader) error {
 	return nil
 }
 
-func describeFrames(w io.Writer, frames []FrameInfo) error {
+// describeFrames lists the frames, each checked against its checksum.
+func describeFrames(w io.Writer, r *Reader, frames []FrameInfo) error {
 	if len(frames) == 0 {
 		return nil
 	}
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', tabwriter.AlignRight)
-	fmt.Fprintln(tw, "frame\ttime_s\tstage\tstored_bytes\t")
+	fmt.Fprintln(tw, "frame\ttime_s\tstage\tstored_bytes\tcheck\t")
 	for i, f := range frames {
-		fmt.Fprintf(tw, "%d\t%s\t%d\t%d\t\n", i, fmtFloat(f.Time), f.Stage, f.Size)
+		check := "ok"
+		if err := r.CheckFrame(i); err != nil {
+			check = "DAMAGED"
+		}
+		fmt.Fprintf(tw, "%d\t%s\t%d\t%d\t%s\t\n", i, fmtFloat(f.Time), f.Stage, f.Size, check)
 	}
 	return tw.Flush()
 }
