@@ -170,20 +170,23 @@ func (sw *sweep) run(s int, ws *workspace, gap float64, visit visitor) {
 	next := 0
 	ws.act = ws.act[:0]
 	for k := 0; k+1 < len(ws.ev); k++ {
+		// Which stadiums are in the slab, and which cover a strip bound,
+		// is decided from the slab's bounds (break heights themselves), not
+		// from its middle, which rounds onto a bound in a slab one float
+		// step high.
 		y0, y1 := ws.ev[k], ws.ev[k+1]
-		ym := 0.5 * (y0 + y1)
-		for next < len(ws.order) && ws.order[next].lo < ym {
+		for next < len(ws.order) && ws.order[next].lo <= y0 {
 			ws.act = append(ws.act, ws.order[next])
 			next++
 		}
 		ws.iv = ws.iv[:0]
 		kept := ws.act[:0]
 		for _, e := range ws.act {
-			if e.hi <= ym {
+			if e.hi < y1 {
 				continue
 			}
 			kept = append(kept, e)
-			if c, ok := sw.clip(e, x0, x1, ym); ok {
+			if c, ok := sw.clip(e, x0, x1, y0, y1); ok {
 				ws.iv = append(ws.iv, c)
 			}
 		}
@@ -236,25 +239,41 @@ func (sw *sweep) breaks(s int, ws *workspace) []float64 {
 	return slices.Compact(ev)
 }
 
-// clip returns the cross-section of entry e at height y clipped to the
-// strip [x0, x1], and whether it is non-empty. Where the stadium covers a
-// strip bound (by the entry's shared ranges) the end is that bound.
-func (sw *sweep) clip(e entry, x0, x1, y float64) (cell, bool) {
+// clip returns the cross-section of entry e in the slab [y0, y1] (at its
+// middle) clipped to the strip [x0, x1], and whether it is non-empty.
+// Where the stadium covers a strip bound over the slab by the entry's
+// shared ranges, that end is the bound and the interval exists even if the
+// other end, computed from its own formula, rounds past the bound: the
+// neighbouring strip sees the same coverage, so the two agree on where the
+// region crosses their common bound.
+func (sw *sweep) clip(e entry, x0, x1, y0, y1 float64) (cell, bool) {
 	st := &sw.st[e.st]
 	var c cell
-	if e.cov[0][0] < y && y < e.cov[0][1] {
+	y := 0.5 * (y0 + y1)
+	if y >= y1 {
+		y = y0
+	}
+	inLo := e.cov[0][0] <= y0 && y1 <= e.cov[0][1]
+	inHi := e.cov[1][0] <= y0 && y1 <= e.cov[1][1]
+	if inLo {
 		c.lo, c.xlo = fnRef{st: -1, kind: clipLo}, x0
 	} else {
 		k := st.pieceAt(0, sw.r, y)
 		c.lo, c.xlo = fnRef{st: e.st, kind: k}, max(x0, st.value(k, sw.r, y))
 	}
-	if e.cov[1][0] < y && y < e.cov[1][1] {
+	if inHi {
 		c.hi, c.xhi = fnRef{st: -1, kind: clipHi}, x1
 	} else {
 		k := st.pieceAt(1, sw.r, y)
 		c.hi, c.xhi = fnRef{st: e.st, kind: k}, min(x1, st.value(k, sw.r, y))
 	}
-	return c, c.xhi > c.xlo
+	switch {
+	case inHi:
+		c.xlo = min(c.xlo, x1)
+	case inLo:
+		c.xhi = max(c.xhi, x0)
+	}
+	return c, inLo || inHi || c.xhi > c.xlo
 }
 
 // mergeCells sorts ws.iv by left end (insertion sort: a slab holds few
