@@ -62,69 +62,82 @@ func Outline(segs []dfn.Segment, r float64, opt OutlineOptions) (orb.MultiPolygo
 	tol := 8*math.Sqrt(epsilon*r*reg.scale) + 64*epsilon*reg.scale
 	var edges []oedge
 	var ws workspace
+	var o outliner
 	for k := range len(reg.sw.lines) - 1 {
-		edges = reg.sw.stripOutline(edges, k, &ws, tol)
+		edges = reg.sw.stripOutline(edges, k, &ws, &o, tol)
 	}
 	rings := chain(reg.sw, edges, 2*math.Acos(1-s/r))
 	return assemble(rings, reg.origin, tol), nil
 }
 
-// corner is a cell of a slab with its lower corners once known.
+// corner is a cell of a slab with the open ends of its side edges: rs is
+// where its right edge (walked upward) starts, le where its left edge
+// (walked downward) ends. Both are lower corners of the cell, or of a
+// cell below on the same end functions that it continues.
 type corner struct {
 	cell
-	bl, br r2.Vec
+	rs, le r2.Vec
+}
+
+// mark is one end of a cell on a break height.
+type mark struct {
+	x     float64
+	cell  int  // index in below or above
+	above bool // a cell above the line (else below)
+	hi    bool // its right end (else left)
+}
+
+// outliner is the scratch memory of one strip's outline.
+type outliner struct {
+	marks      []mark
+	ends       []int    // one past the last mark of each cluster
+	verts      []r2.Vec // the vertex of each cluster
+	prev, cur  []corner
+	topL, topR []r2.Vec // upper corners of the cells below the line
 }
 
 // stripOutline appends the outline edges of strip k: the left and right
 // ends of every cell that are not strip bounds, and the horizontal edges
 // where the union's cross-section changes at a break height.
-func (sw *sweep) stripOutline(dst []oedge, k int, ws *workspace, tol float64) []oedge {
-	var prev, cur []corner
+func (sw *sweep) stripOutline(dst []oedge, k int, ws *workspace, o *outliner, tol float64) []oedge {
+	o.prev, o.cur = o.prev[:0], o.cur[:0]
 	var top float64
 	sw.run(k, ws, tol, func(y0, y1 float64, cells []cell) {
-		cur = cur[:0]
+		o.cur = o.cur[:0]
 		for _, c := range cells {
-			cur = append(cur, corner{cell: c})
+			o.cur = append(o.cur, corner{cell: c})
 		}
-		dst = sw.line(dst, k, y0, prev, cur, tol)
-		prev, cur = cur, prev
+		dst = sw.line(dst, k, y0, o, tol)
+		o.prev, o.cur = o.cur, o.prev
 		top = y1
 	})
-	return sw.line(dst, k, top, prev, nil, tol)
+	o.cur = o.cur[:0]
+	return sw.line(dst, k, top, o, tol)
 }
 
-// line handles the break height y between the cells below (whose lower
-// corners are known) and above (whose lower corners it sets). The ends of
-// both are evaluated at y, snapped to the strip bounds within tol and
-// clustered along the line within tol, so that the two sides, and the
-// neighbouring strip, name each vertex by the same coordinates. Where only
-// one side covers a stretch of the line, that stretch is a horizontal edge;
-// the cells below end here, so their sides become edges.
-func (sw *sweep) line(dst []oedge, k int, y float64, below, above []corner, tol float64) []oedge {
+// line handles the break height y between the cells below (o.prev) and
+// above (o.cur). The ends of both are evaluated at y, snapped to the strip
+// bounds within tol and clustered along the line within tol, so that the
+// two sides, and the neighbouring strip, name each vertex by the same
+// coordinates. Where only one side covers a stretch of the line, that
+// stretch is a horizontal edge. A side edge of a cell below goes on in the
+// cell above when both lie on one end function and nothing else meets
+// their vertex; otherwise it ends here and is appended.
+func (sw *sweep) line(dst []oedge, k int, y float64, o *outliner, tol float64) []oedge {
 	x0, x1 := sw.lines[k], sw.lines[k+1]
-	type mark struct {
-		x   float64
-		ref *r2.Vec // the corner that takes the clustered vertex
-		cov int     // +1/−1 below, +2/−2 above: coverage starts / stops
+	below, above := o.prev, o.cur
+	o.marks = o.marks[:0]
+	for i, c := range below {
+		o.marks = append(o.marks, mark{sw.snap(c.lo, y, x0, x1, tol), i, false, false},
+			mark{sw.snap(c.hi, y, x0, x1, tol), i, false, true})
 	}
-	var marks []mark
-	var tl, tr []r2.Vec // top corners of the cells below
-	tl, tr = make([]r2.Vec, len(below)), make([]r2.Vec, len(below))
-	for i := range below {
-		marks = append(marks, mark{sw.snap(below[i].lo, y, x0, x1, tol), &tl[i], 1},
-			mark{sw.snap(below[i].hi, y, x0, x1, tol), &tr[i], -1})
+	for i, c := range above {
+		o.marks = append(o.marks, mark{sw.snap(c.lo, y, x0, x1, tol), i, true, false},
+			mark{sw.snap(c.hi, y, x0, x1, tol), i, true, true})
 	}
-	for i := range above {
-		marks = append(marks, mark{sw.snap(above[i].lo, y, x0, x1, tol), &above[i].bl, 2},
-			mark{sw.snap(above[i].hi, y, x0, x1, tol), &above[i].br, -2})
-	}
+	marks := o.marks
 	slices.SortStableFunc(marks, func(a, b mark) int { return cmpFloat(a.x, b.x) })
-	// Clusters of marks closer than tol, each with its vertex.
-	type cluster struct {
-		end int // one past its last mark
-		v   r2.Vec
-	}
-	var cl []cluster
+	o.ends, o.verts = o.ends[:0], o.verts[:0]
 	for i := 0; i < len(marks); {
 		j, rep := i+1, marks[i].x
 		for j < len(marks) && marks[j].x-marks[j-1].x <= tol {
@@ -135,39 +148,80 @@ func (sw *sweep) line(dst []oedge, k int, y float64, below, above []corner, tol 
 				rep = m.x
 			}
 		}
-		cl = append(cl, cluster{end: j, v: r2.Vec{X: rep, Y: y}})
+		o.ends, o.verts = append(o.ends, j), append(o.verts, r2.Vec{X: rep, Y: y})
 		i = j
 	}
+	o.topL, o.topR = resize(o.topL, len(below)), resize(o.topR, len(below))
 	var nb, na int // cells below / above covering the stretch after a cluster
 	i := 0
-	for ci, c := range cl {
-		for _, m := range marks[i:c.end] {
-			*m.ref = c.v
-			switch m.cov {
-			case 1, -1:
-				nb += m.cov
+	for ci, end := range o.ends {
+		v := o.verts[ci]
+		group := marks[i:end]
+		for _, m := range group {
+			switch {
+			case !m.above && m.hi:
+				o.topR[m.cell] = v
+				nb--
+			case !m.above:
+				o.topL[m.cell] = v
+				nb++
+			case m.hi:
+				above[m.cell].rs = v
+				na--
 			default:
-				na += m.cov / 2
+				above[m.cell].le = v
+				na++
 			}
 		}
-		i = c.end
-		if ci+1 < len(cl) && (nb > 0) != (na > 0) {
-			v, w := c.v, cl[ci+1].v
+		if len(group) == 2 {
+			carry(group, below, above, o)
+		}
+		i = end
+		if ci+1 < len(o.ends) && (nb > 0) != (na > 0) {
+			from, to := v, o.verts[ci+1]
 			if nb > 0 { // region below only: the edge runs leftward
-				v, w = w, v
+				from, to = to, from
 			}
-			dst = append(dst, oedge{from: v, to: w, fn: fnRef{st: -1, kind: flat}})
+			dst = append(dst, oedge{from: from, to: to, fn: fnRef{st: -1, kind: flat}})
 		}
 	}
 	for i, c := range below {
-		if c.hi.kind != clipHi && c.br != tr[i] {
-			dst = append(dst, oedge{from: c.br, to: tr[i], fn: c.hi})
+		if c.hi.kind != clipHi && c.rs != o.topR[i] {
+			dst = append(dst, oedge{from: c.rs, to: o.topR[i], fn: c.hi})
 		}
-		if c.lo.kind != clipLo && tl[i] != c.bl {
-			dst = append(dst, oedge{from: tl[i], to: c.bl, fn: c.lo})
+		if c.lo.kind != clipLo && o.topL[i] != c.le {
+			dst = append(dst, oedge{from: o.topL[i], to: c.le, fn: c.lo})
 		}
 	}
 	return dst
+}
+
+// carry continues a side edge of a cell below in the cell above when the
+// two marks of a vertex are that side of both on one end function: the
+// edge's open end moves up (and the cell below's edge becomes empty).
+func carry(group []mark, below, above []corner, o *outliner) {
+	b, a := group[0], group[1]
+	if b.above {
+		b, a = a, b
+	}
+	if b.above || !a.above || a.hi != b.hi {
+		return
+	}
+	lo, up := &below[b.cell], &above[a.cell]
+	switch {
+	case a.hi && sameFn(lo.hi, up.hi) && lo.hi.kind != clipHi:
+		up.rs, o.topR[b.cell] = lo.rs, lo.rs
+	case !a.hi && sameFn(lo.lo, up.lo) && lo.lo.kind != clipLo:
+		up.le, o.topL[b.cell] = lo.le, lo.le
+	}
+}
+
+// resize returns s with length n (contents unspecified).
+func resize(s []r2.Vec, n int) []r2.Vec {
+	if cap(s) < n {
+		return make([]r2.Vec, n)
+	}
+	return s[:n]
 }
 
 // snap returns end function f at y, set to the strip bound it lies within

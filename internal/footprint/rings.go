@@ -155,11 +155,13 @@ func (sw *sweep) chords(dst []r2.Vec, fn fnRef, p, q r2.Vec, step float64) []r2.
 	return dst
 }
 
-// ring is one closed ring with its signed area and bounding box.
+// ring is one closed ring with its signed area, bounding box and, once
+// built, its band index.
 type ring struct {
 	pts    []r2.Vec
 	area   float64
 	lo, hi r2.Vec
+	bands  [][]int32 // sides (by first point) crossing each horizontal band
 }
 
 // assemble sorts the rings into polygons: counter-clockwise rings are
@@ -195,8 +197,9 @@ func assemble(rings [][]r2.Vec, origin r2.Vec, tol float64) orb.MultiPolygon {
 	for _, h := range holes {
 		p := probe(h.pts)
 		best := -1
-		for i, s := range shells {
-			if p.X < s.lo.X || p.X > s.hi.X || p.Y < s.lo.Y || p.Y > s.hi.Y || !inRing(p, s.pts) {
+		for i := range shells {
+			s := &shells[i]
+			if p.X < s.lo.X || p.X > s.hi.X || p.Y < s.lo.Y || p.Y > s.hi.Y || !s.contains(p) {
 				continue
 			}
 			if best < 0 || s.area < shells[best].area {
@@ -210,6 +213,44 @@ func assemble(rings [][]r2.Vec, origin r2.Vec, tol float64) orb.MultiPolygon {
 	return mp
 }
 
+// contains reports whether p lies inside the ring, by the parity of the
+// ring's crossings of the ray from p towards +x (the crossing-number test;
+// e.g. O'Rourke, J. 1998, Computational Geometry in C, 2nd ed., §7.4). Only
+// the sides in p's horizontal band are tested: the ring's sides are
+// indexed into about one band per 8 sides on first use, so testing many
+// holes against one large outer ring stays linear.
+func (rg *ring) contains(p r2.Vec) bool {
+	n := len(rg.pts)
+	if rg.bands == nil {
+		rg.bands = make([][]int32, max(1, n/8))
+		for i, a := range rg.pts {
+			b := rg.pts[(i+1)%n]
+			k0, k1 := rg.band(min(a.Y, b.Y)), rg.band(max(a.Y, b.Y))
+			for k := k0; k <= k1; k++ {
+				rg.bands[k] = append(rg.bands[k], int32(i))
+			}
+		}
+	}
+	in := false
+	for _, i := range rg.bands[rg.band(p.Y)] {
+		a, b := rg.pts[i], rg.pts[(int(i)+1)%n]
+		if (a.Y > p.Y) != (b.Y > p.Y) && p.X < a.X+(p.Y-a.Y)*(b.X-a.X)/(b.Y-a.Y) {
+			in = !in
+		}
+	}
+	return in
+}
+
+// band returns the band of height y (clamped to the ring's).
+func (rg *ring) band(y float64) int {
+	nb := len(rg.bands)
+	h := (rg.hi.Y - rg.lo.Y) / float64(nb)
+	if !(h > 0) {
+		return 0
+	}
+	return max(0, min(nb-1, int((y-rg.lo.Y)/h)))
+}
+
 // probe returns the middle of the longest side of a ring.
 func probe(pts []r2.Vec) r2.Vec {
 	var best r2.Vec
@@ -221,20 +262,6 @@ func probe(pts []r2.Vec) r2.Vec {
 		}
 	}
 	return best
-}
-
-// inRing reports whether p lies inside the ring, by the parity of the
-// ring's crossings of the ray from p towards +x (the crossing-number test;
-// e.g. O'Rourke, J. 1998, Computational Geometry in C, 2nd ed., §7.4).
-func inRing(p r2.Vec, pts []r2.Vec) bool {
-	in := false
-	for i, a := range pts {
-		b := pts[(i+1)%len(pts)]
-		if (a.Y > p.Y) != (b.Y > p.Y) && p.X < a.X+(p.Y-a.Y)*(b.X-a.X)/(b.Y-a.Y) {
-			in = !in
-		}
-	}
-	return in
 }
 
 // toOrb returns the ring as a closed orb.Ring moved back by origin.

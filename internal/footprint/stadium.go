@@ -61,7 +61,11 @@ const (
 )
 
 // pieceAt returns the piece of the given side (0 left, 1 right) that
-// holds height y.
+// holds height y. At a break height both neighbouring pieces give the same
+// x, except at the flat edge of a horizontal segment (n = (0, 1)): there
+// the left end is at the top, where the closed stadium's cross-section is
+// the whole edge and its left end is a.X, which arc A gives (hence ≤ on
+// the left); the right end is at the bottom, where arc B gives b.X.
 func (f *frame) pieceAt(side int, r, y float64) uint8 {
 	s := r * f.n.Y
 	if side == 1 {
@@ -69,7 +73,7 @@ func (f *frame) pieceAt(side int, r, y float64) uint8 {
 	}
 	base := uint8(3 * side)
 	switch {
-	case y < f.a.Y+s:
+	case y < f.a.Y+s || (side == 0 && y == f.a.Y+s):
 		return base
 	case y < f.b.Y+s:
 		return base + 1
