@@ -67,6 +67,11 @@ func TestAreaClosedForms(t *testing.T) {
 		{"collinear overlap, oblique, reversed", []dfn.Segment{seg(0, 0, 6, 8), seg(9, 12, 3, 4)}, steiner(seg(0, 0, 9, 12), r)},
 		{"duplicate segment", []dfn.Segment{seg(1, 2, 7, 3), seg(7, 3, 1, 2)}, steiner(seg(1, 2, 7, 3), r)},
 		{"collinear, touching at an end", []dfn.Segment{seg(0, 0, 4, 0), seg(4, 0, 10, 0)}, steiner(seg(0, 0, 10, 0), r)},
+		// A run that folds back on itself must not be merged into its
+		// shorter chord.
+		{"collinear, folding back", []dfn.Segment{seg(0, 0, 10, 0), seg(10, 0, 4, 0)}, steiner(seg(0, 0, 10, 0), r)},
+		{"collinear chain with a gap", []dfn.Segment{seg(0, 0, 4, 0), seg(4, 0, 6, 0), seg(6+2*r+1, 0, 20, 0)},
+			steiner(seg(0, 0, 6, 0), r) + steiner(seg(6+2*r+1, 0, 20, 0), r)},
 		{"segment inside another", []dfn.Segment{seg(0, 0, 10, 10), seg(2, 2, 3, 3)}, steiner(seg(0, 0, 10, 10), r)},
 		{"no segments", nil, 0},
 	} {

@@ -278,19 +278,25 @@ func (sw *sweep) clip(e entry, x0, x1, y0, y1 float64) (cell, bool) {
 
 // mergeCells sorts ws.iv by left end (insertion sort: a slab holds few
 // intervals, nearly in the previous slab's order) and merges those that
-// overlap or lie closer than gap into ws.cells.
+// overlap or lie closer than gap into ws.cells. On a tie a strip bound
+// wins over a stadium end clamped to it, so a cell ends at a strip bound
+// exactly where some stadium covers the bound by the shared coverage,
+// as the neighbouring strip sees it.
 func mergeCells(ws *workspace, gap float64) []cell {
 	iv := ws.iv
+	before := func(a, b cell) bool {
+		return a.xlo < b.xlo || (a.xlo == b.xlo && a.lo.kind == clipLo && b.lo.kind != clipLo)
+	}
 	for i := 1; i < len(iv); i++ {
-		for j := i; j > 0 && iv[j].xlo < iv[j-1].xlo; j-- {
+		for j := i; j > 0 && before(iv[j], iv[j-1]); j-- {
 			iv[j], iv[j-1] = iv[j-1], iv[j]
 		}
 	}
 	cells := ws.cells[:0]
 	for _, c := range iv {
 		if n := len(cells); n > 0 && c.xlo <= cells[n-1].xhi+gap {
-			if c.xhi > cells[n-1].xhi {
-				cells[n-1].hi, cells[n-1].xhi = c.hi, c.xhi
+			if last := &cells[n-1]; c.xhi > last.xhi || (c.xhi == last.xhi && c.hi.kind == clipHi) {
+				last.hi, last.xhi = c.hi, c.xhi
 			}
 			continue
 		}
