@@ -165,3 +165,32 @@ func TestOutlineErrors(t *testing.T) {
 		}
 	}
 }
+
+// Points exactly on their neighbours' line go, spikes included, and the
+// ring's corners stay (plane geometry).
+func TestDropCollinear(t *testing.T) {
+	v := func(x, y float64) r2.Vec { return r2.Vec{X: x, Y: y} }
+	for _, c := range []struct {
+		name     string
+		in, want []r2.Vec
+	}{
+		{"square", []r2.Vec{v(0, 0), v(1, 0), v(1, 1), v(0, 1)}, []r2.Vec{v(0, 0), v(1, 0), v(1, 1), v(0, 1)}},
+		{"straight run", []r2.Vec{v(0, 0), v(0.5, 0), v(1, 0), v(1, 1), v(0, 1)}, []r2.Vec{v(0, 0), v(1, 0), v(1, 1), v(0, 1)}},
+		{"repeated point", []r2.Vec{v(0, 0), v(1, 0), v(1, 0), v(1, 1), v(0, 1)}, []r2.Vec{v(0, 0), v(1, 0), v(1, 1), v(0, 1)}},
+		{"spike on a side", []r2.Vec{v(0, 0), v(1, 0), v(1, 0.5), v(1, 0.7), v(1, 0.6), v(1, 1), v(0, 1)}, []r2.Vec{v(0, 0), v(1, 0), v(1, 1), v(0, 1)}},
+		{"flat point at the start", []r2.Vec{v(0.5, 0), v(1, 0), v(1, 1), v(0, 1), v(0, 0)}, []r2.Vec{v(1, 0), v(1, 1), v(0, 1), v(0, 0)}},
+		{"flat point at the end", []r2.Vec{v(1, 0), v(1, 1), v(0, 1), v(0, 0), v(0.5, 0)}, []r2.Vec{v(1, 0), v(1, 1), v(0, 1), v(0, 0)}},
+	} {
+		got := dropCollinear(append([]r2.Vec(nil), c.in...))
+		if len(got) != len(c.want) {
+			t.Errorf("%s: %v, want %v", c.name, got, c.want)
+			continue
+		}
+		for i := range got {
+			if got[i] != c.want[i] {
+				t.Errorf("%s: %v, want %v", c.name, got, c.want)
+				break
+			}
+		}
+	}
+}

@@ -129,7 +129,36 @@ func (sw *sweep) ringPoints(edges []oedge, ring []int32, step float64) []r2.Vec 
 		}
 		i = j
 	}
-	return pts
+	return dropCollinear(pts)
+}
+
+// dropCollinear removes the points of a closed ring that lie exactly on
+// the line of their neighbours (r2.Cross of the two sides is 0): repeated
+// points, points inside a straight run, and the tips of zero-width spikes,
+// which a ring makes where it steps along a strip bound by a rounding
+// step and back. Such points add no area, and a spike would make the
+// ring touch itself (invalid in OGC simple features).
+func dropCollinear(pts []r2.Vec) []r2.Vec {
+	flat := func(a, b, c r2.Vec) bool { return r2.Cross(r2.Sub(b, a), r2.Sub(c, b)) == 0 }
+	out := pts[:0]
+	for _, p := range pts {
+		out = append(out, p)
+		for n := len(out); n >= 3 && flat(out[n-3], out[n-2], out[n-1]); n = len(out) {
+			out = append(out[:n-2], out[n-1])
+		}
+	}
+	// Across the ring's start: drop the last or the first point while it
+	// is flat between its neighbours.
+	for changed := true; changed && len(out) >= 3; {
+		changed = false
+		n := len(out)
+		if flat(out[n-2], out[n-1], out[0]) {
+			out, changed = out[:n-1], true
+		} else if flat(out[n-1], out[0], out[1]) {
+			out, changed = out[1:], true
+		}
+	}
+	return out
 }
 
 // chords appends the inner points of the arc of fn from p to q, walked
@@ -173,6 +202,9 @@ type ring struct {
 func assemble(rings [][]r2.Vec, origin r2.Vec, tol float64) orb.MultiPolygon {
 	var shells, holes []ring
 	for _, pts := range rings {
+		if len(pts) < 3 {
+			continue
+		}
 		rg := ring{pts: pts, lo: pts[0], hi: pts[0]}
 		per := 0.0
 		for i, p := range pts {
