@@ -114,7 +114,7 @@
 //     summation.
 //   - Press, W.H., Teukolsky, S.A., Vetterling, W.T. & Flannery, B.P. 2007,
 //     Numerical Recipes, 3rd ed., Cambridge UP, §5.6: roots of a quadratic
-//     without cancellation.
+//     without cancellation (section from memory).
 //   - Butler, H. et al. 2016, RFC 7946, The GeoJSON Format, §3.1.6: ring
 //     winding.
 package footprint

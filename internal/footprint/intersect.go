@@ -118,7 +118,8 @@ func segmentsCross(dst []r2.Vec, p0, p1, q0, q1 r2.Vec) []r2.Vec {
 // centre c and radius r: the roots t of |p0 + t·u − c|² = r², i.e.
 // A t² + 2B t + C = 0 with A = u·u, B = f·u, C = f·f − r², f = p0 − c.
 // The roots are taken in the cancellation-free form q = −(B + sgn(B)·√D),
-// t = q/A, t = C/q (Press et al. 2007, Numerical Recipes, 3rd ed., §5.6);
+// t = q/A, t = C/q (Press et al. 2007, Numerical Recipes, 3rd ed., §5.6,
+// section from memory);
 // a discriminant D = B² − AC down to −nearSlack·(B² + |AC|) is a tangency.
 func segmentCircle(dst []r2.Vec, p0, p1, c r2.Vec, r float64) []r2.Vec {
 	u, f := r2.Sub(p1, p0), r2.Sub(p0, c)

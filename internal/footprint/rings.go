@@ -247,10 +247,10 @@ func assemble(rings [][]r2.Vec, origin r2.Vec, tol float64) orb.MultiPolygon {
 
 // contains reports whether p lies inside the ring, by the parity of the
 // ring's crossings of the ray from p towards +x (the crossing-number test;
-// e.g. O'Rourke, J. 1998, Computational Geometry in C, 2nd ed., §7.4). Only
-// the sides in p's horizontal band are tested: the ring's sides are
-// indexed into about one band per 8 sides on first use, so testing many
-// holes against one large outer ring stays linear.
+// O'Rourke, J. 1998, Computational Geometry in C, 2nd ed., §7.4, from
+// memory). Only the sides in p's horizontal band are tested: the ring's
+// sides are indexed into about one band per 8 sides on first use, so
+// testing many holes against one large outer ring stays linear.
 func (rg *ring) contains(p r2.Vec) bool {
 	n := len(rg.pts)
 	if rg.bands == nil {

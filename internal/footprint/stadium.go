@@ -127,11 +127,11 @@ func edgeX(a, b, o r2.Vec, y float64) float64 {
 }
 
 // arcIntegral returns ∫ √(r² − (y − c)²) dy over [y0, y1] with
-// t = y − c: the antiderivative is ½(t·√(r² − t²) + r²·asin(t/r))
-// (e.g. Abramowitz & Stegun 1964, Handbook of Mathematical Functions,
-// eq. 3.3.45 form √(a² − x²)). The difference of the asin terms is taken
-// as one atan2 of the angle between the two radii, so a thin slab keeps
-// its relative accuracy:
+// t = y − c: the antiderivative is F(t) = ½(t·s + r²·asin(t/r)),
+// s = √(r² − t²), since F′ = ½(s − t²/s + r²/s) = ½(s + s) = s (derived
+// here). The difference of the asin terms is taken as one atan2 of the
+// angle between the two radii, so a thin slab keeps its relative
+// accuracy:
 //
 //	asin(t1/r) − asin(t0/r) = atan2(t1·s0 − t0·s1, s0·s1 + t0·t1),  s = √(r² − t²).
 func arcIntegral(r, t0, t1 float64) float64 {
