@@ -196,12 +196,20 @@ func (sw *sweep) run(s int, ws *workspace, gap float64, visit visitor) {
 }
 
 // breaks returns the sorted distinct break heights of strip s: the ends of
-// every entry, where stadiums cross the strip bounds, their key points in
-// the strip, and the crossings of every two stadium boundaries in the
-// strip. ws.order must hold the strip's entries sorted by lo.
+// every entry, where stadiums cross the strip bounds, their tangent
+// points in the strip, and the crossings of every two stadium boundaries
+// in the strip. ws.order must hold the strip's entries sorted by lo.
+//
+// A tangent point or a crossing strictly inside a third stadium is left
+// out: the union's maximal intervals can change only where their ends
+// meet, change piece or leave the strip, all on the union's boundary, so a
+// break height inside the union changes nothing but the order of ends
+// that are hidden. The third stadium is looked for among the entries open
+// at the time (a cheap, partial search: a point it misses stays).
 func (sw *sweep) breaks(s int, ws *workspace) []float64 {
 	ev := ws.ev[:0]
 	var key [8]r2.Vec
+	ws.act = ws.act[:0]
 	for _, e := range ws.order {
 		ev = append(ev, e.lo, e.hi)
 		for _, c := range e.cov {
@@ -209,17 +217,14 @@ func (sw *sweep) breaks(s int, ws *workspace) []float64 {
 				ev = append(ev, c[0], c[1])
 			}
 		}
+		// Pairs of entries whose y-ranges overlap: a sweep over lo with
+		// the list of entries still open.
+		ws.act = slices.DeleteFunc(ws.act, func(a entry) bool { return a.hi < e.lo })
 		for _, p := range sw.st[e.st].keyPoints(key[:0], sw.r)[4:] {
-			if sw.inStrip(p.X, s) {
+			if sw.inStrip(p.X, s) && !sw.hidden(p, ws.act, e.st, e.st) {
 				ev = append(ev, p.Y)
 			}
 		}
-	}
-	// Pairs of entries whose y-ranges overlap: a sweep over lo with the
-	// list of entries still open.
-	ws.act = ws.act[:0]
-	for _, e := range ws.order {
-		ws.act = slices.DeleteFunc(ws.act, func(a entry) bool { return a.hi < e.lo })
 		t := &sw.st[e.st]
 		for _, a := range ws.act {
 			u := &sw.st[a.st]
@@ -228,7 +233,7 @@ func (sw *sweep) breaks(s int, ws *workspace) []float64 {
 			}
 			ws.pts = boundaryCrossings(ws.pts[:0], u, t, sw.r)
 			for _, p := range ws.pts {
-				if sw.inStrip(p.X, s) {
+				if sw.inStrip(p.X, s) && !sw.hidden(p, ws.act, a.st, e.st) {
 					ev = append(ev, p.Y)
 				}
 			}
@@ -237,6 +242,22 @@ func (sw *sweep) breaks(s int, ws *workspace) []float64 {
 	}
 	slices.Sort(ev)
 	return slices.Compact(ev)
+}
+
+// hidden reports whether p lies inside one of the stadiums of open (other
+// than i and j) by more than onBoundary·r.
+func (sw *sweep) hidden(p r2.Vec, open []entry, i, j int32) bool {
+	lim := sw.r * sw.r * (1 - 4*onBoundary)
+	for _, k := range open {
+		st := &sw.st[k.st]
+		if k.st == i || k.st == j || p.X <= st.xmin || p.X >= st.xmax || p.Y <= st.ymin || p.Y >= st.ymax {
+			continue
+		}
+		if st.dist2(p) < lim {
+			return true
+		}
+	}
+	return false
 }
 
 // clip returns the cross-section of entry e in the slab [y0, y1] (at its
