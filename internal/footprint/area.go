@@ -114,13 +114,23 @@ func Area(segs []dfn.Segment, r float64) (float64, error) {
 	return reg.area(), nil
 }
 
-// area sweeps every strip, in parallel over GOMAXPROCS workers, and adds
-// the strips' areas in strip order (so the result does not depend on the
-// number of workers).
+// area sweeps every strip and adds the strips' areas in strip order (so
+// the result does not depend on the number of workers).
 func (reg *region) area() float64 {
 	sw := reg.sw
+	parts := make([]float64, len(sw.lines)-1)
+	sw.eachStrip(func(s int, ws *workspace) { parts[s] = sw.stripArea(s, ws) })
+	var sum neumaier
+	for _, p := range parts {
+		sum.add(p)
+	}
+	return sum.value()
+}
+
+// eachStrip calls do for every strip, spread over GOMAXPROCS workers, each
+// with its own workspace.
+func (sw *sweep) eachStrip(do func(s int, ws *workspace)) {
 	n := len(sw.lines) - 1
-	parts := make([]float64, n)
 	workers := min(runtime.GOMAXPROCS(0), n)
 	var wg sync.WaitGroup
 	for w := range workers {
@@ -129,16 +139,11 @@ func (reg *region) area() float64 {
 			defer wg.Done()
 			var ws workspace
 			for s := w; s < n; s += workers {
-				parts[s] = sw.stripArea(s, &ws)
+				do(s, &ws)
 			}
 		}()
 	}
 	wg.Wait()
-	var sum neumaier
-	for _, p := range parts {
-		sum.add(p)
-	}
-	return sum.value()
 }
 
 // stripArea returns the area of the region within strip s: over each slab

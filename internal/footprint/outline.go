@@ -60,12 +60,13 @@ func Outline(segs []dfn.Segment, r float64, opt OutlineOptions) (orb.MultiPolygo
 		return nil, fmt.Errorf("footprint: sagitta = %g m: must be in (0, %g] (the radius)", opt.Sagitta, r)
 	}
 	tol := 8*math.Sqrt(epsilon*r*reg.scale) + 64*epsilon*reg.scale
-	var edges []oedge
-	var ws workspace
-	var o outliner
-	for k := range len(reg.sw.lines) - 1 {
-		edges = reg.sw.stripOutline(edges, k, &ws, &o, tol)
-	}
+	// Strips in parallel, their edges joined in strip order.
+	parts := make([][]oedge, len(reg.sw.lines)-1)
+	reg.sw.eachStrip(func(k int, ws *workspace) {
+		var o outliner
+		parts[k] = reg.sw.stripOutline(nil, k, ws, &o, tol)
+	})
+	edges := slices.Concat(parts...)
 	rings := chain(reg.sw, edges, 2*math.Acos(1-s/r))
 	return assemble(rings, reg.origin, tol), nil
 }

@@ -3,6 +3,7 @@ package footprint
 import (
 	"math"
 	"math/rand/v2"
+	"runtime"
 	"testing"
 
 	"github.com/paulmach/orb"
@@ -192,5 +193,23 @@ func TestDropCollinear(t *testing.T) {
 				break
 			}
 		}
+	}
+}
+
+// The outline does not depend on the number of workers (strips are joined
+// in order): compared point by point, exactly.
+func TestOutlineDeterministic(t *testing.T) {
+	segs := network(rand.New(rand.NewPCG(17, 18)), 300)
+	many, err := Outline(segs, 4, OutlineOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer runtime.GOMAXPROCS(runtime.GOMAXPROCS(1))
+	one, err := Outline(segs, 4, OutlineOptions{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(many) < 2 || !many.Equal(one) {
+		t.Errorf("%d polygons with GOMAXPROCS workers, %d with one; equal: %v", len(many), len(one), many.Equal(one))
 	}
 }
