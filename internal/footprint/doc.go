@@ -55,7 +55,7 @@
 // strip width w and r, measured from the strip's left bound, so its
 // absolute error is below about 8ε(w·h + r²) for a slab of height h
 // (ε = 2⁻⁵³); the terms are added with compensated summation. For the
-// 10⁵-segment benchmark network (2.8·10⁶ terms, w ≈ 25 m, r = 5 m) this
+// 10⁵-segment benchmark network (2·10⁶ terms, w ≈ 25 m, r = 5 m) this
 // bounds the relative error by about 1e-14. A break height computed with
 // a rounding error δ leaves two ends in the wrong order only between the
 // true and the computed height, where they differ by at most their slope

@@ -24,6 +24,9 @@ const nearSlack = 1e-9
 // both boundaries (those on the inner half of a circle, inside its own
 // stadium) are dropped.
 func boundaryCrossings(dst []r2.Vec, s, t *stadium, r float64) []r2.Vec {
+	if segmentsApart(&s.frame, &t.frame, 2*r*(1+nearSlack)) {
+		return dst // disjoint stadiums: no crossing
+	}
 	n := len(dst)
 	dst = allCrossings(dst, s, t, r)
 	tol := 2 * onBoundary * r * r // |d² − r²| ≈ 2r·|d − r|
@@ -47,6 +50,21 @@ func (f *frame) dist2(p r2.Vec) float64 {
 	}
 	v := r2.Sub(p, r2.Add(f.a, r2.Scale(t, d)))
 	return r2.Dot(v, v)
+}
+
+// segmentsApart reports whether the segments of f and g are more than d
+// apart. Segments that do not cross are closest at an end of one of them
+// (plane geometry), so the distance is the least of the four end-to-
+// segment distances; crossing segments are never apart.
+func segmentsApart(f, g *frame, d float64) bool {
+	d2 := d * d
+	if f.dist2(g.a) <= d2 || f.dist2(g.b) <= d2 || g.dist2(f.a) <= d2 || g.dist2(f.b) <= d2 {
+		return false
+	}
+	u, v := r2.Sub(f.b, f.a), r2.Sub(g.b, g.a)
+	s1, s2 := r2.Cross(u, r2.Sub(g.a, f.a)), r2.Cross(u, r2.Sub(g.b, f.a))
+	s3, s4 := r2.Cross(v, r2.Sub(f.a, g.a)), r2.Cross(v, r2.Sub(f.b, g.a))
+	return !(s1*s2 <= 0 && s3*s4 <= 0)
 }
 
 // allCrossings appends every crossing of the stadiums' edges and whole end

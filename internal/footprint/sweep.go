@@ -305,13 +305,16 @@ func (sw *sweep) clip(e entry, x0, x1, y0, y1 float64) (cell, bool) {
 // as the neighbouring strip sees it.
 func mergeCells(ws *workspace, gap float64) []cell {
 	iv := ws.iv
-	before := func(a, b cell) bool {
-		return a.xlo < b.xlo || (a.xlo == b.xlo && a.lo.kind == clipLo && b.lo.kind != clipLo)
-	}
 	for i := 1; i < len(iv); i++ {
-		for j := i; j > 0 && before(iv[j], iv[j-1]); j-- {
-			iv[j], iv[j-1] = iv[j-1], iv[j]
+		c, j := iv[i], i
+		for ; j > 0; j-- {
+			p := &iv[j-1]
+			if !(c.xlo < p.xlo || (c.xlo == p.xlo && c.lo.kind == clipLo && p.lo.kind != clipLo)) {
+				break
+			}
+			iv[j] = *p
 		}
+		iv[j] = c
 	}
 	cells := ws.cells[:0]
 	for _, c := range iv {
