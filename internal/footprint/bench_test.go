@@ -38,3 +38,11 @@ func BenchmarkArea1e5(b *testing.B)    { bench(b, 100_000, area) }
 func BenchmarkOutline1e3(b *testing.B) { bench(b, 1_000, outline) }
 func BenchmarkOutline1e4(b *testing.B) { bench(b, 10_000, outline) }
 func BenchmarkOutline1e5(b *testing.B) { bench(b, 100_000, outline) }
+
+func envelope(segs []dfn.Segment) error {
+	_, _, err := EnvelopeArea(segs, benchRadius)
+	return err
+}
+
+func BenchmarkEnvelope1e4(b *testing.B) { bench(b, 10_000, envelope) }
+func BenchmarkEnvelope1e5(b *testing.B) { bench(b, 100_000, envelope) }

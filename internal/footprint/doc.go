@@ -93,10 +93,11 @@
 // measured normal to it, r = s/2. The union's area is the recommended
 // headline: it grows only where fractures are stimulated, never depends
 // on a display grid, counts overlapping reaches once and lies between the
-// largest stadium and the sum of all. An envelope (a convex hull around
-// each connected group) would add the unstimulated rock in the bays
-// between fractures and jump when two groups join, so it suits a picture
-// better than a number.
+// largest stadium and the sum of all. The envelope (EnvelopeArea: the
+// convex hull of each connected group grown by r, groups joined while
+// their hulls overlap) adds the unstimulated rock in the bays between
+// fractures and jumps when two groups join, so it suits a comparison
+// better than a headline.
 //
 // # References
 //
@@ -109,6 +110,9 @@
 //   - Bentley, J.L. & Ottmann, T.A. 1979, "Algorithms for reporting and
 //     counting geometric intersections", IEEE Trans. Comput. C-28(9),
 //     643–647: the plane sweep between event heights (from memory).
+//   - Andrew, A.M. 1979, "Another efficient algorithm for convex hulls in
+//     two dimensions", Inf. Process. Lett. 9(5), 216–219: the monotone
+//     chain hull (from memory).
 //   - Neumaier, A. 1974, "Rundungsfehleranalyse einiger Verfahren zur
 //     Summation endlicher Summen", ZAMM 54(1), 39–51: compensated
 //     summation.

@@ -48,3 +48,28 @@ func ExampleOutline() {
 	// Output:
 	// 1 polygon with 1 hole; hole 400 m²; outline area 1178.3 m², exact 1178.5 m²
 }
+
+// Two fractures in an L: the union counts the rock within r of them, the
+// two stadiums (2rL + πr² each) less their overlap, the shared disc at the
+// corner and the r × r corner square's part outside it; the envelope also
+// counts the bay between them: the 30-40-50 triangle grown by r,
+// 600 + 5·120 + 25π m² (Steiner formula).
+func ExampleEnvelopeArea() {
+	segs := []dfn.Segment{
+		{P0: r2.Vec{X: 0, Y: 0}, P1: r2.Vec{X: 40, Y: 0}},
+		{P0: r2.Vec{X: 0, Y: 0}, P1: r2.Vec{X: 0, Y: 30}},
+	}
+	u, err := footprint.Area(segs, 5)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	e, groups, err := footprint.EnvelopeArea(segs, 5)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	fmt.Printf("union %.1f m², envelope %.1f m² in %d group\n", u, e, groups)
+	// Output:
+	// union 773.2 m², envelope 1278.5 m² in 1 group
+}

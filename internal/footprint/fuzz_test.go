@@ -51,12 +51,12 @@ func fuzzSegments(data []byte) ([]dfn.Segment, float64) {
 	return segs, r
 }
 
-// FuzzArea checks, on any input, that Area and Outline do not panic, that
-// the area lies between the largest stadium's and the sum of all (the
-// union contains each and is covered by all; Steiner formula, see
-// steiner), and that the outline is well formed and inscribed
-// (checkOutline). Inputs too fine for their coordinates must be refused
-// by both alike.
+// FuzzArea checks, on any input, that Area, Outline and EnvelopeArea do
+// not panic, that the area lies between the largest stadium's and the sum
+// of all (the union contains each and is covered by all; Steiner formula,
+// see steiner), that the outline is well formed and inscribed
+// (checkOutline), and that the envelope is no smaller than the union.
+// Inputs too fine for their coordinates must be refused by all alike.
 func FuzzArea(f *testing.F) {
 	f.Add([]byte{3, 0, 0, 0, 0, 10, 0})
 	f.Add([]byte{2, 0, 0, 0, 0, 20, 0, 2, 16, 48, 0, 0, 3, 0, 0, 0, 20, 4, 0, 0, 0, 0})
@@ -86,6 +86,14 @@ func FuzzArea(f *testing.F) {
 		}
 		if len(segs) > 0 {
 			checkOutline(t, "fuzz", segs, mp, r, 0.01*r)
+		}
+		// The envelope holds the union.
+		e, _, err := EnvelopeArea(segs, r)
+		if err != nil {
+			t.Fatalf("EnvelopeArea: %v after Area succeeded", err)
+		}
+		if e < a-slack {
+			t.Fatalf("envelope %.15g below the area %.15g", e, a)
 		}
 	})
 }
