@@ -51,13 +51,13 @@ func fuzzSegments(data []byte) ([]dfn.Segment, float64) {
 	return segs, r
 }
 
-// FuzzArea checks, on any input, that Area, Outline and EnvelopeArea do
+// FuzzFootprint checks, on any input, that Area, Outline and EnvelopeArea do
 // not panic, that the area lies between the largest stadium's and the sum
 // of all (the union contains each and is covered by all; Steiner formula,
 // see steiner), that the outline is well formed and inscribed
 // (checkOutline), and that the envelope is no smaller than the union.
 // Inputs too fine for their coordinates must be refused by all alike.
-func FuzzArea(f *testing.F) {
+func FuzzFootprint(f *testing.F) {
 	f.Add([]byte{3, 0, 0, 0, 0, 10, 0})
 	f.Add([]byte{2, 0, 0, 0, 0, 20, 0, 2, 16, 48, 0, 0, 3, 0, 0, 0, 20, 4, 0, 0, 0, 0})
 	f.Add([]byte{1, 11, 0, 1, 1, 5, 5, 1, 3, 3, 0, 0, 5, 0, 0, 0, 100, 0, 0, 0})
