@@ -186,9 +186,9 @@ func (s *stadium) column(r, x float64) (lo, hi float64) {
 	return s.vert.cross(r, x)
 }
 
-// keyPoints appends the points where the stadium's end functions change
-// piece or the stadium starts or ends: bottom, top, leftmost, rightmost
-// and the four tangent points.
+// keyPoints appends the stadium's extreme points (bottom, top, leftmost,
+// rightmost: the first four, which bound its extent in a strip) and then
+// the four tangent points where its end functions change piece.
 func (s *stadium) keyPoints(dst []r2.Vec, r float64) []r2.Vec {
 	f := &s.frame
 	rn := r2.Scale(r, f.n)
