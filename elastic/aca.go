@@ -51,7 +51,10 @@ const acaChecks = 2
 // approximation is also checked on acaChecks unused rows, and continued
 // from any row whose residual is above the tolerance.
 //
-// It returns ok = false when the rank would exceed maxRank.
+// A block whose approximation is below half of abs altogether is
+// dropped (rank 0): far from each other, elements interact too weakly to
+// matter at the tolerance asked. It returns ok = false when the rank
+// would exceed maxRank.
 func aca(src source, rows, cols []int, tol, abs float64, maxRank int) (lr lowRank, ok bool) {
 	rd, cd := src.dims()
 	m := len(rows)
@@ -106,6 +109,11 @@ func aca(src source, rows, cols []int, tol, abs float64, maxRank int) (lr lowRan
 		bound := max(tol*tol*norm2, abs*abs) / 4
 		if step2 <= bound {
 			if i = failedCheck(src, row, rows, cols, used, us, vs, 4*bound); i < 0 {
+				if norm2 <= abs*abs/4 {
+					// The whole block is below its share of the error:
+					// rank 0, nothing to store.
+					return lowRank{}, true
+				}
 				break
 			}
 			continue

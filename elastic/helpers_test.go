@@ -3,7 +3,9 @@ package elastic
 import (
 	"math"
 	"math/rand/v2"
+	"testing"
 
+	"gonum.org/v1/gonum/mat"
 	"gonum.org/v1/gonum/spatial/r2"
 )
 
@@ -67,4 +69,64 @@ func randomVector(r *rand.Rand, n int, scale float64) []float64 {
 		v[i] = scale * (2*r.Float64() - 1)
 	}
 	return v
+}
+
+// solveTractions returns the slip and opening at which the operator's
+// tractions equal tau and sigma, by a dense LU solve.
+func solveTractions(t testing.TB, op Operator, tau, sigma []float64) (slip, opening []float64) {
+	t.Helper()
+	n := op.Len()
+	a := mat.NewDense(2*n, 2*n, nil)
+	for i := range n {
+		for j := range n {
+			b := op.At(i, j)
+			a.Set(i, j, b.ShearSlip)
+			a.Set(i, n+j, b.ShearOpening)
+			a.Set(n+i, j, b.NormalSlip)
+			a.Set(n+i, n+j, b.NormalOpening)
+		}
+	}
+	rhs := mat.NewVecDense(2*n, append(append([]float64(nil), tau...), sigma...))
+	var x mat.VecDense
+	if err := x.SolveVec(a, rhs); err != nil {
+		t.Fatalf("solve: %v", err)
+	}
+	slip, opening = make([]float64, n), make([]float64, n)
+	for i := range n {
+		slip[i], opening[i] = x.AtVec(i), x.AtVec(n+i)
+	}
+	return slip, opening
+}
+
+// straightCrack returns n equal elements of height h on |x| ≤ c, y = y0,
+// from west to east.
+func straightCrack(n int, c, y0, h float64) []Element {
+	el := make([]Element, n)
+	for k := range el {
+		el[k] = Element{
+			P0:     r2.Vec{X: -c + 2*c*float64(k)/float64(n), Y: y0},
+			P1:     r2.Vec{X: -c + 2*c*float64(k+1)/float64(n), Y: y0},
+			Height: h,
+		}
+	}
+	return el
+}
+
+// constant returns n copies of v.
+func constant(n int, v float64) []float64 {
+	out := make([]float64, n)
+	for i := range out {
+		out[i] = v
+	}
+	return out
+}
+
+// mustDense builds a Dense operator or fails the test.
+func mustDense(t testing.TB, el []Element, s Settings) *Dense {
+	t.Helper()
+	d, err := NewDense(el, rock, s)
+	if err != nil {
+		t.Fatalf("NewDense: %v", err)
+	}
+	return d
 }

@@ -185,6 +185,9 @@ func (h *hmatrix) makePlan() {
 	lists := make([][]step, nl)
 	for b := range h.blocks {
 		blk := &h.blocks[b]
+		if blk.dense == nil && blk.k == 0 {
+			continue // dropped
+		}
 		rn, cn := &h.rows.nodes[blk.spec.row], &h.cols.nodes[blk.spec.col]
 		for l := rn.leafLo; l < rn.leafHi; l++ {
 			lists[l] = append(lists[l], step{b: b})
@@ -317,6 +320,7 @@ type Stats struct {
 	Elements      int     // number of elements
 	DenseBlocks   int     // near-field blocks stored in full
 	LowRankBlocks int     // far-field blocks stored as U Vᵀ
+	DroppedBlocks int     // far-field blocks below their share of the error
 	MaxRank       int     // largest rank of a low-rank block
 	MeanRank      float64 // mean rank of the low-rank blocks
 	Bytes         int64   // memory held, bytes
@@ -335,6 +339,10 @@ func (h *hmatrix) stats() Stats {
 		if b.dense != nil {
 			s.DenseBlocks++
 			singles += len(b.dense)
+			continue
+		}
+		if b.k == 0 {
+			s.DroppedBlocks++
 			continue
 		}
 		s.LowRankBlocks++

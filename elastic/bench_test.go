@@ -1,0 +1,76 @@
+package elastic
+
+import (
+	"math/rand/v2"
+	"testing"
+)
+
+// benchmarkNewHierarchical times the assembly of the hierarchical
+// operator of a DFN-like network of about n elements (dfnElements, with
+// varied heights) on all processors, and reports its memory, compression
+// ratio and mean rank.
+func benchmarkNewHierarchical(b *testing.B, n int) {
+	el := dfnElements(networkSettings{elements: n, seed: 1, varied: true})
+	var op *Hierarchical
+	for b.Loop() {
+		var err error
+		if op, err = NewHierarchical(el, rock, Settings{}); err != nil {
+			b.Fatal(err)
+		}
+	}
+	s := op.Stats()
+	b.ReportMetric(float64(s.Bytes)/1e6, "MB")
+	b.ReportMetric(s.CompressionRatio, "ratio")
+	b.ReportMetric(s.MeanRank, "rank")
+	b.ReportMetric(float64(len(el)), "elements")
+}
+
+func BenchmarkNewHierarchical1e3(b *testing.B) { benchmarkNewHierarchical(b, 1e3) }
+func BenchmarkNewHierarchical1e4(b *testing.B) { benchmarkNewHierarchical(b, 1e4) }
+func BenchmarkNewHierarchical1e5(b *testing.B) { benchmarkNewHierarchical(b, 1e5) }
+
+// benchmarkMulVec times one product of an operator built by build on a
+// DFN-like network of about n elements.
+func benchmarkMulVec(b *testing.B, n int, build func([]Element) (Operator, error)) {
+	el := dfnElements(networkSettings{elements: n, seed: 1, varied: true})
+	op, err := build(el)
+	if err != nil {
+		b.Fatal(err)
+	}
+	r := rand.New(rand.NewPCG(1, 2))
+	s, w := randomVector(r, len(el), 1e-3), randomVector(r, len(el), 1e-3)
+	tau, sn := make([]float64, len(el)), make([]float64, len(el))
+	b.ReportAllocs()
+	b.ResetTimer()
+	for b.Loop() {
+		op.MulVecTo(tau, sn, s, w)
+	}
+	b.ReportMetric(float64(len(el)), "elements")
+}
+
+func hierarchical(el []Element) (Operator, error) { return NewHierarchical(el, rock, Settings{}) }
+func dense(el []Element) (Operator, error)        { return NewDense(el, rock, Settings{}) }
+
+func BenchmarkHierarchicalMulVec1e3(b *testing.B) { benchmarkMulVec(b, 1e3, hierarchical) }
+func BenchmarkHierarchicalMulVec1e4(b *testing.B) { benchmarkMulVec(b, 1e4, hierarchical) }
+func BenchmarkHierarchicalMulVec1e5(b *testing.B) { benchmarkMulVec(b, 1e5, hierarchical) }
+
+// The dense operator around the size where New switches (DenseBelow).
+func BenchmarkDenseMulVec1e3(b *testing.B)        { benchmarkMulVec(b, 1e3, dense) }
+func BenchmarkDenseMulVec3e3(b *testing.B)        { benchmarkMulVec(b, 3e3, dense) }
+func BenchmarkHierarchicalMulVec3e3(b *testing.B) { benchmarkMulVec(b, 3e3, hierarchical) }
+
+// benchmarkNewDense times the assembly of the dense operator.
+func benchmarkNewDense(b *testing.B, n int) {
+	el := dfnElements(networkSettings{elements: n, seed: 1, varied: true})
+	for b.Loop() {
+		if _, err := NewDense(el, rock, Settings{}); err != nil {
+			b.Fatal(err)
+		}
+	}
+	b.ReportMetric(float64(denseBytes(len(el)))/1e6, "MB")
+}
+
+func BenchmarkNewDense1e3(b *testing.B)        { benchmarkNewDense(b, 1e3) }
+func BenchmarkNewDense3e3(b *testing.B)        { benchmarkNewDense(b, 3e3) }
+func BenchmarkNewHierarchical3e3(b *testing.B) { benchmarkNewHierarchical(b, 3e3) }
