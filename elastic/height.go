@@ -142,19 +142,28 @@ func (m *model) weight(i int) float64 {
 	return 2 * m.geo[i].a * m.geo[i].h
 }
 
-// check returns a GeometryError when block b between distinct elements i
-// and j is not finite or their centres coincide.
+// check returns a GeometryError when the centres of distinct elements i
+// and j coincide, when one centre lies on a tip of the other element
+// (within the same relative distance), or when block b is not finite.
 func (m *model) check(b Block, i, j int) error {
 	if i == j {
 		return nil
 	}
 	gi, gj := &m.geo[i], &m.geo[j]
-	if r2.Norm(r2.Sub(gi.c, gj.c)) <= coincidence*2*math.Min(gi.a, gj.a) {
+	eps := coincidence * 2 * math.Min(gi.a, gj.a)
+	if r2.Norm(r2.Sub(gi.c, gj.c)) <= eps {
 		return &GeometryError{Receiver: i, Source: j, Reason: "centres coincide"}
+	}
+	onTip := func(p r2.Vec, g *geometry) bool {
+		return r2.Norm(r2.Sub(p, r2.Add(g.c, r2.Scale(g.a, g.t)))) <= eps ||
+			r2.Norm(r2.Sub(p, r2.Sub(g.c, r2.Scale(g.a, g.t)))) <= eps
+	}
+	if onTip(gi.c, gj) || onTip(gj.c, gi) {
+		return &GeometryError{Receiver: i, Source: j, Reason: "the centre of one lies on a tip of the other"}
 	}
 	for _, v := range [...]float64{b.ShearSlip, b.ShearOpening, b.NormalSlip, b.NormalOpening} {
 		if math.IsNaN(v) || math.IsInf(v, 0) {
-			return &GeometryError{Receiver: i, Source: j, Reason: "the centre of one lies on a tip of the other"}
+			return &GeometryError{Receiver: i, Source: j, Reason: "influence not finite"}
 		}
 	}
 	return nil
