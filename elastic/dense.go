@@ -62,15 +62,22 @@ func (d *Dense) Bytes() int64 { return denseBytes(d.n) }
 // number of workers.
 func (d *Dense) MulVecTo(dstShear, dstNormal, slip, opening []float64) {
 	checkLen(d.n, dstShear, dstNormal, slip, opening)
-	parallelFor(d.n, 64, d.workers, func(lo, hi int) {
-		for i := lo; i < hi; i++ {
-			row := d.a[i*d.n : (i+1)*d.n]
-			var t, s float64
-			for j, b := range row {
-				t += b.ShearSlip*slip[j] + b.ShearOpening*opening[j]
-				s += b.NormalSlip*slip[j] + b.NormalOpening*opening[j]
-			}
-			dstShear[i], dstNormal[i] = t, s
+	if d.workers == 1 { // a closure would allocate
+		d.rows(0, d.n, dstShear, dstNormal, slip, opening)
+		return
+	}
+	parallelFor(d.n, 64, d.workers, func(lo, hi int) { d.rows(lo, hi, dstShear, dstNormal, slip, opening) })
+}
+
+// rows computes the rows lo to hi − 1 of the product.
+func (d *Dense) rows(lo, hi int, dstShear, dstNormal, slip, opening []float64) {
+	for i := lo; i < hi; i++ {
+		row := d.a[i*d.n : (i+1)*d.n]
+		var t, s float64
+		for j, b := range row {
+			t += b.ShearSlip*slip[j] + b.ShearOpening*opening[j]
+			s += b.NormalSlip*slip[j] + b.NormalOpening*opening[j]
 		}
-	})
+		dstShear[i], dstNormal[i] = t, s
+	}
 }

@@ -187,8 +187,10 @@ func estimateHierarchical(md *model, t *tree, s Settings) int64 {
 	specs := slices.DeleteFunc(partition(t, t, s.Admissibility),
 		func(b blockSpec) bool { return t.nodes[b.row].lo > t.nodes[b.col].lo })
 	n := len(t.perm)
-	words := 2*n + len(t.leaves) + 4*2*n + n // permutations, plan offsets, scratch, √W
-	singles := 0
+	// Permutation, plan offsets, y in tree order, √W, the operator's x
+	// and y; x in tree order in single precision.
+	words := n + len(t.leaves) + 1 + 2*n + n + 4*n
+	singles := 2 * n
 	var near []blockSpec
 	classes := map[int][]blockSpec{}
 	nearEntries := 0
@@ -218,7 +220,7 @@ func estimateHierarchical(md *model, t *tree, s Settings) int64 {
 	}
 	perEntry := s.Tolerance * math.Sqrt(norm2*float64(nearEntries)/float64(sampled)/(4*float64(n)*float64(n)))
 	for _, group := range classes {
-		sampledWords, sampledRC, totalRC := 0, 0, 0
+		sampledSingles, sampledRC, totalRC := 0, 0, 0
 		for _, sp := range group {
 			totalRC += 2 * (size(t, sp.row) + size(t, sp.col))
 		}
@@ -227,12 +229,12 @@ func estimateHierarchical(md *model, t *tree, s Settings) int64 {
 			rc := 2 * (size(t, sp.row) + size(t, sp.col))
 			sampledRC += rc
 			if b.dense != nil {
-				sampledWords += len(b.dense)
+				sampledSingles += len(b.dense)
 			} else {
-				sampledWords += b.k*rc + 4*b.k // factors, scratch (2k doubles)
+				sampledSingles += b.k*rc + 2*b.k // factors, projections
 			}
 		}
-		singles += int(float64(sampledWords) / float64(sampledRC) * float64(totalRC))
+		singles += int(float64(sampledSingles) / float64(sampledRC) * float64(totalRC))
 	}
 	return 8*int64(words) + 4*int64(singles)
 }

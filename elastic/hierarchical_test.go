@@ -174,3 +174,22 @@ func TestEstimateMemory(t *testing.T) {
 		t.Errorf("New with a limit below the estimate: %v, want *TooLargeError{%d, %d, %d}", err, len(el), full, full-1)
 	}
 }
+
+// TestMulVecAllocs checks that products allocate nothing on one worker
+// (more workers start goroutines).
+func TestMulVecAllocs(t *testing.T) {
+	el := dfnElements(networkSettings{elements: 1000, seed: 10})
+	h, err := NewHierarchical(el, rock, Settings{Workers: 1})
+	if err != nil {
+		t.Fatal(err)
+	}
+	d := mustDense(t, el[:200], Settings{Workers: 1})
+	s, w := make([]float64, len(el)), make([]float64, len(el))
+	tau, sn := make([]float64, len(el)), make([]float64, len(el))
+	for name, op := range map[string]Operator{"hierarchical": h, "dense": d} {
+		n := op.Len()
+		if a := testing.AllocsPerRun(5, func() { op.MulVecTo(tau[:n], sn[:n], s[:n], w[:n]) }); a != 0 {
+			t.Errorf("%s: %v allocations per product, want 0", name, a)
+		}
+	}
+}

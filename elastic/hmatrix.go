@@ -5,6 +5,8 @@ import (
 	"math"
 	"slices"
 	"sync"
+
+	"gonum.org/v1/gonum/blas/gonum"
 )
 
 // validator is implemented by sources that check the entries of the
@@ -20,7 +22,7 @@ type validator interface {
 type hblock struct {
 	spec  blockSpec
 	dense []float32 // (rd·m)×(cd·n), row-major; nil for a low-rank block
-	u, v  []float32 // M×k and N×k, row-major
+	u, v  []float32 // M×k and N×k, column-major
 	k     int       // rank
 	tOff  int       // offset of Vᵀx (then Uᵀx, if symmetric) in the scratch t
 }
@@ -47,8 +49,10 @@ type hmatrix struct {
 	plan       []step // in block order
 	workers    int
 
-	mu        sync.Mutex // guards the scratch below
-	xp, yp, t []float64  // x and y in tree order; Vᵀx (and Uᵀx) of every low-rank block
+	mu  sync.Mutex // guards the scratch below
+	xp  []float32  // x in tree order
+	yp  []float64  // y in tree order
+	t   []float32  // Vᵀx (and Uᵀx) of every low-rank block
 }
 
 // newHMatrix assembles the hierarchical matrix of src over the given
@@ -152,7 +156,7 @@ func assembleBlock(src source, rows, cols *tree, spec blockSpec, s Settings, per
 			if !s.NoRecompression {
 				lr = recompress(lr, s.Tolerance, abs)
 			}
-			return hblock{spec: spec, u: single(lr.u), v: single(lr.v), k: lr.k}, nil
+			return hblock{spec: spec, u: columnMajor(lr.u, lr.k), v: columnMajor(lr.v, lr.k), k: lr.k}, nil
 		}
 		spec.lowRank = false
 	}
@@ -166,6 +170,22 @@ func assembleBlock(src source, rows, cols *tree, spec blockSpec, s Settings, per
 		}
 	}
 	return hblock{spec: spec, dense: single(d)}, nil
+}
+
+// columnMajor returns the row-major matrix a of k columns in single
+// precision, column by column.
+func columnMajor(a []float64, k int) []float32 {
+	out := make([]float32, len(a))
+	if k == 0 {
+		return out
+	}
+	m := len(a) / k
+	for r := range m {
+		for l := range k {
+			out[l*m+r] = float32(a[r*k+l])
+		}
+	}
+	return out
 }
 
 func single(x []float64) []float32 {
@@ -203,7 +223,7 @@ func (h *hmatrix) makePlan() {
 			if h.symmetric {
 				n *= 2
 			}
-			h.t = append(h.t, make([]float64, n)...)
+			h.t = append(h.t, make([]float32, n)...)
 			h.lowRanks = append(h.lowRanks, b)
 		}
 	}
@@ -212,33 +232,50 @@ func (h *hmatrix) makePlan() {
 		h.planOff[l+1] = h.planOff[l] + len(s)
 		h.plan = append(h.plan, s...)
 	}
-	h.xp = make([]float64, h.cd*len(h.cols.perm))
+	h.xp = make([]float32, h.cd*len(h.cols.perm))
 	h.yp = make([]float64, h.rd*len(h.rows.perm))
 }
 
 // mulVec sets y = A x, with x and y in the objects' own order, rd (cd)
 // values per row (column) object. Each entry of y is summed in a fixed
 // order: first every low-rank block's projections, each by one
-// goroutine, then each row leaf by one goroutine over its plan.
+// goroutine, then each row leaf by one goroutine over its plan. Vectors
+// enter the products in single precision, like the blocks (relative
+// rounding 6·10⁻⁸), and every sum is accumulated in double precision by
+// gonum's vectorized Dsdot.
 func (h *hmatrix) mulVec(y, x []float64) {
 	h.mu.Lock()
 	defer h.mu.Unlock()
 	rd, cd := h.rd, h.cd
 	for p, o := range h.cols.perm {
-		copy(h.xp[p*cd:(p+1)*cd], x[o*cd:(o+1)*cd])
+		for c := range cd {
+			h.xp[p*cd+c] = float32(x[o*cd+c])
+		}
 	}
-	parallelFor(len(h.lowRanks), 64, h.workers, func(lo, hi int) {
-		for _, b := range h.lowRanks[lo:hi] {
-			h.project(&h.blocks[b])
-		}
-	})
-	parallelFor(len(h.rows.leaves), 4, h.workers, func(lo, hi int) {
-		for l := lo; l < hi; l++ {
-			h.leafProduct(l)
-		}
-	})
+	// One worker calls the loops directly: a closure would allocate.
+	if h.workers == 1 {
+		h.projectRange(0, len(h.lowRanks))
+		h.leafRange(0, len(h.rows.leaves))
+	} else {
+		parallelFor(len(h.lowRanks), 64, h.workers, h.projectRange)
+		parallelFor(len(h.rows.leaves), 4, h.workers, h.leafRange)
+	}
 	for p, o := range h.rows.perm {
 		copy(y[o*rd:(o+1)*rd], h.yp[p*rd:(p+1)*rd])
+	}
+}
+
+// projectRange projects the low-rank blocks lowRanks[lo:hi].
+func (h *hmatrix) projectRange(lo, hi int) {
+	for _, b := range h.lowRanks[lo:hi] {
+		h.project(&h.blocks[b])
+	}
+}
+
+// leafRange computes the rows of y of the row leaves lo to hi − 1.
+func (h *hmatrix) leafRange(lo, hi int) {
+	for l := lo; l < hi; l++ {
+		h.leafProduct(l)
 	}
 }
 
@@ -254,13 +291,26 @@ func (h *hmatrix) project(b *hblock) {
 	}
 }
 
-// mulTransTo sets t = Fᵀ x for the row-major len(x)×k matrix F.
-func mulTransTo(t []float64, f []float32, x []float64, k int) {
-	clear(t)
-	for c, xc := range x {
-		for l, v := range f[c*k : (c+1)*k] {
-			t[l] += float64(v) * xc
-		}
+// mulTransTo sets t = Fᵀ x for the column-major len(x)×k matrix F.
+func mulTransTo(t []float32, f []float32, x []float32, k int) {
+	m := len(x)
+	for l := range t {
+		t[l] = float32(impl.Dsdot(m, f[l*m:], 1, x, 1))
+	}
+}
+
+// axpyMixed sets y += alpha·x, four entries at a time.
+func axpyMixed(y []float64, alpha float64, x []float32) {
+	x = x[:len(y)]
+	i := 0
+	for ; i+4 <= len(y); i += 4 {
+		y[i] += alpha * float64(x[i])
+		y[i+1] += alpha * float64(x[i+1])
+		y[i+2] += alpha * float64(x[i+2])
+		y[i+3] += alpha * float64(x[i+3])
+	}
+	for ; i < len(y); i++ {
+		y[i] += alpha * float64(x[i])
 	}
 }
 
@@ -282,17 +332,13 @@ func (h *hmatrix) leafProduct(l int) {
 		case b.dense != nil && !st.transposed:
 			nn := len(x)
 			for r := range y {
-				y[r] += dotMixed(b.dense[(off+r)*nn:(off+r+1)*nn], x)
+				y[r] += impl.Dsdot(nn, b.dense[(off+r)*nn:], 1, x, 1)
 			}
 		case b.dense != nil:
-			// Column off+r of the stored block, which has len(y) + … columns.
+			// yᵀ += xᵀ D[:, off : off+len(y)], row by row of D.
 			nn := len(b.dense) / len(x)
-			for r := range y {
-				s := 0.0
-				for c, xc := range x {
-					s += float64(b.dense[c*nn+off+r]) * xc
-				}
-				y[r] += s
+			for c, xc := range x {
+				axpyMixed(y, float64(xc), b.dense[c*nn+off:])
 			}
 		default:
 			k := b.k
@@ -300,19 +346,12 @@ func (h *hmatrix) leafProduct(l int) {
 			if st.transposed {
 				f, t = b.v, h.t[b.tOff+k:b.tOff+2*k]
 			}
-			for r := range y {
-				y[r] += dotMixed(f[(off+r)*k:(off+r+1)*k], t)
+			m := len(f) / k
+			for l, tl := range t {
+				axpyMixed(y, float64(tl), f[l*m+off:])
 			}
 		}
 	}
-}
-
-func dotMixed(a []float32, b []float64) float64 {
-	s := 0.0
-	for i, v := range a {
-		s += float64(v) * b[i]
-	}
-	return s
 }
 
 // Stats describes the storage of an operator.
@@ -333,8 +372,11 @@ type Stats struct {
 // trees' permutations and the product plan.
 func (h *hmatrix) stats() Stats {
 	var s Stats
-	words := len(h.rows.perm) + len(h.cols.perm) + len(h.planOff) + 2*len(h.plan) + len(h.t) + len(h.xp) + len(h.yp)
-	singles, ranks := 0, 0
+	words := len(h.rows.perm) + len(h.planOff) + 2*len(h.plan) + len(h.yp)
+	if h.cols != h.rows {
+		words += len(h.cols.perm)
+	}
+	singles, ranks := len(h.t)+len(h.xp), 0
 	for _, b := range h.blocks {
 		if b.dense != nil {
 			s.DenseBlocks++
@@ -358,3 +400,7 @@ func (h *hmatrix) stats() Stats {
 	s.CompressionRatio = float64(s.Bytes) / full
 	return s
 }
+
+// impl is gonum's BLAS, whose Dsdot (single-precision vectors, double
+// precision sum) is written in assembly on amd64.
+var impl gonum.Implementation

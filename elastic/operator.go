@@ -19,8 +19,9 @@ type Operator interface {
 	// MulVecTo overwrites dstShear with Δτ and dstNormal with Δσn, Pa,
 	// caused by slip and opening, m. All four slices have length Len(),
 	// and the destinations must not overlap the sources. It does not
-	// allocate (apart from starting goroutines when it runs in parallel)
-	// and is safe for concurrent use.
+	// allocate with one worker (Settings.Workers = 1; with more it starts
+	// goroutines, a few small allocations) and is safe for concurrent
+	// use.
 	MulVecTo(dstShear, dstNormal, slip, opening []float64)
 }
 
