@@ -49,10 +49,10 @@ type hmatrix struct {
 	plan       []step // in block order
 	workers    int
 
-	mu  sync.Mutex // guards the scratch below
-	xp  []float32  // x in tree order
-	yp  []float64  // y in tree order
-	t   []float32  // Vᵀx (and Uᵀx) of every low-rank block
+	mu sync.Mutex // guards the scratch below
+	xp []float32  // x in tree order
+	yp []float64  // y in tree order
+	t  []float32  // Vᵀx (and Uᵀx) of every low-rank block
 }
 
 // newHMatrix assembles the hierarchical matrix of src over the given
