@@ -188,9 +188,9 @@ func estimateHierarchical(md *model, t *tree, s Settings) int64 {
 		func(b blockSpec) bool { return t.nodes[b.row].lo > t.nodes[b.col].lo })
 	n := len(t.perm)
 	// Permutation, plan offsets, y in tree order, √W, the operator's x
-	// and y; x in tree order in single precision.
+	// and y; x and z in tree order in single precision.
 	words := n + len(t.leaves) + 1 + 2*n + n + 4*n
-	singles := 2 * n
+	singles := 4 * n
 	var near []blockSpec
 	classes := map[int][]blockSpec{}
 	nearEntries := 0
