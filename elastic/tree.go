@@ -18,6 +18,9 @@ type cluster struct {
 
 func (c *cluster) isLeaf() bool { return c.left < 0 }
 
+// clusterWords is the size of a cluster in 8-byte words.
+const clusterWords = 10
+
 // tree is a binary cluster tree of objects (elements or points) built by
 // bisecting the box of their centres across its longer side at the
 // median (Hackbusch 1999, §2: geometrically balanced clustering), so that

@@ -4,6 +4,7 @@ import (
 	"errors"
 	"math"
 	"testing"
+	"unsafe"
 
 	"gonum.org/v1/gonum/spatial/r2"
 )
@@ -156,4 +157,17 @@ func FuzzPair(f *testing.F) {
 			}
 		}
 	})
+}
+
+// TestStructSizes checks the sizes that the memory accounting assumes.
+func TestStructSizes(t *testing.T) {
+	if got := unsafe.Sizeof(geometry{}); got != 8*geometryWords {
+		t.Errorf("geometry: %d bytes, accounted %d", got, 8*geometryWords)
+	}
+	if got := unsafe.Sizeof(cluster{}); got != 8*clusterWords {
+		t.Errorf("cluster: %d bytes, accounted %d", got, 8*clusterWords)
+	}
+	if got := unsafe.Sizeof(step{}); got != 16 {
+		t.Errorf("step: %d bytes, accounted 16", got)
+	}
 }
