@@ -187,10 +187,11 @@ func estimateHierarchical(md *model, t *tree, s Settings) int64 {
 	specs := slices.DeleteFunc(partition(t, t, s.Admissibility),
 		func(b blockSpec) bool { return t.nodes[b.row].lo > t.nodes[b.col].lo })
 	n := len(t.perm)
-	// Geometry, tree, permutation, plan offsets, y in tree order, √W,
-	// the operator's x and y; x and z in tree order in single precision.
-	words := geometryWords*n + clusterWords*len(t.nodes) + n + len(t.leaves) + 1 + 2*n + n + 4*n
-	singles := 4 * n
+	// Geometry, tree, permutation, y in tree order and the parts' y, √W,
+	// the operator's x and y, the parts' block lists; x in tree order and
+	// the parts' z in single precision.
+	words := geometryWords*n + clusterWords*len(t.nodes) + n + (1+productParts)*2*n + n + 4*n + len(specs)
+	singles := (1 + productParts) * 2 * n
 	var near []blockSpec
 	classes := map[int][]blockSpec{}
 	nearEntries := 0
@@ -200,7 +201,6 @@ func estimateHierarchical(md *model, t *tree, s Settings) int64 {
 		if sp.row != sp.col {
 			copies = 2
 		}
-		words += 2 * copies * (t.nodes[sp.row].leafHi - t.nodes[sp.row].leafLo) // plan steps
 		if !sp.lowRank {
 			singles += 4 * m * k
 			nearEntries += 4 * m * k * copies

@@ -5,8 +5,6 @@ import (
 	"math"
 	"slices"
 	"sync"
-
-	"gonum.org/v1/gonum/blas/gonum"
 )
 
 // validator is implemented by sources that check the entries of the
@@ -25,13 +23,7 @@ type hblock struct {
 	u, v  []float32 // M×k and N×k, column-major
 	k     int       // rank
 	tOff  int       // offset of Vᵀx (then Uᵀx, if symmetric) in the scratch t
-}
-
-// step is one contribution to a row leaf in a product: block b, as
-// stored or (for a symmetric matrix) transposed.
-type step struct {
-	b          int
-	transposed bool
+	cost  int       // numbers stored
 }
 
 // hmatrix is a hierarchical matrix (Hackbusch 1999, Computing 62,
@@ -44,16 +36,13 @@ type hmatrix struct {
 	rows, cols *tree
 	symmetric  bool
 	blocks     []hblock
-	lowRanks   []int  // indices of the low-rank blocks
-	planOff    []int  // steps of row leaf l: plan[planOff[l]:planOff[l+1]]
-	plan       []step // in block order
 	workers    int
 
-	mu sync.Mutex // guards the scratch below
-	xp []float32  // x in tree order
-	yp []float64  // y in tree order
-	zp []float32  // one block's share of y, per row leaf
-	t  []float32  // Vᵀx (and Uᵀx) of every low-rank block
+	mu    sync.Mutex // guards the scratch below
+	parts []part     // the blocks split for products
+	xp    []float32  // x in tree order
+	yp    []float64  // y in tree order
+	t     []float32  // Vᵀx (and Uᵀx) of every low-rank block
 }
 
 // newHMatrix assembles the hierarchical matrix of src over the given
@@ -101,7 +90,7 @@ func newHMatrix(src source, rows, cols *tree, symmetric bool, s Settings) (*hmat
 	if err := h.assemble(src, specs, far, s, s.Tolerance*math.Sqrt(norm2/entries)); err != nil {
 		return nil, err
 	}
-	h.makePlan()
+	h.makeParts()
 	return h, nil
 }
 
@@ -157,7 +146,7 @@ func assembleBlock(src source, rows, cols *tree, spec blockSpec, s Settings, per
 			if !s.NoRecompression {
 				lr = recompress(lr, s.Tolerance, abs)
 			}
-			return hblock{spec: spec, u: columnMajor(lr.u, lr.k), v: columnMajor(lr.v, lr.k), k: lr.k}, nil
+			return hblock{spec: spec, u: columnMajor(lr.u, lr.k), v: columnMajor(lr.v, lr.k), k: lr.k, cost: len(lr.u) + len(lr.v)}, nil
 		}
 		spec.lowRank = false
 	}
@@ -170,7 +159,7 @@ func assembleBlock(src source, rows, cols *tree, spec blockSpec, s Settings, per
 			return hblock{}, err
 		}
 	}
-	return hblock{spec: spec, dense: single(d)}, nil
+	return hblock{spec: spec, dense: single(d), cost: len(d)}, nil
 }
 
 // columnMajor returns the row-major matrix a of k columns in single
@@ -197,176 +186,6 @@ func single(x []float64) []float32 {
 	return out
 }
 
-// makePlan lists, for every row leaf, the blocks whose rows cover it
-// (and, if symmetric, the off-diagonal blocks whose columns cover it,
-// transposed), in block order, and places each low-rank block's
-// projections in the scratch.
-func (h *hmatrix) makePlan() {
-	nl := len(h.rows.leaves)
-	lists := make([][]step, nl)
-	for b := range h.blocks {
-		blk := &h.blocks[b]
-		if blk.dense == nil && blk.k == 0 {
-			continue // dropped
-		}
-		rn, cn := &h.rows.nodes[blk.spec.row], &h.cols.nodes[blk.spec.col]
-		for l := rn.leafLo; l < rn.leafHi; l++ {
-			lists[l] = append(lists[l], step{b: b})
-		}
-		if h.symmetric && blk.spec.row != blk.spec.col {
-			for l := cn.leafLo; l < cn.leafHi; l++ {
-				lists[l] = append(lists[l], step{b: b, transposed: true})
-			}
-		}
-		if blk.dense == nil {
-			blk.tOff = len(h.t)
-			n := blk.k
-			if h.symmetric {
-				n *= 2
-			}
-			h.t = append(h.t, make([]float32, n)...)
-			h.lowRanks = append(h.lowRanks, b)
-		}
-	}
-	h.planOff = make([]int, nl+1)
-	for l, s := range lists {
-		h.planOff[l+1] = h.planOff[l] + len(s)
-		h.plan = append(h.plan, s...)
-	}
-	h.xp = make([]float32, h.cd*len(h.cols.perm))
-	h.yp = make([]float64, h.rd*len(h.rows.perm))
-	h.zp = make([]float32, h.rd*len(h.rows.perm))
-}
-
-// mulVec sets y = A x, with x and y in the objects' own order, rd (cd)
-// values per row (column) object. Each entry of y is summed in a fixed
-// order: first every low-rank block's projections, each by one
-// goroutine, then each row leaf by one goroutine over its plan. Vectors
-// enter the products in single precision, like the blocks (relative
-// rounding 6·10⁻⁸), and every sum is accumulated in double precision by
-// gonum's vectorized Dsdot.
-func (h *hmatrix) mulVec(y, x []float64) {
-	h.mu.Lock()
-	defer h.mu.Unlock()
-	rd, cd := h.rd, h.cd
-	for p, o := range h.cols.perm {
-		for c := range cd {
-			h.xp[p*cd+c] = float32(x[o*cd+c])
-		}
-	}
-	// One worker calls the loops directly: a closure would allocate.
-	if h.workers == 1 {
-		h.projectRange(0, len(h.lowRanks))
-		h.leafRange(0, len(h.rows.leaves))
-	} else {
-		parallelFor(len(h.lowRanks), 64, h.workers, h.projectRange)
-		parallelFor(len(h.rows.leaves), 4, h.workers, h.leafRange)
-	}
-	for p, o := range h.rows.perm {
-		copy(y[o*rd:(o+1)*rd], h.yp[p*rd:(p+1)*rd])
-	}
-}
-
-// projectRange projects the low-rank blocks lowRanks[lo:hi].
-func (h *hmatrix) projectRange(lo, hi int) {
-	for _, b := range h.lowRanks[lo:hi] {
-		h.project(&h.blocks[b])
-	}
-}
-
-// leafRange computes the rows of y of the row leaves lo to hi − 1.
-func (h *hmatrix) leafRange(lo, hi int) {
-	for l := lo; l < hi; l++ {
-		h.leafProduct(l)
-	}
-}
-
-// project computes t = Vᵀ x_σ of a low-rank block (τ, σ), and, for a
-// symmetric matrix, t′ = Uᵀ x_τ after it.
-func (h *hmatrix) project(b *hblock) {
-	k := b.k
-	cn := &h.cols.nodes[b.spec.col]
-	mulTransTo(h.t[b.tOff:b.tOff+k], b.v, h.xp[h.cd*cn.lo:h.cd*cn.hi], k)
-	if h.symmetric {
-		rn := &h.rows.nodes[b.spec.row]
-		mulTransTo(h.t[b.tOff+k:b.tOff+2*k], b.u, h.xp[h.rd*rn.lo:h.rd*rn.hi], k)
-	}
-}
-
-// mulTransTo sets t = Fᵀ x for the column-major len(x)×k matrix F, in
-// single precision (gonum's vectorized Sdot): a far block's share of y is
-// small, and so is the relative rounding √len(x)·6·10⁻⁸ of its t.
-func mulTransTo(t []float32, f []float32, x []float32, k int) {
-	m := len(x)
-	for l := range t {
-		t[l] = impl.Sdot(m, f[l*m:], 1, x, 1)
-	}
-}
-
-// addTo sets y += z.
-func addTo(y []float64, z []float32) {
-	z = z[:len(y)]
-	for i, v := range z {
-		y[i] += float64(v)
-	}
-}
-
-// leafProduct computes the rows of y of row leaf l. Diagonal blocks,
-// which hold the largest entries, are summed row by row in double
-// precision (gonum's vectorized Dsdot); the other blocks' shares are
-// summed in single precision (Sdot by rows; Saxpy by columns into z,
-// then added to y), one block at a time: the rounding, about
-// √(terms)·6·10⁻⁸ of one block's share, stays well below the
-// tolerance.
-func (h *hmatrix) leafProduct(l int) {
-	leaf := &h.rows.nodes[h.rows.leaves[l]]
-	r0 := h.rd * leaf.lo
-	y := h.yp[r0 : h.rd*leaf.hi]
-	z := h.zp[r0 : h.rd*leaf.hi]
-	clear(y)
-	for _, st := range h.plan[h.planOff[l]:h.planOff[l+1]] {
-		b := &h.blocks[st.b]
-		own, other := &h.rows.nodes[b.spec.row], &h.cols.nodes[b.spec.col]
-		if st.transposed {
-			own, other = other, own
-		}
-		off := r0 - h.rd*own.lo
-		x := h.xp[h.cd*other.lo : h.cd*other.hi]
-		switch {
-		case b.dense != nil && b.spec.row == b.spec.col:
-			nn := len(x)
-			for r := range y {
-				y[r] += impl.Dsdot(nn, b.dense[(off+r)*nn:], 1, x, 1)
-			}
-		case b.dense != nil && !st.transposed:
-			nn := len(x)
-			for r := range y {
-				y[r] += float64(impl.Sdot(nn, b.dense[(off+r)*nn:], 1, x, 1))
-			}
-		case b.dense != nil:
-			// zᵀ = xᵀ D[:, off : off+len(y)], row by row of D.
-			nn := len(b.dense) / len(x)
-			clear(z)
-			for c, xc := range x {
-				impl.Saxpy(len(z), xc, b.dense[c*nn+off:], 1, z, 1)
-			}
-			addTo(y, z)
-		default:
-			k := b.k
-			f, t := b.u, h.t[b.tOff:b.tOff+k]
-			if st.transposed {
-				f, t = b.v, h.t[b.tOff+k:b.tOff+2*k]
-			}
-			m := len(f) / k
-			clear(z)
-			for l, tl := range t {
-				impl.Saxpy(len(z), tl, f[l*m+off:], 1, z, 1)
-			}
-			addTo(y, z)
-		}
-	}
-}
-
 // Stats describes the storage of an operator.
 type Stats struct {
 	Elements      int     // number of elements
@@ -385,11 +204,15 @@ type Stats struct {
 // trees' permutations and the product plan.
 func (h *hmatrix) stats() Stats {
 	var s Stats
-	words := len(h.rows.perm) + clusterWords*len(h.rows.nodes) + len(h.planOff) + 2*len(h.plan) + len(h.yp)
+	words := len(h.rows.perm) + clusterWords*len(h.rows.nodes) + len(h.yp)
 	if h.cols != h.rows {
 		words += len(h.cols.perm) + clusterWords*len(h.cols.nodes)
 	}
-	singles, ranks := len(h.t)+len(h.xp)+len(h.zp), 0
+	singles, ranks := len(h.t)+len(h.xp), 0
+	for _, p := range h.parts {
+		words += len(p.y) + len(p.blocks)
+		singles += len(p.z)
+	}
 	for _, b := range h.blocks {
 		if b.dense != nil {
 			s.DenseBlocks++
@@ -413,7 +236,3 @@ func (h *hmatrix) stats() Stats {
 	s.CompressionRatio = float64(s.Bytes) / full
 	return s
 }
-
-// impl is gonum's BLAS, whose Dsdot (single-precision vectors, double
-// precision sum) is written in assembly on amd64.
-var impl gonum.Implementation

@@ -10,25 +10,23 @@ import (
 // cluster is a node of a cluster tree: the objects perm[lo:hi] and the
 // box that holds all of them.
 type cluster struct {
-	lo, hi         int
-	bb             box
-	left, right    int // child nodes, −1 for a leaf
-	leafLo, leafHi int // the leaves under this node, as indices into tree.leaves
+	lo, hi      int
+	bb          box
+	left, right int // child nodes, −1 for a leaf
 }
 
 func (c *cluster) isLeaf() bool { return c.left < 0 }
 
 // clusterWords is the size of a cluster in 8-byte words.
-const clusterWords = 10
+const clusterWords = 8
 
 // tree is a binary cluster tree of objects (elements or points) built by
 // bisecting the box of their centres across its longer side at the
 // median (Hackbusch 1999, §2: geometrically balanced clustering), so that
 // every cluster is a contiguous range of perm.
 type tree struct {
-	perm   []int // tree position → object index
-	nodes  []cluster
-	leaves []int // leaf nodes in order of lo
+	perm  []int // tree position → object index
+	nodes []cluster
 }
 
 // buildTree clusters objects with the given centres and boxes (a point
@@ -39,13 +37,6 @@ func buildTree(centres []r2.Vec, boxes []box, leafSize int) *tree {
 		t.perm[i] = i
 	}
 	t.split(centres, boxes, 0, len(centres), leafSize)
-	// Leaves are appended in depth-first order, which is order of lo.
-	for i := range t.nodes {
-		if t.nodes[i].isLeaf() {
-			t.leaves = append(t.leaves, i)
-		}
-	}
-	t.countLeaves(0)
 	return t
 }
 
@@ -76,20 +67,6 @@ func (t *tree) split(centres []r2.Vec, boxes []box, lo, hi, leafSize int) int {
 	right := t.split(centres, boxes, mid, hi, leafSize)
 	t.nodes[id].left, t.nodes[id].right = left, right
 	return id
-}
-
-// countLeaves sets leafLo and leafHi of node id and its subtree, given
-// that leaves are numbered in depth-first order.
-func (t *tree) countLeaves(id int) {
-	c := &t.nodes[id]
-	if c.isLeaf() {
-		c.leafLo, _ = slices.BinarySearch(t.leaves, id)
-		c.leafHi = c.leafLo + 1
-		return
-	}
-	t.countLeaves(c.left)
-	t.countLeaves(c.right)
-	c.leafLo, c.leafHi = t.nodes[c.left].leafLo, t.nodes[c.right].leafHi
 }
 
 // blockSpec is a block of the partition: the row cluster, the column
