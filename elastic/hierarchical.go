@@ -188,9 +188,9 @@ func estimateHierarchical(md *model, t *tree, s Settings) int64 {
 		func(b blockSpec) bool { return t.nodes[b.row].lo > t.nodes[b.col].lo })
 	n := len(t.perm)
 	// Geometry, tree, permutation, y in tree order and the parts' y, √W,
-	// the operator's x and y, the parts' block lists; x in tree order and
-	// the parts' z in single precision.
-	words := geometryWords*n + clusterWords*len(t.nodes) + n + (1+productParts)*2*n + n + 4*n + len(specs)
+	// the operator's x and y, the blocks and the parts' lists of them; x
+	// in tree order and the parts' z in single precision.
+	words := geometryWords*n + clusterWords*len(t.nodes) + n + (1+productParts)*2*n + n + 4*n + (1+blockWords)*len(specs)
 	singles := (1 + productParts) * 2 * n
 	var near []blockSpec
 	classes := map[int][]blockSpec{}

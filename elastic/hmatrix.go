@@ -16,7 +16,7 @@ type validator interface {
 
 // hblock is one block of a hierarchical matrix: dense, or U Vᵀ, stored
 // in single precision (relative rounding 6·10⁻⁸, below any tolerance
-// allowed) and multiplied in double precision.
+// allowed); see blockProduct for the precision of products.
 type hblock struct {
 	spec  blockSpec
 	dense []float32 // (rd·m)×(cd·n), row-major; nil for a low-rank block
@@ -25,6 +25,9 @@ type hblock struct {
 	tOff  int       // offset of Vᵀx (then Uᵀx, if symmetric) in the scratch t
 	cost  int       // numbers stored
 }
+
+// blockWords is the size of an hblock in 8-byte words.
+const blockWords = 15
 
 // hmatrix is a hierarchical matrix (Hackbusch 1999, Computing 62,
 // 89–108): a partition of rows × cols into dense near-field blocks and
@@ -201,10 +204,10 @@ type Stats struct {
 }
 
 // stats counts the blocks and the memory of h: every stored number, the
-// trees' permutations and the product plan.
+// trees and the products' scratch.
 func (h *hmatrix) stats() Stats {
 	var s Stats
-	words := len(h.rows.perm) + clusterWords*len(h.rows.nodes) + len(h.yp)
+	words := len(h.rows.perm) + clusterWords*len(h.rows.nodes) + len(h.yp) + blockWords*len(h.blocks)
 	if h.cols != h.rows {
 		words += len(h.cols.perm) + clusterWords*len(h.cols.nodes)
 	}

@@ -164,6 +164,9 @@ func TestStructSizes(t *testing.T) {
 	if got := unsafe.Sizeof(geometry{}); got != 8*geometryWords {
 		t.Errorf("geometry: %d bytes, accounted %d", got, 8*geometryWords)
 	}
+	if got := unsafe.Sizeof(hblock{}); got != 8*blockWords {
+		t.Errorf("hblock: %d bytes, accounted %d", got, 8*blockWords)
+	}
 	if got := unsafe.Sizeof(cluster{}); got != 8*clusterWords {
 		t.Errorf("cluster: %d bytes, accounted %d", got, 8*clusterWords)
 	}
