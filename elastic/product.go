@@ -7,7 +7,7 @@ import (
 // productParts is the number of parts into which the blocks are split
 // for products. It is fixed, not the number of workers, so that sums are
 // formed in the same order whatever the number of workers.
-const productParts = 8
+const productParts = 4
 
 // part is a run of consecutive blocks whose contributions to a product
 // are summed into the part's own y, by one goroutine at a time.
