@@ -52,6 +52,18 @@ func benchmarkMulVec(b *testing.B, n int, build func([]Element) (Operator, error
 	for b.Loop() {
 		op.MulVecTo(tau, sn, s, w)
 	}
+	b.StopTimer()
+	// Relative error on 20 rows against the exact coefficients.
+	var rows []int
+	for i := 0; i < len(el); i += len(el) / 20 {
+		rows = append(rows, i)
+	}
+	et, es := exactRows(op, rows, s, w)
+	gt, gs := make([]float64, len(rows)), make([]float64, len(rows))
+	for k, i := range rows {
+		gt[k], gs[k] = tau[i], sn[i]
+	}
+	b.ReportMetric(relDiff(gt, gs, et, es), "row-err")
 	b.ReportMetric(float64(len(el)), "elements")
 }
 

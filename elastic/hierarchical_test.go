@@ -149,7 +149,7 @@ func TestEstimateMemory(t *testing.T) {
 	if r := float64(est) / float64(got); r < 0.8 || r > 1.2 {
 		t.Errorf("estimate %d B, actual %d B: ratio %.3f, want within 20 %%", est, got, r)
 	}
-	small := el[:300]
+	small := el[:200]
 	est, err = EstimateMemory(small, rock, Settings{})
 	if err != nil {
 		t.Fatal(err)
