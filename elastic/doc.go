@@ -72,7 +72,7 @@
 // Settings.Workers goroutines, and their results do not depend on the
 // number of workers. On DFN-like networks with ε = 10⁻⁶ the mean rank is
 // 12–15 and the memory about 3.6 kB per element at 10³ elements, 6.8 kB
-// at 10⁴ and 9.5 kB at 10⁵ (O(N log N)).
+// at 10⁴ and 9.7 kB at 10⁵ (O(N log N)).
 //
 // # Units
 //
