@@ -8,9 +8,9 @@ import (
 )
 
 // MaxDepletionCells caps the cells of a [DepletionGrid]. The kernel tables
-// take 24 bytes per cell and the FFT summation about 130 more (spectra on a
-// grid padded to twice the size), so the cap keeps a response within about
-// 330 MB.
+// take 24 bytes per cell and the FFT summation about 160 more (five
+// half-spectra on a grid padded to twice the size each way), so the cap
+// keeps a response within about 400 MB.
 const MaxDepletionCells = 1 << 21
 
 // DepletionGrid is a regular map grid carrying a depletion field, one

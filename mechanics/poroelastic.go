@@ -99,12 +99,11 @@ func (s Stress) Changed(c StressChange) (Stress, error) {
 			n.principal, n.regime = andersonianPrincipal(h.SHmax, h.Shmin, n.t[2][2], h.Azimuth)
 		}
 	}
-	if c.Pore != 0 {
-		if err := n.setPorePressure(s.pore + c.Pore); err != nil {
-			return Stress{}, fmt.Errorf("after a pore-pressure change of %g Pa: %w", c.Pore, err)
-		}
-	} else if err := n.setPorePressure(s.pore); err != nil {
-		return Stress{}, fmt.Errorf("after the stress change: %w", err)
+	p := s.pore
+	addNonZero(&p, c.Pore)
+	if err := n.setPorePressure(p); err != nil {
+		return Stress{}, fmt.Errorf("after a change of (ΔSxx, ΔSyy, ΔSxy) = (%g, %g, %g) Pa and Δp = %g Pa: %w",
+			c.XX, c.YY, c.XY, c.Pore, err)
 	}
 	return n, nil
 }
