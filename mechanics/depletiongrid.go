@@ -47,7 +47,8 @@ type Summation int
 
 const (
 	// AutoSummation sums directly when that is cheaper than the FFT
-	// (few depleted cells or a small grid), by FFT otherwise.
+	// (few depleted cells, a small grid, or a single field, for which the
+	// FFT's kernel spectra are not yet built), by FFT otherwise.
 	AutoSummation Summation = iota
 	// DirectSummation adds every depleted cell's contribution at every
 	// cell centre: O(cells × depleted cells), exact to round-off.
@@ -196,18 +197,25 @@ func (r *GridResponse) Change(dst []StressChange, dp []float64, how Summation) e
 	return nil
 }
 
-// fftWorkFactor is the FFT summation's time per padded cell and unit of
-// log2 of the padded size over the direct summation's time per pair of
-// cells: about 17–24 ns against 8–12 ns in BenchmarkGridResponse* on the
-// development machine.
-const fftWorkFactor = 2
+// Costs of the summations, measured with BenchmarkGridResponse* and
+// BenchmarkNewGridResponse200* on the development machine: the direct sum
+// takes about 8 ns per pair of cells, the FFT summation about 10 ns per
+// padded cell and unit of log2 of the padded size, and building the kernel
+// spectra (once per response) about 2.3 times one FFT summation.
+const (
+	fftWorkFactor     = 1.25 // FFT time per padded cell and log2 over the direct time per pair
+	spectraWorkFactor = 2.3  // first FFT summation: the spectra and the summation itself
+)
 
 // choose returns the cheaper summation for a field with m depleted cells.
 func (r *GridResponse) choose(m int) Summation {
 	px, py := fftSize(2*r.grid.Cols-1), fftSize(2*r.grid.Rows-1)
 	cells := float64(px * py)
-	direct := float64(r.grid.Cells()) * float64(m)
-	if direct <= fftWorkFactor*cells*math.Log2(cells) {
+	fft := fftWorkFactor * cells * math.Log2(cells)
+	if r.fft == nil {
+		fft *= 1 + spectraWorkFactor
+	}
+	if float64(r.grid.Cells())*float64(m) <= fft {
 		return DirectSummation
 	}
 	return FFTSummation

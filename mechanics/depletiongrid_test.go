@@ -390,3 +390,30 @@ func TestGridResponseReuse(t *testing.T) {
 		}
 	}
 }
+
+// The automatic summation takes the direct sum for few depleted cells and
+// the FFT for a field depleted all over, and, once the kernel spectra are
+// built, the FFT for fewer depleted cells than before.
+func TestAutoSummationChoice(t *testing.T) {
+	r := newResponse(t, Layer{demoPoro, 30}, DepletionGrid{Cols: 200, Rows: 200, DX: 10, DY: 10})
+	tests := []struct {
+		name     string
+		depleted int
+		want     Summation
+	}{
+		{"ten cells", 10, DirectSummation},
+		{"every cell", 40000, FFTSummation},
+		{"a two-hundredth, spectra not built", 200, DirectSummation},
+	}
+	for _, tc := range tests {
+		if got := r.choose(tc.depleted); got != tc.want {
+			t.Errorf("%s: summation %d, want %d", tc.name, got, tc.want)
+		}
+	}
+	field := make([]float64, r.Grid().Cells())
+	field[0] = -1
+	change(t, r, field, FFTSummation) // builds the spectra
+	if got := r.choose(200); got != FFTSummation {
+		t.Errorf("a two-hundredth, spectra built: summation %d, want FFT (%d)", got, FFTSummation)
+	}
+}
