@@ -121,3 +121,90 @@ func benchmarkSeismicitySample(b *testing.B, n float64) {
 
 func BenchmarkSeismicitySample10(b *testing.B)   { benchmarkSeismicitySample(b, 10) }
 func BenchmarkSeismicitySample1000(b *testing.B) { benchmarkSeismicitySample(b, 1000) }
+
+// benchmarkGridResponse times one stress change on an n × n grid of 10 m
+// cells in a 30 m layer, for a field depleted over the fraction share of
+// the cells (a centred square), summed as how says. The response is built
+// before the timer starts; the FFT's kernel spectra on the first call.
+func benchmarkGridResponse(b *testing.B, n int, share float64, how Summation) {
+	g := DepletionGrid{Cols: n, Rows: n, DX: 10, DY: 10}
+	r, err := NewGridResponse(Layer{Poroelastic{Biot: 1, Poisson: 0.22}, 30}, g)
+	if err != nil {
+		b.Fatal(err)
+	}
+	field := make([]float64, g.Cells())
+	side := int(math.Round(float64(n) * math.Sqrt(share)))
+	lo := (n - side) / 2
+	for row := lo; row < lo+side; row++ {
+		for col := lo; col < lo+side; col++ {
+			field[row*n+col] = -10e6
+		}
+	}
+	dst := make([]StressChange, g.Cells())
+	if err := r.Change(dst, field, how); err != nil {
+		b.Fatal(err)
+	}
+	b.ResetTimer()
+	for b.Loop() {
+		if err := r.Change(dst, field, how); err != nil {
+			b.Fatal(err)
+		}
+	}
+	b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N)/float64(g.Cells()), "ns/cell")
+}
+
+func BenchmarkGridResponseFFT200(b *testing.B)   { benchmarkGridResponse(b, 200, 0.25, FFTSummation) }
+func BenchmarkGridResponseFFT50(b *testing.B)    { benchmarkGridResponse(b, 50, 0.25, FFTSummation) }
+func BenchmarkGridResponseDirect50(b *testing.B) { benchmarkGridResponse(b, 50, 0.25, DirectSummation) }
+func BenchmarkGridResponseDirect50Sparse(b *testing.B) {
+	benchmarkGridResponse(b, 50, 0.01, DirectSummation)
+}
+func BenchmarkGridResponseAuto200Sparse(b *testing.B) {
+	benchmarkGridResponse(b, 200, 0.001, AutoSummation)
+}
+
+// benchmarkNewGridResponse times building the kernel tables of an n × n
+// grid and, with fft, the kernel spectra.
+func benchmarkNewGridResponse(b *testing.B, n int, fft bool) {
+	g := DepletionGrid{Cols: n, Rows: n, DX: 10, DY: 10}
+	field := make([]float64, g.Cells())
+	field[0] = -1
+	dst := make([]StressChange, g.Cells())
+	for b.Loop() {
+		r, err := NewGridResponse(Layer{Poroelastic{Biot: 1, Poisson: 0.22}, 30}, g)
+		if err != nil {
+			b.Fatal(err)
+		}
+		if fft {
+			if err := r.Change(dst, field, FFTSummation); err != nil {
+				b.Fatal(err)
+			}
+		}
+	}
+}
+
+func BenchmarkNewGridResponse200(b *testing.B)        { benchmarkNewGridResponse(b, 200, false) }
+func BenchmarkNewGridResponse200Spectra(b *testing.B) { benchmarkNewGridResponse(b, 200, true) }
+
+// benchmarkDepletedEllipseAt times the change at points around an ellipse
+// 300 × 100 m in a layer of thickness h.
+func benchmarkDepletedEllipseAt(b *testing.B, h float64) {
+	d, err := NewDepletedEllipse(Layer{Poroelastic{Biot: 1, Poisson: 0.22}, h},
+		Ellipse{SemiMajor: 300, SemiMinor: 100, Azimuth: 1, Depletion: -10e6})
+	if err != nil {
+		b.Fatal(err)
+	}
+	rng := rand.New(rand.NewPCG(1, 2))
+	pts := make([][2]float64, 1024)
+	for i := range pts {
+		pts[i] = [2]float64{600 * (rng.Float64() - 0.5), 600 * (rng.Float64() - 0.5)}
+	}
+	i := 0
+	for b.Loop() {
+		d.At(pts[i%len(pts)][0], pts[i%len(pts)][1])
+		i++
+	}
+}
+
+func BenchmarkDepletedEllipseAtPlaneStrain(b *testing.B) { benchmarkDepletedEllipseAt(b, math.Inf(1)) }
+func BenchmarkDepletedEllipseAt30m(b *testing.B)         { benchmarkDepletedEllipseAt(b, 30) }

@@ -22,6 +22,15 @@
 // model of Dieterich (1994) with an exact integrator for piecewise-linear
 // stress histories and a seeded event sampler ([SeismicityRate]).
 //
+// For depletion before a refracture or a child well it holds the
+// uniaxial-strain stress path ([Poroelastic]), the stress change that a
+// depleted region leaves in a layer of finite thickness ([Layer]): around a
+// uniformly depleted ellipse ([NewDepletedEllipse]) and for a depletion
+// field on a grid, summed directly or by FFT ([NewGridResponse]); the new
+// horizontal principal stresses and the rotation of SHmax ([Horizontal],
+// [SHmaxRotation], [ChangedHorizontals]); and the changed stress state on
+// which the screening resolves the fractures ([Stress.Changed]).
+//
 // # Units
 //
 // SI throughout: stresses and pressures in Pa, lengths and apertures in m,
@@ -29,7 +38,9 @@
 // writers convert, to MPa and degrees, and they name the unit in every
 // column or key. Weakening rates are in Pa/m, seismicity rates in
 // events/s, the seismicity state γ in s/Pa and stressing rates in Pa/s;
-// magnitudes are moment magnitudes Mw.
+// magnitudes are moment magnitudes Mw. Depletion grids have cell sizes in
+// m and one pore-pressure change, Pa, per cell; Biot's coefficient and
+// Poisson's ratio are dimensionless.
 //
 // # Conventions
 //
@@ -54,7 +65,18 @@
 // stresses unchanged. A poroelastic stress path (docs/references.md §13,
 // ΔSh = α(1−2ν)/(1−ν)·Δp under uniaxial strain) would raise the horizontal
 // stresses with the pressure and so raise the critical increase; the
-// screening does not include it.
+// screening does not include it for the injection. Depletion before the
+// stimulation does change the stresses: [Stress.Changed] adds a depletion's
+// horizontal stress change and its pore-pressure change to the in-situ
+// state (ΔSv = 0, the constant overburden of the stress path), and the
+// screening then resolves the fractures in the changed state.
+//
+// A depletion's stress change is that of a layer of the given thickness in
+// a homogeneous linear elastic whole space, on the layer's mid-plane
+// (docs/references.md §13.1; see [Layer] for the model, its limits and
+// what it leaves out). A [StressChange] is compression-positive: depletion
+// (Δp < 0) lowers the stresses where it acts. The SHmax rotation is
+// positive clockwise, in [−π/2, π/2].
 //
 // The seismicity-rate model is loaded by a Coulomb stress S = τ − μ(σn − p)
 // on the population's faults: S rises with shear stress and with pore
@@ -77,6 +99,9 @@
 // Aki, K. & Richards, P.G. (2002), Quantitative Seismology, 2nd ed.,
 // University Science Books, ch. 4 (rake convention).
 //
+// Biot, M.A. (1941), General theory of three-dimensional consolidation,
+// J. Appl. Phys. 12, 155–164.
+//
 // Cosentino, P., Ficarra, V. & Luzio, D. (1977), Truncated exponential
 // frequency-magnitude relationship in earthquake statistics, Bull.
 // Seismol. Soc. Am. 67(6), 1615–1623.
@@ -96,12 +121,24 @@
 // production and its application to earthquake clustering, J. Geophys.
 // Res. 99(B2), 2601–2618.
 //
+// Engelder, T. & Fischer, M.P. (1994), Influence of poroelastic behavior
+// on the magnitude of minimum horizontal stress, Sh, in overpressured parts
+// of sedimentary basins, Geology 22, 949–952.
+//
 // Eshelby, J.D. (1957), The determination of the elastic field of an
 // ellipsoidal inclusion, and related problems, Proc. R. Soc. Lond. A 241,
-// 376–396 (circular shear crack).
+// 376–396 (circular shear crack; the elliptic cylinder of the depletion
+// model).
 //
 // Ferrill, D.A. et al. (1999), Stressed rock strains groundwater at Yucca
 // Mountain, Nevada, GSA Today 9(5), 1–8 (dilation tendency).
+//
+// Geertsma, J. (1973), Land subsidence above compacting oil and gas
+// reservoirs, J. Pet. Tech. 25, 734–744 (nucleus of strain).
+//
+// Goodier, J.N. (1937), On the integration of the thermo-elastic
+// equations, Phil. Mag. 23, 1017–1032 (displacement potential of a region
+// with a free strain).
 //
 // Gutenberg, B. & Richter, C.F. (1944), Frequency of earthquakes in
 // California, Bull. Seismol. Soc. Am. 34(4), 185–188.
@@ -121,6 +158,10 @@
 // Rock Mechanics, 4th ed., Blackwell, ch. 2 and 4 (stress on a plane,
 // Coulomb criterion, frictional limit).
 //
+// Kellogg, O.D. (1929), Foundations of Potential Theory, Springer,
+// ch. VI–VII (potential of a disc on its axis and of a homogeneous
+// ellipsoid).
+//
 // Mason, J.C. & Handscomb, D.C. (2003), Chebyshev Polynomials, Chapman &
 // Hall/CRC, ch. 9 (finite Hilbert transforms; the nucleation test).
 //
@@ -134,6 +175,12 @@
 // Morris, A., Ferrill, D.A. & Henderson, D.B. (1996), Slip-tendency
 // analysis and fault reactivation, Geology 24(3), 275–278.
 //
+// Mura, T. (1987), Micromechanics of Defects in Solids, 2nd ed., Martinus
+// Nijhoff, §11 (exterior field of an ellipsoidal inclusion).
+//
+// Nagy, D., Papp, G. & Benedek, J. (2000), The gravitational potential and
+// its derivatives for the prism, J. Geodesy 74, 552–560.
+//
 // Palmer, A.C. & Rice, J.R. (1973), The growth of slip surfaces in the
 // progressive failure of over-consolidated clay, Proc. R. Soc. Lond. A
 // 332, 527–548 (linear slip weakening, W = (τp − τr)/Dc).
@@ -142,12 +189,35 @@
 // stresses near fractures in rock, in Atkinson (ed.), Fracture Mechanics
 // of Rock, Academic Press, 277–349 (2-D crack slip).
 //
+// Press, W.H., Teukolsky, S.A., Vetterling, W.T. & Flannery, B.P. (2007),
+// Numerical Recipes, 3rd ed., Cambridge University Press, §13.1
+// (convolution by FFT with zero padding).
+//
+// Rudnicki, J.W. (2011), Eshelby's technique for analyzing inhomogeneities
+// in geomechanics, in Mechanics of Crustal Rocks, CISM Courses and Lectures
+// 533, Springer.
+//
+// Segall, P. (1989), Earthquakes triggered by fluid extraction, Geology
+// 17, 942–946.
+//
+// Segall, P. (1992), Induced stresses due to fluid extraction from
+// axisymmetric reservoirs, Pure Appl. Geophys. 139, 535–560.
+//
+// Segall, P. & Fitzgerald, S.D. (1998), A note on induced stress changes
+// in hydrocarbon and geothermal reservoirs, Tectonophysics 289, 117–128.
+//
 // Shi, Y. & Bolt, B.A. (1982), The standard error of the
 // magnitude-frequency b value, Bull. Seismol. Soc. Am. 72(5), 1677–1687.
 //
 // Sneddon, I.N. (1946), The distribution of stress in the neighbourhood of
 // a crack in an elastic solid, Proc. R. Soc. Lond. A 187, 229–260
 // (opening of a pressurised crack).
+//
+// Timoshenko, S.P. & Goodier, J.N. (1970), Theory of Elasticity, 3rd ed.,
+// McGraw-Hill, ch. 13 (thermal stress around a heated cylinder).
+//
+// Trefethen, L.N. & Weideman, J.A.C. (2014), The exponentially convergent
+// trapezoidal rule, SIAM Review 56(3), 385–458.
 //
 // Uenishi, K. & Rice, J.R. (2003), Universal nucleation length for
 // slip-weakening rupture instability under nonuniform fault loading,
@@ -171,7 +241,7 @@
 // uncertainty, Bull. Seismol. Soc. Am. 95(2), 684–698.
 //
 // Zoback, M.D. (2007), Reservoir Geomechanics, Cambridge University Press,
-// ch. 4 (frictional limit of the stress ratio).
+// ch. 4 (frictional limit of the stress ratio) and ch. 12 (depletion).
 //
 // The check values of the tests are those of docs/references.md
 // §6.2, §7 and §8, which cite these sources; there only Hanks & Kanamori
@@ -184,4 +254,11 @@
 // seen in a source; the other citations, the titles of Ida (1972), Palmer
 // & Rice (1973) and Utsu (1966), and all equation numbers are from memory.
 // The nucleation constant was computed for slipfront ([NucleationFactor]).
+//
+// For the depletion pieces (docs/references.md §13 and §13.1), the
+// abstracts of Segall (1989) and Rudnicki (2011) and the citations of
+// Geertsma (1973), Segall (1992) and Nagy, Papp & Benedek (2000) were seen;
+// the other citations and all formulas are from memory. The closed forms
+// the code uses were derived for slipfront and checked against brute-force
+// integrals (docs/scripts/depletion.py).
 package mechanics

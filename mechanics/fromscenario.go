@@ -53,3 +53,21 @@ func ApertureFromScenario(r scenarios.Rock) (ApertureModel, error) {
 	}
 	return m, nil
 }
+
+// LayerFromScenario returns the depletion model of a scenario's layer: its
+// rock's Poisson's ratio, its thickness and Biot's coefficient biot (the
+// scenario has no key for it yet; 1 is the upper bound and the value the
+// demo's figures use).
+func LayerFromScenario(r scenarios.Rock, l scenarios.Layer, biot float64) (Layer, error) {
+	m := Layer{Poroelastic: Poroelastic{Biot: biot, Poisson: r.PoissonRatio}, Thickness: l.Thickness}
+	if err := m.Validate(); err != nil {
+		return Layer{}, err
+	}
+	return m, nil
+}
+
+// DepletionGridFromScenario returns the depletion grid with the cells of a
+// scenario's map grid (same order: row·Cols + col, rows south to north).
+func DepletionGridFromScenario(g scenarios.Grid) DepletionGrid {
+	return DepletionGrid{Cols: g.Cols, Rows: g.Rows, DX: g.CellSize, DY: g.CellSize}
+}

@@ -120,26 +120,33 @@ func NewAndersonian(a Andersonian) (Stress, error) {
 		return Stress{}, &InputError{Name: "shmax", Value: a.SHmax,
 			Want: fmt.Sprintf("must be ≥ shmin (%g Pa)", a.Shmin)}
 	}
-	sin, cos := math.Sincos(a.SHmaxAzimuth)
-	p := [3]Principal{
-		{Name: "SHmax", Value: a.SHmax, Axis: r3.Vec{X: sin, Y: cos}},
-		{Name: "Sv", Value: a.Sv, Axis: r3.Vec{Z: 1}},
-		{Name: "Shmin", Value: a.Shmin, Axis: r3.Vec{X: cos, Y: -sin}},
-	}
-	sort.SliceStable(p[:], func(i, j int) bool { return p[i].Value > p[j].Value })
-	s := Stress{principal: p, t: tensorFrom(p)}
-	switch {
-	case p[0].Name == "Sv":
-		s.regime = "normal"
-	case p[1].Name == "Sv":
-		s.regime = "strike-slip"
-	default:
-		s.regime = "reverse"
-	}
+	p, regime := andersonianPrincipal(a.SHmax, a.Shmin, a.Sv, a.SHmaxAzimuth)
+	s := Stress{principal: p, t: tensorFrom(p), regime: regime}
 	if err := s.setPorePressure(a.PorePressure); err != nil {
 		return Stress{}, err
 	}
 	return s, nil
+}
+
+// andersonianPrincipal returns the named principal stresses SHmax, Shmin
+// (horizontal, SHmax at azimuth az) and Sv (vertical), largest first with
+// ties ordered SHmax, Sv, Shmin, and the faulting regime they make.
+func andersonianPrincipal(sHmax, shmin, sv, az float64) ([3]Principal, string) {
+	sin, cos := math.Sincos(az)
+	p := [3]Principal{
+		{Name: "SHmax", Value: sHmax, Axis: r3.Vec{X: sin, Y: cos}},
+		{Name: "Sv", Value: sv, Axis: r3.Vec{Z: 1}},
+		{Name: "Shmin", Value: shmin, Axis: r3.Vec{X: cos, Y: -sin}},
+	}
+	sort.SliceStable(p[:], func(i, j int) bool { return p[i].Value > p[j].Value })
+	switch {
+	case p[0].Name == "Sv":
+		return p, "normal"
+	case p[1].Name == "Sv":
+		return p, "strike-slip"
+	default:
+		return p, "reverse"
+	}
 }
 
 // NewStress returns the stress state with the given total stress tensor,

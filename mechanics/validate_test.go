@@ -126,4 +126,21 @@ func TestFromScenario(t *testing.T) {
 	if _, err := StressFromScenario(st, 2600); err == nil {
 		t.Error("SHmax gradient below Shmin accepted")
 	}
+	layer, err := LayerFromScenario(rock, scenarios.Layer{Depth: 2600, Thickness: 30}, 0.8)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if layer != (Layer{Poroelastic: Poroelastic{Biot: 0.8, Poisson: 0.25}, Thickness: 30}) {
+		t.Errorf("layer %+v", layer)
+	}
+	if _, err := LayerFromScenario(rock, scenarios.Layer{Depth: 2600, Thickness: 30}, 0); err == nil {
+		t.Error("Biot's coefficient 0 accepted")
+	}
+	g := DepletionGridFromScenario(scenarios.Grid{XMin: -800, YMin: -500, CellSize: 10, Cols: 160, Rows: 100})
+	if g != (DepletionGrid{Cols: 160, Rows: 100, DX: 10, DY: 10}) {
+		t.Errorf("depletion grid %+v", g)
+	}
+	if g.Cells() != (scenarios.Grid{CellSize: 10, Cols: 160, Rows: 100}).Cells() {
+		t.Errorf("depletion grid has %d cells, the map grid %d", g.Cells(), 160*100)
+	}
 }
