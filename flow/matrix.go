@@ -168,8 +168,9 @@ type matrixLeak struct {
 	// dt is the step the factors below belong to (0: none yet).
 	dt float64
 	// Thomas factors of M = diag(s/dt) + Laplacian: the modified
-	// super-diagonal c' and the pivots; v solves M v = tFace·e_0.
-	cPrime, pivot, v []float64
+	// super-diagonal c' and the inverse pivots; v solves M v = tFace·e_0;
+	// sdt is s/dt.
+	cPrime, invPivot, v, sdt []float64
 	// a and b: element i leaks a_i·(p_i − p0) − b_i over the step, m³,
 	// with a_i = 2 h L dt tFace (1 − v_0) and b_i = 2 h L dt tFace u_0,i.
 	// Pressures enter as excesses over p0 so that the leak-off, a small
@@ -183,7 +184,7 @@ func newMatrixLeak(m Matrix, nElem int, p0 float64) *matrixLeak {
 	h := m.CellSizes()
 	n := len(h)
 	x := &matrixLeak{n: n, p0: p0, storage: make([]float64, n), trans: make([]float64, n),
-		cPrime: make([]float64, n), pivot: make([]float64, n), v: make([]float64, n),
+		cPrime: make([]float64, n), invPivot: make([]float64, n), v: make([]float64, n), sdt: make([]float64, n),
 		a: make([]float64, nElem), b: make([]float64, nElem)}
 	mob := m.Permeability / m.Viscosity
 	x.tFace = mob / (0.5 * h[0])
@@ -220,8 +221,9 @@ func (x *matrixLeak) factor(dt float64) {
 		if j > 0 {
 			diag -= sub * x.cPrime[j-1]
 		}
-		x.pivot[j] = diag
+		x.invPivot[j] = 1 / diag
 		x.cPrime[j] = -x.trans[j] / diag
+		x.sdt[j] = x.storage[j] / dt
 		prev = x.trans[j]
 	}
 	x.v[0] = x.tFace
@@ -233,9 +235,9 @@ func (x *matrixLeak) factor(dt float64) {
 
 // solve overwrites r with M⁻¹ r using the factors of factor.
 func (x *matrixLeak) solve(r []float64) {
-	r[0] /= x.pivot[0]
+	r[0] *= x.invPivot[0]
 	for j := 1; j < x.n; j++ {
-		r[j] = (r[j] + x.trans[j-1]*r[j-1]) / x.pivot[j]
+		r[j] = (r[j] + x.trans[j-1]*r[j-1]) * x.invPivot[j]
 	}
 	for j := x.n - 2; j >= 0; j-- {
 		r[j] -= x.cPrime[j] * r[j+1]
@@ -254,7 +256,7 @@ func (x *matrixLeak) prepare(mesh *Mesh, cur, next *State, dt float64) {
 		u := next.Matrix[i*n : (i+1)*n]
 		old := cur.Matrix[i*n : (i+1)*n]
 		for j := range u {
-			u[j] = x.storage[j] / dt * (old[j] - x.p0)
+			u[j] = x.sdt[j] * (old[j] - x.p0)
 		}
 		x.solve(u)
 		el := &mesh.Elements[i]
