@@ -25,8 +25,9 @@ import (
 // steps (Duhamel's theorem). Rather than summing that history, the
 // diffusion is discretised: Cells finite volumes per face, graded
 // geometrically from a first cell of √(D·ShortestTime)/2 at the face to the
-// no-flow plane (at 4√(D·LongestTime) for a semi-infinite matrix, where
-// the erfc solution has fallen below 1e−8 of the step), integrated by
+// no-flow plane (for a semi-infinite matrix at 4√(D·LongestTime), whose
+// image changes the face flux by at most 2·exp(−16) ≈ 2e−7 up to
+// LongestTime; method of images, Carslaw & Jaeger 1959), integrated by
 // backward Euler with the same step as the fractures. The matrix
 // pressures are part of the State.
 //
@@ -82,7 +83,7 @@ func (m Matrix) Validate() error {
 		return badinput.Errorf("flow: matrix half-width %g m: must be finite and ≥ 0 (0: semi-infinite)", m.HalfWidth)
 	case m.Cells < 0 || m.Cells > 1000:
 		return badinput.Errorf("flow: matrix cells %d: must be in [1, 1000] (0: default %d)", m.Cells, DefaultMatrixCells)
-	case !(m.ShortestTime >= 0) || !(m.LongestTime >= 0) || math.IsInf(m.LongestTime, 0):
+	case !(m.ShortestTime >= 0) || !(m.LongestTime >= 0) || math.IsInf(m.ShortestTime, 0) || math.IsInf(m.LongestTime, 0):
 		return badinput.Errorf("flow: matrix times %g s, %g s: must be finite and ≥ 0 (0: defaults)", m.ShortestTime, m.LongestTime)
 	}
 	return nil
