@@ -89,6 +89,9 @@
 // The linear algebra is unit-free: it solves whatever consistent system it
 // is given. In the flow equations, pressures are Pa, transmissibilities
 // m³/(Pa·s) and storage terms m³/Pa divided by the time step, s.
+// Perforation diameters are in m and fluid densities in kg/m³ (the
+// perforation coefficient K in Pa·s²/m⁶); the matrix's permeability is in
+// m², its compressibility in 1/Pa and its cells' thicknesses in m.
 //
 // # Conventions
 //
