@@ -7,6 +7,8 @@ import (
 	"sync"
 	"testing"
 	"time"
+
+	"gonum.org/v1/gonum/spatial/r2"
 )
 
 // Benchmarks of the linear-algebra layer on the network model of
@@ -220,3 +222,57 @@ func loadBenchMatrix(b *testing.B, name string) *CSR {
 	mtxCache.name, mtxCache.a = name, a
 	return a
 }
+
+// benchmarkSplit times the limited-entry rate split of a stage with n
+// clusters at scattered entry pressures.
+func benchmarkSplit(b *testing.B, n int) {
+	perfs := make([]Perforations, n)
+	entry := make([]float64, n)
+	rng := rand.New(rand.NewPCG(1, 2))
+	for k := range perfs {
+		perfs[k] = Perforations{Count: 4 + k%4, Diameter: 8.89e-3, Discharge: 0.8}
+		entry[k] = 40e6 + 2e6*rng.Float64()
+	}
+	l, err := NewLimitedEntry(perfs, 1000)
+	if err != nil {
+		b.Fatal(err)
+	}
+	q := make([]float64, n)
+	b.ResetTimer()
+	for b.Loop() {
+		l.Split(q, entry, 0.2)
+	}
+}
+
+func BenchmarkSplit8(b *testing.B)   { benchmarkSplit(b, 8) }
+func BenchmarkSplit128(b *testing.B) { benchmarkSplit(b, 128) }
+
+// benchmarkMatrixPrepare times the per-step elimination of the matrix
+// leak-off cells (the work matrix leak-off adds to a step) for n elements.
+func benchmarkMatrixPrepare(b *testing.B, n int) {
+	paths := []Path{{P1: r2.Vec{X: float64(n)}, Height: 10}}
+	mesh, err := BuildMesh(paths, nil, MeshSettings{ElementLength: 1})
+	if err != nil {
+		b.Fatal(err)
+	}
+	m := Matrix{Permeability: 1e-18, Porosity: 0.05, Compressibility: 2e-9, Viscosity: 1e-3}
+	s, err := NewSystem(mesh, nil, Config{Fluid: Fluid{Viscosity: 1e-3, Compressibility: 4.5e-10}, ReferencePressure: 30e6, Matrix: &m})
+	if err != nil {
+		b.Fatal(err)
+	}
+	ap := func(p, e, dedp []float64) {
+		for i := range e {
+			e[i], dedp[i] = 1e-4, 0
+		}
+	}
+	cur, next := s.NewState(30e6, ap), s.NewState(30e6, ap)
+	b.ResetTimer()
+	for b.Loop() {
+		s.mx.prepare(mesh, cur, next, 10)
+		s.mx.finish(next, cur.Pressure)
+	}
+	b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N)/float64(n), "ns/element")
+}
+
+func BenchmarkMatrixPrepare1e3(b *testing.B) { benchmarkMatrixPrepare(b, 1000) }
+func BenchmarkMatrixPrepare1e5(b *testing.B) { benchmarkMatrixPrepare(b, 100000) }

@@ -29,8 +29,21 @@
 // at nodes, under rate control (one extra unknown, the bottom-hole
 // pressure, with Σ α_k (p_w − p_k) = Q), rate control capped by a pressure
 // limit, pressure control, or shut-in (rate 0). Optional Carter leak-off
-// removes 2·h·L·2C_L(√(t+dt−t₀) − √(t−t₀)) from each exposed element.
+// removes 2·h·L·2C_L(√(t+dt−t₀) − √(t−t₀)) from each exposed element;
+// alternatively (Config.Matrix) fluid leaks off by pressure diffusion into
+// the rock matrix from both faces of every element, driven by p − p0 and
+// discretised in a few cells per face, so it reverses below the matrix's
+// pressure; its step equations are eliminated into a positive diagonal
+// term and the system stays symmetric positive definite.
 // StepSize adapts the time step to a target pressure change.
+//
+// # Limited entry
+//
+// LimitedEntry shares a stage's rate between its perforation clusters
+// through the orifice pressure drop Δp = 8ρq²/(π²n²d⁴C_d²) of each
+// (Split: a monotone one-dimensional root find on the bottom-hole
+// pressure), and gives the chord conductance q/Δp that makes a cluster's
+// perforations a lagged, positive connection of the implicit system.
 //
 // # Linear algebra
 //
@@ -76,6 +89,9 @@
 // The linear algebra is unit-free: it solves whatever consistent system it
 // is given. In the flow equations, pressures are Pa, transmissibilities
 // m³/(Pa·s) and storage terms m³/Pa divided by the time step, s.
+// Perforation diameters are in m and fluid densities in kg/m³ (the
+// perforation coefficient K in Pa·s²/m⁶); the matrix's permeability is in
+// m², its compressibility in 1/Pa and its cells' thicknesses in m.
 //
 // # Conventions
 //
@@ -99,6 +115,10 @@
 //   - Carslaw, H.S. & Jaeger, J.C. (1959), Conduction of Heat in Solids,
 //     2nd ed., Oxford, §2.4 (the erfc solution the transient is checked
 //     against).
+//   - Crump, J.B. & Conway, M.W. (1988), "Effects of perforation-entry
+//     friction on bottomhole treating analysis", J. Pet. Tech. 40(8),
+//     1041–1048 (the perforation pressure drop, in field units; title and
+//     pages from memory).
 //   - Carter, R.D. (1957), "Derivation of the general equation for
 //     estimating the extent of the fractured area", appendix to Howard,
 //     G.C. & Fast, C.R., Drilling and Production Practice, API, 261–270

@@ -46,6 +46,11 @@ type State struct {
 	// Exposed is the time each element started leaking off (Carter), s;
 	// NaN while it has not.
 	Exposed []float64
+	// Matrix holds the pore pressures of the matrix cells beside every
+	// element under matrix leak-off (Config.Matrix), Pa: the cells of
+	// element i, from its face outwards, at [i·c, (i+1)·c) for c cells per
+	// face (both faces alike); nil without matrix leak-off.
+	Matrix []float64
 	// BHP is the well's bottom-hole pressure, Pa.
 	BHP float64
 	// Capped tells that the last step ran at the pressure cap.
@@ -140,6 +145,12 @@ func (s *System) NewState(p0 float64, ap ApertureFunc) *State {
 		st.Content[i] = s.Content(i, st.Aperture[i], p0)
 	}
 	copy(st.InitialContent, st.Content)
+	if s.mx != nil {
+		st.Matrix = make([]float64, n*s.mx.n)
+		for i := range st.Matrix {
+			st.Matrix[i] = p0
+		}
+	}
 	return st
 }
 
@@ -220,8 +231,34 @@ func (s *System) newIteration(cur, next *State, dt float64, ctl Control) *iterat
 		s.e, s.dedp, s.ePrev, s.leak = make([]float64, n), make([]float64, n), make([]float64, n), make([]float64, n)
 	}
 	copy(next.Pressure, cur.Pressure)
+	leak := s.leak
+	if s.mx != nil {
+		s.mx.prepare(s.mesh, cur, next, dt)
+	} else {
+		s.leakoff(cur, dt)
+	}
 	return &iteration{cur: cur, next: next, dt: dt, ctl: ctl, p: next.Pressure, pw: cur.BHP,
-		e: s.e, dedp: s.dedp, ePrev: s.ePrev, leak: s.leakoff(cur, dt)}
+		e: s.e, dedp: s.dedp, ePrev: s.ePrev, leak: leak}
+}
+
+// leakSlope returns ∂leak_i/∂p_i of element i over the step, m³/Pa: a_i
+// under matrix leak-off, 0 under Carter's (computed from the step's start).
+func (s *System) leakSlope(i int) float64 {
+	if s.mx == nil {
+		return 0
+	}
+	return s.mx.a[i]
+}
+
+// updateLeak sets the matrix leak-off of every element at the pressures
+// p, m³ over the step (Carter's is fixed for the step).
+func (s *System) updateLeak(leak, p []float64) {
+	if s.mx == nil {
+		return
+	}
+	for i, pi := range p {
+		leak[i] = s.mx.leak(i, pi)
+	}
 }
 
 // holdsPressure reports whether the iteration holds the bottom-hole
@@ -239,6 +276,7 @@ func (s *System) solve(it *iteration, ap ApertureFunc, set StepSettings) (StepRe
 	var dp float64
 	for k := 0; ; k++ {
 		ap(p, it.e, it.dedp)
+		s.updateLeak(it.leak, p)
 		if k > 0 {
 			res.Stored, res.MassError = s.balance(cur, p, it.e, res.Injected, it.leak)
 			if dp <= set.PressureTol && relChange(it.e, it.ePrev) <= set.ApertureTol &&
@@ -265,6 +303,9 @@ func (s *System) solve(it *iteration, ap ApertureFunc, set StepSettings) (StepRe
 	res.MaxChange = maxAbsDiff(p, cur.Pressure)
 	next.Time, next.BHP = cur.Time+it.dt, it.pw
 	copy(next.Aperture, it.e)
+	if s.mx != nil {
+		s.mx.finish(next, p)
+	}
 	for i := range n {
 		next.Content[i] = s.Content(i, it.e[i], p[i])
 		next.Exposed[i] = cur.Exposed[i]
@@ -288,8 +329,10 @@ func (s *System) linearSolve(it *iteration) error {
 		hl := el.Height * el.Length
 		storage := hl * (it.dedp[i]*(1+cf*(p[i]-pref)) + e[i]*cf)
 		content := hl * e[i] * (1 + cf*(p[i]-pref))
-		s.as.AddDiagonal(i, storage/dt)
-		s.rhs[i] = storage/dt*p[i] - (content-it.cur.Content[i])/dt - it.leak[i]/dt
+		// Matrix leak-off is linear in p_i: its slope joins the diagonal.
+		slope := s.leakSlope(i)
+		s.as.AddDiagonal(i, (storage+slope)/dt)
+		s.rhs[i] = ((storage+slope)*p[i] - (content - it.cur.Content[i]) - it.leak[i]) / dt
 	}
 	s.assembleFlux(it.ctl)
 	a := s.as.Matrix()
@@ -379,20 +422,20 @@ func (s *System) balance(cur *State, p, e []float64, injected float64, leak []fl
 // times the volume moved in the step, but not below the round-off of
 // summing the contents (256 ε Σ m), which governs during shut-in.
 func (s *System) massTolerance(rel, injected float64, leak []float64, stored float64, content []float64) float64 {
-	moved := math.Max(math.Max(math.Abs(injected), total(leak)), math.Abs(stored))
+	moved := math.Max(math.Max(math.Abs(injected), math.Abs(total(leak))), math.Abs(stored))
 	return math.Max(rel*moved, 256*epsilon*total(content))
 }
 
 // epsilon is the float64 machine epsilon.
 const epsilon = 0x1p-52
 
-// leakoff returns each element's Carter leak-off volume over the step,
+// leakoff sets s.leak to each element's Carter leak-off volume over the step,
 // from both faces: 2·h·L · 2 C_L (√(t+dt−t₀) − √(t−t₀)) (Carter 1957, in
 // Howard & Fast, Drilling and Production Practice, API), computed from the
 // state at the start of the step (so the system stays symmetric) and
 // limited to the element's fluid above its initial content (so an element
 // that cannot take more from its neighbours does not drain below it).
-func (s *System) leakoff(cur *State, dt float64) []float64 {
+func (s *System) leakoff(cur *State, dt float64) {
 	leak := s.leak
 	cl := s.cfg.Fluid.Leakoff
 	for i := range leak {
@@ -405,7 +448,6 @@ func (s *System) leakoff(cur *State, dt float64) []float64 {
 		v := 4 * el.Height * el.Length * cl * (math.Sqrt(cur.Time+dt-t0) - math.Sqrt(cur.Time-t0))
 		leak[i] = math.Max(0, math.Min(v, cur.Content[i]-cur.InitialContent[i]))
 	}
-	return leak
 }
 
 // relChange returns max |a_i − b_i| / |b_i|.

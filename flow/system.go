@@ -3,6 +3,8 @@ package flow
 import (
 	"fmt"
 	"math"
+
+	"slipfront/internal/badinput"
 )
 
 // Fluid is a slightly compressible Newtonian fluid.
@@ -37,6 +39,10 @@ type Config struct {
 	ReferencePressure float64
 	// Linear configures the linear solver.
 	Linear Settings
+	// Matrix, when set, is the rock matrix the fractures leak off into by
+	// pressure diffusion, in place of Carter's coefficient (which must
+	// then be 0).
+	Matrix *Matrix
 }
 
 // System is the implicit pressure system of a mesh during one stage: one
@@ -71,6 +77,8 @@ type System struct {
 	omega     float64
 	// per-element work arrays of Step
 	e, dedp, ePrev, leak []float64
+	// mx is the matrix leak-off model (nil: Carter's or none).
+	mx *matrixLeak
 }
 
 // NewSystem analyses the system of mesh m with a well at wellNodes (none:
@@ -81,6 +89,15 @@ func NewSystem(m *Mesh, wellNodes []int, cfg Config) (*System, error) {
 	}
 	n := len(m.Elements)
 	s := &System{mesh: m, cfg: cfg, nElem: n, wellAt: make([]bool, m.NumNodes())}
+	if cfg.Matrix != nil {
+		if err := cfg.Matrix.Validate(); err != nil {
+			return nil, err
+		}
+		if cfg.Fluid.Leakoff != 0 {
+			return nil, badinput.Errorf("flow: Carter leak-off coefficient %g m/√s and matrix leak-off are exclusive: set one", cfg.Fluid.Leakoff)
+		}
+		s.mx = newMatrixLeak(cfg.Matrix.withDefaults(), n, cfg.ReferencePressure)
+	}
 	for _, node := range wellNodes {
 		if node < 0 || node >= m.NumNodes() {
 			return nil, fmt.Errorf("flow: well node %d outside the mesh's %d nodes", node, m.NumNodes())

@@ -31,6 +31,16 @@
 // [SHmaxRotation], [ChangedHorizontals]); and the changed stress state on
 // which the screening resolves the fractures ([Stress.Changed]).
 //
+// For hydraulic fracture growth it holds the stress intensity factors at
+// a crack tip read from the displacement discontinuity of a constant tip
+// element, with the element's √(2/π) correction ([TipIntensity],
+// [TipElementCorrection]), the kink angle and mode-I-equivalent intensity
+// of the maximum circumferential stress criterion of Erdogan & Sih (1963)
+// ([KinkAngle], [EquivalentIntensity]), and the outcome where a growing
+// fracture meets a natural one — cross, arrest or divert — by the
+// criterion of Renshaw & Pollard (1995) extended to oblique approach
+// ([Approach], [OrthogonalCrossingRatio]).
+//
 // # Units
 //
 // SI throughout: stresses and pressures in Pa, lengths and apertures in m,
@@ -110,6 +120,10 @@
 // Mechanics, George Allen & Unwin, ch. 5 (constant displacement-
 // discontinuity elements; the nucleation test's crack).
 //
+// Erdogan, F. & Sih, G.C. (1963), On the crack extension in plates under
+// plane loading and transverse shear, J. Basic Eng. 85(4), 519–525
+// (maximum circumferential stress criterion).
+//
 // Dascalu, C., Ionescu, I.R. & Campillo, M. (2000), Fault finiteness and
 // initiation of dynamic shear instability, Earth Planet. Sci. Lett. 177,
 // 163–176.
@@ -150,9 +164,17 @@
 // standard procedures for determining earthquake magnitudes from digital
 // data (Mw = (2/3)(log10 M0 − 9.1), M0 in N·m).
 //
+// Gu, H., Weng, X., Lund, J., Mack, M., Ganguly, U. & Suarez-Rivera, R.
+// (2012), Hydraulic fracture crossing natural fracture at nonorthogonal
+// angles: a criterion and its validation, SPE Prod. & Oper. 27(1), 20–26.
+//
 // Ida, Y. (1972), Cohesive force across the tip of a longitudinal-shear
 // crack and Griffith's specific surface energy, J. Geophys. Res. 77(20),
 // 3796–3805 (slip-weakening cohesive zone).
+//
+// Irwin, G.R. (1957), Analysis of stresses and strains near the end of a
+// crack traversing a plate, J. Appl. Mech. 24, 361–364 (the near-tip
+// field and its opening).
 //
 // Jaeger, J.C., Cook, N.G.W. & Zimmerman, R.W. (2007), Fundamentals of
 // Rock Mechanics, 4th ed., Blackwell, ch. 2 and 4 (stress on a plane,
@@ -209,6 +231,11 @@
 // Shi, Y. & Bolt, B.A. (1982), The standard error of the
 // magnitude-frequency b value, Bull. Seismol. Soc. Am. 72(5), 1677–1687.
 //
+// Renshaw, C.E. & Pollard, D.D. (1995), An experimentally verified
+// criterion for propagation across unbounded frictional interfaces in
+// brittle, linear elastic materials, Int. J. Rock Mech. Min. Sci. 32(3),
+// 237–249.
+//
 // Sneddon, I.N. (1946), The distribution of stress in the neighbourhood of
 // a crack in an elastic solid, Proc. R. Soc. Lond. A 187, 229–260
 // (opening of a pressurised crack).
@@ -230,6 +257,9 @@
 // Wiemer, S. & Wyss, M. (2000), Minimum magnitude of completeness in
 // earthquake catalogs: examples from Alaska, the western United States,
 // and Japan, Bull. Seismol. Soc. Am. 90(4), 859–869.
+//
+// Williams, M.L. (1957), On the stress distribution at the base of a
+// stationary crack, J. Appl. Mech. 24, 109–114.
 //
 // Willis-Richards, J., Watanabe, K. & Takahashi, H. (1996), Progress
 // toward a stochastic rock mechanics model of engineered geothermal
@@ -261,4 +291,13 @@
 // the other citations and all formulas are from memory. The closed forms
 // the code uses were derived for slipfront and checked against brute-force
 // integrals (docs/scripts/depletion.py).
+//
+// For the growth pieces no source text was seen: the titles, pages and
+// equations of Erdogan & Sih (1963), Irwin (1957), Williams (1957),
+// Renshaw & Pollard (1995) and Gu et al. (2012) are from memory. The
+// constants 0.35 and 1.06 of Renshaw & Pollard's criterion are derived
+// here from the near-tip field (√2/4 and 3√2/4), the tip-element
+// correction from the constant-element crack of docs/references.md §9.2,
+// and the oblique-approach criterion is slipfront's own formulation in
+// the manner of Gu et al., not a transcription of theirs.
 package mechanics

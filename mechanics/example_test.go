@@ -209,3 +209,47 @@ func ExampleSeismicityRate_Integrate() {
 	// day 20:   3.42 events/day,   58.5 events so far
 	// day 40:   9.66 events/day,  206.6 events so far
 }
+
+// A crack tip read from its constant tip element: the stress intensity
+// factors from the element's opening and slip, the direction it grows in
+// and whether it grows at a toughness of 1.5 MPa·√m.
+func ExampleKinkAngle() {
+	const g, nu, a = 15e9, 0.25, 0.5 // Pa, –, tip element half-length m
+	kI := mechanics.TipIntensity(0.2e-3, a, g, nu)
+	kII := mechanics.TipIntensity(0.05e-3, a, g, nu)
+	th := mechanics.KinkAngle(kI, kII)
+	keq := mechanics.EquivalentIntensity(kI, kII)
+	fmt.Printf("K_I = %.3f MPa·√m, K_II = %.3f MPa·√m\n", kI/1e6, kII/1e6)
+	fmt.Printf("kink %.2f°, K_eq = %.3f MPa·√m, grows: %v\n", th/deg, keq/1e6, keq >= 1.5e6)
+	// Output:
+	// K_I = 2.828 MPa·√m, K_II = 0.707 MPa·√m
+	// kink -25.33°, K_eq = 3.070 MPa·√m, grows: true
+}
+
+// A hydraulic fracture growing along SHmax meets a natural fracture at 80°.
+func ExampleApproach_Decide() {
+	a := mechanics.Approach{
+		Angle: 80 * deg, ParallelStress: 52e6, NormalStress: 45e6, PorePressure: 30e6,
+		FluidPressure: 46e6, TensileStrength: 3e6, Friction: 0.6,
+	}
+	for _, sh := range []float64{52e6, 46e6} {
+		a.ParallelStress = sh
+		c, err := a.Decide()
+		if err != nil {
+			fmt.Println(err)
+			return
+		}
+		fmt.Printf("SHmax %.0f MPa: %v\n", sh/1e6, c)
+	}
+	a.FluidPressure = 45.5e6 // below σn = 45.97 MPa on the natural fracture
+	c, err := a.Decide()
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	fmt.Printf("SHmax 46 MPa, fluid 45.5 MPa: %v\n", c)
+	// Output:
+	// SHmax 52 MPa: cross
+	// SHmax 46 MPa: divert
+	// SHmax 46 MPa, fluid 45.5 MPa: arrest
+}
