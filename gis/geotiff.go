@@ -3,11 +3,13 @@ package gis
 import (
 	"bufio"
 	"encoding/binary"
+	"encoding/xml"
 	"fmt"
 	"io"
 	"math"
 	"slices"
 	"strconv"
+	"strings"
 )
 
 // Raster is a single-band float32 raster on a Grid.
@@ -18,6 +20,10 @@ type Raster struct {
 	Data []float32
 	// NoData marks cells without a value; NaN is allowed.
 	NoData float32
+	// Description names the band's quantity (e.g. "first_slip_time_s")
+	// and Unit is its unit (e.g. "s"); either may be empty. A GeoTIFF
+	// carries them in GDAL's metadata tag.
+	Description, Unit string
 }
 
 // TIFF 6.0 constants (Adobe 1992, TIFF Revision 6.0, §2 and §8).
@@ -50,6 +56,7 @@ const (
 	tagModelPixelScale  = 33550
 	tagModelTiepoint    = 33922
 	tagGeoKeyDirectory  = 34735
+	tagGDALMetadata     = 42112
 	tagGDALNoData       = 42113
 	compressionNone     = 1
 	photometricBlackIs0 = 1
@@ -83,7 +90,9 @@ const tiffStripBytes = 64 << 10
 // ModelPixelScale (CellSize, CellSize, 0), ModelTiepoint at the
 // upper-left corner of the north-west cell (RasterPixelIsArea), the
 // GeoKeys GTModelType = projected, GTRasterType = PixelIsArea and
-// ProjectedCSType = the EPSG code, and GDAL's GDAL_NODATA tag.
+// ProjectedCSType = the EPSG code, GDAL's GDAL_NODATA tag and, when the
+// raster has a Description or Unit, GDAL's GDAL_METADATA tag with the
+// band's description and unit type (see gdalMetadata).
 //
 // The file stores the NORTH row first: file row r holds grid row
 // Rows−1−r.
@@ -157,7 +166,10 @@ func tiffHead(r Raster, pl Placement) []byte {
 		doubleEntry(tagModelPixelScale, r.CellSize, r.CellSize, 0),
 		doubleEntry(tagModelTiepoint, 0, 0, 0, ul[0], ul[1], 0),
 		shortsEntry(tagGeoKeyDirectory, geoKeys(pl.CRS)...),
-		{tag: tagGDALNoData, typ: typeASCII, count: uint32(len(nodata) + 1), value: append([]byte(nodata), 0)},
+		asciiEntry(tagGDALNoData, nodata),
+	}
+	if md := gdalMetadata(r.Description, r.Unit); md != "" {
+		entries = slices.Insert(entries, len(entries)-1, asciiEntry(tagGDALMetadata, md))
 	}
 	if !slices.IsSortedFunc(entries, func(a, b tiffEntry) int { return int(a.tag) - int(b.tag) }) {
 		panic("gis: TIFF entries not sorted by tag") // TIFF 6.0 §2: ascending order
@@ -244,6 +256,45 @@ func geoKeys(c CRS) []uint16 {
 		out = append(out, k[:]...)
 	}
 	return out
+}
+
+// gdalMetadata returns the XML of GDAL's GDAL_METADATA TIFF tag (42112)
+// with band 0's description and unit type, or "" when both are empty.
+// The items are the ones GDAL's GTiff driver writes for a band
+// description and unit (GDAL, GTiff driver documentation, "Metadata"):
+//
+//	<GDALMetadata><Item name="DESCRIPTION" sample="0" role="description">…</Item>
+//	<Item name="UNITTYPE" sample="0" role="unittype">…</Item></GDALMetadata>
+//
+// GDAL escapes an item's value for XML and then the whole document again,
+// so the text is escaped twice ("&" is "&amp;amp;"), as gdal_translate
+// 3.6 writes it; the tests read it back with gdalinfo.
+func gdalMetadata(description, unit string) string {
+	if description == "" && unit == "" {
+		return ""
+	}
+	escape := func(s string) string {
+		var b strings.Builder
+		xml.EscapeText(&b, []byte(s))
+		return b.String()
+	}
+	var b strings.Builder
+	b.WriteString("<GDALMetadata>")
+	for _, it := range [...]struct{ name, role, value string }{
+		{"DESCRIPTION", "description", description},
+		{"UNITTYPE", "unittype", unit},
+	} {
+		if it.value != "" {
+			fmt.Fprintf(&b, `<Item name="%s" sample="0" role="%s">%s</Item>`, it.name, it.role, escape(escape(it.value)))
+		}
+	}
+	b.WriteString("</GDALMetadata>")
+	return b.String()
+}
+
+// asciiEntry is a NUL-terminated ASCII entry (TIFF 6.0 §2: type 2).
+func asciiEntry(tag uint16, s string) tiffEntry {
+	return tiffEntry{tag: tag, typ: typeASCII, count: uint32(len(s) + 1), value: append([]byte(s), 0)}
 }
 
 func shortEntry(tag uint16, v uint16) tiffEntry {

@@ -8,7 +8,6 @@ import (
 	"path/filepath"
 	"slices"
 	"strings"
-	"time"
 
 	"slipfront/batch"
 	"slipfront/gis"
@@ -103,8 +102,7 @@ func exportRun(ctx context.Context, dir string, o ExportOptions) error {
 
 // catalog is the run's events as a QuakeML catalogue.
 func (r *Run) catalog() gis.Catalog {
-	start, _ := time.Parse(time.RFC3339, r.Scenario.Schedule.Start)
-	c := gis.Catalog{ID: fmt.Sprintf("slipfront-%s-r%d", r.Scenario.Digest[:12], r.Network.Realization), Start: start,
+	c := gis.Catalog{ID: fmt.Sprintf("slipfront-%s-r%d", r.Scenario.Digest[:12], r.Network.Realization), Start: r.start(),
 		Description: "synthetic microseismic events of a slipfront run of " + r.Scenario.Name + " (not observed data)"}
 	for _, e := range r.Result.Events {
 		c.Events = append(c.Events, gis.Event{Time: e.Time, East: e.X, North: e.Y, Depth: e.Depth, Magnitude: e.Magnitude})

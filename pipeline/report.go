@@ -32,7 +32,7 @@ func writeRunReport(dir, out string) error {
 	if err != nil {
 		return err
 	}
-	var warnings []string
+	var warnings []sim.Warning
 	if err := readFile(filepath.Join(dir, TimelineFile), func(f io.Reader) (err error) {
 		r.Result.Timeline, err = sim.ReadTimeline(f, TimelineFile, r.Scenario)
 		return err
@@ -62,7 +62,7 @@ func readFile(path string, read func(io.Reader) error) error {
 }
 
 // page is the HTML page of a run.
-func (r *Run) page(warnings []string) *report.Page {
+func (r *Run) page(warnings []sim.Warning) *report.Page {
 	s, res := r.Scenario, r.Result
 	var last sim.Sample
 	if n := len(res.Timeline); n > 0 {
@@ -78,7 +78,7 @@ func (r *Run) page(warnings []string) *report.Page {
 			{"stimulated fracture area", fmt.Sprintf("%.0f m²", last.FractureArea)},
 			{"events", fmt.Sprintf("%d (largest Mw %s)", len(res.Events), optionalMw(maxMw))},
 		},
-		Notes:  warnings,
+		Notes:  warningNotes(warnings),
 		Images: []report.Image{{File: MapPictureFile, Caption: "Traces by first-slip time, events, stimulated area"}, {File: GrowthPictureFile, Caption: "Stimulated area and bottom-hole pressure over time"}},
 	}
 	t := report.Table{Caption: "Stages in pumping order", Header: []string{"stage", "injected m³", "peak BHP MPa", "new area m²", "events", "max Mw"}}
@@ -88,6 +88,15 @@ func (r *Run) page(warnings []string) *report.Page {
 	}
 	p.Tables = []report.Table{t}
 	return p
+}
+
+// warningNotes are the warnings' messages, for a page.
+func warningNotes(warnings []sim.Warning) []string {
+	var notes []string
+	for _, w := range warnings {
+		notes = append(notes, w.Message)
+	}
+	return notes
 }
 
 func optionalMw(v float64) string {

@@ -29,9 +29,9 @@ type SimulateOptions struct {
 // Simulate runs realization 0 of the scenario and writes the run folder:
 // ScenarioFile first, SnapshotFile frame by frame during the run (so a
 // stopped run keeps every complete frame), then SummaryFile, TimelineFile,
-// EventsFile, FracturesFile and the maps. A run that fails part way still
-// writes what it computed and returns its result with the error; a nil
-// result means no complete folder was written.
+// EventsFile, FracturesFile, CSVMetadataFile and the maps. A run that
+// fails part way still writes what it computed and returns its result
+// with the error; a nil result means no complete folder was written.
 func Simulate(ctx context.Context, s *scenarios.Scenario, o SimulateOptions) (*sim.Result, error) {
 	status := o.Status
 	if status == nil {
@@ -78,6 +78,7 @@ func writeRunFiles(ctx context.Context, out string, s *scenarios.Scenario, net *
 		namedWriter{TimelineFile, func(w io.Writer) error { return sim.WriteTimeline(w, s, res) }},
 		namedWriter{EventsFile, func(w io.Writer) error { return sim.WriteEvents(w, s, res) }},
 		namedWriter{FracturesFile, func(w io.Writer) error { return sim.WriteFractures(w, s, net, res) }},
+		runMetadata(s),
 	)
 	if err != nil {
 		return err
