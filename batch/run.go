@@ -9,6 +9,7 @@ import (
 	"os"
 	"path/filepath"
 	"runtime"
+	"slices"
 	"sync"
 	"time"
 
@@ -160,7 +161,14 @@ func (o *Options) check() error {
 	if o.Workers == 0 {
 		o.Workers = runtime.NumCPU()
 	}
-	return checkSweeps(o.Sweeps)
+	if err := checkSweeps(o.Sweeps); err != nil {
+		return err
+	}
+	o.Sweeps = slices.Clone(o.Sweeps)
+	for i, s := range o.Sweeps {
+		o.Sweeps[i].Reference = s.Values[s.reference()]
+	}
+	return nil
 }
 
 // makePlan loads the base scenario, checks every sweep value on its own,
@@ -213,7 +221,8 @@ func makePlan(opts Options) (*Manifest, []Case, error) {
 }
 
 // batchFiles are the files and folders a batch writes, removed by Force.
-var batchFiles = []string{ResultsDir, ProbabilityDir, RealizationsName, PercentilesName, ComparisonName, ManifestName}
+var batchFiles = []string{ResultsDir, ProbabilityDir, RealizationsName, PercentilesName, ComparisonName, WarningsName,
+	PairedName, PairedPercentilesName, SummaryName, CSVMetadataName, ManifestName}
 
 // prepareFolder checks Out against the options, clears it for Force, and
 // writes the manifest.

@@ -48,6 +48,12 @@ func fanPictureFile(c int) string { return fmt.Sprintf("fan_%04d.png", c) }
 // probabilityRasterFile is the probability GeoTIFF of batch case c.
 func probabilityRasterFile(c int) string { return fmt.Sprintf("probability_%04d.tif", c) }
 
+// probabilityDifferenceFile is the GeoTIFF of the stimulation probability
+// of batch case c minus that of its reference case ref.
+func probabilityDifferenceFile(c, ref int) string {
+	return fmt.Sprintf("probability_difference_%04d_vs_%04d.tif", c, ref)
+}
+
 // isBatchDir reports whether dir holds a batch (its manifest).
 func isBatchDir(dir string) bool { return exists(dir, batch.ManifestName) }
 

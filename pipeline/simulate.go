@@ -132,6 +132,9 @@ func Realization(ctx context.Context, s *scenarios.Scenario, r int) (*batch.Outc
 	out := &batch.Outcome{NetworkDigest: net.Digest(), FinalArea: res.StimulatedArea, FractureArea: res.FractureArea,
 		Events: len(res.Events), MaxMagnitude: sim.MaxMagnitude(res.Events), PeakPressure: res.PeakBHP,
 		InjectedVolume: res.Injected, Cells: res.Cells}
+	for _, w := range res.Warnings {
+		out.Warnings = append(out.Warnings, batch.Warning{Kind: w.Kind, Message: w.Message})
+	}
 	for _, x := range res.Timeline {
 		out.Times = append(out.Times, x.Time)
 		out.Areas = append(out.Areas, x.StimulatedArea)
