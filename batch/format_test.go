@@ -335,3 +335,34 @@ func FuzzDecodeResultJSON(f *testing.F) {
 		}
 	})
 }
+
+func FuzzReadManifest(f *testing.F) {
+	out := f.TempDir()
+	o := testOptions(f, out)
+	o.Realizations = 1
+	runBatch(f, o)
+	good, err := os.ReadFile(filepath.Join(out, ManifestName))
+	if err != nil {
+		f.Fatal(err)
+	}
+	f.Add(good)
+	f.Add(bytes.Replace(good, []byte("manifest/2"), []byte("manifest/1"), 1))
+	f.Add([]byte(`{"format":"slipfront-batch-manifest/2"}`))
+	f.Fuzz(func(t *testing.T, data []byte) {
+		m, err := ReadManifest(bytes.NewReader(data))
+		if err != nil {
+			if !errors.Is(err, ErrFormat) {
+				t.Fatalf("error is not ErrFormat: %v", err)
+			}
+			return
+		}
+		var b bytes.Buffer
+		if err := WriteManifest(&b, m); err != nil {
+			t.Fatal(err)
+		}
+		again, err := ReadManifest(&b)
+		if err != nil || !reflect.DeepEqual(m, again) {
+			t.Fatalf("round trip: %v\n%+v\n%+v", err, m, again)
+		}
+	})
+}

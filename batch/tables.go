@@ -160,16 +160,7 @@ func writeComparison(w *csvw.Writer, aggs []CaseAggregate) {
 	for i := range aggs {
 		a := &aggs[i]
 		final, frac := a.Final, a.Fracture
-		warned := 0
-		for _, res := range a.Results {
-			if len(res.Warnings) > 0 {
-				warned++
-			}
-		}
-		total := 0
-		for _, wc := range a.Warnings {
-			total += wc.Warnings
-		}
+		total, warned := a.WarningTotals()
 		w.Write(row(&a.Case, strconv.Itoa(a.Realizations),
 			formatFloat(final.P10), formatFloat(final.P50), formatFloat(final.P90), formatFloat(final.Mean),
 			formatFloat(frac.P10), formatFloat(frac.P50), formatFloat(frac.P90), formatFloat(frac.Mean),

@@ -62,3 +62,17 @@ func TotalWarnings(aggs []CaseAggregate) []WarningCount {
 	}
 	return sortByKind(out)
 }
+
+// WarningTotals returns the number of warnings of the case's realizations
+// and the number of realizations with at least one.
+func (a *CaseAggregate) WarningTotals() (warnings, realizations int) {
+	for _, wc := range a.Warnings {
+		warnings += wc.Warnings
+	}
+	for _, res := range a.Results {
+		if len(res.Warnings) > 0 {
+			realizations++
+		}
+	}
+	return warnings, realizations
+}

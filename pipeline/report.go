@@ -124,10 +124,7 @@ func writeBatchReport(ctx context.Context, dir, out string) error {
 	t := report.Table{Caption: "Cases", Header: []string{"case", "q10 area m²", "q50 area m²", "q90 area m²", "mean events", "max Mw", "q50 peak BHP MPa", "warnings"}}
 	for i := range aggs {
 		a := &aggs[i]
-		warnings := 0
-		for _, wc := range a.Warnings {
-			warnings += wc.Warnings
-		}
+		warnings, _ := a.WarningTotals()
 		t.Rows = append(t.Rows, []string{caseTitle(a), fmt.Sprintf("%.0f", a.Final.P10), fmt.Sprintf("%.0f", a.Final.P50),
 			fmt.Sprintf("%.0f", a.Final.P90), fmt.Sprintf("%.1f", a.Events.Mean), optionalMw(a.MaxMagnitude),
 			fmt.Sprintf("%.2f", a.PeakPressure.P50/1e6), fmt.Sprint(warnings)})

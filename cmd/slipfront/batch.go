@@ -138,10 +138,7 @@ func finishBatch(ctx context.Context, dir string, stdout io.Writer) error {
 		if !math.IsNaN(a.MaxMagnitude) {
 			mw = fmt.Sprintf("%.2f", a.MaxMagnitude)
 		}
-		warnings := 0
-		for _, wc := range a.Warnings {
-			warnings += wc.Warnings
-		}
+		warnings, _ := a.WarningTotals()
 		fmt.Fprintf(tw, "%s\t%.0f\t%.0f\t%.0f\t%.1f\t%s\t%d\n", a.Case.Label, a.Final.P10, a.Final.P50, a.Final.P90, a.Events.Mean, mw, warnings)
 	}
 	if err := tw.Flush(); err != nil {
