@@ -104,11 +104,12 @@ func Paired(m *Manifest, aggs []CaseAggregate) []PairedSummary {
 			var values []float64
 			for r, res := range a.Results {
 				_, _, diff, ratio := pairedValues(h, res, ref.Results[r])
+				x := ratio
 				if h.ratio == "" {
-					ratio = diff
+					x = diff
 				}
-				if !math.IsNaN(ratio) {
-					values = append(values, ratio)
+				if !math.IsNaN(x) {
+					values = append(values, x)
 				}
 			}
 			if st.Count = len(values); st.Count > 0 {
