@@ -126,7 +126,7 @@
 // # Probability grid format
 //
 // See WriteProbabilityGrid: the CSV header
-// col,row,x_center_m,y_center_m,easting_m,northing_m,stimulated_realizations,stimulation_probability,
+// col,row,x_center_m,y_center_m,stimulated_realizations,stimulation_probability,
 // then one row per cell stimulated at least once. The grid's geometry and
 // the realization count are the case's in manifest.json
 // (ReadProbabilityGrid takes them from there) and are repeated in

@@ -187,13 +187,12 @@ func TestProbabilityGridRoundTrip(t *testing.T) {
 		t.Fatal(err)
 	}
 	// Plain CSV: the header row first, no comment lines.
-	if !strings.HasPrefix(b.String(), "col,row,x_center_m,y_center_m,easting_m,northing_m,stimulated_realizations,stimulation_probability\n") ||
+	if !strings.HasPrefix(b.String(), "col,row,x_center_m,y_center_m,stimulated_realizations,stimulation_probability\n") ||
 		strings.Contains(b.String(), "#") {
 		t.Errorf("not a plain CSV with the header first:\n%s", b.String())
 	}
-	// Cell 31 is column 1, row 1: centre (−150 + 15, −100 + 15), at
-	// easting 5e5 − 135 and northing 35e5 − 85; 1 of 3.
-	if !strings.Contains(b.String(), "\n1,1,-135,-85,499865,3499915,1,0.3333333333333333\n") {
+	// Cell 31 is column 1, row 1: centre (−150 + 15, −100 + 15); 1 of 3.
+	if !strings.Contains(b.String(), "\n1,1,-135,-85,1,0.3333333333333333\n") {
 		t.Errorf("row of cell 31 missing:\n%s", b.String())
 	}
 	got, err := ReadProbabilityGrid(bytes.NewReader(b.Bytes()), gridManifest(p), p.Case)
@@ -225,12 +224,11 @@ func TestProbabilityGridRejects(t *testing.T) {
 	for _, tc := range []struct{ name, old, new string }{
 		{"other header", "stimulation_probability\n", "probability\n"},
 		{"comment line", "col,row", "# a comment\ncol,row"},
-		{"count above realizations", "0,0,-145,-95,499855,3499905,3,1", "0,0,-145,-95,499855,3499905,4,1.3333333333333333"},
-		{"wrong probability", "0,0,-145,-95,499855,3499905,3,1", "0,0,-145,-95,499855,3499905,3,0.9"},
+		{"count above realizations", "0,0,-145,-95,3,1", "0,0,-145,-95,4,1.3333333333333333"},
+		{"wrong probability", "0,0,-145,-95,3,1", "0,0,-145,-95,3,0.9"},
 		{"wrong centre", "0,0,-145,-95,", "0,0,-140,-95,"},
-		{"wrong easting", "0,0,-145,-95,499855,", "0,0,-145,-95,499860,"},
 		{"off the grid", "29,19,145,95,", "30,19,155,95,"},
-		{"out of order", "1,1,-135,-85,499865,3499915,1", "0,0,-145,-95,499855,3499905,1"},
+		{"out of order", "1,1,-135,-85,1", "0,0,-145,-95,1"},
 		{"short row", ",1,0.3333333333333333", ",1"},
 	} {
 		bad := strings.Replace(good, tc.old, tc.new, 1)

@@ -11,8 +11,9 @@ import (
 // CRS and origin that place it on a map.
 type Grid struct {
 	scenarios.Grid
-	// CRS ("EPSG:<code>", or "" for an undefined local frame) and the
-	// place of local (0, 0) in it, m, for GIS export.
+	// CRS ("EPSG:<code>", a one-line WKT text, or "" for an undefined
+	// local frame: scenarios.Domain.CRSSpec) and the place of local
+	// (0, 0) in it, m, for GIS export.
 	CRS            string  `json:"crs"`
 	OriginEasting  float64 `json:"origin_easting_m"`
 	OriginNorthing float64 `json:"origin_northing_m"`
@@ -28,7 +29,7 @@ func GridFor(s *scenarios.Scenario) (Grid, error) {
 			g.CellSize, g.Cols, g.Rows, scenarios.MaxGridCells)
 	}
 	d := s.Domain
-	return Grid{Grid: g, CRS: d.CRS, OriginEasting: d.OriginEasting, OriginNorthing: d.OriginNorthing}, nil
+	return Grid{Grid: g, CRS: d.CRSSpec(), OriginEasting: d.OriginEasting, OriginNorthing: d.OriginNorthing}, nil
 }
 
 // valid checks a grid read from a file.

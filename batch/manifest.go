@@ -105,8 +105,8 @@ func ReadManifest(r io.Reader) (*Manifest, error) {
 
 // check reports the first inconsistency of a manifest read from a file.
 func (m *Manifest) check() error {
-	if m.Realizations < 1 {
-		return fmt.Errorf("realizations = %d: must be ≥ 1", m.Realizations)
+	if m.Realizations < 1 || m.Realizations > MaxRealizations {
+		return fmt.Errorf("realizations = %d: must be 1 to %d", m.Realizations, MaxRealizations)
 	}
 	if err := m.Shard.check(); err != nil {
 		return err
@@ -120,6 +120,9 @@ func (m *Manifest) check() error {
 		}
 	}
 	cases := Cases(m.Sweeps)
+	if n := len(cases) * m.Realizations; n > MaxResults {
+		return fmt.Errorf("%d cases × %d realizations = %d results: at most %d", len(cases), m.Realizations, n, MaxResults)
+	}
 	if len(m.Cases) != len(cases) {
 		return fmt.Errorf("%d cases for sweeps that form %d", len(m.Cases), len(cases))
 	}

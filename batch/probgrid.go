@@ -16,13 +16,13 @@ import (
 // Probability-grid file: plain CSV (RFC 4180, UTF-8, "\n" line ends), one
 // header row and no comment lines:
 //
-//	col,row,x_center_m,y_center_m,easting_m,northing_m,stimulated_realizations,stimulation_probability
-//	81,37,15,-125,612015,3539875,3,0.15
+//	col,row,x_center_m,y_center_m,stimulated_realizations,stimulation_probability
+//	81,37,15,-125,3,0.15
 //	…
 //
 // then one row per cell stimulated in at least one realization, in
 // ascending cell index (row·cols + col): column, row (0 = south), the
-// cell centre in local metres and in the CRS, the number of realizations
+// cell centre in local metres, the number of realizations
 // in which the cell was stimulated, and that number divided by the
 // realizations. Unlisted cells were never stimulated. The grid itself
 // (CRS, origin, corner, cell size, columns, rows) and the realization
@@ -35,8 +35,6 @@ var probGridTable = csvw.Table{
 		{Title: "row", Datatype: csvw.Integer, Description: "row of the map cell, 0 at the south edge"},
 		{Title: "x_center_m", Datatype: csvw.Double, Unit: "m", Description: "cell centre, local east of the scenario origin"},
 		{Title: "y_center_m", Datatype: csvw.Double, Unit: "m", Description: "cell centre, local north of the scenario origin"},
-		{Title: "easting_m", Datatype: csvw.Double, Unit: "m", Description: "cell centre, easting in the scenario's CRS"},
-		{Title: "northing_m", Datatype: csvw.Double, Unit: "m", Description: "cell centre, northing in the scenario's CRS"},
 		{Title: "stimulated_realizations", Datatype: csvw.Integer, Description: "realizations of the case in which the cell was stimulated"},
 		{Title: "stimulation_probability", Datatype: csvw.Double, Description: "stimulated_realizations divided by the case's realizations, 0 to 1"},
 	},
@@ -52,13 +50,16 @@ func probabilityTable(p *ProbabilityGrid) csvw.Table {
 	t.URL = probabilityGridFile(p.Case)
 	g := p.Grid
 	crs := g.CRS
-	if crs == "" {
+	switch {
+	case crs == "":
 		crs = "an undefined local frame"
+	case !strings.HasPrefix(crs, "EPSG:"):
+		crs = "the CRS given as WKT in manifest.json"
 	}
 	t.Title = fmt.Sprintf("stimulation probability, case %d", p.Case)
 	t.Description = fmt.Sprintf("Case %d (%s), %d realizations: the share of them in which each map cell was stimulated; "+
 		"unlisted cells are 0. Grid: %d columns × %d rows of %s m cells, south-west corner at local (%s, %s) m; "+
-		"local (0, 0) is easting %s m, northing %s m in %s.",
+		"local (0, 0) is easting %s m, northing %s m (in metres, whatever the CRS's unit) in %s.",
 		p.Case, p.Label, p.Realizations, g.Cols, g.Rows, formatFloat(g.CellSize), formatFloat(g.XMin), formatFloat(g.YMin),
 		formatFloat(g.OriginEasting), formatFloat(g.OriginNorthing), crs)
 	return t
@@ -110,8 +111,7 @@ func WriteProbabilityGrid(w io.Writer, p *ProbabilityGrid) error {
 	for _, c := range p.Cells {
 		col, row := g.ColRow(c.Index)
 		x, y := g.Centre(c.Index)
-		fmt.Fprintf(&b, "%d,%d,%s,%s,%s,%s,%d,%s\n", col, row, formatFloat(x), formatFloat(y),
-			formatFloat(g.OriginEasting+x), formatFloat(g.OriginNorthing+y), c.Count, formatFloat(p.Probability(c)))
+		fmt.Fprintf(&b, "%d,%d,%s,%s,%d,%s\n", col, row, formatFloat(x), formatFloat(y), c.Count, formatFloat(p.Probability(c)))
 	}
 	_, err := w.Write(b.Bytes())
 	return err
@@ -228,15 +228,15 @@ func (rd *gridReader) parseRow(p *ProbabilityGrid, text string) (CellCount, erro
 		return CellCount{}, rd.fail("%d fields, want %d (%s)", len(f), len(probGridTable.Columns), probGridHead)
 	}
 	var n [3]int
-	for i, k := range []int{0, 1, 6} {
+	for i, k := range []int{0, 1, 4} {
 		v, err := strconv.Atoi(f[k])
 		if err != nil {
 			return CellCount{}, rd.fail("field %d %.30q is not a whole number", k+1, f[k])
 		}
 		n[i] = v
 	}
-	var x [5]float64
-	for i, k := range []int{2, 3, 4, 5, 7} {
+	var x [3]float64
+	for i, k := range []int{2, 3, 5} {
 		v, err := strconv.ParseFloat(f[k], 64)
 		if err != nil || !finite(v) {
 			return CellCount{}, rd.fail("field %d %.30q is not a finite number", k+1, f[k])
@@ -259,11 +259,8 @@ func (rd *gridReader) parseRow(p *ProbabilityGrid, text string) (CellCount, erro
 	if math.Abs(x[0]-cx) > tol || math.Abs(x[1]-cy) > tol {
 		return CellCount{}, rd.fail("centre (%g, %g) is not the centre (%g, %g) of cell (%d, %d)", x[0], x[1], cx, cy, col, row)
 	}
-	if math.Abs(x[2]-(g.OriginEasting+cx)) > tol || math.Abs(x[3]-(g.OriginNorthing+cy)) > tol {
-		return CellCount{}, rd.fail("easting, northing (%g, %g) are not those of cell (%d, %d)", x[2], x[3], col, row)
-	}
-	if math.Abs(x[4]-p.Probability(c)) > probabilityTol {
-		return CellCount{}, rd.fail("stimulation_probability %g is not stimulated_realizations/realizations = %g", x[4], p.Probability(c))
+	if math.Abs(x[2]-p.Probability(c)) > probabilityTol {
+		return CellCount{}, rd.fail("stimulation_probability %g is not stimulated_realizations/realizations = %g", x[2], p.Probability(c))
 	}
 	return c, nil
 }

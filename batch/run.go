@@ -13,6 +13,7 @@ import (
 	"sync"
 	"time"
 
+	"slipfront/internal/crash"
 	"slipfront/internal/outdir"
 	"slipfront/internal/version"
 	"slipfront/scenarios"
@@ -114,9 +115,14 @@ func Run(ctx context.Context, opts Options) (*Summary, error) {
 		return nil, err
 	}
 	sum := &Summary{Cases: len(cases), Realizations: opts.Realizations, Shard: m.Shard}
-	resultsDir := filepath.Join(opts.Out, ResultsDir)
-	if sum.StaleTemps, err = removeStaleTemps(resultsDir); err != nil {
-		return nil, fmt.Errorf("batch: cleaning %s: %w", resultsDir, err)
+	// A killed process leaves temporary files of results and, during the
+	// aggregation, of the folder's tables and pictures.
+	for _, dir := range []string{filepath.Join(opts.Out, ResultsDir), opts.Out} {
+		n, err := removeStaleTemps(dir)
+		if err != nil {
+			return nil, fmt.Errorf("batch: cleaning %s: %w", dir, err)
+		}
+		sum.StaleTemps += n
 	}
 	jobs := pendingJobs(opts, m, sum)
 	prog := newProgress(opts.Progress, opts.IsTerminal, opts.ProgressInterval)
@@ -145,8 +151,8 @@ func (o *Options) check() error {
 		return inputErrorf("no scenario loader")
 	case o.Run == nil:
 		return inputErrorf("no runner")
-	case o.Realizations < 1:
-		return inputErrorf("--realizations %d: must be ≥ 1", o.Realizations)
+	case o.Realizations < 1 || o.Realizations > MaxRealizations:
+		return inputErrorf("--realizations %d: must be 1 to %d", o.Realizations, MaxRealizations)
 	case o.Workers < 0:
 		return inputErrorf("--workers %d: must be ≥ 1 (or 0 for one per core)", o.Workers)
 	case o.Out == "":
@@ -163,6 +169,9 @@ func (o *Options) check() error {
 	}
 	if err := checkSweeps(o.Sweeps); err != nil {
 		return err
+	}
+	if n := len(Cases(o.Sweeps)) * o.Realizations; n > MaxResults {
+		return inputErrorf("%d cases × %d realizations = %d results: at most %d; use fewer realizations or sweep values", len(Cases(o.Sweeps)), o.Realizations, n, MaxResults)
 	}
 	o.Sweeps = slices.Clone(o.Sweeps)
 	for i, s := range o.Sweeps {
@@ -343,7 +352,9 @@ func (jr *jobRunner) work(ctx context.Context, feed <-chan job) {
 		if ctx.Err() != nil {
 			continue
 		}
-		jr.record(ctx, runOne(ctx, jr.opts, jr.m, jr.cases, j))
+		// A panic in a realization is a bug: it reaches the caller as a
+		// crash.Error instead of killing the process from this goroutine.
+		jr.record(ctx, crash.Capture(func() error { return runOne(ctx, jr.opts, jr.m, jr.cases, j) }))
 	}
 }
 

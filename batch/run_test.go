@@ -351,7 +351,7 @@ func TestFolderRules(t *testing.T) {
 	if _, err := Run(context.Background(), o); !errors.As(err, &mm) || mm.Field != "shard" {
 		t.Errorf("resume as another shard: err = %v, want a MismatchError on the shard", err)
 	}
-	o.Shard, o.Load = Shard{}, loader(scenarios.Override{Key: "layer.depth", Value: "2100 m"})
+	o.Shard, o.Load = Shard{}, loader(scenarios.Override{Key: "layer.thickness", Value: "25 m"})
 	if _, err := Run(context.Background(), o); !errors.As(err, &mm) || mm.Field != "scenario digest" {
 		t.Errorf("resume with another scenario: err = %v, want a MismatchError on the scenario digest", err)
 	}

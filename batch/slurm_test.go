@@ -70,7 +70,7 @@ func slurmWorker() int {
 
 // TestSlurmArray starts a private one-machine Slurm (munged, slurmctld,
 // slurmd with their own config, key, socket, ports and state in a
-// temporary folder; ../shared/notes/ecosystem.md §1), submits a 4-task
+// temporary folder, pointed to by SLURM_CONF), submits a 4-task
 // array whose tasks run shards 0/4 … 3/4, polls squeue until it is done,
 // merges the shards and compares the result with the same batch run in
 // this process, byte for byte. Every daemon it starts is stopped.
@@ -109,7 +109,8 @@ func TestSlurmArray(t *testing.T) {
 		t.Fatalf("sbatch: %v: %s", err, out)
 	}
 	jobID, _, _ := strings.Cut(strings.TrimSpace(string(out)), ";")
-	// Poll squeue (sbatch --wait polls on a coarse schedule, ecosystem.md §1).
+	// Poll squeue (sbatch --wait returns only about 2, 10 or 42 s after
+	// submission with slurm-wlm 22.05, a coarse schedule).
 	if !cl.waitFor(40*time.Second, func() bool {
 		q, err := cl.command("squeue", "-h", "-j", jobID).Output()
 		return err != nil || strings.TrimSpace(string(q)) == ""
@@ -118,8 +119,8 @@ func TestSlurmArray(t *testing.T) {
 		t.Fatalf("array job %s still queued or running after 40 s", jobID)
 	}
 
-	// Slurm may report success for tasks that never ran (ecosystem.md §1,
-	// pitfall 1), so check the folders, not exit codes.
+	// Slurm may report success for tasks that never ran (a failing process
+	// tracker is recorded as COMPLETED 0:0), so check the folders, not exit codes.
 	var dirs []string
 	for i := range 4 {
 		d := filepath.Join(shards, fmt.Sprintf("shard-%d", i))

@@ -151,6 +151,15 @@ func Cases(sweeps []Sweep) []Case {
 	return cases
 }
 
+// MaxRealizations caps the realizations of a batch, and MaxResults the
+// result files (cases × realizations), so that a typing error or a
+// damaged manifest cannot start a run of years or a folder of billions of
+// files (common practice, no source).
+const (
+	MaxRealizations = 1_000_000
+	MaxResults      = 10_000_000
+)
+
 // maxCases caps the product of the sweeps.
 const maxCases = 100000
 

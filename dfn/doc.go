@@ -49,9 +49,9 @@
 // even for size laws without an upper bound, and no draws are wasted on
 // fractures that could never be seen.
 //
-// Intensity. A P32 target gives λ = P32 / E[A] (REFERENCES.md §3.2: N =
+// Intensity. A P32 target gives λ = P32 / E[A] (docs/references.md §3.2: N =
 // P32·V/E[A]); a P10 measured along a line l gives P32 = P10 / C13 with
-// C13 = E|n·l| for the set's orientation law (REFERENCES.md §2.2); a count
+// C13 = E|n·l| for the set's orientation law (docs/references.md §2.2); a count
 // gives exactly that many kept fractures (the Poisson process conditioned on
 // its number), λ = count / E[box volume]. For p32 and p10 the number kept is
 // Poisson distributed with mean N̄, so the P32 target is met in expectation.
@@ -103,5 +103,5 @@
 // Addison-Wesley.
 //
 // The formulas and check values used are collected, with derivations, in
-// the project's REFERENCES.md §1–§4.
+// docs/references.md §1–§4.
 package dfn

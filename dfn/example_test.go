@@ -13,7 +13,7 @@ import (
 )
 
 // The cone about the mean pole that holds 95 % of a Fisher set with κ = 20
-// (REFERENCES.md §1.3: 31.76511°).
+// (docs/references.md §1.3: 31.76511°).
 func ExampleFisherCosQuantile() {
 	theta95 := math.Acos(dfn.FisherCosQuantile(0.95, 20)) * 180 / math.Pi
 	fmt.Printf("θ95 = %.5f deg\n", theta95)
@@ -21,7 +21,7 @@ func ExampleFisherCosQuantile() {
 }
 
 // P10 along a line at 60° from the mean pole of a Fisher set with κ = 20
-// converts to P32 through C13 = 0.476860 (REFERENCES.md §2.2).
+// converts to P32 through C13 = 0.476860 (docs/references.md §2.2).
 func ExampleFisher_C13() {
 	f := dfn.NewFisher(r3.Vec{Z: 1}, 20)
 	line := r3.Vec{X: math.Sin(math.Pi / 3), Z: math.Cos(math.Pi / 3)}
@@ -31,7 +31,7 @@ func ExampleFisher_C13() {
 }
 
 // Mean area of discs with truncated power-law radii 1–100 m, D = 2.5
-// (REFERENCES.md §3.3: 14.137308 m²).
+// (docs/references.md §3.3: 14.137308 m²).
 func ExamplePowerLaw_Moment() {
 	law := dfn.PowerLaw{Min: 1, Max: 100, D: 2.5}
 	fmt.Printf("E[r] = %.6f m, E[πr²] = %.6f m²\n", law.Moment(1), math.Pi*law.Moment(2))

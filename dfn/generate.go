@@ -118,7 +118,13 @@ func (m *SetModel) Generate(dst []Fracture, seed uint64, realization, set int, r
 	return dst
 }
 
+// maxPrealloc bounds the fractures reserved at once, so that a random
+// count far above its expectation cannot reserve memory before any
+// fracture is drawn.
+const maxPrealloc = 1 << 20
+
 func growFractures(dst []Fracture, n int) []Fracture {
+	n = min(n, maxPrealloc) // beyond it, append grows the slice as needed
 	if cap(dst)-len(dst) >= n {
 		return dst
 	}

@@ -140,7 +140,7 @@ func TestGenerateLayout(t *testing.T) {
 	}
 }
 
-// REFERENCES.md §3.2 worked example: P32 = 0.1 1/m with (1, 100, 2.5)
+// docs/references.md §3.2 worked example: P32 = 0.1 1/m with (1, 100, 2.5)
 // discs in a 200 m cube needs N = 0.1·8e6/14.137308 = 56 587.9 centres
 // (λ·V); the expected count adds the enlargement, by hand for constant
 // sizes.
@@ -164,7 +164,7 @@ func TestSetModelIntensity(t *testing.T) {
 	e := math.Hypot(10, 5) / 2
 	numtest.Rel(t, "expected count", m.Info.ExpectedCount, 0.05/50*(300+2*e)*(100+2*e)*(20+2*e), 1e-12)
 
-	// P10 → P32 through C13 (REFERENCES.md §2.2): uniform 1/2; a fixed
+	// P10 → P32 through C13 (docs/references.md §2.2): uniform 1/2; a fixed
 	// set dipping 30° east has its normal at 60° from a horizontal line
 	// to the east, cos 60 = 1/2; Fisher through quadrature.
 	for _, o := range []scenarios.Orientation{
@@ -179,7 +179,10 @@ func TestSetModelIntensity(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		law, _ := NewOrientationLaw(o)
+		law, err := NewOrientationLaw(o)
+		if err != nil {
+			t.Fatal(err)
+		}
 		want := 0.04 / C13(law, rad(90), 0)
 		if o.Distribution != "fisher" {
 			want = 0.08 // C13 = 1/2 in both other cases
@@ -252,7 +255,7 @@ func TestGenerateBadInput(t *testing.T) {
 // The P32 target is met in expectation for every size law and shape: the
 // mean realized P32 inside the counting volume over M realizations is
 // within 5 standard errors (sd/√M of the realizations) of the target
-// (REFERENCES.md §3.2: N = P32·V/E[A], with no edge bias by
+// (docs/references.md §3.2: N = P32·V/E[A], with no edge bias by
 // construction).
 func TestP32TargetInExpectation(t *testing.T) {
 	for _, c := range []struct {
@@ -288,4 +291,45 @@ func meanSD(v []float64) (mean, sd float64) {
 		sd += (x - mean) * (x - mean)
 	}
 	return mean, math.Sqrt(sd / float64(len(v)-1))
+}
+
+// Estimate knows the demo network's size before it is drawn: the expected
+// fracture count, the trace length within the scatter of one realization,
+// and an upper estimate of the intersections.
+func TestEstimateDemo(t *testing.T) {
+	s, err := scenarios.LoadExample("demo")
+	if err != nil {
+		t.Fatal(err)
+	}
+	e, err := Estimate(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var length float64
+	var fractures, intersections int
+	const realizations = 4
+	for r := range realizations {
+		net, err := Generate(s, r)
+		if err != nil {
+			t.Fatal(err)
+		}
+		fractures += len(net.Fractures)
+		intersections += len(net.Intersections)
+		for _, tr := range net.Traces {
+			length += tr.Length
+		}
+	}
+	mean := func(v float64) float64 { return v / realizations }
+	// Poisson counts of about 5 400 fractures scatter by √5400 ≈ 1.4 %;
+	// four realizations by 0.7 %: 3 % is over four standard errors.
+	numtest.Rel(t, "expected fractures", mean(float64(fractures)), e.Fractures, 0.03)
+	// The trace length is an estimate through P21 ≤ P32 over an enlarged
+	// map (the demo's sets are near-vertical, so the bound is tight).
+	numtest.Rel(t, "trace length", mean(length), e.TraceLength, 0.15)
+	if got := mean(float64(intersections)); got > e.Intersections {
+		t.Errorf("%.0f intersections on average, more than the upper estimate %.0f", got, e.Intersections)
+	}
+	if e.Bytes <= 0 {
+		t.Errorf("estimated %g bytes", e.Bytes)
+	}
 }

@@ -88,7 +88,7 @@ func TestIndexMatchesBruteForce(t *testing.T) {
 }
 
 // Mean intersections per stick for isotropic sticks of length L at areal
-// density n: I = 2nL²/π (Santaló 1976; REFERENCES.md §4.1); n = 2/L² gives
+// density n: I = 2nL²/π (Santaló 1976; docs/references.md §4.1); n = 2/L² gives
 // 4/π. Only sticks whose centre is more than L from the square's edges are
 // counted. Each crossing is counted on two sticks, so the sum of counts
 // has variance ≈ 4·(N·I/2) and the standard error of the mean is
@@ -97,7 +97,7 @@ func TestSantaloSticks(t *testing.T) {
 	const l, side = 1.0, 150.0
 	const density = 2 / (l * l)
 	want := 2 * density * l * l / math.Pi
-	numtest.Rel(t, "2nL²/π at n = 2/L²", want, 4/math.Pi, 1e-15) // REFERENCES.md §4.1 example
+	numtest.Rel(t, "2nL²/π at n = 2/L²", want, 4/math.Pi, 1e-15) // docs/references.md §4.1 example
 	r := rand.New(rand.NewPCG(1, 2))
 	n := int(density * side * side)
 	segs := make([]Segment, n)

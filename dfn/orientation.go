@@ -20,7 +20,7 @@ type OrientationLaw interface {
 	// whole sphere). The generator flips it upward.
 	Rand(r *rand.Rand) r3.Vec
 	// C13 returns E|n·l|, the factor of P10 = C13·P32 along a line of unit
-	// direction l (Dershowitz & Herda 1992; REFERENCES.md §2.2).
+	// direction l (Dershowitz & Herda 1992; docs/references.md §2.2).
 	C13(l r3.Vec) float64
 }
 
@@ -43,7 +43,7 @@ func NewFisher(mean r3.Vec, kappa float64) *Fisher {
 	}
 	m := r3.Unit(mean)
 	// e1 = normalize(a × μ) with a the coordinate axis least aligned with μ
-	// (REFERENCES.md §1.2).
+	// (docs/references.md §1.2).
 	a := r3.Vec{X: 1}
 	if math.Abs(m.Y) < math.Abs(m.X) && math.Abs(m.Y) <= math.Abs(m.Z) {
 		a = r3.Vec{Y: 1}
@@ -61,7 +61,7 @@ func (f *Fisher) Mean() r3.Vec { return f.mean }
 func (f *Fisher) Kappa() float64 { return f.kappa }
 
 // Rand draws a pole by the exact inverse-CDF sampler of Wood (1994) for the
-// sphere (REFERENCES.md §1.2): cos θ = FisherCosQuantile(V, κ) with V
+// sphere (docs/references.md §1.2): cos θ = FisherCosQuantile(V, κ) with V
 // uniform on [0, 1), azimuth φ uniform on [0, 2π).
 func (f *Fisher) Rand(r *rand.Rand) r3.Vec {
 	w := FisherCosQuantile(r.Float64(), f.kappa)
@@ -80,14 +80,14 @@ func (f *Fisher) Rand(r *rand.Rand) r3.Vec {
 //
 //	cos θ_P = 1 + log1p(p · expm1(−2κ)) / κ
 //
-// (REFERENCES.md §1.2–1.3, from F(θ) = (1 − e^{−κ(1−cos θ)})/(1 − e^{−2κ}));
+// (docs/references.md §1.2–1.3, from F(θ) = (1 − e^{−κ(1−cos θ)})/(1 − e^{−2κ}));
 // the expm1/log1p form is stable for every κ.
 func FisherCosQuantile(p, kappa float64) float64 {
 	return math.Max(-1, 1+math.Log1p(p*math.Expm1(-2*kappa))/kappa)
 }
 
 // FisherMeanCos returns E[cos θ] = coth κ − 1/κ, the Langevin function
-// (Fisher 1953; REFERENCES.md §1.3).
+// (Fisher 1953; docs/references.md §1.3).
 func FisherMeanCos(kappa float64) float64 {
 	if kappa < 1e-4 {
 		// Series κ/3 − κ³/45 avoids the cancellation of coth κ − 1/κ.
@@ -105,7 +105,7 @@ const c13Nodes = 64
 // (2/π)(√(b² − a²) + a·asin(a/b)) otherwise. The outer integral over the
 // probability p of θ runs in three panels split at the kinks w = ±sin ψ,
 // each mapped by p = p0 + (p1 − p0)(1 − cos t)/2 to smooth the kinks, and
-// Gauss–Legendre in t. Check values: REFERENCES.md §2.2 (κ = 20).
+// Gauss–Legendre in t. Check values: docs/references.md §2.2 (κ = 20).
 func (f *Fisher) C13(l r3.Vec) float64 {
 	cosPsi := math.Min(1, math.Abs(r3.Dot(f.mean, r3.Unit(l))))
 	sinPsi := math.Sqrt(math.Max(0, 1-cosPsi*cosPsi))
@@ -140,7 +140,7 @@ func (f *Fisher) C13(l r3.Vec) float64 {
 type UniformSphere struct{}
 
 // Rand draws a uniform unit vector: z uniform on [−1, 1), azimuth uniform
-// (Archimedes' hat-box theorem; the κ = 0 case of REFERENCES.md §1.2).
+// (Archimedes' hat-box theorem; the κ = 0 case of docs/references.md §1.2).
 func (UniformSphere) Rand(r *rand.Rand) r3.Vec {
 	z := 2*r.Float64() - 1
 	s := math.Sqrt(math.Max(0, 1-z*z))
@@ -148,7 +148,7 @@ func (UniformSphere) Rand(r *rand.Rand) r3.Vec {
 	return r3.Vec{X: s * cp, Y: s * sp, Z: z}
 }
 
-// C13 returns 1/2 for any line (REFERENCES.md §2.2).
+// C13 returns 1/2 for any line (docs/references.md §2.2).
 func (UniformSphere) C13(r3.Vec) float64 { return 0.5 }
 
 // FixedNormal gives every fracture the same unit normal.
@@ -159,7 +159,7 @@ type FixedNormal struct {
 // Rand returns the fixed normal.
 func (f FixedNormal) Rand(*rand.Rand) r3.Vec { return f.Normal }
 
-// C13 returns |n·l| = |cos ψ| (REFERENCES.md §2.2).
+// C13 returns |n·l| = |cos ψ| (docs/references.md §2.2).
 func (f FixedNormal) C13(l r3.Vec) float64 {
 	return math.Abs(r3.Dot(f.Normal, r3.Unit(l)))
 }
@@ -190,7 +190,7 @@ func NewOrientationLaw(o scenarios.Orientation) (OrientationLaw, error) {
 }
 
 // KappaEstimate returns the concentration estimate κ̂ = (N − 1)/(N − R)
-// (Fisher 1953; REFERENCES.md §1.4) of axial unit vectors and the resultant
+// (Fisher 1953; docs/references.md §1.4) of axial unit vectors and the resultant
 // length R. Poles are axial, so each vector is first flipped into the
 // hemisphere of a provisional mean: the principal eigenvector of the
 // orientation tensor Σ x xᵀ. κ̂ is NaN for fewer than two vectors and +Inf

@@ -14,10 +14,10 @@ import (
 func rad(d float64) float64 { return d * math.Pi / 180 }
 
 // Fisher (1953): E[cos θ] = coth κ − 1/κ; Var[cos θ] = 1/κ² − 1/sinh²κ
-// (REFERENCES.md §1.3, tolerance 5·sqrt(Var/N) as recommended there).
+// (docs/references.md §1.3, tolerance 5·sqrt(Var/N) as recommended there).
 func TestFisherMeanCos(t *testing.T) {
 	for _, c := range []struct {
-		kappa, meanCos float64 // REFERENCES.md §1.3 table
+		kappa, meanCos float64 // docs/references.md §1.3 table
 	}{
 		{5, 0.8000908040},
 		{20, 0.95},
@@ -39,7 +39,7 @@ func TestFisherMeanCos(t *testing.T) {
 	}
 }
 
-// Closed-form cone angles θ_P (REFERENCES.md §1.3 table, in degrees to
+// Closed-form cone angles θ_P (docs/references.md §1.3 table, in degrees to
 // 5 decimals, so the tolerance is the table's rounding, 1e-5 deg), and
 // the sampled fraction inside each cone (binomial, 5 SE).
 func TestFisherQuantiles(t *testing.T) {
@@ -74,7 +74,7 @@ func TestFisherQuantiles(t *testing.T) {
 	}
 }
 
-// The expm1/log1p sampler stays finite for any κ (REFERENCES.md §1.2: the
+// The expm1/log1p sampler stays finite for any κ (docs/references.md §1.2: the
 // naive form fails at U = 0 once κ ≳ 370).
 func TestFisherLargeKappa(t *testing.T) {
 	for _, kappa := range []float64{1e-8, 0.5, 400, 1e4, 1e8} {
@@ -97,7 +97,7 @@ func TestFisherLargeKappa(t *testing.T) {
 	numtest.Rel(t, "FisherMeanCos(1e-6)", FisherMeanCos(1e-6), 1e-6/3, 1e-9)
 }
 
-// REFERENCES.md §1.4 check set: (0,0,1) plus four vectors at 10° from z
+// docs/references.md §1.4 check set: (0,0,1) plus four vectors at 10° from z
 // toward ±E and ±N; R = 4.9392310120488325, (N−1)/(N−R) = 65.82304782
 // (tolerance 1e-8 relative, as given there). Flipping some of them (axial
 // data) must not change the estimate.
@@ -121,7 +121,7 @@ func TestKappaEstimateCheckSet(t *testing.T) {
 
 // The estimator recovers κ from N upward-flipped poles of a set whose mean
 // pole is horizontal (so half the draws are flipped). For large κ,
-// 1 − cos θ is exponential with mean 1/κ (from F in REFERENCES.md §1.1),
+// 1 − cos θ is exponential with mean 1/κ (from F in docs/references.md §1.1),
 // so N − R is nearly Gamma(N, 1/κ) and κ̂ has relative SD ≈ 1/√N; the
 // tolerance is 5/√N, plus the estimator's own bias 1 − κ(1 − A(κ)) at
 // small κ.
@@ -162,7 +162,7 @@ func TestUniformResultant(t *testing.T) {
 	numtest.Abs(t, "E|z|", zAbs/n, 0.5, 5/math.Sqrt(12*n))
 }
 
-// C13 = E|n·l| (Dershowitz & Herda 1992; REFERENCES.md §2.2).
+// C13 = E|n·l| (Dershowitz & Herda 1992; docs/references.md §2.2).
 func TestC13(t *testing.T) {
 	mean := orient.Normal(rad(70), rad(200))
 	// A line at angle ψ from the mean pole, in the plane of the pole and
@@ -173,7 +173,7 @@ func TestC13(t *testing.T) {
 		return r3.Add(r3.Scale(cp, mean), r3.Scale(sp, s))
 	}
 	f := NewFisher(mean, 20)
-	// κ = 20 values (REFERENCES.md §2.2, 6 decimals: tolerance 5e-7 for
+	// κ = 20 values (docs/references.md §2.2, 6 decimals: tolerance 5e-7 for
 	// the rounding plus 1e-7 for the quadrature).
 	for _, c := range []struct{ psi, want float64 }{
 		{0, 0.950000}, {30, 0.822725}, {60, 0.476860}, {90, 0.175012},

@@ -36,7 +36,7 @@ func (c Constant) Quantile(float64) float64 { return c.Value }
 // RandWeighted returns Value.
 func (c Constant) RandWeighted(*rand.Rand, int) float64 { return c.Value }
 
-// PowerLaw is the truncated power law (Pareto) of REFERENCES.md §3.1 with
+// PowerLaw is the truncated power law (Pareto) of docs/references.md §3.1 with
 // density f(s) = D s_min^D s^−(D+1) / (1 − (s_min/s_max)^D) on [Min, Max]:
 // D is the exponent of the complementary CDF, P(S > s) ∝ s^−D.
 type PowerLaw struct {
@@ -46,7 +46,7 @@ type PowerLaw struct {
 
 // Moment returns E[S^k] = s_min^k · D/(D−k) · (1 − ρ^(D−k)) / (1 − ρ^D) with
 // ρ = s_min/s_max, and s_min^k · D ln(1/ρ) / (1 − ρ^D) when k = D
-// (REFERENCES.md §3.2, rewritten in ρ for accuracy).
+// (docs/references.md §3.2, rewritten in ρ for accuracy).
 func (p PowerLaw) Moment(k int) float64 {
 	lr := math.Log(p.Min / p.Max)
 	e := p.D - float64(k)
@@ -60,7 +60,7 @@ func (p PowerLaw) Moment(k int) float64 {
 }
 
 // Quantile returns s_min [1 − p(1 − (s_min/s_max)^D)]^(−1/D) (Devroye 1986,
-// §II.2; REFERENCES.md §3.2).
+// §II.2; docs/references.md §3.2).
 func (p PowerLaw) Quantile(u float64) float64 {
 	return powerQuantile(p.Min, p.Max, p.D, u)
 }

@@ -9,7 +9,7 @@ import (
 	"slipfront/scenarios"
 )
 
-// Truncated power law closed forms, REFERENCES.md §3.3 table (printed to
+// Truncated power law closed forms, docs/references.md §3.3 table (printed to
 // 7 significant digits, so the tolerance is 1e-6 relative) and inverse-CDF
 // values (tolerance 1e-12 relative, as given there).
 func TestPowerLawTable(t *testing.T) {
@@ -35,7 +35,7 @@ func TestPowerLawTable(t *testing.T) {
 	} {
 		numtest.Rel(t, "inverse CDF", p.Quantile(c.u), c.want, 1e-12)
 	}
-	// The k = D moment uses the logarithmic form (REFERENCES.md §3.2):
+	// The k = D moment uses the logarithmic form (docs/references.md §3.2):
 	// E[r²] at D = 2 is 2 ln(100)/(1 − 1e-4) = 9.211261 (table row 2).
 	numtest.Rel(t, "E[r^D]", PowerLaw{Min: 1, Max: 100, D: 2}.Moment(2), 2*math.Log(100)/(1-1e-4), 1e-14)
 }

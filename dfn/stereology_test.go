@@ -39,7 +39,7 @@ func checkMean(t *testing.T, what string, vals []float64, want float64) {
 }
 
 // Stereology measured on generated networks (Dershowitz & Herda 1992;
-// Terzaghi 1965; REFERENCES.md §2.2): P21 = C23·P32 on the horizontal
+// Terzaghi 1965; docs/references.md §2.2): P21 = C23·P32 on the horizontal
 // mid-plane and P10 = C13·P32 along the horizontal wells, in expectation.
 func TestStereologyOnNetworks(t *testing.T) {
 	const p32, m = 0.1, 40

@@ -12,7 +12,7 @@ import (
 // Benchmarks of the linear-algebra layer on the network model of
 // network_test.go (gen_network.py's model) at 10⁴, 10⁵ and 10⁶ unknowns.
 // Reference figures for the same model, from established solvers on the
-// project's machine kind, are in ../shared/bench/README.md; the
+// project's machine kind, are in docs/bench.md; the
 // SLIPFRONT_BENCH_MTX benchmark times the exact reference files.
 
 // benchCache holds one generated system per size, built on first use and

@@ -5,7 +5,10 @@
 // BuildMesh splits every conducting path (a fracture trace or a primary
 // conduit, with its conducting height) at its junctions with other paths
 // and at requested cuts (where wells feed it), then into elements no
-// longer than the element length; positions closer than 1 % of it merge.
+// longer than the element length and no shorter than a fraction of it
+// (MeshSettings.MinElementFraction, a quarter by default), except on a
+// path shorter than that: boundary positions closer than that share a
+// node, on which every junction and cut still lands.
 // Elements meet at nodes; each pair of elements at a node is a connection
 // whose transmissibility follows the star–delta rule of Karimi-Fard,
 // Durlofsky & Aziz (2004), T_ij = α_i α_j / Σ_k α_k, with the cubic-law
@@ -64,7 +67,7 @@
 //
 // Fracture-network systems are nearly planar graphs made mostly of chains,
 // so a fill-reducing ordering keeps L small (about 4·10⁶ entries for 10⁶
-// unknowns of the reference model in ../shared/bench) and the direct
+// unknowns of the reference model of docs/bench.md) and the direct
 // method beats conjugate gradients, which need about 10³ iterations, by an
 // order of magnitude.
 //

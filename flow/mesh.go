@@ -74,25 +74,60 @@ type pathNode struct {
 	node int32
 }
 
+// DefaultMinElementFraction is the shortest element as a fraction of the
+// element length when MeshSettings.MinElementFraction is 0. An element's
+// crack stiffness grows as 1/L and its pressure-diffusion time shrinks as
+// L², so short elements make the smallest events and the stiffest
+// systems; a quarter keeps the stiffness within a factor of four of a
+// full element while moving a junction by less than a quarter of an
+// element (a modelling choice, no source).
+const DefaultMinElementFraction = 0.25
+
 // MeshSettings control the element size.
 type MeshSettings struct {
 	// ElementLength is the longest element, m.
 	ElementLength float64
-	// MergeDistance: boundary positions on one path closer than this are
-	// merged into one node, m (default 1 % of ElementLength).
-	MergeDistance float64
+	// MinElementFraction sets the shortest element, MinElementFraction ×
+	// ElementLength, in (0, 0.5]; 0 selects DefaultMinElementFraction.
+	// Boundary positions (junctions, cuts, path ends) of one path closer
+	// than that share a node. Only a path shorter than it has a shorter
+	// element: the whole path.
+	MinElementFraction float64
 }
 
 // BuildMesh splits every path at its junctions and cuts, then into
 // elements no longer than the element length, and joins the elements at
 // common nodes.
+//
+// No element is shorter than the minimum element length
+// L_min = MinElementFraction·ElementLength, except the single element of a
+// path shorter than L_min. Along each path the boundary positions (its
+// ends, cuts and junctions) are scanned from P0: a position less than
+// L_min beyond the last node kept gets no node of its own, and a last
+// interior node less than L_min before P1 gives way to P1; the ends are
+// always nodes. Every junction and cut then lands on the nearest node of
+// its path, which lies less than L_min away, so a junction still joins
+// the same pair of paths and a cut still marks a node of its path. Two
+// junctions closer than L_min on a path share that path's node, which
+// then joins all the paths they meet (they would exchange flow through
+// the short element anyway). Where three paths cross in a small triangle
+// whose sides on two of them are shorter than L_min, the third path's two
+// crossing nodes become one node and its elements between them hang from
+// it as a dead end (as with any merge distance). Between consecutive
+// nodes the path is split into ⌈gap/ElementLength⌉ equal elements, each
+// at least min(gap, ElementLength/2) ≥ L_min long since
+// L_min ≤ ElementLength/2.
 func BuildMesh(paths []Path, junctions []Junction, s MeshSettings) (*Mesh, error) {
-	if !(s.ElementLength > 0) {
-		return nil, fmt.Errorf("flow: element length %g m must be > 0", s.ElementLength)
+	if !(s.ElementLength > 0) || math.IsInf(s.ElementLength, 0) {
+		return nil, fmt.Errorf("flow: element length %g m must be finite and > 0", s.ElementLength)
 	}
-	if s.MergeDistance <= 0 {
-		s.MergeDistance = 0.01 * s.ElementLength
+	if s.MinElementFraction == 0 {
+		s.MinElementFraction = DefaultMinElementFraction
 	}
+	if !(s.MinElementFraction > 0 && s.MinElementFraction <= 0.5) {
+		return nil, fmt.Errorf("flow: minimum element fraction %g must be in (0, 0.5]", s.MinElementFraction)
+	}
+	minLength := s.MinElementFraction * s.ElementLength
 	stops := make([][]float64, len(paths))
 	for i, p := range paths {
 		if !(p.Height > 0) {
@@ -113,7 +148,7 @@ func BuildMesh(paths []Path, junctions []Junction, s MeshSettings) (*Mesh, error
 	var ends [][2]int32 // per element: node ids before merging
 	for i, p := range paths {
 		length := r2.Norm(r2.Sub(p.P1, p.P0))
-		fr := mergeStops(stops[i], s.MergeDistance/math.Max(length, s.MergeDistance))
+		fr := nodePositions(stops[i], minLength/length)
 		var prev int32 = -1
 		var prevFrac float64
 		for k, f := range fr {
@@ -210,29 +245,30 @@ func (m *Mesh) provisionalNode(path int, f float64) int32 {
 
 func lerp(a, b r2.Vec, f float64) r2.Vec { return r2.Add(a, r2.Scale(f, r2.Sub(b, a))) }
 
-// mergeStops sorts the positions, clamps them to [0, 1] and merges runs
-// closer than tol into their mean; the path ends stay at exactly 0 and 1.
-func mergeStops(f []float64, tol float64) []float64 {
+// nodePositions returns the positions along a path, as fractions of its
+// length, that become nodes: the ends 0 and 1, and the boundary positions
+// f (clamped to [0, 1] and sorted in place) kept by a scan from 0 that
+// skips any position closer than tol to the last node kept; a last
+// interior node closer than tol to 1 is replaced by 1. Consecutive nodes
+// are thus at least tol apart, unless the path is shorter than tol (then
+// only 0 and 1 remain), and every position lies less than tol from a node.
+func nodePositions(f []float64, tol float64) []float64 {
 	for i := range f {
 		f[i] = math.Min(1, math.Max(0, f[i]))
 	}
 	sort.Float64s(f)
-	var out []float64
-	start := 0
-	for i := 1; i <= len(f); i++ {
-		if i < len(f) && f[i]-f[i-1] < tol {
-			continue
+	out := []float64{0}
+	for _, x := range f {
+		if x-out[len(out)-1] >= tol {
+			out = append(out, x)
 		}
-		var sum float64
-		for _, x := range f[start:i] {
-			sum += x
-		}
-		out = append(out, sum/float64(i-start))
-		start = i
 	}
-	if len(out) < 2 {
-		return []float64{0, 1}
+	switch last := out[len(out)-1]; {
+	case last == 1:
+	case 1-last < tol && len(out) > 1:
+		out[len(out)-1] = 1
+	default:
+		out = append(out, 1)
 	}
-	out[0], out[len(out)-1] = 0, 1
 	return out
 }

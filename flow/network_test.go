@@ -6,11 +6,11 @@ import (
 )
 
 // Test systems shaped like one implicit pressure step on a fracture
-// network, following the model of ../shared/bench/gen_network.py (read it
+// network, following the model of docs/scripts/gen_network.py (read it
 // for the rationale): sticks ("fractures") of length L with uniform
 // midpoints and orientations in a square of side S = L √(2 nseg / (π k)),
 // so that a stick has k intersections on average (for isotropic sticks
-// k = 2 nseg L² / (π S²), REFERENCES.md §4.1); each stick
+// k = 2 nseg L² / (π S²), docs/references.md §4.1); each stick
 // split into m elements, one unknown each, numbered stick by stick;
 // connections between consecutive elements and between the two elements
 // holding an intersection point; transmissibility T = 10^N(0, σ₁₀);

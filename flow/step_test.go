@@ -9,7 +9,7 @@ import (
 	"slipfront/internal/numtest"
 )
 
-// Check values of REFERENCES.md §12.1 (Carslaw & Jaeger 1959 §2.4; fluid
+// Check values of docs/references.md §12.1 (Carslaw & Jaeger 1959 §2.4; fluid
 // compressibility only): e = 1e-4 m, μ = 1e-3 Pa·s, c_f = 4.5e-10 1/Pa.
 const (
 	testAperture = 1e-4
@@ -78,7 +78,7 @@ func steadyRate(t *testing.T, m *Mesh, well []int, ap ApertureFunc, dp float64) 
 }
 
 // Steady flow through one fracture obeys the cubic law exactly:
-// Q = h e³ Δp / (12 μ L) (Witherspoon et al. 1980; REFERENCES.md §5).
+// Q = h e³ Δp / (12 μ L) (Witherspoon et al. 1980; docs/references.md §5).
 func TestSteadyCubicLaw(t *testing.T) {
 	const (
 		h  = 20.0
@@ -147,7 +147,7 @@ func TestSeriesAndParallel(t *testing.T) {
 
 // erfcError runs constant-pressure injection at the end of a long fracture
 // to time tEnd and returns the largest error against Carslaw & Jaeger's
-// p = p0 + Δp erfc(x / 2√(Dt)), D = e²/(12 μ c_f) (REFERENCES.md §12.1),
+// p = p0 + Δp erfc(x / 2√(Dt)), D = e²/(12 μ c_f) (docs/references.md §12.1),
 // relative to Δp.
 func erfcError(t *testing.T, dx, dt, tEnd float64) float64 {
 	t.Helper()
@@ -183,7 +183,7 @@ func erfcError(t *testing.T, dx, dt, tEnd float64) float64 {
 // and steps shrink together (dt ∝ dx²); the observed order is about 2 in
 // dx (first order in dt from backward Euler).
 func TestErfcConvergence(t *testing.T) {
-	// D = 1851.852 m²/s (REFERENCES.md §12.1 check value).
+	// D = 1851.852 m²/s (docs/references.md §12.1 check value).
 	numtest.Rel(t, "diffusivity", testAperture*testAperture/(12*testMu*testComp), 1851.852, 1e-6)
 	const tEnd = 100.0
 	var errs []float64
@@ -205,7 +205,7 @@ func TestErfcConvergence(t *testing.T) {
 
 // Mass balance over a whole injection with apertures that change with
 // pressure (a compliant fracture): |injected − stored| / injected < 1e-8
-// (issue 4).
+// (the bound of the README's validation table).
 func TestMassBalanceCompliant(t *testing.T) {
 	paths := []Path{
 		{P0: r2.Vec{X: -200}, P1: r2.Vec{X: 200}, Height: 15},

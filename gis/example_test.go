@@ -5,14 +5,17 @@ import (
 	"context"
 	"fmt"
 	"log"
+	"math"
 	"os"
 	"path/filepath"
 	"strings"
 	"time"
 
 	"github.com/paulmach/orb"
+	"gonum.org/v1/gonum/spatial/r3"
 
 	"slipfront/gis"
+	"slipfront/internal/orient"
 )
 
 func ExampleParseCRS() {
@@ -21,7 +24,42 @@ func ExampleParseCRS() {
 		log.Fatal(err)
 	}
 	fmt.Println(crs, "is", crs.Name())
-	// Output: EPSG:32614 is WGS 84 / UTM zone 14N
+	_, err = gis.ParseCRS("EPSG:2056") // an oblique Mercator
+	fmt.Println(err != nil)
+	// Output:
+	// EPSG:32614 is WGS 84 / UTM zone 14N
+	// true
+}
+
+func ExamplePlacement_ToCRS() {
+	// NAD83 / Texas Central (ftUS): the origin is given in metres (SI);
+	// map coordinates come out in US survey feet.
+	const ftUS = 1200.0 / 3937
+	pl := gis.Placement{CRS: gis.CRS{EPSG: 2277}, Easting: 2300000 * ftUS, Northing: 10000000 * ftUS}
+	q := pl.ToCRS(orb.Point{100, 0}) // 100 m east of the origin
+	fmt.Printf("%s: E %.3f, N %.3f %s\n", pl.CRS.Name(), q[0], q[1], pl.CRS.Unit().Name)
+	// Output: NAD83 / Texas Central (ftUS): E 2300328.083, N 10000000.000 US survey foot
+}
+
+func ExampleParseWKT() {
+	crs, err := gis.ParseWKT(`PROJCS["Local TM (ftUS)",
+	  GEOGCS["NAD83",DATUM["North_American_Datum_1983",SPHEROID["GRS 1980",6378137,298.257222101]],
+	    PRIMEM["Greenwich",0],UNIT["degree",0.0174532925199433]],
+	  PROJECTION["Transverse_Mercator"],
+	  PARAMETER["latitude_of_origin",31],PARAMETER["central_meridian",-103.5],PARAMETER["scale_factor",0.9999],
+	  PARAMETER["false_easting",656166.667],PARAMETER["false_northing",0],
+	  UNIT["US survey foot",0.304800609601219]]`)
+	if err != nil {
+		log.Fatal(err)
+	}
+	pl := gis.Placement{CRS: crs, Easting: 200000, Northing: 0}
+	geo, err := pl.Geographic()
+	if err != nil {
+		log.Fatal(err)
+	}
+	ll := geo.LonLat(orb.Point{0, 0}) // the natural origin
+	fmt.Printf("%s in %s: lon %.6f, lat %.6f\n", crs.Name(), crs.Unit().Name, ll[0], ll[1])
+	// Output: Local TM (ftUS) in US survey foot: lon -103.500000, lat 31.000000
 }
 
 func ExamplePlacement_Geographic() {
@@ -34,7 +72,7 @@ func ExamplePlacement_Geographic() {
 	// PROJ's cs2cs gives -99.0000000000 31.6351862200 for this point.
 	fmt.Printf("lon %.7f, lat %.7f\n", ll[0], ll[1])
 
-	_, err = gis.Placement{CRS: gis.CRS{EPSG: 2056}}.Geographic()
+	_, err = gis.Placement{CRS: gis.CRS{EPSG: 26714}}.Geographic() // NAD27: no datum shift here
 	fmt.Println(err != nil)
 	// Output:
 	// lon -99.0000000, lat 31.6351862
@@ -142,4 +180,57 @@ func ExampleWriteQuakeML() {
 	// <value>-99</value>
 	// <value>2500</value>
 	// <value>-1.2</value>
+}
+
+// A fracture disc and a rectangle as VTK polygons with per-fracture
+// fields, in the CRS of the placement, z up (z = −depth).
+func ExampleWriteVTKPolygons() {
+	deg := math.Pi / 180
+	strike, downDip := orient.Strike(90*deg), orient.DownDip(60*deg, 90*deg) // dipping 60° east
+	polys := gis.VTKPolygons{
+		Rings: [][]r3.Vec{
+			gis.DiscRing(r3.Vec{X: 0, Y: 0, Z: -2600}, strike, downDip, 30, gis.DefaultDiscVertices),
+			gis.RectangleRing(r3.Vec{X: 100, Y: 0, Z: -2600}, strike, downDip, 80, 20),
+		},
+		Fields: []gis.VTKField{
+			{Name: "max_slip_mm", Values: []float64{1.2, 0}},
+			{Name: "first_slip_time_s", Values: []float64{5400, math.NaN()}}, // NaN: never slipped
+		},
+	}
+	pl := gis.Placement{CRS: gis.CRS{EPSG: 32614}, Easting: 500000, Northing: 3500000}
+	var buf bytes.Buffer
+	if err := gis.WriteVTKPolygons(&buf, pl, polys); err != nil {
+		log.Fatal(err)
+	}
+	for _, line := range strings.Split(buf.String(), "\n") {
+		if strings.HasPrefix(line, "<Piece") {
+			fmt.Println(line)
+		}
+	}
+	// Output:
+	// <Piece NumberOfPoints="36" NumberOfVerts="0" NumberOfLines="0" NumberOfStrips="0" NumberOfPolys="2">
+}
+
+// A collection of snapshot times for ParaView: each time has the
+// fractures (part 0) and the events so far (part 1).
+func ExampleWritePVD() {
+	err := gis.WritePVD(os.Stdout, []gis.PVDEntry{
+		{Time: 0, Part: 0, File: "fractures_0000.vtp"},
+		{Time: 0, Part: 1, File: "events_0000.vtp"},
+		{Time: 3600, Part: 0, File: "fractures_0001.vtp"},
+		{Time: 3600, Part: 1, File: "events_0001.vtp"},
+	})
+	if err != nil {
+		log.Fatal(err)
+	}
+	// Output:
+	// <?xml version="1.0"?>
+	// <VTKFile type="Collection" version="0.1" byte_order="LittleEndian">
+	// <Collection>
+	// <DataSet timestep="0" group="" part="0" file="fractures_0000.vtp"/>
+	// <DataSet timestep="0" group="" part="1" file="events_0000.vtp"/>
+	// <DataSet timestep="3600" group="" part="0" file="fractures_0001.vtp"/>
+	// <DataSet timestep="3600" group="" part="1" file="events_0001.vtp"/>
+	// </Collection>
+	// </VTKFile>
 }

@@ -15,7 +15,7 @@ import (
 
 // Default and limits of the GeoJSON coordinate precision, decimals of a
 // degree. 7 decimals are about 1 cm on the ground (1e-7° × 111 km/°), as
-// GDAL's RFC7946=YES writer uses by default (ecosystem.md §2).
+// GDAL's RFC7946=YES writer uses by default (COORDINATE_PRECISION, GDAL 3.6).
 const (
 	DefaultGeoJSONPrecision = 7
 	maxGeoJSONPrecision     = 12 // 1e-12° ≈ 0.1 µm, beyond any use

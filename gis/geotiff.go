@@ -10,6 +10,8 @@ import (
 	"slices"
 	"strconv"
 	"strings"
+
+	"github.com/paulmach/orb"
 )
 
 // Raster is a single-band float32 raster on a Grid.
@@ -56,27 +58,14 @@ const (
 	tagModelPixelScale  = 33550
 	tagModelTiepoint    = 33922
 	tagGeoKeyDirectory  = 34735
+	tagGeoDoubleParams  = 34736
+	tagGeoASCIIParams   = 34737
 	tagGDALMetadata     = 42112
 	tagGDALNoData       = 42113
 	compressionNone     = 1
 	photometricBlackIs0 = 1
 	planarChunky        = 1
 	sampleFormatIEEE    = 3
-)
-
-// GeoKeys (OGC 19-008r4, §7.3 and annex C).
-const (
-	keyGTModelType       = 1024
-	keyGTRasterType      = 1025
-	keyProjectedCSType   = 3072
-	keyProjLinearUnits   = 3076
-	modelTypeProjected   = 1
-	rasterPixelIsArea    = 1
-	userDefined          = 32767
-	linearUnitMetre      = 9001 // EPSG unit of measure "metre"
-	geoKeyDirVersion     = 1
-	geoKeyRevision       = 1
-	geoKeyMinorRevision1 = 1 // 1 declares GeoTIFF 1.1 (OGC 19-008r4; from memory)
 )
 
 // tiffStripBytes is the target size of one strip, bytes. Strips of a few
@@ -87,15 +76,21 @@ const tiffStripBytes = 64 << 10
 // WriteGeoTIFF writes r as a single-band float32 GeoTIFF (OGC GeoTIFF 1.1,
 // OGC 19-008r4) in pl's CRS: a classic little-endian TIFF with one
 // uncompressed image in strips, SampleFormat 3 (IEEE float),
-// ModelPixelScale (CellSize, CellSize, 0), ModelTiepoint at the
-// upper-left corner of the north-west cell (RasterPixelIsArea), the
-// GeoKeys GTModelType = projected, GTRasterType = PixelIsArea and
-// ProjectedCSType = the EPSG code, GDAL's GDAL_NODATA tag and, when the
+// ModelPixelScale (CellSize, CellSize, 0) and ModelTiepoint at the
+// upper-left corner of the north-west cell (RasterPixelIsArea), both in
+// the CRS unit (a 10 m cell is 32.8 ftUS in a US survey foot CRS), the
+// GeoKeys of the CRS (see geoKeys), GDAL's GDAL_NODATA tag and, when the
 // raster has a Description or Unit, GDAL's GDAL_METADATA tag with the
 // band's description and unit type (see gdalMetadata).
 //
 // The file stores the NORTH row first: file row r holds grid row
 // Rows−1−r.
+//
+// An EPSG code is written as ProjectedCSType, and so is the EPSG
+// identifier of a WKT CRS. A WKT CRS without one is written as a
+// user-defined projected CRS: its name in GTCitation, its projection
+// method and parameters, unit and ellipsoid in GeoKeys; that needs an
+// implemented projection method and the Greenwich prime meridian.
 //
 // For the undefined CRS ProjectedCSType is 32767 (user-defined) with
 // ProjLinearUnits = metre and no projection keys. GDAL 3.6 then reports
@@ -105,8 +100,17 @@ func WriteGeoTIFF(w io.Writer, pl Placement, r Raster) error {
 	if err := r.validate(len(r.Data)); err != nil {
 		return err
 	}
-	if pl.CRS.EPSG >= userDefined {
-		return fmt.Errorf("gis: GeoTIFF: %v does not fit ProjectedCSTypeGeoKey (EPSG codes up to %d)", pl.CRS, userDefined-1)
+	def, toCRS, err := pl.resolve()
+	if err != nil {
+		return fmt.Errorf("gis: GeoTIFF: %w", err)
+	}
+	gk, err := geoKeys(def)
+	if err != nil {
+		return fmt.Errorf("gis: GeoTIFF in %s: %w", pl.CRS.label(), err)
+	}
+	unit := Metre
+	if def != nil {
+		unit = def.unit
 	}
 	// Header, IFD and strip tables stay below 1 MiB (at most 65536 strips
 	// of 8 table bytes each).
@@ -115,7 +119,7 @@ func WriteGeoTIFF(w io.Writer, pl Placement, r Raster) error {
 		return fmt.Errorf("gis: GeoTIFF of %d×%d cells needs %d bytes, over the 4 GiB of classic TIFF", r.Cols, r.Rows, pixelBytes)
 	}
 	bw := bufio.NewWriter(w)
-	if _, err := bw.Write(tiffHead(r, pl)); err != nil {
+	if _, err := bw.Write(tiffHead(r, toCRS, unit, gk)); err != nil {
 		return err
 	}
 	row := make([]byte, 4*r.Cols)
@@ -140,13 +144,15 @@ type tiffEntry struct {
 
 // tiffHead returns the file up to the pixel data: header, IFD and the
 // out-of-line values. Pixel data follows immediately, strip after strip.
-func tiffHead(r Raster, pl Placement) []byte {
+// toCRS places local points, in unit.
+func tiffHead(r Raster, toCRS func(orb.Point) orb.Point, unit LinearUnit, gk geoKeyDirectory) []byte {
 	rowBytes := uint32(4 * r.Cols)
 	rowsPerStrip := max(1, tiffStripBytes/int(rowBytes))
 	rowsPerStrip = min(rowsPerStrip, r.Rows)
 	nStrips := (r.Rows + rowsPerStrip - 1) / rowsPerStrip
 
-	ul := pl.ToCRS([2]float64{r.XMin, r.YMin + float64(r.Rows)*r.CellSize})
+	ul := toCRS(orb.Point{r.XMin, r.YMin + float64(r.Rows)*r.CellSize})
+	pixel := r.CellSize / unit.Metres
 	nodata := strconv.FormatFloat(float64(r.NoData), 'g', -1, 32)
 	if math.IsNaN(float64(r.NoData)) {
 		nodata = "nan"
@@ -163,14 +169,20 @@ func tiffHead(r Raster, pl Placement) []byte {
 		{tag: tagStripByteCounts, typ: typeLong, count: uint32(nStrips)},
 		shortEntry(tagPlanarConfig, planarChunky),
 		shortEntry(tagSampleFormat, sampleFormatIEEE),
-		doubleEntry(tagModelPixelScale, r.CellSize, r.CellSize, 0),
+		doubleEntry(tagModelPixelScale, pixel, pixel, 0),
 		doubleEntry(tagModelTiepoint, 0, 0, 0, ul[0], ul[1], 0),
-		shortsEntry(tagGeoKeyDirectory, geoKeys(pl.CRS)...),
-		asciiEntry(tagGDALNoData, nodata),
+		shortsEntry(tagGeoKeyDirectory, gk.keys...),
+	}
+	if len(gk.doubles) > 0 {
+		entries = append(entries, doubleEntry(tagGeoDoubleParams, gk.doubles...))
+	}
+	if gk.ascii != "" {
+		entries = append(entries, asciiEntry(tagGeoASCIIParams, gk.ascii))
 	}
 	if md := gdalMetadata(r.Description, r.Unit); md != "" {
-		entries = slices.Insert(entries, len(entries)-1, asciiEntry(tagGDALMetadata, md))
+		entries = append(entries, asciiEntry(tagGDALMetadata, md))
 	}
+	entries = append(entries, asciiEntry(tagGDALNoData, nodata))
 	if !slices.IsSortedFunc(entries, func(a, b tiffEntry) int { return int(a.tag) - int(b.tag) }) {
 		panic("gis: TIFF entries not sorted by tag") // TIFF 6.0 §2: ascending order
 	}
@@ -237,27 +249,6 @@ func tiffHead(r Raster, pl Placement) []byte {
 	return head
 }
 
-// geoKeys returns the GeoKeyDirectory: header {version, revision, minor,
-// count} then {KeyID, TIFFTagLocation 0, Count 1, Value} sorted by KeyID
-// (OGC 19-008r4, §7.1).
-func geoKeys(c CRS) []uint16 {
-	keys := [][4]uint16{
-		{keyGTModelType, 0, 1, modelTypeProjected},
-		{keyGTRasterType, 0, 1, rasterPixelIsArea},
-	}
-	if c.Defined() {
-		keys = append(keys, [4]uint16{keyProjectedCSType, 0, 1, uint16(c.EPSG)})
-	} else {
-		keys = append(keys, [4]uint16{keyProjectedCSType, 0, 1, userDefined},
-			[4]uint16{keyProjLinearUnits, 0, 1, linearUnitMetre})
-	}
-	out := []uint16{geoKeyDirVersion, geoKeyRevision, geoKeyMinorRevision1, uint16(len(keys))}
-	for _, k := range keys {
-		out = append(out, k[:]...)
-	}
-	return out
-}
-
 // gdalMetadata returns the XML of GDAL's GDAL_METADATA TIFF tag (42112)
 // with band 0's description and unit type, or "" when both are empty.
 // The items are the ones GDAL's GTiff driver writes for a band
@@ -292,7 +283,7 @@ func gdalMetadata(description, unit string) string {
 	return b.String()
 }
 
-// asciiEntry is a NUL-terminated ASCII entry (TIFF 6.0 §2: type 2).
+// asciiEntry stores s with its terminating NUL (TIFF 6.0 §2, type ASCII).
 func asciiEntry(tag uint16, s string) tiffEntry {
 	return tiffEntry{tag: tag, typ: typeASCII, count: uint32(len(s) + 1), value: append([]byte(s), 0)}
 }

@@ -178,7 +178,19 @@ func TestGeoTIFFBadInput(t *testing.T) {
 		{"zero cell", func(r *Raster, _ *Placement) { r.CellSize = 0 }, "cell size"},
 		{"NaN cell", func(r *Raster, _ *Placement) { r.CellSize = math.NaN() }, "cell size"},
 		{"infinite corner", func(r *Raster, _ *Placement) { r.XMin = math.Inf(-1) }, "corner"},
-		{"code too large", func(_ *Raster, p *Placement) { p.CRS = CRS{EPSG: 102100} }, "ProjectedCSTypeGeoKey"},
+		{"unknown code", func(_ *Raster, p *Placement) { p.CRS = CRS{EPSG: 102100} }, "not a projected CRS this program can place"},
+		{"code too large", func(_ *Raster, p *Placement) {
+			p.CRS = mustWKT(t, "tm-ftus-nad83.wkt1.prj")
+			w := *p.CRS.wkt
+			w.epsg = 40000
+			p.CRS.wkt = &w
+		}, "ProjectedCSTypeGeoKey"},
+		{"no GeoTIFF encoding", func(_ *Raster, p *Placement) {
+			p.CRS = mustWKT(t, "2056.wkt2.prj")
+			w := *p.CRS.wkt
+			w.epsg = 0
+			p.CRS.wkt = &w
+		}, "Hotine"},
 	}
 	for _, c := range cases {
 		r, pl := good, samplePlacement
@@ -193,7 +205,7 @@ func TestGeoTIFFBadInput(t *testing.T) {
 }
 
 // gdalInfo is the part of `gdalinfo -json -stats` the tests read
-// (ecosystem.md §2 lists the keys).
+// (the keys GDAL 3.6 prints; the rest is ignored).
 type gdalInfo struct {
 	Size             []int
 	GeoTransform     []float64
@@ -353,6 +365,56 @@ func TestGeoTIFFUndefinedCRS(t *testing.T) {
 		if !strings.Contains(out, want) {
 			t.Errorf("gdalinfo output lacks %q:\n%s", want, out)
 		}
+	}
+}
+
+// TestGeoTIFFFeetAndUserDefined: in a US survey foot CRS the pixel
+// scale and tiepoint are in ftUS; a WKT CRS without an EPSG code is
+// written as user-defined keys, sorted, with its name in GTCitation and
+// the parameters in GeoDoubleParams.
+func TestGeoTIFFFeetAndUserDefined(t *testing.T) {
+	const ftUS = 1200.0 / 3937
+	r := sampleRaster(7, 4)
+	pl := Placement{CRS: mustWKT(t, "tm-ftus-nad83.wkt1.prj"), Easting: 650000 * ftUS, Northing: 180000 * ftUS}
+	tags, _, err := readTIFFTags(writeTIFFBytes(t, pl, r))
+	if err != nil {
+		t.Fatal(err)
+	}
+	// The scale is 10 m in ftUS, the tiepoint the origin plus local
+	// (−200, −60) m in ftUS; 1e-9 ftUS is float rounding.
+	numtest.Abs(t, "pixel scale", tags[tagModelPixelScale].float(0), 10/ftUS, 1e-12)
+	numtest.Abs(t, "tiepoint X", tags[tagModelTiepoint].float(3), 650000-200/ftUS, 1e-9)
+	numtest.Abs(t, "tiepoint Y", tags[tagModelTiepoint].float(4), 180000-60/ftUS, 1e-9)
+	gk := tags[tagGeoKeyDirectory]
+	n := int(gk.uint(3))
+	keys := map[uint32][3]uint32{}
+	for k := range n {
+		id := gk.uint(4 + 4*k)
+		if k > 0 && id <= gk.uint(4*k) {
+			t.Errorf("GeoKey %d after %d: not sorted", id, gk.uint(4*k))
+		}
+		keys[id] = [3]uint32{gk.uint(5 + 4*k), gk.uint(6 + 4*k), gk.uint(7 + 4*k)}
+	}
+	for id, want := range map[uint32]uint32{keyProjectedCSType: userDefined, keyProjection: userDefined, keyProjCoordTrans: ctTransverseMercator,
+		keyProjLinearUnits: 9003, keyGeographicType: userDefined, keyGeogGeodeticDatum: 6269, keyGeogAngularUnits: 9102} {
+		if k, ok := keys[id]; !ok || k[0] != 0 || k[2] != want {
+			t.Errorf("GeoKey %d = %v, want value %d", id, k, want)
+		}
+	}
+	doubles := tags[tagGeoDoubleParams]
+	for id, want := range map[uint32]float64{keyProjNatOriginLat: 31, keyProjNatOriginLong: -103.5, keyProjScaleAtNatOrigin: 0.9999,
+		keyProjFalseEasting: 656166.666666667, keyProjFalseNorthing: 0, keyGeogSemiMajorAxis: 6378137, keyGeogInvFlattening: 298.257222101} {
+		k, ok := keys[id]
+		if !ok || k[0] != tagGeoDoubleParams || k[1] != 1 {
+			t.Errorf("GeoKey %d = %v, want one double", id, k)
+			continue
+		}
+		// The WKT prints 15 significant digits: 1e-9 ftUS at 6.6e5.
+		numtest.Abs(t, "GeoKey "+strconv.Itoa(int(id)), doubles.float(int(k[2])), want, 1e-9)
+	}
+	ascii := string(tags[tagGeoASCIIParams].data)
+	if k := keys[keyGTCitation]; k[0] != tagGeoASCIIParams || ascii[k[2]:k[2]+k[1]] != "unknown|" {
+		t.Errorf("GTCitation %v in %q", k, ascii)
 	}
 }
 

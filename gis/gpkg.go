@@ -13,11 +13,49 @@ import (
 	_ "modernc.org/sqlite" // pure-Go SQLite driver "sqlite"
 )
 
-// GeoPackage file identification (OGC 12-128r18, Req 2; ecosystem.md §3).
+// GeoPackage file identification (OGC 12-128r18, Req 2).
 const (
 	gpkgApplicationID = 0x47504B47 // "GPKG"
 	gpkgUserVersion   = 10300      // GeoPackage 1.3
 )
+
+// Definitions of the required rows of gpkg_spatial_ref_sys (OGC
+// 12-128r18, Req 11). The WGS 84 text reproduces `gdalsrsinfo -o wkt1
+// --single-line EPSG:4326` (GDAL 3.6.2, PROJ 9.1.1).
+const (
+	wktWGS84Geographic = `GEOGCS["WGS 84",DATUM["WGS_1984",SPHEROID["WGS 84",6378137,298.257223563,AUTHORITY["EPSG","7030"]],AUTHORITY["EPSG","6326"]],PRIMEM["Greenwich",0,AUTHORITY["EPSG","8901"]],UNIT["degree",0.0174532925199433,AUTHORITY["EPSG","9122"]],AXIS["Latitude",NORTH],AXIS["Longitude",EAST],AUTHORITY["EPSG","4326"]]`
+	wktUndefined       = "undefined"
+)
+
+// srsIDUserDefined is the srs_id of a WKT CRS without an EPSG
+// identifier: the first id GDAL gives user-defined CRSs, above the EPSG
+// codes of CRSs (common practice, no source).
+const srsIDUserDefined = 100000
+
+// gpkgSRS is a row of gpkg_spatial_ref_sys.
+type gpkgSRS struct {
+	name         string
+	id           int
+	organization string
+	orgID        int
+	definition   string
+}
+
+// srsRow returns the row of a CRS definition (nil: the undefined
+// Cartesian frame). A code of the table gets GDAL's WKT1; a WKT CRS its
+// own text, under its EPSG identifier if it has one.
+func srsRow(d *crsDef) gpkgSRS {
+	switch {
+	case d == nil:
+		return gpkgSRS{"Undefined cartesian SRS", srsIDUndefinedCartesian, "NONE", srsIDUndefinedCartesian, wktUndefined}
+	case d.wkt == "":
+		e, _ := lookupEPSG(d.epsg)
+		return gpkgSRS{d.name, d.epsg, "EPSG", d.epsg, e.wkt1()}
+	case d.epsg != 0:
+		return gpkgSRS{d.name, d.epsg, "EPSG", d.epsg, d.wkt}
+	}
+	return gpkgSRS{d.name, srsIDUserDefined, "NONE", srsIDUserDefined, d.wkt}
+}
 
 // gpkgTimeFormat is the DATETIME format of GeoPackage (OGC 12-128r18,
 // Req 5: ISO-8601 'YYYY-MM-DDTHH:MM:SS.SSSZ', UTC).
@@ -68,8 +106,13 @@ type GeoPackageOptions struct {
 //
 // Each layer becomes a feature table with columns fid (INTEGER PRIMARY KEY
 // AUTOINCREMENT), geom (the layer's geometry type) and the fields, all in
-// one transaction. A nil or empty geometry is stored as NULL. No spatial index is written (GDAL's
-// CreateSpatialIndex can add one).
+// one transaction. A nil or empty geometry is stored as NULL. No spatial
+// index is written (GDAL's CreateSpatialIndex can add one).
+//
+// Coordinates are in the CRS's unit (see Placement). The CRS goes into
+// gpkg_spatial_ref_sys: an EPSG code with GDAL's WKT1 of it; a WKT CRS
+// with its own text (compacted to one line), under its EPSG identifier if
+// it has one, else as srs_id 100000 of organization NONE.
 func WriteGeoPackage(ctx context.Context, path string, pl Placement, layers []Layer, opt *GeoPackageOptions) (err error) {
 	if err := validateLayers(layers); err != nil {
 		return err
@@ -81,6 +124,10 @@ func WriteGeoPackage(ctx context.Context, path string, pl Placement, layers []La
 	if _, err := os.Lstat(path); err == nil {
 		return fmt.Errorf("gis: GeoPackage %s already exists", path)
 	} else if !errors.Is(err, os.ErrNotExist) {
+		return fmt.Errorf("gis: GeoPackage %s: %w", path, err)
+	}
+	def, toCRS, err := pl.resolve()
+	if err != nil {
 		return fmt.Errorf("gis: GeoPackage %s: %w", path, err)
 	}
 	lastChange := time.Now()
@@ -100,7 +147,7 @@ func WriteGeoPackage(ctx context.Context, path string, pl Placement, layers []La
 			os.Remove(path)
 		}
 	}()
-	w := gpkgWriter{pl: pl, lastChange: lastChange.UTC().Format(gpkgTimeFormat)}
+	w := gpkgWriter{srs: srsRow(def), toCRS: toCRS, lastChange: lastChange.UTC().Format(gpkgTimeFormat)}
 	if err := w.write(ctx, db, layers); err != nil {
 		return fmt.Errorf("gis: writing GeoPackage %s: %w", path, err)
 	}
@@ -109,8 +156,9 @@ func WriteGeoPackage(ctx context.Context, path string, pl Placement, layers []La
 
 // gpkgWriter holds the state shared by the steps of one GeoPackage write.
 type gpkgWriter struct {
-	pl         Placement
-	lastChange string // ISO-8601 UTC
+	srs        gpkgSRS                   // the layers' CRS
+	toCRS      func(orb.Point) orb.Point // local to CRS coordinates
+	lastChange string                    // ISO-8601 UTC
 }
 
 func (w *gpkgWriter) write(ctx context.Context, db *sql.DB, layers []Layer) error {
@@ -148,8 +196,8 @@ func (w *gpkgWriter) writeSRS(ctx context.Context, tx *sql.Tx) error {
 		{"Undefined geographic SRS", srsIDUndefinedGeographic, "NONE", srsIDUndefinedGeographic, wktUndefined, "undefined geographic coordinate reference system"},
 		{"WGS 84 geodetic", epsgWGS84Geographic, "EPSG", epsgWGS84Geographic, wktWGS84Geographic, "longitude/latitude coordinates in decimal degrees on the WGS 84 spheroid"},
 	}
-	if c := w.pl.CRS; c.Defined() && c.EPSG != epsgWGS84Geographic {
-		rows = append(rows, []any{c.Name(), c.EPSG, "EPSG", c.EPSG, wkt1(c), c.Name()})
+	if r := w.srs; r.id != srsIDUndefinedCartesian {
+		rows = append(rows, []any{r.name, r.id, r.organization, r.orgID, r.definition, r.name})
 	}
 	for _, r := range rows {
 		if _, err := tx.ExecContext(ctx, ins, r...); err != nil {
@@ -162,7 +210,7 @@ func (w *gpkgWriter) writeSRS(ctx context.Context, tx *sql.Tx) error {
 // writeLayer creates the feature table of l, registers it in gpkg_contents
 // and gpkg_geometry_columns, and inserts its features.
 func (w *gpkgWriter) writeLayer(ctx context.Context, tx *sql.Tx, l *Layer) error {
-	srsID := w.pl.CRS.srsID()
+	srsID := w.srs.id
 	var cols strings.Builder
 	fmt.Fprintf(&cols, `CREATE TABLE "%s" (fid INTEGER PRIMARY KEY AUTOINCREMENT NOT NULL, geom %s`, l.Name, l.Geometry)
 	for _, f := range l.Fields {
@@ -205,7 +253,7 @@ func (w *gpkgWriter) encodeFeatures(l *Layer, srsID int32) ([][]byte, *orb.Bound
 		if ft.Geometry == nil || isEmpty(ft.Geometry) {
 			continue // NULL; see encodeGPKGGeometry
 		}
-		g := mapGeometry(ft.Geometry, w.pl.ToCRS)
+		g := mapGeometry(ft.Geometry, w.toCRS)
 		b, err := encodeGPKGGeometry(g, srsID)
 		if err != nil {
 			return nil, nil, fmt.Errorf("feature %d: %w", i, err)

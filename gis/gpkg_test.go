@@ -134,7 +134,7 @@ func layerBound(l Layer) (orb.Bound, bool) {
 
 // TestGeoPackageGeometryHeader decodes every blob: the envelope must be in
 // the order minx, maxx, miny, maxy (OGC 12-128r18 §2.1.3.1.1; GDAL does not
-// notice a wrong order, ecosystem.md §3), match the geometry's bounds, and
+// notice a wrong order: it re-reads the geometry), match its bounds, and
 // the srs_id must equal the column's (Req 33).
 func TestGeoPackageGeometryHeader(t *testing.T) {
 	path, layers := writeSample(t, samplePlacement)
@@ -298,22 +298,47 @@ func TestGeoPackageBadInput(t *testing.T) {
 	})
 }
 
+// mustWKT parses a WKT test file.
+func mustWKT(t *testing.T, name string) CRS {
+	t.Helper()
+	c, err := ParseWKT(readWKT(t, name))
+	if err != nil {
+		t.Fatal(err)
+	}
+	return c
+}
+
 // TestGeoPackageOGRInfo checks with GDAL that every layer opens with the
-// right EPSG code, geometry type and feature count and that GDAL prints
-// nothing on stderr (ecosystem.md §2).
+// right CRS (EPSG code, or the WKT's name and unit), geometry type and
+// feature count and that GDAL prints nothing on stderr.
 func TestGeoPackageOGRInfo(t *testing.T) {
 	ogrinfo := needTool(t, "ogrinfo")
-	for _, pl := range []Placement{samplePlacement, {CRS: CRS{EPSG: 26914}}, {CRS: CRS{EPSG: 32760}}, {CRS: CRS{EPSG: 2056}, Easting: 2.6e6, Northing: 1.2e6}} {
-		t.Run(pl.CRS.String(), func(t *testing.T) {
-			path, layers := writeSample(t, pl)
+	const ftUS = 1200.0 / 3937
+	cases := []struct {
+		name string
+		pl   Placement
+		want []string // in ogrinfo's CRS description
+	}{
+		{"UTM 14N", samplePlacement, []string{`ID["EPSG",32614]]` + "\n"}},
+		{"NAD83 UTM", Placement{CRS: CRS{EPSG: 26914}}, []string{`ID["EPSG",26914]]` + "\n"}},
+		{"UTM 60S", Placement{CRS: CRS{EPSG: 32760}}, []string{`ID["EPSG",32760]]` + "\n"}},
+		{"State Plane ftUS", Placement{CRS: CRS{EPSG: 2277}, Easting: 2.3e6 * ftUS, Northing: 1e7 * ftUS},
+			[]string{`ID["EPSG",2277]]` + "\n", `LENGTHUNIT["US survey foot",0.304800609601219`}},
+		{"WKT2 with ID", Placement{CRS: mustWKT(t, "2277.wkt2.prj")}, []string{`ID["EPSG",2277]]` + "\n"}},
+		{"WKT1 without ID", Placement{CRS: mustWKT(t, "tm-ftus-nad83.wkt1.prj")},
+			[]string{`PROJCRS["unknown"`, `METHOD["Transverse Mercator"`, `LENGTHUNIT["US survey foot",0.304800609601219`}},
+		{"WKT2 oblique Mercator", Placement{CRS: mustWKT(t, "2056.wkt2.prj"), Easting: 2.6e6, Northing: 1.2e6}, []string{`ID["EPSG",2056]]` + "\n"}},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			path, layers := writeSample(t, c.pl)
 			for _, l := range layers {
 				out := runTool(t, nil, ogrinfo, "-so", path, l.Name)
 				wantGeom := map[GeometryType]string{Point: "Point", LineString: "Line String", Polygon: "Polygon", MultiPolygon: "Multi Polygon"}[l.Geometry]
-				for _, want := range []string{
+				for _, want := range append([]string{
 					"Geometry: " + wantGeom + "\n",
 					"Feature Count: " + strconv.Itoa(len(l.Features)) + "\n",
-					`ID["EPSG",` + strconv.Itoa(pl.CRS.EPSG) + "]]\n",
-				} {
+				}, c.want...) {
 					if !strings.Contains(out, want) {
 						t.Errorf("layer %s: ogrinfo output lacks %q:\n%s", l.Name, want, out)
 					}
@@ -321,6 +346,55 @@ func TestGeoPackageOGRInfo(t *testing.T) {
 			}
 		})
 	}
+}
+
+// TestGeoPackageSRSRows: the srs row of each kind of CRS, and the
+// feature coordinates in the CRS unit.
+func TestGeoPackageSRSRows(t *testing.T) {
+	const ftUS = 1200.0 / 3937
+	noID := mustWKT(t, "tm-ftus-nad83.wkt1.prj")
+	withID := mustWKT(t, "2277.wkt2.prj")
+	cases := []struct {
+		name string
+		pl   Placement
+		id   int
+		org  string
+		def  string
+		minX float64 // CRS unit
+	}{
+		{"code", Placement{CRS: CRS{EPSG: 2277}, Easting: 2.3e6 * ftUS}, 2277, "EPSG", mustLookup(t, 2277).wkt1(), 2.3e6 - 200/ftUS},
+		{"WKT with ID", Placement{CRS: withID}, 2277, "EPSG", withID.String(), -200 / ftUS},
+		{"WKT without ID", Placement{CRS: noID}, srsIDUserDefined, "NONE", noID.String(), -200 / ftUS},
+	}
+	for _, c := range cases {
+		path := tempPath(t, "m.gpkg")
+		l := Layer{Name: "p", Geometry: Point, Features: []Feature{{Geometry: orb.Point{-200, 5}}}}
+		if err := WriteGeoPackage(context.Background(), path, c.pl, []Layer{l}, nil); err != nil {
+			t.Fatal(err)
+		}
+		db := openGPKG(t, path)
+		var id, orgID int
+		var org, def string
+		var minX float64
+		err := db.QueryRow(`SELECT s.srs_id, s.organization, s.organization_coordsys_id, s.definition, c.min_x
+		  FROM gpkg_contents c JOIN gpkg_spatial_ref_sys s ON s.srs_id = c.srs_id WHERE c.table_name = 'p'`).Scan(&id, &org, &orgID, &def, &minX)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if id != c.id || orgID != c.id || org != c.org || def != c.def {
+			t.Errorf("%s: srs %d %s %d %q", c.name, id, org, orgID, def)
+		}
+		numtest.Abs(t, c.name+" min_x", minX, c.minX, 1e-9)
+	}
+}
+
+func mustLookup(t *testing.T, code int) *epsgCRS {
+	t.Helper()
+	e, ok := lookupEPSG(code)
+	if !ok {
+		t.Fatalf("EPSG:%d not in the table", code)
+	}
+	return e
 }
 
 // TestGeoPackageOGRInfoUndefined: GDAL 3.6 reads a layer in the undefined
@@ -336,11 +410,11 @@ func TestGeoPackageOGRInfoUndefined(t *testing.T) {
 }
 
 // TestGeoPackageValidator runs GDAL's GeoPackage conformance checker
-// (python3-gdal, ecosystem.md §2); it prints nothing and exits 0 on a
+// (validate_gpkg of python3-gdal); it prints nothing and exits 0 on a
 // valid file.
 func TestGeoPackageValidator(t *testing.T) {
 	needGDALPython(t)
-	for _, pl := range []Placement{samplePlacement, {}, {CRS: CRS{EPSG: 2056}}} {
+	for _, pl := range []Placement{samplePlacement, {}, {CRS: CRS{EPSG: 2277}}, {CRS: mustWKT(t, "tm-ftus-nad83.wkt1.prj")}} {
 		path, _ := writeSample(t, pl)
 		out := runTool(t, nil, debianPython, "-m", "osgeo_utils.samples.validate_gpkg", "--extra", "--warning-as-error", path)
 		if strings.TrimSpace(out) != "" {
@@ -349,24 +423,41 @@ func TestGeoPackageValidator(t *testing.T) {
 	}
 }
 
+// wkt1Sample is a sample of table codes whose WKT1 is compared with GDAL's:
+// UTM on each datum, State Plane zones of both methods in metres, feet and
+// US survey feet on NAD83 and its realizations and on NAD27, LCC 1SP, and
+// the first and last codes of the table.
+var wkt1Sample = []int{32601, 32614, 32660, 32701, 32733, 32760, 26901, 26914, 26923, 26714, 2222, 2277, 2278, 32039,
+	32139, 26980, 2205, 6588, 2839, 3465, 3761, 3373, 7565, 7624, 6922, 32161}
+
 // TestWKTMatchesGDAL compares the WKT1 definitions with gdalsrsinfo's.
 func TestWKTMatchesGDAL(t *testing.T) {
 	gdalsrsinfo := needTool(t, "gdalsrsinfo")
-	for _, code := range []int{4326, 32601, 32614, 32660, 32701, 32733, 32760, 26901, 26914, 26923} {
+	codes := append([]int{epsgTable[0].code, epsgTable[len(epsgTable)-1].code}, wkt1Sample...)
+	for _, code := range codes {
 		want := strings.TrimSpace(runTool(t, nil, gdalsrsinfo, "-o", "wkt1", "--single-line", "EPSG:"+strconv.Itoa(code)))
-		if got := wkt1(CRS{EPSG: code}); got != want {
+		e, ok := lookupEPSG(code)
+		if !ok {
+			t.Fatalf("EPSG:%d is not in the table", code)
+		}
+		if got := e.wkt1(); got != want {
 			t.Errorf("EPSG:%d\n got %s\nwant %s", code, got, want)
 		}
+	}
+	want := strings.TrimSpace(runTool(t, nil, gdalsrsinfo, "-o", "wkt1", "--single-line", "EPSG:4326"))
+	if wktWGS84Geographic != want {
+		t.Errorf("EPSG:4326\n got %s\nwant %s", wktWGS84Geographic, want)
 	}
 }
 
 func TestCRSNameMatchesWKT(t *testing.T) {
 	re := regexp.MustCompile(`^PROJCS\["([^"]+)"`)
-	for _, code := range []int{32614, 32714, 26910} {
+	for _, code := range wkt1Sample {
 		c := CRS{EPSG: code}
-		m := re.FindStringSubmatch(wkt1(c))
+		e, _ := lookupEPSG(code)
+		m := re.FindStringSubmatch(e.wkt1())
 		if m == nil || m[1] != c.Name() {
-			t.Errorf("EPSG:%d: Name %q, WKT %q", code, c.Name(), wkt1(c))
+			t.Errorf("EPSG:%d: Name %q, WKT %q", code, c.Name(), e.wkt1())
 		}
 	}
 }

@@ -30,7 +30,7 @@ func needTool(t *testing.T, name string) string {
 }
 
 // debianPython is Debian's interpreter, which has python3-gdal's
-// osgeo_utils (ecosystem.md §2: another python3 first on PATH lacks it).
+// osgeo_utils (another python3 first on PATH may lack it).
 const debianPython = "/usr/bin/python3"
 
 // needGDALPython skips the test unless Debian's python3 with the GDAL
@@ -47,7 +47,7 @@ func needGDALPython(t *testing.T) {
 
 // runTool runs a program and returns its stdout; the test fails when the
 // program fails or writes anything to stderr (GDAL reports format problems
-// as warnings on stderr; ecosystem.md §2).
+// as warnings on stderr, e.g. "Warning 1: GPKG: bad application_id").
 func runTool(t *testing.T, env []string, name string, args ...string) string {
 	t.Helper()
 	cmd := exec.Command(name, args...)

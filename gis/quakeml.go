@@ -11,8 +11,8 @@ import (
 	"time"
 )
 
-// QuakeML 1.2 namespaces (ecosystem.md §5, verified against the QuakeML
-// 1.2 schemas): the root element is in the QuakeML namespace, everything
+// QuakeML 1.2 namespaces (the targetNamespace of each QuakeML 1.2 schema,
+// gis/testdata/QuakeML-*.xsd): the root element is in the QuakeML namespace, everything
 // from eventParameters down in the BED namespace.
 const (
 	QuakeMLNamespace    = "http://quakeml.org/xmlns/quakeml/1.2"
@@ -33,7 +33,7 @@ const (
 const quakeSyntheticNote = "SYNTHETIC events computed by a simulation; they are not observations."
 
 // catalogIDRE restricts catalog IDs to characters that keep every
-// publicID within the QuakeML ResourceIdentifier pattern (ecosystem.md §5).
+// publicID within the QuakeML ResourceIdentifier pattern (QuakeML-BED-1.2.xsd).
 var catalogIDRE = regexp.MustCompile(`^[A-Za-z0-9][A-Za-z0-9._-]{0,62}$`)
 
 // Event is one synthetic seismic event in the local frame.
@@ -172,8 +172,8 @@ func formatFixed(v float64, dec int) string {
 	return s
 }
 
-// The XML structure; names and order follow ecosystem.md §5 (the schemas
-// accept any order inside event, origin and magnitude).
+// The XML structure; names follow the QuakeML 1.2 BED schema (it accepts
+// any order inside event, origin and magnitude).
 type qmlRoot struct {
 	XMLName         xml.Name           `xml:"q:quakeml"`
 	XmlnsQ          string             `xml:"xmlns:q,attr"`

@@ -1,6 +1,7 @@
 package gis
 
 import (
+	"fmt"
 	"math"
 	"math/cmplx"
 )
@@ -23,6 +24,36 @@ var WGS84 = Ellipsoid{SemiMajorAxis: 6378137, InverseFlattening: 298.257223563}
 // gdalsrsinfo prints for EPSG:4269).
 var GRS80 = Ellipsoid{SemiMajorAxis: 6378137, InverseFlattening: 298.257222101}
 
+// Clarke1866 is the Clarke 1866 ellipsoid (EPSG:7008) of NAD27, defined
+// by a = 6378206.4 m and b = 6356583.8 m (EPSG dataset, ellipsoid 7008).
+// 1/f = a/(a − b) is computed in float64 arithmetic, 294.978698213898,
+// as PROJ does and gdalsrsinfo prints for EPSG:4267; the exact quotient,
+// 294.978698213906, differs by 3e-14 relative, far below any effect.
+var Clarke1866 = clarke1866()
+
+func clarke1866() Ellipsoid {
+	a, b := 6378206.4, 6356583.8
+	return Ellipsoid{SemiMajorAxis: a, InverseFlattening: a / (a - b)}
+}
+
+// flattening returns f, 0 for a sphere (InverseFlattening 0, the WKT
+// convention).
+func (el Ellipsoid) flattening() float64 {
+	if el.InverseFlattening == 0 {
+		return 0
+	}
+	return 1 / el.InverseFlattening
+}
+
+// validate checks that el is an oblate ellipsoid or a sphere.
+func (el Ellipsoid) validate() error {
+	a, rf := el.SemiMajorAxis, el.InverseFlattening
+	if !(a > 0) || math.IsInf(a, 0) || !(rf == 0 || rf > 1) || math.IsInf(rf, 0) {
+		return fmt.Errorf("gis: ellipsoid a = %g m, 1/f = %g: want a > 0 and 1/f > 1 (or 0 for a sphere)", a, rf)
+	}
+	return nil
+}
+
 // krugerOrder is the order of the Krüger series in n (Karney 2011, §4:
 // order 6 gives errors below 5 nm within the UTM zones).
 const krugerOrder = 6
@@ -33,16 +64,21 @@ const krugerOrder = 6
 // nanometers", J. Geodesy 85, 475–485, doi:10.1007/s00190-011-0445-3.
 //
 // Within about 3900 km of the central meridian the truncation error is a
-// few nanometres (Karney 2011, fig. 1); this package uses it for UTM
-// zones, where points lie within a few hundred kilometres of it.
+// few nanometres (Karney 2011, fig. 1); UTM and State Plane zones keep
+// points within a few hundred kilometres of it.
+//
+// A latitude of origin φ0 other than the equator shifts the northing by
+// the projected distance of φ0 from the equator on the central meridian,
+// k0·A·ξ(φ0) (Karney 2011, eq. 13 at η = 0), so that the natural origin
+// maps to the false easting and northing as IOGP Guidance Note 7-2
+// defines them (EPSG method 9807).
 type TransverseMercator struct {
 	centralMeridian float64 // λ0, radians
 	scale           float64 // k0
 	falseEasting    float64 // m
-	falseNorthing   float64 // m
+	falseNorthing   float64 // m, less k0·A·ξ(φ0) for a latitude of origin φ0
 
 	e     float64                  // first eccentricity
-	e2m   float64                  // 1 − e²
 	a1    float64                  // k0·A, m, A the rectifying radius (Karney 2011, eq. 14)
 	alpha [krugerOrder + 1]float64 // α_j (eq. 35), index 0 unused
 	beta  [krugerOrder + 1]float64 // β_j (eq. 36), index 0 unused
@@ -51,24 +87,28 @@ type TransverseMercator struct {
 // NewTransverseMercator returns the projection on ellipsoid el with the
 // given central meridian (degrees), scale factor on the central meridian
 // and false easting and northing (m). The latitude of origin is the
-// equator.
+// equator, as in UTM; NewProjection takes any latitude of origin.
 func NewTransverseMercator(el Ellipsoid, centralMeridianDeg, scale, falseEasting, falseNorthing float64) *TransverseMercator {
-	f := 1 / el.InverseFlattening
+	return newTransverseMercator(el, Conversion{Method: MethodTransverseMercator, LonOrigin: centralMeridianDeg, Scale: scale,
+		FalseEasting: falseEasting, FalseNorthing: falseNorthing})
+}
+
+func newTransverseMercator(el Ellipsoid, cv Conversion) *TransverseMercator {
+	f := el.flattening()
 	n := f / (2 - f) // third flattening
 	e2 := f * (2 - f)
 	tm := &TransverseMercator{
-		centralMeridian: centralMeridianDeg * math.Pi / 180,
-		scale:           scale,
-		falseEasting:    falseEasting,
-		falseNorthing:   falseNorthing,
+		centralMeridian: cv.LonOrigin * math.Pi / 180,
+		scale:           cv.Scale,
+		falseEasting:    cv.FalseEasting,
+		falseNorthing:   cv.FalseNorthing,
 		e:               math.Sqrt(e2),
-		e2m:             1 - e2,
 	}
 	n2 := n * n
 	n3, n4, n5, n6 := n2*n, n2*n2, n2*n2*n, n2*n2*n2
 	// Rectifying radius A = a/(1+n)·(1 + n²/4 + n⁴/64 + n⁶/256)
 	// (Karney 2011, eq. 14).
-	tm.a1 = scale * el.SemiMajorAxis / (1 + n) * (1 + n2/4 + n4/64 + n6/256)
+	tm.a1 = cv.Scale * el.SemiMajorAxis / (1 + n) * (1 + n2/4 + n4/64 + n6/256)
 	// Forward coefficients α_j (Karney 2011, eq. 35).
 	tm.alpha[1] = n/2 - 2*n2/3 + 5*n3/16 + 41*n4/180 - 127*n5/288 + 7891*n6/37800
 	tm.alpha[2] = 13*n2/48 - 3*n3/5 + 557*n4/1440 + 281*n5/630 - 1983433*n6/1935360
@@ -83,6 +123,11 @@ func NewTransverseMercator(el Ellipsoid, centralMeridianDeg, scale, falseEasting
 	tm.beta[4] = 4397*n4/161280 - 11*n5/504 - 830251*n6/7257600
 	tm.beta[5] = 4583*n5/161280 - 108847*n6/3991680
 	tm.beta[6] = 20648693 * n6 / 638668800
+	if cv.LatOrigin != 0 {
+		// Northing of the natural origin before the shift: y(λ0, φ0).
+		_, y0 := tm.Forward(cv.LonOrigin, cv.LatOrigin)
+		tm.falseNorthing -= y0 - cv.FalseNorthing
+	}
 	return tm
 }
 
@@ -99,7 +144,7 @@ func (tm *TransverseMercator) Forward(lonDeg, latDeg float64) (easting, northing
 	lambda := remainderPi(lonDeg*math.Pi/180 - tm.centralMeridian)
 	phi := latDeg * math.Pi / 180
 	tau := math.Tan(phi)
-	taup := tm.conformalTau(tau)
+	taup := conformalTau(tau, tm.e)
 	sl, cl := math.Sincos(lambda)
 	xip := math.Atan2(taup, cl)
 	etap := math.Asinh(sl / math.Hypot(taup, cl))
@@ -123,7 +168,7 @@ func (tm *TransverseMercator) Inverse(easting, northing float64) (lonDeg, latDeg
 	shetap := math.Sinh(etap)
 	taup := sxip / math.Hypot(shetap, cxip)
 	lambda := math.Atan2(shetap, cxip)
-	tau := tm.tauFromConformal(taup)
+	tau := tauFromConformal(taup, tm.e)
 	lon := remainderPi(lambda+tm.centralMeridian) * 180 / math.Pi
 	return lon, math.Atan(tau) * 180 / math.Pi
 }
@@ -144,10 +189,12 @@ func krugerSeries(z complex128, c *[krugerOrder + 1]float64, sign float64) compl
 	return z + complex(sign, 0)*b1*s
 }
 
-// conformalTau returns τ' = tan φ' for τ = tan φ (Karney 2011, eqs. 7–9).
-func (tm *TransverseMercator) conformalTau(tau float64) float64 {
+// conformalTau returns τ' = tan φ' for τ = tan φ on an ellipsoid of
+// eccentricity e (Karney 2011, eqs. 7–9). The conformal latitude φ' is
+// also the Gudermannian of the isometric latitude ψ: τ' = sinh ψ.
+func conformalTau(tau, e float64) float64 {
 	tau1 := math.Hypot(1, tau)
-	sig := math.Sinh(tm.e * math.Atanh(tm.e*tau/tau1))
+	sig := math.Sinh(e * math.Atanh(e*tau/tau1))
 	return tau*math.Hypot(1, sig) - sig*tau1
 }
 
@@ -155,12 +202,13 @@ func (tm *TransverseMercator) conformalTau(tau float64) float64 {
 // dτ'/dτ = (1−e²)√(1+τ'²)√(1+τ²)/(1+(1−e²)τ²) (Karney 2011, eqs. 19–21),
 // starting from τ = τ'/(1−e²). Two or three steps reach full double
 // precision; the loop is capped at 10.
-func (tm *TransverseMercator) tauFromConformal(taup float64) float64 {
+func tauFromConformal(taup, e float64) float64 {
 	const tol = 1e-15 // relative step at which τ is converged
-	tau := taup / tm.e2m
+	e2m := 1 - e*e
+	tau := taup / e2m
 	for range 10 {
-		tp := tm.conformalTau(tau)
-		dtau := (taup - tp) / (tm.e2m * math.Hypot(1, tp) * math.Hypot(1, tau) / (1 + tm.e2m*tau*tau))
+		tp := conformalTau(tau, e)
+		dtau := (taup - tp) / (e2m * math.Hypot(1, tp) * math.Hypot(1, tau) / (1 + e2m*tau*tau))
 		tau += dtau
 		if math.Abs(dtau) <= tol*math.Max(1, math.Abs(tau)) {
 			break

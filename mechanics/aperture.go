@@ -13,17 +13,17 @@ import (
 //	e = (e0 + min(D, Dmax)·tan φ_dil) / (1 + 9·σn′/σn,ref)
 //
 // (Willis-Richards, Watanabe & Takahashi 1996, with the slip cap of later
-// papers; REFERENCES.md §6.2), where D is the accumulated slip, and
+// papers; docs/references.md §6.2), where D is the accumulated slip, and
 // σn,ref the effective normal stress that closes the fracture to a tenth.
 //
 // When the pore pressure exceeds the normal stress the fracture is jacked
-// open: the closure law is held at σn′ = 0 (REFERENCES.md §6.2) and the
+// open: the closure law is held at σn′ = 0 (docs/references.md §6.2) and the
 // average opening of a 2-D crack under the net pressure Δp = p − σn is
 // added,
 //
 //	e = e0 + min(D, Dmax)·tan φ_dil + π(1−ν)·Δp·a/(2G)
 //
-// (Sneddon 1946; REFERENCES.md §8.3), with a = Patch.HalfSize(), half the
+// (Sneddon 1946; docs/references.md §8.3), with a = Patch.HalfSize(), half the
 // smaller of the patch's length and height.
 //
 // The aperture is continuous at the switch p = σn, but its slope is not:

@@ -10,13 +10,13 @@ import (
 )
 
 // apertureModel returns a model with the given closure-law parameters and
-// G = 30 GPa, ν = 0.25 (the REFERENCES.md §8.3 rock).
+// G = 30 GPa, ν = 0.25 (the docs/references.md §8.3 rock).
 func apertureModel(e0, sref, phi, dmax float64) ApertureModel {
 	return ApertureModel{ZeroStress: e0, ClosureStress: sref, DilationAngle: phi, DilationSlipLimit: dmax,
 		ShearModulus: 30e9, PoissonRatio: 0.25}
 }
 
-// REFERENCES.md §6.2 check values for e = (e0 + D·tan φ)/(1 + 9σn′/σn,ref)
+// docs/references.md §6.2 check values for e = (e0 + D·tan φ)/(1 + 9σn′/σn,ref)
 // (Willis-Richards, Watanabe & Takahashi 1996), tolerance 1e−12 relative
 // there; the printed digits bound ours.
 func TestApertureCheckValues(t *testing.T) {
@@ -37,7 +37,7 @@ func TestApertureCheckValues(t *testing.T) {
 		numtest.Rel(t, "aperture", m.Aperture(p+tc.snEff, p, tc.d, patch), tc.want, tc.tol)
 	}
 	// The 5 mm-slip row against the no-slip row raises the cubic-law
-	// transmissivity ×32.25 (REFERENCES.md §6.2).
+	// transmissivity ×32.25 (docs/references.md §6.2).
 	numtest.Rel(t, "transmissivity gain", TransmissivityGain(5.787358446e-5, 1.8181818e-5), 32.25, 1e-4)
 	numtest.Rel(t, "permeability gain", PermeabilityGain(2, 1), 4, 0)
 }
@@ -74,7 +74,7 @@ func TestApertureMonotone(t *testing.T) {
 }
 
 // Above the normal stress the fracture opens by the average opening of a
-// pressurised 2-D crack, π(1−ν)Δp·a/(2G) (Sneddon 1946; REFERENCES.md
+// pressurised 2-D crack, π(1−ν)Δp·a/(2G) (Sneddon 1946; docs/references.md
 // §8.3: a = 10 m, Δp = 1 MPa, G = 30 GPa, ν = 0.25 give 3.926991e−4 m).
 func TestApertureOpening(t *testing.T) {
 	m := apertureModel(5e-4, 20e6, 2.5*deg, 5e-3)

@@ -1,6 +1,7 @@
 package mechanics
 
 import (
+	"math"
 	"math/rand/v2"
 	"testing"
 
@@ -69,3 +70,54 @@ func BenchmarkApertureEvaluate(b *testing.B) {
 	}
 	_ = sink
 }
+
+// BenchmarkSeismicityAdvance times one exact constant-rate step of the
+// seismicity-rate model (the time loop calls it per cell and step).
+func BenchmarkSeismicityAdvance(b *testing.B) {
+	m := SeismicityRate{BackgroundRate: 1e-5, StressingRate: 1e-3, ASigma: 5e4}
+	g, rate := m.SteadyState(), 2.0
+	var sink float64
+	for b.Loop() {
+		var n float64
+		g, n = m.Advance(g, rate, 60)
+		sink += n
+		rate = -rate
+	}
+	_ = sink
+}
+
+// benchmarkBValue times the b-value of a Gutenberg–Richter catalogue of n
+// events.
+func benchmarkBValue(b *testing.B, n int) {
+	r := rand.New(rand.NewPCG(1, 2))
+	gr := GutenbergRichter{B: 1, Min: 0, Max: math.Inf(1)}
+	mags := make([]float64, n)
+	for i := range mags {
+		mags[i] = gr.Rand(r)
+	}
+	b.ResetTimer()
+	for b.Loop() {
+		if _, err := BValue(mags, BValueOptions{Completeness: 0.5}); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+func BenchmarkBValue1e4(b *testing.B) { benchmarkBValue(b, 1e4) }
+func BenchmarkBValue1e6(b *testing.B) { benchmarkBValue(b, 1e6) }
+
+// benchmarkSeismicitySample times drawing the events of one interval with
+// about n expected events.
+func benchmarkSeismicitySample(b *testing.B, n float64) {
+	m := SeismicityRate{BackgroundRate: n / 3600, StressingRate: 1e-3, ASigma: 5e4}
+	iv := RateInterval{Duration: 3600, StressingRate: m.StressingRate, Gamma: m.SteadyState()}
+	sizes := GutenbergRichter{B: 1, Min: -2, Max: 3}
+	r := rand.New(rand.NewPCG(1, 2))
+	var dst []CatalogEvent
+	for b.Loop() {
+		dst = m.Sample(dst[:0], r, iv, sizes)
+	}
+}
+
+func BenchmarkSeismicitySample10(b *testing.B)   { benchmarkSeismicitySample(b, 10) }
+func BenchmarkSeismicitySample1000(b *testing.B) { benchmarkSeismicitySample(b, 1000) }

@@ -6,7 +6,7 @@ import "math"
 // N·m. slipfront uses the IASPEI (2013) standard value 9.1. Hanks &
 // Kanamori (1979) wrote M = (2/3)·log10 M0 − 10.7 with M0 in dyne·cm;
 // converted to N·m (1 N·m = 10⁷ dyne·cm) that is c = 9.05, which gives
-// magnitudes larger by 0.0333 (REFERENCES.md §8.2).
+// magnitudes larger by 0.0333 (docs/references.md §8.2).
 const MagnitudeOffset = 9.1
 
 // Moment returns the seismic moment M0 = G·A·D, N·m, of slip D, m, on an

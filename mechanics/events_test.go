@@ -7,7 +7,7 @@ import (
 	"slipfront/internal/numtest"
 )
 
-// REFERENCES.md §8.2 check values: Mw = (2/3)(log10 M0 − 9.1) (IASPEI
+// docs/references.md §8.2 check values: Mw = (2/3)(log10 M0 − 9.1) (IASPEI
 // 2013) and the Hanks & Kanamori (1979) form M = (2/3)·log10 M0 − 10.7
 // with M0 in dyne·cm, whose N·m constant is 9.05.
 func TestMomentMagnitude(t *testing.T) {
@@ -25,7 +25,7 @@ func TestMomentMagnitude(t *testing.T) {
 		// The two differ by (2/3)·0.05 = 0.0333.
 		numtest.Abs(t, "HK79 − IASPEI", hk-MomentMagnitude(tc.m0), 0.05*2/3, 1e-12)
 	}
-	// Inverse: Mw = −1 … 3 (REFERENCES.md §8.2, 6 significant digits).
+	// Inverse: Mw = −1 … 3 (docs/references.md §8.2, 6 significant digits).
 	const printed6 = 1e-5
 	for i, want := range []float64{3.98107e7, 1.25893e9, 3.98107e10, 1.25893e12, 3.98107e13} {
 		mw := float64(i - 1)
@@ -37,7 +37,7 @@ func TestMomentMagnitude(t *testing.T) {
 	}
 }
 
-// M0 = G·A·D (Aki 1966): REFERENCES.md §8.2, G = 30 GPa, a circle of
+// M0 = G·A·D (Aki 1966): docs/references.md §8.2, G = 30 GPa, a circle of
 // radius 10 m slipping 2.425218e−4 m has M0 = 2.285714e9 N·m.
 func TestMoment(t *testing.T) {
 	numtest.Rel(t, "M0", Moment(30e9, math.Pi*100, 2.425218e-4), 2.285714e9, 1e-6)

@@ -13,7 +13,7 @@ import (
 
 const deg = math.Pi / 180
 
-// The worked example of REFERENCES.md §7.4: a fracture dipping 80° to
+// The worked example of docs/references.md §7.4: a fracture dipping 80° to
 // N120°E in a strike-slip state with SHmax at N060°E.
 func ExampleStress_Resolve() {
 	s, err := mechanics.NewAndersonian(mechanics.Andersonian{
@@ -130,4 +130,82 @@ func ExampleScreen() {
 	//     all          3   0.0%   0.0%   0.0%   0.0%   66.7%
 	//
 	// Caution: slipfront is a screening and comparison tool, not a design code: pump pressures, well integrity and induced-seismicity limits follow local regulation and licensed engineering practice.
+}
+
+// A slipping patch on a fracture with linear slip weakening is seismic once
+// its half-size reaches the nucleation half-length of Uenishi & Rice
+// (2003). Illustrative values: G = 15 GPa, ν = 0.25, μs − μd = 0.1,
+// Dc = 1 mm, σn′ = 20 MPa (W = 2 GPa/m).
+func ExampleNucleation_Classify() {
+	n := mechanics.Nucleation{
+		Friction:     mechanics.SlipWeakening{Static: 0.6, Residual: 0.5, CriticalSlip: 1e-3},
+		ShearModulus: 15e9, PoissonRatio: 0.25, Mode: mechanics.InPlane,
+	}
+	if err := n.Validate(); err != nil {
+		fmt.Println(err)
+		return
+	}
+	fmt.Printf("a_n = %.2f m\n", n.HalfLength(20e6))
+	for _, length := range []float64{5, 20} {
+		p := mechanics.Patch{Length: length, Height: 30}
+		fmt.Printf("%g m × %g m: %v\n", p.Length, p.Height, n.Classify(p, 20e6))
+	}
+	// Output:
+	// a_n = 5.79 m
+	// 5 m × 30 m: aseismic
+	// 20 m × 30 m: seismic
+}
+
+// The b-value of a small catalogue binned at 0.1 above Mc = 1.0 (Aki
+// 1965 with Utsu's half-bin correction), with both standard errors: ten
+// complete events with M̄ = 1.27, so b = log10(e)/(1.27 − 0.95) = 1.357.
+func ExampleBValue() {
+	mags := []float64{1.0, 1.0, 1.1, 1.0, 1.3, 1.2, 1.6, 1.1, 2.0, 1.4, 0.8}
+	e, err := mechanics.BValue(mags, mechanics.BValueOptions{Completeness: 1.0, BinWidth: 0.1})
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	fmt.Printf("N = %d, b = %.3f ± %.3f (Aki) ± %.3f (Shi & Bolt)\n", e.Events, e.B, e.AkiError, e.ShiBoltError)
+	// Output:
+	// N = 10, b = 1.357 ± 0.429 (Aki) ± 0.434 (Shi & Bolt)
+}
+
+// McGarr's (2014) bound for 10 000 m³ of net injection into rock with
+// G = 30 GPa.
+func ExampleMaxInducedMoment() {
+	m0 := mechanics.MaxInducedMoment(30e9, 1e4)
+	fmt.Printf("M0,max = %.1e N·m, Mw %.2f\n", m0, mechanics.MomentMagnitude(m0))
+	// Output:
+	// M0,max = 3.0e+14 N·m, Mw 3.58
+}
+
+// The seismicity rate of Dieterich (1994) over a piecewise-linear Coulomb
+// stress history: background loading, a 0.1 MPa step, then ten times
+// faster loading. Illustrative values: r = 1 event/day, τ̇_r = 1 kPa/day,
+// Aσ = 0.05 MPa (t_a = 50 days). The step of 2·Aσ multiplies the rate by
+// e² = 7.39; ten days later the step response gives
+// 1/(1 + (e⁻² − 1)·e^(−10/50)) = 3.42 events/day.
+func ExampleSeismicityRate_Integrate() {
+	const day = 86400.0
+	m := mechanics.SeismicityRate{BackgroundRate: 1 / day, StressingRate: 1e3 / day, ASigma: 5e4}
+	h := mechanics.StressHistory{
+		Time:   []float64{0, 10 * day, 10 * day, 20 * day, 40 * day},
+		Stress: []float64{0, 1e4, 1.1e5, 1.2e5, 3.2e5},
+	}
+	gamma := make([]float64, len(h.Time))
+	count := make([]float64, len(h.Time))
+	if err := m.Integrate(gamma, count, h, m.SteadyState()); err != nil {
+		fmt.Println(err)
+		return
+	}
+	for k := range h.Time {
+		fmt.Printf("day %2.0f: %6.2f events/day, %6.1f events so far\n", h.Time[k]/day, m.Rate(gamma[k])*day, count[k])
+	}
+	// Output:
+	// day  0:   1.00 events/day,    0.0 events so far
+	// day 10:   1.00 events/day,   10.0 events so far
+	// day 10:   7.39 events/day,   10.0 events so far
+	// day 20:   3.42 events/day,   58.5 events so far
+	// day 40:   9.66 events/day,  206.6 events so far
 }

@@ -5,6 +5,8 @@ import (
 	"testing"
 
 	"gonum.org/v1/gonum/spatial/r3"
+
+	"slipfront/internal/numtest"
 )
 
 // FuzzResolve checks the bounds every resolved stress obeys (Jaeger, Cook
@@ -61,6 +63,43 @@ func FuzzResolve(f *testing.F) {
 		}
 		if r.Rake <= -math.Pi-1e-15 || r.Rake > math.Pi {
 			t.Fatalf("rake %g outside (−π, π]", r.Rake)
+		}
+	})
+}
+
+// FuzzSeismicityAdvance checks what every exact step of the Dieterich
+// (1994) model obeys: the state stays positive, the expected count is
+// non-negative, and the count equals r·t_a·[ΔS/Aσ + ln(γ1/γ0)], the
+// integral of the evolution law divided by γ, however the two were
+// evaluated; inverting the count at half of it gives a time inside the
+// interval.
+func FuzzSeismicityAdvance(f *testing.F) {
+	f.Add(1e-3, 5e4, 1.0, 1e-3, 1e6)
+	f.Add(1e-3, 5e4, 1e-3, 10.0, 1e4)
+	f.Add(1e-3, 5e4, 1e3, -1e-2, 1e7)
+	f.Add(1e-2, 1e3, 0.5, 0.0, 3e5)
+	f.Fuzz(func(t *testing.T, tauDot, aSigma, gammaScale, rate, dt float64) {
+		if !(tauDot >= 1e-9 && tauDot <= 1e3 && aSigma >= 1 && aSigma <= 1e8 &&
+			gammaScale >= 1e-6 && gammaScale <= 1e6 && math.Abs(rate) <= 1e4 && dt >= 0 && dt <= 1e9) {
+			return
+		}
+		m := SeismicityRate{BackgroundRate: 1, StressingRate: tauDot, ASigma: aSigma}
+		g0 := gammaScale * m.SteadyState()
+		if x := rate * dt / aSigma; math.Abs(x) > 600 {
+			return // γ would leave the float range
+		}
+		g1, n := m.Advance(g0, rate, dt)
+		if !(g1 > 0) || math.IsInf(g1, 0) || !(n >= 0) || math.IsInf(n, 0) {
+			t.Fatalf("γ1 = %g, N = %g", g1, n)
+		}
+		identity := m.AftershockDuration() * (rate*dt/aSigma + math.Log(g1/g0))
+		// ln(γ1/γ0) and ΔS/Aσ can each reach 600 and cancel: absolute
+		// round-off ≈ 600·1e−15 relative to them.
+		numtest.Close(t, "N identity", n, identity, 1e-12*m.AftershockDuration()*(1+math.Abs(rate*dt/aSigma)), 1e-9)
+		if n > 0 {
+			if tau := m.eventTime(g0, rate, n/2); !(tau >= 0 && tau <= dt*(1+1e-9)) {
+				t.Fatalf("half the count reached at %g s, outside [0, %g]", tau, dt)
+			}
 		}
 	})
 }

@@ -40,7 +40,7 @@ const tauZero = 1e-13
 //	rake = atan2(−ŝ·d, ŝ·s)
 //
 // with s and d the strike and down-dip vectors of the plane
-// (REFERENCES.md §7.2; Jaeger, Cook & Zimmerman 2007, ch. 2). It does not
+// (docs/references.md §7.2; Jaeger, Cook & Zimmerman 2007, ch. 2). It does not
 // allocate.
 func (s Stress) Resolve(n r3.Vec) PlaneStress {
 	n = r3.Unit(n)
@@ -79,7 +79,7 @@ func (s Stress) DilationTendency(sigmaN float64) float64 {
 // τ the total normal and shear stress and p the pore pressure, Pa. Morris,
 // Ferrill & Henderson (1996) defined slip tendency with the total normal
 // stress, τ/σn (see [TotalSlipTendency]); with pore pressure the effective
-// form is the one to compare with the friction coefficient (REFERENCES.md
+// form is the one to compare with the friction coefficient (docs/references.md
 // §7.2, common practice). It is +Inf when σn ≤ p (an open fracture).
 func SlipTendency(sigmaN, tau, p float64) float64 {
 	eff := sigmaN - p
@@ -96,7 +96,7 @@ func TotalSlipTendency(sigmaN, tau float64) float64 {
 }
 
 // Coulomb is the Mohr–Coulomb slip criterion of a fracture: it slips when
-// τ ≥ c + μs·(σn − p) (Jaeger, Cook & Zimmerman 2007, ch. 4; REFERENCES.md
+// τ ≥ c + μs·(σn − p) (Jaeger, Cook & Zimmerman 2007, ch. 4; docs/references.md
 // §7.2).
 type Coulomb struct {
 	Friction float64 // static friction coefficient μs

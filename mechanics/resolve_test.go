@@ -18,7 +18,7 @@ func angleDiff(a, b float64) float64 {
 	return d
 }
 
-// REFERENCES.md §7.4 worked example (Jaeger, Cook & Zimmerman 2007;
+// docs/references.md §7.4 worked example (Jaeger, Cook & Zimmerman 2007;
 // Morris et al. 1996): fracture 80/120 in the strike-slip state.
 func TestWorkedExample(t *testing.T) {
 	s := workedExample(t)
@@ -48,7 +48,7 @@ func TestWorkedExample(t *testing.T) {
 	numtest.Abs(t, "dip direction", r.DipDirection, 120*deg, digits6Deg)
 }
 
-// REFERENCES.md §7.4 extra checks: a vertical plane, the optimal vertical
+// docs/references.md §7.4 extra checks: a vertical plane, the optimal vertical
 // plane, and normal and reverse regimes (rakes −90, +90, 180).
 func TestResolveCases(t *testing.T) {
 	type state struct{ sh, shmin, sv, az float64 } // MPa, MPa, MPa, degrees
@@ -80,12 +80,12 @@ func TestResolveCases(t *testing.T) {
 		numtest.Abs(t, tc.name+" rake", angleDiff(r.Rake, tc.rake*deg), 0, digits6Deg)
 	}
 	// The optimal plane recovers the frictional limit:
-	// (S1 − p_c)/(S3 − p_c) = 3.1194285 (REFERENCES.md §7.4).
+	// (S1 − p_c)/(S3 − p_c) = 3.1194285 (docs/references.md §7.4).
 	pc := 38.486114
 	numtest.Abs(t, "limit from p_c", (90-pc)/(55-pc), 3.1194285, 1e-6)
 }
 
-// The two routes of REFERENCES.md §7.4: σn = Σ Si·li² and
+// The two routes of docs/references.md §7.4: σn = Σ Si·li² and
 // τ² = Σ Si²·li² − σn², with li the direction cosines to the principal
 // axes, against the tensor route of Resolve, on random planes.
 func TestResolvePrincipalRoute(t *testing.T) {
@@ -140,7 +140,7 @@ func TestMohrCircle(t *testing.T) {
 			numtest.Abs(t, tc.name+" σn", r.SigmaN, centre+radius*math.Cos(2*th*deg), roundOff*tc.s1)
 			numtest.Abs(t, tc.name+" τ", r.Tau, radius*math.Sin(2*th*deg), roundOff*tc.s1)
 			numtest.Abs(t, tc.name+" dilation tendency", s.DilationTendency(r.SigmaN), math.Pow(math.Sin(th*deg), 2), roundOff*10)
-			// Dip-slip: rake ∓90° (REFERENCES.md §7.2).
+			// Dip-slip: rake ∓90° (docs/references.md §7.2).
 			numtest.Abs(t, tc.name+" rake", r.Rake, tc.rakeSign*math.Pi/2, 1e-9)
 		}
 	}
@@ -219,7 +219,7 @@ func TestResolvePrincipalPlane(t *testing.T) {
 }
 
 // The Coulomb quantities agree with each other: CFF = 0 at p_c, the plane
-// slips at p ≥ p_c and not below (REFERENCES.md §7.2).
+// slips at p ≥ p_c and not below (docs/references.md §7.2).
 func TestCoulombConsistency(t *testing.T) {
 	c := Coulomb{Friction: 0.6, Cohesion: 2 * mpa}
 	sn, tau := 64*mpa, 20*mpa

@@ -12,7 +12,7 @@ import (
 	"slipfront/internal/orient"
 )
 
-// fixturePlanes are four planes in the REFERENCES.md §7.4 state with known
+// fixturePlanes are four planes in the docs/references.md §7.4 state with known
 // critical increases: 80/120 (9.008093 MPa), the optimal vertical plane
 // (38.486114 − 30 = 8.486114 MPa), the vertical plane 90/120.5
 // (8.486121 MPa) and a horizontal plane (σn = Sv = 75 MPa, τ = 0, so
@@ -33,7 +33,7 @@ func TestScreenPlaneResults(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	want := []float64{9.008093, 8.486114, 8.486121, 45} // MPa, REFERENCES.md §7.4
+	want := []float64{9.008093, 8.486114, 8.486121, 45} // MPa, docs/references.md §7.4
 	for i, r := range sc.Planes {
 		numtest.Abs(t, "Δp_c", r.CriticalIncrease, want[i]*mpa, digits6MPa)
 		if r.ID != i+1 {

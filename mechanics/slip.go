@@ -38,7 +38,7 @@ func (p Patch) EquivalentRadius() float64 { return math.Sqrt(p.Length * p.Height
 // Stiffness gives the elastic stiffness of a slipping patch, the ratio of
 // a uniform shear stress drop to the average slip it causes. It isolates
 // the crack formula from the slip model, so that an elastic interaction
-// between patches (a boundary-element solution, REFERENCES.md §9–§10) can
+// between patches (a boundary-element solution, docs/references.md §9–§10) can
 // take its place.
 type Stiffness interface {
 	// ShearStiffness returns k, Pa/m: a uniform shear stress drop Δτ on
@@ -50,7 +50,7 @@ type Stiffness interface {
 // half-size a = p.HalfSize(). A uniform shear stress drop Δτ gives the
 // slip profile δ(x) = 2(1−ν)Δτ/G·√(a² − x²) (mode II), whose average is
 // D̄ = π(1−ν)·Δτ·a/(2G), so k = 2G/(π(1−ν)a) (Pollard & Segall 1987;
-// REFERENCES.md §8.3). The mode II form is used for every slip direction;
+// docs/references.md §8.3). The mode II form is used for every slip direction;
 // slip parallel to the crack's long side (mode III) would be larger by
 // 1/(1−ν).
 type PlaneStrainCrack struct {
@@ -75,7 +75,7 @@ func (c PlaneStrainCrack) ShearStiffness(p Patch) float64 {
 
 // OpeningStiffness returns 2G/(π(1−ν)a), Pa/m, with a = p.HalfSize(): the
 // net pressure per metre of average opening of the patch as a 2-D crack
-// (Sneddon 1946; REFERENCES.md §8.3), equal to its shear stiffness.
+// (Sneddon 1946; docs/references.md §8.3), equal to its shear stiffness.
 func (c PlaneStrainCrack) OpeningStiffness(p Patch) float64 {
 	return crackStiffness(c.ShearModulus, c.PoissonRatio, p.HalfSize())
 }
@@ -92,7 +92,7 @@ func crackStiffness(g, nu, a float64) float64 {
 // patch's area, so that the moment G·A·D̄ is that of the crack. A uniform
 // stress drop Δσ gives the average slip D̄ = 16·Δσ·a/(7πG), so
 // k = 7πG/(16a), and M0 = G·πa²·D̄ = (16/7)·Δσ·a³ (Eshelby 1957;
-// Keilis-Borok 1959; REFERENCES.md §8.1). The constant 16/(7π) belongs to
+// Keilis-Borok 1959; docs/references.md §8.1). The constant 16/(7π) belongs to
 // a Poisson's ratio of 1/4 (Lamé λ = G), the form in which the result is
 // commonly quoted (from memory); the model takes no ν.
 type CircularCrack struct {

@@ -7,7 +7,7 @@ import (
 	"slipfront/internal/numtest"
 )
 
-// REFERENCES.md §8.3 (Pollard & Segall 1987): a = 10 m, Δτ = 1 MPa,
+// docs/references.md §8.3 (Pollard & Segall 1987): a = 10 m, Δτ = 1 MPa,
 // G = 30 GPa, ν = 0.25 gives δ_max = 5.0e−4 m and δ_avg = 3.926991e−4 m.
 func TestPlaneStrainCrackSlip(t *testing.T) {
 	k, err := NewPlaneStrainCrack(30e9, 0.25)
@@ -34,7 +34,7 @@ func TestPlaneStrainCrackSlip(t *testing.T) {
 	}
 }
 
-// REFERENCES.md §8.1 (Eshelby 1957; Keilis-Borok 1959): a circular crack
+// docs/references.md §8.1 (Eshelby 1957; Keilis-Borok 1959): a circular crack
 // with G = 30 GPa; D̄ = 16Δσa/(7πG) and M0 = (16/7)Δσa³. The patch is a
 // square of the circle's area, side a√π, so its equivalent radius is a.
 func TestCircularCrack(t *testing.T) {
@@ -84,7 +84,7 @@ func TestSlipModel(t *testing.T) {
 	}
 	numtest.Rel(t, "residual shear", r.ResidualShear, 9.5e6, roundOff)
 	numtest.Rel(t, "stress drop", r.StressDrop, 5.5e6, roundOff)
-	// Pollard & Segall (1987), REFERENCES.md §8.3: 1 MPa on a = 10 m gives
+	// Pollard & Segall (1987), docs/references.md §8.3: 1 MPa on a = 10 m gives
 	// 3.926991e−4 m; the slip is linear in the drop.
 	numtest.Rel(t, "slip", r.Slip, 5.5*3.926991e-4, 1e-6)
 	// Open fracture (p > σn): no friction is left, the whole τ drops.
@@ -118,7 +118,7 @@ func TestSlipModelErrors(t *testing.T) {
 
 // The average opening of a 2-D crack of half-length a = 10 m under a net
 // pressure of 1 MPa is π(1−ν)Δp·a/(2G) = 3.926991e-4 m for G = 30 GPa,
-// ν = 0.25 (Sneddon 1946; REFERENCES.md §8.3: δ_avg = (π/4)·δ_max).
+// ν = 0.25 (Sneddon 1946; docs/references.md §8.3: δ_avg = (π/4)·δ_max).
 func TestOpeningStiffness(t *testing.T) {
 	k, err := NewPlaneStrainCrack(30e9, 0.25)
 	if err != nil {

@@ -78,7 +78,7 @@ func (g Gradients) Validate() error {
 }
 
 // AtDepth returns the stress magnitudes at the true vertical depth z, m:
-// each stress is its gradient times z (REFERENCES.md §7.1).
+// each stress is its gradient times z (docs/references.md §7.1).
 func (g Gradients) AtDepth(z float64) Andersonian {
 	return Andersonian{
 		SHmax:        g.SHmax * z,
@@ -105,7 +105,7 @@ func StressAtDepth(g Gradients, z float64) (Stress, error) {
 // and Shmin horizontal and Sv vertical. With θ the SHmax azimuth, the
 // principal axes are eH = (sin θ, cos θ, 0), eh = (cos θ, −sin θ, 0) and
 // ev = (0, 0, 1), and S = SHmax·eH·eHᵀ + Shmin·eh·ehᵀ + Sv·ev·evᵀ
-// (REFERENCES.md §7.1). Equal principal values are ordered SHmax, Sv,
+// (docs/references.md §7.1). Equal principal values are ordered SHmax, Sv,
 // Shmin.
 func NewAndersonian(a Andersonian) (Stress, error) {
 	if err := firstError(
@@ -255,7 +255,7 @@ func (s Stress) Traction(n r3.Vec) r3.Vec {
 // FrictionalLimitRatio returns the largest effective principal stress
 // ratio (S1 − p)/(S3 − p) that rock with friction coefficient mu can
 // sustain, [√(μ²+1) + μ]² (Jaeger, Cook & Zimmerman 2007; Zoback 2007,
-// ch. 4; REFERENCES.md §7.3).
+// ch. 4; docs/references.md §7.3).
 func FrictionalLimitRatio(mu float64) float64 {
 	r := math.Sqrt(mu*mu+1) + mu
 	return r * r
@@ -264,7 +264,7 @@ func FrictionalLimitRatio(mu float64) float64 {
 // OptimalAngle returns the angle, radians, between the optimally oriented
 // plane for slip and S1: ½·atan(1/μ) = 45° − φ/2 with φ = atan μ. The
 // plane contains S2, and its normal is at 45° + φ/2 from S1
-// (REFERENCES.md §7.3).
+// (docs/references.md §7.3).
 func OptimalAngle(mu float64) float64 { return 0.5 * math.Atan(1/mu) }
 
 // LimitCheck is the comparison of a stress state with the frictional

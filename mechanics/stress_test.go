@@ -15,7 +15,7 @@ const (
 	mpa = 1e6
 )
 
-// Tolerances for check values printed in REFERENCES.md: one unit in the
+// Tolerances for check values printed in docs/references.md: one unit in the
 // last printed digit (the printed values are rounded, our results are
 // exact to round-off).
 const (
@@ -29,7 +29,7 @@ const (
 // with a handful of operations.
 const roundOff = 1e-12
 
-// workedExample is the stress state of REFERENCES.md §7.4: Sv = 75 MPa,
+// workedExample is the stress state of docs/references.md §7.4: Sv = 75 MPa,
 // SHmax = 90 MPa at N060°E, Shmin = 55 MPa, p0 = 30 MPa (strike-slip).
 func workedExample(t testing.TB) Stress {
 	t.Helper()
@@ -41,7 +41,7 @@ func workedExample(t testing.TB) Stress {
 	return s
 }
 
-// REFERENCES.md §7.4 step 1 (tensor from §7.1), printed with 10 decimals
+// docs/references.md §7.4 step 1 (tensor from §7.1), printed with 10 decimals
 // in MPa.
 func TestAndersonianTensor(t *testing.T) {
 	const tol = 1e-10 * mpa // one unit in the 10th printed decimal
@@ -54,8 +54,8 @@ func TestAndersonianTensor(t *testing.T) {
 	}
 }
 
-// The gradients times the depth give the magnitudes (REFERENCES.md §7.1);
-// 3000 m with 25, 30, 55/3 and 10 kPa/m gives the §7.4 state.
+// The gradients times the depth give the magnitudes (docs/references.md §7.1);
+// 3000 m with 25, 30, 55/3 and 10 kPa/m gives the docs/references.md §7.4 state.
 func TestStressAtDepth(t *testing.T) {
 	g := Gradients{Sv: 25e3, SHmax: 30e3, Shmin: 55e3 / 3, PorePressure: 10e3, SHmaxAzimuth: 60 * deg}
 	s, err := StressAtDepth(g, 3000)
@@ -130,7 +130,7 @@ func TestNewStressPrincipal(t *testing.T) {
 	}
 }
 
-// REFERENCES.md §7.3 (Jaeger, Cook & Zimmerman 2007; Zoback 2007): the
+// docs/references.md §7.3 (Jaeger, Cook & Zimmerman 2007; Zoback 2007): the
 // frictional limit [√(μ²+1)+μ]² and the optimal plane angle ½·atan(1/μ).
 func TestFrictionalLimitRatio(t *testing.T) {
 	const tol = 1e-9 // values printed with 9 decimals
@@ -169,7 +169,7 @@ func TestCheckFrictionalLimit(t *testing.T) {
 	if c.Exceeded || c.Warning != "" {
 		t.Errorf("a state exactly at the limit is flagged: %+v", c)
 	}
-	// The §7.4 state: (90−30)/(55−30) = 2.4 < 3.119.
+	// The docs/references.md §7.4 state: (90−30)/(55−30) = 2.4 < 3.119.
 	c, err = workedExample(t).CheckFrictionalLimit(mu)
 	if err != nil {
 		t.Fatal(err)
@@ -198,7 +198,7 @@ func TestCheckFrictionalLimit(t *testing.T) {
 // A plane at the optimal angle in a state exactly at the frictional limit
 // is critical at the initial pore pressure, Δp_c = 0, and every other plane
 // needs a positive increase (Jaeger, Cook & Zimmerman 2007; Zoback 2007;
-// REFERENCES.md §7.3).
+// docs/references.md §7.3).
 func TestOptimalPlaneAtLimitIsCritical(t *testing.T) {
 	for _, mu := range []float64{0.4, 0.6, 0.85, 1.0} {
 		s := atLimit(t, mu)

@@ -9,7 +9,7 @@ import (
 )
 
 // Every constructor returns an *InputError naming the parameter for bad
-// input (issue 3, "Bad input"), and never panics.
+// input (naming the parameter, its value and the allowed range), and never panics.
 func TestBadInput(t *testing.T) {
 	good := Gradients{Sv: 25e3, SHmax: 27e3, Shmin: 19e3, PorePressure: 11e3, SHmaxAzimuth: 75 * deg}
 	withG := func(edit func(*Gradients)) func() error {

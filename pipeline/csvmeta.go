@@ -25,11 +25,15 @@ const Conventions = "Units are SI with the unit in each column name, and one nam
 // placement states where the local coordinates of scenario s lie.
 func placement(s *scenarios.Scenario) string {
 	d := s.Domain
-	if d.CRS == "" {
+	crs := d.CRS
+	switch {
+	case d.CRSWKT != "":
+		crs = "the CRS of " + d.CRSWKT
+	case crs == "":
 		return "Local coordinates in an undefined Cartesian frame (the scenario names no CRS)."
 	}
-	return fmt.Sprintf("Local (0, 0) is easting %g m, northing %g m in %s; local axes are parallel to its grid.",
-		d.OriginEasting, d.OriginNorthing, d.CRS)
+	return fmt.Sprintf("Local (0, 0) is easting %g m, northing %g m (in metres, whatever the CRS's unit) in %s; "+
+		"local axes are parallel to its grid.", d.OriginEasting, d.OriginNorthing, crs)
 }
 
 // csvMetadata is the CSV metadata file of a folder of scenario s.

@@ -91,7 +91,7 @@ func sameRows(t *testing.T, what string, got, want map[string]int) {
 func TestCSVFilesReadAndDescribed(t *testing.T) {
 	s := loadExample(t, "demo")
 	gen := t.TempDir()
-	net, _, err := Generate(s, Folder{Dir: gen})
+	net, _, err := Generate(s, Folder{Dir: gen}, Limits{})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -99,7 +99,7 @@ func TestCSVFilesReadAndDescribed(t *testing.T) {
 		NetworkFracturesFile: len(net.Fractures), TracesFile: len(net.Traces)})
 
 	scr := t.TempDir()
-	sc, err := Screen(s, Folder{Dir: scr})
+	sc, err := Screen(s, Folder{Dir: scr}, Limits{})
 	if err != nil {
 		t.Fatal(err)
 	}

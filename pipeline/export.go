@@ -33,21 +33,23 @@ type ExportOptions struct {
 	Force bool
 }
 
-// Export writes one file from a run or batch folder.
-func Export(ctx context.Context, dir string, o ExportOptions) error {
+// Export writes one file from a run or batch folder. It returns the notes
+// of a run read back (a stopped run, recovered or damaged frames; see
+// Run.Notes), for the caller to show as warnings.
+func Export(ctx context.Context, dir string, o ExportOptions) ([]string, error) {
 	if !slices.Contains(Formats, o.Format) {
-		return badinput.Errorf("format %q: use one of %s", o.Format, strings.Join(Formats, ", "))
+		return nil, badinput.Errorf("format %q: use one of %s", o.Format, strings.Join(Formats, ", "))
 	}
 	if err := outdir.CheckNewFile(o.Out, o.Force); err != nil {
-		return err
+		return nil, err
 	}
 	switch {
 	case IsRunDir(dir):
 		return exportRun(ctx, dir, o)
 	case isBatchDir(dir):
-		return exportBatch(ctx, dir, o)
+		return nil, exportBatch(ctx, dir, o)
 	}
-	return badinput.Errorf("%s is neither a run folder (%s, %s) nor a batch folder (%s)", dir, ScenarioFile, SnapshotFile, batch.ManifestName)
+	return nil, badinput.Errorf("%s is neither a run folder (%s, %s) nor a batch folder (%s)", dir, ScenarioFile, SnapshotFile, batch.ManifestName)
 }
 
 // writeOut writes the output file atomically.
@@ -55,11 +57,16 @@ func writeOut(path string, write func(io.Writer) error) error {
 	return outdir.WriteFile(filepath.Dir(path), filepath.Base(path), write)
 }
 
-func exportRun(ctx context.Context, dir string, o ExportOptions) error {
+func exportRun(ctx context.Context, dir string, o ExportOptions) ([]string, error) {
 	r, err := LoadRun(dir, o.Time)
 	if err != nil {
-		return err
+		return nil, err
 	}
+	return r.Notes, r.export(ctx, o)
+}
+
+// export writes the run's layer, raster or catalogue.
+func (r *Run) export(ctx context.Context, o ExportOptions) error {
 	pl, err := r.Placement()
 	if err != nil {
 		return err

@@ -3,6 +3,8 @@ package pipeline
 import (
 	"fmt"
 	"io"
+	"regexp"
+	"slices"
 
 	"slipfront/batch"
 	"slipfront/internal/outdir"
@@ -33,6 +35,9 @@ const (
 	MapsFile          = "maps.gpkg"
 	MapPictureFile    = "map.png"
 	GrowthPictureFile = "growth.png"
+	// ContentsFile, written last, lists every other file of a complete
+	// run folder with its size and SHA-256; see RunContents.
+	ContentsFile = "contents.json"
 )
 
 // Files that WriteBatchMaps adds to a complete batch folder (beside those
@@ -57,17 +62,42 @@ func probabilityDifferenceFile(c, ref int) string {
 // isBatchDir reports whether dir holds a batch (its manifest).
 func isBatchDir(dir string) bool { return exists(dir, batch.ManifestName) }
 
-// Folder is an output folder: its path, and whether an existing,
-// non-empty folder may be written into (files of the same name are then
-// replaced).
+// Folder is an output folder: its path, and whether an existing folder
+// of ours may be replaced. Every stage writes its folder as a whole: into
+// the sibling Dir + ".partial" (outdir.PartialSuffix), renamed to Dir when
+// complete, so Dir never mixes two outputs; a process killed part way
+// leaves the partial folder with what it wrote.
 type Folder struct {
 	Dir   string
 	Force bool
 }
 
-// Prepare creates the folder, or checks that an existing one may be
-// written into.
-func (f Folder) Prepare() error { return outdir.Prepare(f.Dir, f.Force) }
+// Check reports whether the folder may be written, without touching it.
+func (f Folder) Check() error { return outdir.Check(f.Dir, f.Force, ours) }
+
+// begin starts writing the folder through its partial sibling.
+func (f Folder) begin() (*outdir.Staged, error) { return outdir.Begin(f.Dir, f.Force, ours) }
+
+// ourFiles are the names of the files of every folder pipeline writes.
+var ourFiles = []string{
+	NetworkFracturesFile, TracesFile, NetworkFile,
+	ScreenTableFile, ScreenSummaryFile, SlipCurveFile,
+	ScenarioFile, SnapshotFile, SummaryFile, TimelineFile, EventsFile, FracturesFile, ContentsFile,
+	CSVMetadataFile, MapsFile, MapPictureFile, GrowthPictureFile,
+	ComparisonPictureFile, ReportPageFile,
+}
+
+// caseFile matches the per-case files of batch maps and reports.
+var caseFile = regexp.MustCompile(`^((fan|probability)_[0-9]{4}|probability_difference_[0-9]{4}_vs_[0-9]{4})\.(png|tif)$`)
+
+// tempFile matches the temporary files of outdir.WriteFile and TempPath.
+var tempFile = regexp.MustCompile(`^\..+\.tmp-[0-9]+$`)
+
+// ours reports whether name is a file pipeline writes into one of its
+// folders (--force may replace such a folder, and no other).
+func ours(name string) bool {
+	return slices.Contains(ourFiles, name) || caseFile.MatchString(name) || tempFile.MatchString(name)
+}
 
 // namedWriter is one file of a folder and the function that writes it.
 type namedWriter struct {

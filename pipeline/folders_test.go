@@ -3,9 +3,11 @@ package pipeline
 import (
 	"context"
 	"errors"
+	"math"
 	"os"
 	"path/filepath"
 	"slices"
+	"strings"
 	"testing"
 
 	"slipfront/gis"
@@ -48,7 +50,7 @@ func loadExample(t *testing.T, name string, sets ...string) *scenarios.Scenario 
 func TestGenerateAndScreenFolders(t *testing.T) {
 	s := loadExample(t, "single-fracture")
 	gen := t.TempDir()
-	net, st, err := Generate(s, Folder{Dir: gen})
+	net, st, err := Generate(s, Folder{Dir: gen}, Limits{})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -58,15 +60,15 @@ func TestGenerateAndScreenFolders(t *testing.T) {
 	if got, want := folderFiles(t, gen), []string{CSVMetadataFile, NetworkFracturesFile, NetworkFile, TracesFile}; !slices.Equal(got, want) {
 		t.Errorf("generate folder holds %v, want %v", got, want)
 	}
-	if _, _, err := Generate(s, Folder{Dir: gen}); !errors.Is(err, outdir.ErrExists) || !errors.Is(err, badinput.Err) {
+	if _, _, err := Generate(s, Folder{Dir: gen}, Limits{}); !errors.Is(err, outdir.ErrExists) || !errors.Is(err, badinput.Err) {
 		t.Errorf("second Generate into the same folder: error %v, want an existing-output input error", err)
 	}
-	if _, _, err := Generate(s, Folder{Dir: gen, Force: true}); err != nil {
+	if _, _, err := Generate(s, Folder{Dir: gen, Force: true}, Limits{}); err != nil {
 		t.Errorf("Generate with Force: %v", err)
 	}
 
 	scr := t.TempDir()
-	sc, err := Screen(s, Folder{Dir: scr})
+	sc, err := Screen(s, Folder{Dir: scr}, Limits{})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -82,7 +84,7 @@ func TestGenerateAndScreenFolders(t *testing.T) {
 // the batch runner gives the same totals as the run for realization 0.
 func TestSimulateFolderAndRealization(t *testing.T) {
 	dir, mem := runFolder(t)
-	want := []string{CSVMetadataFile, EventsFile, FracturesFile, GrowthPictureFile, MapPictureFile, MapsFile, SnapshotFile, ScenarioFile, SummaryFile, TimelineFile}
+	want := []string{ContentsFile, CSVMetadataFile, EventsFile, FracturesFile, GrowthPictureFile, MapPictureFile, MapsFile, SnapshotFile, ScenarioFile, SummaryFile, TimelineFile}
 	slices.Sort(want)
 	if got := folderFiles(t, dir); !slices.Equal(got, want) {
 		t.Errorf("run folder holds %v, want %v", got, want)
@@ -96,7 +98,7 @@ func TestSimulateFolderAndRealization(t *testing.T) {
 			out.FinalArea, out.Events, out.InjectedVolume, mem.Result.StimulatedArea, len(mem.Result.Events), mem.Result.Injected)
 	}
 	rep := t.TempDir()
-	if err := WriteReport(context.Background(), dir, rep); err != nil {
+	if err := WriteReport(context.Background(), dir, Folder{Dir: rep}); err != nil {
 		t.Fatal(err)
 	}
 	wantReport := []string{GrowthPictureFile, MapPictureFile, ReportPageFile}
@@ -109,7 +111,7 @@ func TestSimulateFolderAndRealization(t *testing.T) {
 // An export the CRS cannot serve keeps its cause in the error chain.
 func TestExportKeepsCause(t *testing.T) {
 	dir, _ := runFolder(t) // the demo's CRS is a UTM zone: GeoJSON works
-	err := Export(context.Background(), dir, ExportOptions{Format: "geojson", Layer: "wells", Out: filepath.Join(t.TempDir(), "w.geojson")})
+	_, err := Export(context.Background(), dir, ExportOptions{Format: "geojson", Layer: "wells", Out: filepath.Join(t.TempDir(), "w.geojson")})
 	if err != nil {
 		t.Fatalf("geojson of a UTM run: %v", err)
 	}
@@ -118,8 +120,79 @@ func TestExportKeepsCause(t *testing.T) {
 	if _, err := Simulate(context.Background(), s, SimulateOptions{Out: Folder{Dir: local}}); err != nil {
 		t.Fatal(err)
 	}
-	err = Export(context.Background(), local, ExportOptions{Format: "geojson", Layer: "wells", Out: filepath.Join(t.TempDir(), "w.geojson")})
+	_, err = Export(context.Background(), local, ExportOptions{Format: "geojson", Layer: "wells", Out: filepath.Join(t.TempDir(), "w.geojson")})
 	if !errors.Is(err, gis.ErrNoGeographic) || !errors.Is(err, badinput.Err) {
 		t.Errorf("geojson of a run without CRS: error %v, want gis.ErrNoGeographic marked as bad input", err)
+	}
+}
+
+// errStopped stands for a process killed part way.
+var errStopped = errors.New("stopped")
+
+// A run stopped part way leaves only its partial folder; export and report
+// use its recovered frames and say so, and the same command needs --force
+// to discard it.
+func TestStoppedRunPartialFolder(t *testing.T) {
+	s := loadExample(t, "single-fracture")
+	dir := filepath.Join(t.TempDir(), "run")
+	steps := 0
+	stop := func(float64, float64) {
+		if steps++; steps == 40 {
+			panic(errStopped) // as if the process were killed: nothing after this runs
+		}
+	}
+	func() {
+		defer func() {
+			if v := recover(); v != errStopped {
+				t.Fatalf("the run did not stop as planned: %v", v)
+			}
+		}()
+		Simulate(context.Background(), s, SimulateOptions{Out: Folder{Dir: dir}, Progress: stop})
+	}()
+	if _, err := os.Stat(dir); !errors.Is(err, os.ErrNotExist) {
+		t.Fatalf("the stopped run left its final folder (%v)", err)
+	}
+	partial := dir + outdir.PartialSuffix
+	if got := folderFiles(t, partial); !slices.Equal(got, []string{SnapshotFile, ScenarioFile}) {
+		t.Fatalf("partial folder holds %v", got)
+	}
+	r, err := LoadRun(partial, math.NaN())
+	if err != nil {
+		t.Fatal(err)
+	}
+	if r.Complete || len(r.Notes) == 0 || len(r.Result.Events) != 0 || r.Time <= 0 {
+		t.Errorf("partial folder read as complete %v, notes %q, %d events, time %g s", r.Complete, r.Notes, len(r.Result.Events), r.Time)
+	}
+	notes, err := Export(context.Background(), partial, ExportOptions{Format: "gpkg", Out: filepath.Join(t.TempDir(), "p.gpkg"), Time: math.NaN()})
+	if err != nil || len(notes) == 0 {
+		t.Errorf("export of the partial folder: notes %q, error %v", notes, err)
+	}
+	if err := WriteReport(context.Background(), partial, Folder{Dir: filepath.Join(t.TempDir(), "rep")}); err != nil {
+		t.Errorf("report of the partial folder: %v", err)
+	}
+	_, err = Simulate(context.Background(), s, SimulateOptions{Out: Folder{Dir: dir}})
+	if !errors.Is(err, outdir.ErrPartialExists) || !errors.Is(err, badinput.Err) {
+		t.Errorf("rerun beside a partial folder: error %v, want ErrPartialExists", err)
+	}
+}
+
+// A complete folder whose file was swapped for another run's is refused.
+func TestMixedFileRefused(t *testing.T) {
+	dir, _ := runFolder(t)
+	other := t.TempDir()
+	s := loadExample(t, "single-fracture")
+	if _, err := Simulate(context.Background(), s, SimulateOptions{Out: Folder{Dir: other, Force: true}}); err != nil {
+		t.Fatal(err)
+	}
+	b, err := os.ReadFile(filepath.Join(other, EventsFile))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := os.WriteFile(filepath.Join(dir, EventsFile), b, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	_, err = LoadRun(dir, math.NaN())
+	if !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), "events.csv differs from the file the run wrote") {
+		t.Errorf("mixed folder: error %v", err)
 	}
 }

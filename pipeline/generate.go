@@ -1,6 +1,7 @@
 package pipeline
 
 import (
+	"errors"
 	"io"
 
 	"slipfront/dfn"
@@ -10,31 +11,38 @@ import (
 
 // Generate generates realization 0 of the scenario's network and writes
 // the generate folder: NetworkFracturesFile, TracesFile, NetworkFile and
-// CSVMetadataFile.
-// It returns the network and its statistics.
-func Generate(s *scenarios.Scenario, out Folder) (*dfn.Network, dfn.NetworkStats, error) {
-	if err := out.Prepare(); err != nil {
+// CSVMetadataFile. It returns the network and its statistics. A network
+// larger than the memory limit is refused before it is drawn.
+func Generate(s *scenarios.Scenario, out Folder, lim Limits) (*dfn.Network, dfn.NetworkStats, error) {
+	if err := lim.CheckNetwork(s); err != nil {
+		return nil, dfn.NetworkStats{}, err
+	}
+	st, err := out.begin()
+	if err != nil {
 		return nil, dfn.NetworkStats{}, err
 	}
 	net, err := dfn.Generate(s, 0)
 	if err != nil {
-		return nil, dfn.NetworkStats{}, err
+		return nil, dfn.NetworkStats{}, errors.Join(err, st.Abandon())
 	}
-	st := net.Stats()
-	err = writeFiles(out.Dir,
+	stats := net.Stats()
+	err = writeFiles(st.Dir,
 		namedWriter{NetworkFracturesFile, func(w io.Writer) error { return dfn.WriteFractures(w, net) }},
 		namedWriter{TracesFile, func(w io.Writer) error { return dfn.WriteTraces(w, net) }},
-		namedWriter{NetworkFile, func(w io.Writer) error { return dfn.WriteNetworkJSON(w, net, st) }},
+		namedWriter{NetworkFile, func(w io.Writer) error { return dfn.WriteNetworkJSON(w, net, stats) }},
 		generateMetadata(s),
 	)
-	return net, st, err
+	if err != nil {
+		return nil, dfn.NetworkStats{}, err
+	}
+	return net, stats, st.Commit()
 }
 
 // Screen resolves the in-situ stress on every fracture of realization 0
 // and writes the screen folder: ScreenTableFile, ScreenSummaryFile,
-// SlipCurveFile and CSVMetadataFile. The stress and friction are checked
-// before the folder is touched.
-func Screen(s *scenarios.Scenario, out Folder) (*mechanics.Screening, error) {
+// SlipCurveFile and CSVMetadataFile. The stress, the friction and the
+// network's size are checked before the folder is touched.
+func Screen(s *scenarios.Scenario, out Folder, lim Limits) (*mechanics.Screening, error) {
 	stress, err := mechanics.StressFromScenario(s.Stress, s.Layer.Depth)
 	if err != nil {
 		return nil, err
@@ -43,24 +51,31 @@ func Screen(s *scenarios.Scenario, out Folder) (*mechanics.Screening, error) {
 	if err != nil {
 		return nil, err
 	}
-	if err := out.Prepare(); err != nil {
+	if err := lim.CheckNetwork(s); err != nil {
+		return nil, err
+	}
+	st, err := out.begin()
+	if err != nil {
 		return nil, err
 	}
 	net, err := dfn.Generate(s, 0)
 	if err != nil {
-		return nil, err
+		return nil, errors.Join(err, st.Abandon())
 	}
 	sc, err := mechanics.Screen(screenPlanes(net), stress, crit, mechanics.ScreenOptions{SetNames: setNames(s)})
 	if err != nil {
-		return nil, err
+		return nil, errors.Join(err, st.Abandon())
 	}
-	err = writeFiles(out.Dir,
+	err = writeFiles(st.Dir,
 		namedWriter{ScreenTableFile, sc.WriteCSV},
 		namedWriter{ScreenSummaryFile, sc.WriteJSON},
 		namedWriter{SlipCurveFile, sc.WriteCurveCSV},
 		screenMetadata(s),
 	)
-	return sc, err
+	if err != nil {
+		return nil, err
+	}
+	return sc, st.Commit()
 }
 
 // screenPlanes lists every fracture with its trace length on the

@@ -1,6 +1,9 @@
 package pipeline
 
 import (
+	"errors"
+	"fmt"
+	"io/fs"
 	"math"
 	"os"
 	"path/filepath"
@@ -24,63 +27,111 @@ func exists(dir, name string) bool {
 
 // LoadRun reads a run folder back at time t, s (NaN: the last frame): the
 // resolved scenario, the network (generated again from its seed), the
-// state of the snapshot frame at or before t and the events up to it.
-// First-slip and stimulation times are those of the first frame that
-// shows them, so they are known to the output interval.
+// state of the last intact snapshot frame at or before t and the events up
+// to it. First-slip and stimulation times are those of the first frame
+// that shows them, so they are known to the output interval. A complete
+// folder's files are checked against its contents list; a stopped run's
+// partial folder (no list, perhaps no events) is read from its recovered
+// frames, and Run.Notes say what was assumed.
 func LoadRun(dir string, t float64) (*Run, error) {
 	s, err := readScenario(filepath.Join(dir, ScenarioFile))
 	if err != nil {
 		return nil, err
+	}
+	note, err := openRunFolder(dir, s, ScenarioFile, SnapshotFile, EventsFile)
+	if err != nil {
+		return nil, err
+	}
+	r := &Run{Scenario: s, Complete: note == ""}
+	if note != "" {
+		r.Notes = append(r.Notes, note)
 	}
 	rd, err := snapshot.Open(filepath.Join(dir, SnapshotFile))
 	if err != nil {
 		return nil, err
 	}
 	defer rd.Close()
-	frames := rd.Frames()
-	if len(frames) == 0 {
-		return nil, badinput.Errorf("%s holds no frames", filepath.Join(dir, SnapshotFile))
+	if rd.Recovered() {
+		r.Notes = append(r.Notes, SnapshotFile+" was recovered: "+rd.Note())
 	}
-	last := frames[len(frames)-1].Time
-	if math.IsNaN(t) {
-		t = last
-	}
-	if t < frames[0].Time || t > last {
-		return nil, badinput.Errorf("time %g s is outside the run: its frames span %g s to %g s", t, frames[0].Time, last)
+	if r.Time, err = frameTime(rd.Reader, t); err != nil {
+		return nil, err
 	}
 	h := rd.Header()
 	if h.Digest != s.Digest {
 		return nil, badinput.Errorf("%s belongs to scenario %.12s…, but %s is scenario %.12s…: the folder mixes two runs",
 			SnapshotFile, h.Digest, ScenarioFile, s.Digest)
 	}
-	net, err := dfn.Generate(s, h.Realization)
-	if err != nil {
+	if r.Network, err = dfn.Generate(s, h.Realization); err != nil {
 		return nil, err
 	}
 	for i, e := range h.Elements {
-		if int(e.Fracture) >= len(net.Fractures) {
-			return nil, badinput.Errorf("%s: element %d names fracture %d, but the network has %d", SnapshotFile, i, e.Fracture, len(net.Fractures))
+		if int(e.Fracture) >= len(r.Network.Fractures) {
+			return nil, badinput.Errorf("%s: element %d names fracture %d, but the network has %d", SnapshotFile, i, e.Fracture, len(r.Network.Fractures))
 		}
 	}
-	res, times, err := sim.Replay(rd.Reader, t)
+	res, rp, err := sim.Replay(rd.Reader, r.Time)
 	if err != nil {
 		return nil, err
 	}
-	ef, err := os.Open(filepath.Join(dir, EventsFile))
-	if err != nil {
-		return nil, err
+	if len(rp.Damaged) > 0 {
+		r.Notes = append(r.Notes, fmt.Sprintf("%d damaged snapshot frames skipped (at %v s)", len(rp.Damaged), rp.Damaged))
 	}
-	defer ef.Close()
-	events, err := sim.ReadEvents(ef, EventsFile, s)
+	if last := rp.Times[len(rp.Times)-1]; last < r.Time {
+		r.Notes = append(r.Notes, fmt.Sprintf("the state shown is that of the last intact frame, at %g s, not %g s", last, r.Time))
+		r.Time = last
+	}
+	r.Result, r.OutlineTimes = res, rp.Times
+	return r, r.readEvents(dir)
+}
+
+// frameTime checks t against the snapshot's frames; NaN means the last.
+func frameTime(rd *snapshot.Reader, t float64) (float64, error) {
+	frames := rd.Frames()
+	if len(frames) == 0 {
+		return 0, badinput.Errorf("the snapshot holds no frames")
+	}
+	first, last := frames[0].Time, frames[len(frames)-1].Time
+	if math.IsNaN(t) {
+		return last, nil
+	}
+	if t < first || t > last {
+		return 0, badinput.Errorf("time %g s is outside the run: its frames span %g s to %g s", t, first, last)
+	}
+	return t, nil
+}
+
+// eventTimeSlack is how far past the state's time an event may lie and
+// still belong to it: half a unit of the last decimal EventsFile writes
+// times with (sim.WriteEvents: 3 decimals), so that an event at the run's
+// last time belongs to its last state also when read back.
+const eventTimeSlack = 5e-4
+
+// shows reports whether an event at time t, s, belongs to the run's state.
+func (r *Run) shows(t float64) bool { return t <= r.Time+eventTimeSlack }
+
+// readEvents adds the events up to the run's time from EventsFile; a
+// stopped run has none to read.
+func (r *Run) readEvents(dir string) error {
+	f, err := os.Open(filepath.Join(dir, EventsFile))
+	if errors.Is(err, fs.ErrNotExist) && !r.Complete {
+		r.Notes = append(r.Notes, "no "+EventsFile+": the stopped run wrote no events")
+		return nil
+	}
 	if err != nil {
-		return nil, err
+		return err
+	}
+	defer f.Close()
+	events, err := sim.ReadEvents(f, EventsFile, r.Scenario)
+	if err != nil {
+		return err
 	}
 	for _, e := range events {
-		if e.Time <= t {
-			res.Events = append(res.Events, e)
+		if r.shows(e.Time) {
+			r.Result.Events = append(r.Result.Events, e)
 		}
 	}
-	return &Run{Scenario: s, Network: net, Result: res, Time: t, OutlineTimes: times}, nil
+	return nil
 }
 
 func readScenario(path string) (*scenarios.Scenario, error) {

@@ -21,8 +21,13 @@ func (r *Run) MapPicture() (*report.Map, error) {
 		Extent: report.Extent{MinEast: s.Domain.XMin, MaxEast: s.Domain.XMax, MinNorth: s.Domain.YMin, MaxNorth: s.Domain.YMax},
 		Colour: report.ColourScale{Label: "First slip time", Unit: "h", NoValue: "Never slipped"},
 	}
-	if s.Domain.CRS != "" {
-		m.CRSNote = fmt.Sprintf("Local frame: origin at E %.0f m, N %.0f m of %s", s.Domain.OriginEasting, s.Domain.OriginNorthing, s.Domain.CRS)
+	if pl, err := r.Placement(); err == nil && pl.CRS.Defined() {
+		o, u := pl.ToCRS(orb.Point{0, 0}), pl.CRS.Unit().Abbrev()
+		name := pl.CRS.Name()
+		if pl.CRS.EPSG != 0 {
+			name += fmt.Sprintf(" (EPSG:%d)", pl.CRS.EPSG)
+		}
+		m.CRSNote = fmt.Sprintf("Local frame: origin at E %.0f %s, N %.0f %s of %s", o[0], u, o[1], u, name)
 	}
 	res := r.Result
 	for i, el := range res.Elements {
@@ -47,7 +52,7 @@ func (r *Run) MapPicture() (*report.Map, error) {
 		}
 	}
 	for _, e := range res.Events {
-		if e.Time <= r.Time {
+		if r.shows(e.Time) {
 			m.Events = append(m.Events, report.Event{At: rp(e.X, e.Y), Magnitude: e.Magnitude})
 		}
 	}

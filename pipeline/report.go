@@ -2,6 +2,7 @@ package pipeline
 
 import (
 	"context"
+	"errors"
 	"fmt"
 	"io"
 	"math"
@@ -16,15 +17,27 @@ import (
 )
 
 // WriteReport writes the pictures and an index.html of the run or batch
-// folder dir into the folder out.
-func WriteReport(ctx context.Context, dir, out string) error {
+// folder dir into the folder out (as a whole, like every folder; see
+// Folder). A stopped run's partial folder gets its map, drawn from the
+// recovered frames, and its notes.
+func WriteReport(ctx context.Context, dir string, out Folder) error {
+	var write func(string) error
 	switch {
 	case IsRunDir(dir):
-		return writeRunReport(dir, out)
+		write = func(to string) error { return writeRunReport(dir, to) }
 	case isBatchDir(dir):
-		return writeBatchReport(ctx, dir, out)
+		write = func(to string) error { return writeBatchReport(ctx, dir, to) }
+	default:
+		return badinput.Errorf("%s is neither a run folder (%s, %s) nor a batch folder (%s)", dir, ScenarioFile, SnapshotFile, batch.ManifestName)
 	}
-	return badinput.Errorf("%s is neither a run folder (%s, %s) nor a batch folder (%s)", dir, ScenarioFile, SnapshotFile, batch.ManifestName)
+	st, err := out.begin()
+	if err != nil {
+		return err
+	}
+	if err := write(st.Dir); err != nil {
+		return errors.Join(err, st.Abandon())
+	}
+	return st.Commit()
 }
 
 func writeRunReport(dir, out string) error {
@@ -32,18 +45,25 @@ func writeRunReport(dir, out string) error {
 	if err != nil {
 		return err
 	}
-	var warnings []sim.Warning
-	if err := readFile(filepath.Join(dir, TimelineFile), func(f io.Reader) (err error) {
-		r.Result.Timeline, err = sim.ReadTimeline(f, TimelineFile, r.Scenario)
-		return err
-	}); err != nil {
-		return err
-	}
-	if err := readFile(filepath.Join(dir, SummaryFile), func(f io.Reader) (err error) {
-		r.Result.Stages, warnings, err = sim.ReadSummary(f, SummaryFile)
-		return err
-	}); err != nil {
-		return err
+	warnings := r.Notes
+	if r.Complete {
+		if _, err := openRunFolder(dir, r.Scenario, TimelineFile, SummaryFile); err != nil {
+			return err
+		}
+		if err := readFile(filepath.Join(dir, TimelineFile), func(f io.Reader) (err error) {
+			r.Result.Timeline, err = sim.ReadTimeline(f, TimelineFile, r.Scenario)
+			return err
+		}); err != nil {
+			return err
+		}
+		var runWarnings []sim.Warning
+		if err := readFile(filepath.Join(dir, SummaryFile), func(f io.Reader) (err error) {
+			r.Result.Stages, runWarnings, err = sim.ReadSummary(f, SummaryFile)
+			return err
+		}); err != nil {
+			return err
+		}
+		warnings = append(warnings, warningNotes(runWarnings)...)
 	}
 	if err := writeRunPictures(out, r); err != nil {
 		return err
@@ -62,7 +82,7 @@ func readFile(path string, read func(io.Reader) error) error {
 }
 
 // page is the HTML page of a run.
-func (r *Run) page(warnings []sim.Warning) *report.Page {
+func (r *Run) page(warnings []string) *report.Page {
 	s, res := r.Scenario, r.Result
 	var last sim.Sample
 	if n := len(res.Timeline); n > 0 {
@@ -78,8 +98,11 @@ func (r *Run) page(warnings []sim.Warning) *report.Page {
 			{"stimulated fracture area", fmt.Sprintf("%.0f m²", last.FractureArea)},
 			{"events", fmt.Sprintf("%d (largest Mw %s)", len(res.Events), optionalMw(maxMw))},
 		},
-		Notes:  warningNotes(warnings),
-		Images: []report.Image{{File: MapPictureFile, Caption: "Traces by first-slip time, events, stimulated area"}, {File: GrowthPictureFile, Caption: "Stimulated area and bottom-hole pressure over time"}},
+		Notes:  warnings,
+		Images: []report.Image{{File: MapPictureFile, Caption: "Traces by first-slip time, events, stimulated area"}},
+	}
+	if len(res.Timeline) > 0 {
+		p.Images = append(p.Images, report.Image{File: GrowthPictureFile, Caption: "Stimulated area and bottom-hole pressure over time"})
 	}
 	t := report.Table{Caption: "Stages in pumping order", Header: []string{"stage", "injected m³", "peak BHP MPa", "new area m²", "events", "max Mw"}}
 	for _, st := range res.Stages {

@@ -25,11 +25,16 @@ type Run struct {
 	Time float64
 	// OutlineTimes are the times of the stimulated-area outlines.
 	OutlineTimes []float64
+	// Complete tells that the run was read from a complete folder (all its
+	// files checked against its contents list); Notes say what a reader had
+	// to assume otherwise (a stopped run, recovered or damaged frames).
+	Complete bool
+	Notes    []string
 }
 
 // Placement returns where the run's local coordinates lie on the map.
 func (r *Run) Placement() (gis.Placement, error) {
-	crs, err := gis.ParseCRS(r.Scenario.Domain.CRS)
+	crs, err := gis.ParseCRS(r.Scenario.Domain.CRSSpec())
 	if err != nil {
 		return gis.Placement{}, err
 	}
@@ -175,7 +180,7 @@ func (r *Run) eventLayer() gis.Layer {
 		}}
 	start := r.start()
 	for _, e := range r.Result.Events {
-		if e.Time > r.Time {
+		if !r.shows(e.Time) {
 			continue
 		}
 		l.Features = append(l.Features, gis.Feature{Geometry: pt(e.X, e.Y), Values: []any{

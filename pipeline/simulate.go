@@ -2,6 +2,7 @@ package pipeline
 
 import (
 	"context"
+	"errors"
 	"fmt"
 	"io"
 	"os"
@@ -10,6 +11,7 @@ import (
 
 	"slipfront/batch"
 	"slipfront/dfn"
+	"slipfront/internal/badinput"
 	"slipfront/report"
 	"slipfront/scenarios"
 	"slipfront/sim"
@@ -19,6 +21,11 @@ import (
 type SimulateOptions struct {
 	// Out is the run folder.
 	Out Folder
+	// Realization is the network realization to run (0 for the first; a
+	// batch's realization r is reproduced with r).
+	Realization int
+	// Limits bound the run's memory.
+	Limits Limits
 	// Status, when set, receives status lines (network size, run time).
 	Status io.Writer
 	// Progress, when set, is called after every accepted step with the
@@ -26,49 +33,78 @@ type SimulateOptions struct {
 	Progress func(t, end float64)
 }
 
-// Simulate runs realization 0 of the scenario and writes the run folder:
-// ScenarioFile first, SnapshotFile frame by frame during the run (so a
-// stopped run keeps every complete frame), then SummaryFile, TimelineFile,
-// EventsFile, FracturesFile, CSVMetadataFile and the maps. A run that
-// fails part way still writes what it computed and returns its result
-// with the error; a nil result means no complete folder was written.
+// Simulate runs one realization of the scenario and writes the run folder
+// through its partial sibling (see Folder): ScenarioFile first,
+// SnapshotFile frame by frame during the run (so a stopped run keeps every
+// complete frame), then SummaryFile, TimelineFile, EventsFile,
+// FracturesFile, CSVMetadataFile, the maps and last ContentsFile, after
+// which the folder is put in place. A run that fails part way still
+// writes what it computed and returns its result with the error. A nil
+// result means no folder was written: the input was refused (and the
+// partial folder removed), or writing failed (and the partial folder
+// keeps what was written).
 func Simulate(ctx context.Context, s *scenarios.Scenario, o SimulateOptions) (*sim.Result, error) {
 	status := o.Status
 	if status == nil {
 		status = io.Discard
 	}
-	if err := o.Out.Prepare(); err != nil {
+	if o.Realization < 0 {
+		return nil, badinput.Errorf("realization %d: must be ≥ 0", o.Realization)
+	}
+	if err := o.Limits.CheckRun(s, 1); err != nil {
 		return nil, err
 	}
-	out := o.Out.Dir
-	if err := writeFiles(out, namedWriter{ScenarioFile, func(w io.Writer) error { return scenarios.WriteResolved(w, s) }}); err != nil {
-		return nil, err
-	}
-	net, err := dfn.Generate(s, 0)
+	st, err := o.Out.begin()
 	if err != nil {
 		return nil, err
+	}
+	res, net, runErr := simulateInto(ctx, st.Dir, s, o, status)
+	if res == nil {
+		if errors.Is(runErr, badinput.Err) {
+			return nil, errors.Join(runErr, st.Abandon())
+		}
+		return nil, runErr
+	}
+	if err := writeRunFiles(ctx, st.Dir, s, net, res, runErr); err != nil {
+		return nil, err
+	}
+	if err := writeContents(st.Dir, s, o.Realization); err != nil {
+		return nil, err
+	}
+	if err := st.Commit(); err != nil {
+		return nil, err
+	}
+	return res, runErr
+}
+
+// simulateInto generates the network and runs the simulation, writing the
+// resolved scenario and the snapshot into dir.
+func simulateInto(ctx context.Context, dir string, s *scenarios.Scenario, o SimulateOptions, status io.Writer) (*sim.Result, *dfn.Network, error) {
+	if err := writeFiles(dir, namedWriter{ScenarioFile, func(w io.Writer) error { return scenarios.WriteResolved(w, s) }}); err != nil {
+		return nil, nil, err
+	}
+	net, err := dfn.Generate(s, o.Realization)
+	if err != nil {
+		return nil, nil, err
 	}
 	fmt.Fprintf(status, "network: %d fractures, %d traces, %d intersections\n", len(net.Fractures), len(net.Traces), len(net.Intersections))
-	snap, err := os.Create(filepath.Join(out, SnapshotFile))
+	snap, err := os.Create(filepath.Join(dir, SnapshotFile))
 	if err != nil {
-		return nil, err
+		return nil, nil, err
 	}
 	defer snap.Close()
-	rec := sim.NewRecorder(snap, s, 0)
+	rec := sim.NewRecorder(snap, s, o.Realization)
 	start := time.Now()
 	res, runErr := sim.Run(ctx, s, net, sim.Options{Begin: rec.Begin, Frame: rec.Frame, Progress: o.Progress})
 	if res == nil {
-		return nil, runErr
+		return nil, nil, runErr
 	}
 	if err := rec.Close(); err != nil && runErr == nil {
 		runErr = err
 	}
 	fmt.Fprintf(status, "simulated %.2f h in %d steps (%d repeated) in %.1f s; mass balance error %.1e\n",
 		res.Duration/3600, res.Steps, res.CutSteps, time.Since(start).Seconds(), res.MassBalanceError)
-	if err := writeRunFiles(ctx, out, s, net, res, runErr); err != nil {
-		return nil, err
-	}
-	return res, runErr
+	return res, net, runErr
 }
 
 // writeRunFiles writes the tables, the summary and the maps of a run.
@@ -104,17 +140,19 @@ func writeRunMaps(ctx context.Context, dir string, r *Run) error {
 	return writeRunPictures(dir, r)
 }
 
-// writeRunPictures writes MapPictureFile and GrowthPictureFile into dir.
+// writeRunPictures writes MapPictureFile and, when the run has a
+// timeline (a stopped run read back has none), GrowthPictureFile into dir.
 func writeRunPictures(dir string, r *Run) error {
 	m, err := r.MapPicture()
 	if err != nil {
 		return err
 	}
-	g := r.GrowthPicture()
-	return writeFiles(dir,
-		namedWriter{MapPictureFile, func(w io.Writer) error { return m.WritePNG(w, report.Size{}) }},
-		namedWriter{GrowthPictureFile, func(w io.Writer) error { return g.WritePNG(w, report.Size{}) }},
-	)
+	files := []namedWriter{{MapPictureFile, func(w io.Writer) error { return m.WritePNG(w, report.Size{}) }}}
+	if len(r.Result.Timeline) > 0 {
+		g := r.GrowthPicture()
+		files = append(files, namedWriter{GrowthPictureFile, func(w io.Writer) error { return g.WritePNG(w, report.Size{}) }})
+	}
+	return writeFiles(dir, files...)
 }
 
 // Realization is the batch runner (a batch.RunFunc): it generates

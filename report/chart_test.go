@@ -53,22 +53,39 @@ func TestGrowthPicture(t *testing.T) {
 	}
 }
 
+// TestGrowthDegenerate draws valid but degenerate series and checks that
+// the area series is drawn where its data are, in fractions of the data
+// area: the time axis spans the data (or one hour about a single time) and
+// the area axis runs from zero (or the smallest value when negative) to
+// 12 % above the largest value (or to 1.12 when all are equal).
 func TestGrowthDegenerate(t *testing.T) {
-	s := Size{Width: 640, Height: 480}
 	for _, tc := range []struct {
-		name string
-		g    Growth
+		name   string
+		g      Growth
+		probes []probe
 	}{
-		{"one time", Growth{Time: []float64{3600}, Area: []float64{1e4}}},
-		{"one time with pressure", Growth{Time: []float64{0}, Area: []float64{0}, Pressure: []float64{30e6}}},
-		{"all zero", Growth{Time: []float64{0, 60, 120}, Area: []float64{0, 0, 0}}},
-		{"repeated times", Growth{Time: []float64{0, 60, 60, 120}, Area: []float64{0, 1, 2, 3}}},
-		{"stages outside", Growth{Time: []float64{0, 60}, Area: []float64{0, 1}, Stages: []StageMark{{"early", -1e9}, {"late", 1e9}}}},
-		{"negative area", Growth{Time: []float64{0, 60}, Area: []float64{-5, 1}}},
-		{"huge times", Growth{Time: []float64{0, 1e15}, Area: []float64{0, 1e12}}},
+		// 10⁴ m² draws as 10 in units of 10³ m²: a marker at 10/11.2.
+		{"one time", Growth{Time: []float64{3600}, Area: []float64{1e4}},
+			[]probe{{fx: 0.5, fy: 10 / 11.2, colour: okabeBlue}}},
+		{"one time with pressure", Growth{Time: []float64{0}, Area: []float64{0}, Pressure: []float64{30e6}},
+			[]probe{{fx: 0.5, fy: 0, colour: okabeBlue}}},
+		{"all zero", Growth{Time: []float64{0, 60, 120}, Area: []float64{0, 0, 0}},
+			[]probe{{fx: 0.1, fy: 0, colour: okabeBlue}, {fx: 0.5, fy: 0, colour: okabeBlue}, {fx: 0.9, fy: 0, colour: okabeBlue}}},
+		// (0, 0) → (½, 1) → (½, 2) → (1, 3) on an axis to 3.36.
+		{"repeated times", Growth{Time: []float64{0, 60, 60, 120}, Area: []float64{0, 1, 2, 3}},
+			[]probe{{fx: 0.25, fy: 0.5 / 3.36, colour: okabeBlue}, {fx: 0.5, fy: 1.5 / 3.36, colour: okabeBlue}, {fx: 0.75, fy: 2.5 / 3.36, colour: okabeBlue}}},
+		{"stages outside", Growth{Time: []float64{0, 60}, Area: []float64{0, 1}, Stages: []StageMark{{"early", -1e9}, {"late", 1e9}}},
+			[]probe{{fx: 0.5, fy: 0.5 / 1.12, colour: okabeBlue}}},
+		// The axis runs from −5 to 1 + 0.12·6 = 1.72: (0, 0) → (1, 6/6.72).
+		{"negative area", Growth{Time: []float64{0, 60}, Area: []float64{-5, 1}},
+			[]probe{{fx: 0.5, fy: 3 / 6.72, colour: okabeBlue}}},
+		{"huge times", Growth{Time: []float64{0, 1e15}, Area: []float64{0, 1e12}},
+			[]probe{{fx: 0.5, fy: 0.5 / 1.12, colour: okabeBlue}}},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
-			checkPicture(t, decodePNG(t, &tc.g, s), s, minInkedFrame, 4)
+			img := decodePNG(t, &tc.g, DefaultSize)
+			checkPicture(t, img, DefaultSize, minInkedFrame, 4)
+			checkProbes(t, img, findImageFrame(t, img, DefaultSize).at, tc.probes)
 		})
 	}
 }
@@ -129,19 +146,30 @@ func TestFanPicture(t *testing.T) {
 	}
 }
 
+// TestFanDegenerate checks that the median of degenerate fans is drawn
+// where its data are (axes as in TestGrowthDegenerate, the area axis to
+// 12 % above the largest P90).
 func TestFanDegenerate(t *testing.T) {
-	s := Size{Width: 640, Height: 480}
 	conv := "P10/P50/P90 of 3 realizations"
 	for _, tc := range []struct {
-		name string
-		f    Fan
+		name   string
+		f      Fan
+		probes []probe
 	}{
-		{"one time", Fan{Convention: conv, Time: []float64{0}, P10: []float64{1}, P50: []float64{2}, P90: []float64{3}}},
-		{"no spread", Fan{Convention: conv, Time: []float64{0, 1}, P10: []float64{2, 2}, P50: []float64{2, 2}, P90: []float64{2, 2}}},
-		{"all zero with mean", Fan{Convention: conv, Time: []float64{0, 1}, P10: []float64{0, 0}, P50: []float64{0, 0}, P90: []float64{0, 0}, Mean: []float64{0, 0}}},
+		{"one time", Fan{Convention: conv, Time: []float64{0}, P10: []float64{1}, P50: []float64{2}, P90: []float64{3}},
+			[]probe{{fx: 0.5, fy: 2 / 3.36, colour: okabeBlue}}},
+		{"no spread", Fan{Convention: conv, Time: []float64{0, 1}, P10: []float64{2, 2}, P50: []float64{2, 2}, P90: []float64{2, 2}},
+			[]probe{{fx: 0.2, fy: 2 / 2.24, colour: okabeBlue}, {fx: 0.8, fy: 2 / 2.24, colour: okabeBlue}}},
+		// The dashed mean (6 pt on, 3 pt off: a 20 px period at 160 dpi)
+		// lies over the median, which shows in the gaps: a 17 px window
+		// always holds part of one.
+		{"all zero with mean", Fan{Convention: conv, Time: []float64{0, 1}, P10: []float64{0, 0}, P50: []float64{0, 0}, P90: []float64{0, 0}, Mean: []float64{0, 0}},
+			[]probe{{fx: 0.2, fy: 0, colour: okabeBlue, r: 8}, {fx: 0.8, fy: 0, colour: okabeBlue, r: 8}}},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
-			checkPicture(t, decodePNG(t, &tc.f, s), s, minInkedFrame, 4)
+			img := decodePNG(t, &tc.f, DefaultSize)
+			checkPicture(t, img, DefaultSize, minInkedFrame, 4)
+			checkProbes(t, img, findImageFrame(t, img, DefaultSize).at, tc.probes)
 		})
 	}
 }
@@ -187,10 +215,14 @@ func TestComparisonPicture(t *testing.T) {
 	}
 }
 
+// TestComparisonDegenerate: one category whose percentiles are all zero
+// draws its median marker at the bottom of the area axis, in the middle of
+// the category axis (which is padded equally on both sides).
 func TestComparisonDegenerate(t *testing.T) {
-	s := Size{Width: 640, Height: 480}
 	c := Comparison{Convention: "c", Categories: []string{"only"}, P10: []float64{0}, P50: []float64{0}, P90: []float64{0}}
-	checkPicture(t, decodePNG(t, &c, s), s, minInkedFrame, 4)
+	img := decodePNG(t, &c, DefaultSize)
+	checkPicture(t, img, DefaultSize, minInkedFrame, 4)
+	checkProbes(t, img, findImageFrame(t, img, DefaultSize).at, []probe{{fx: 0.5, fy: 0, colour: okabeBlue}})
 }
 
 func TestComparisonErrors(t *testing.T) {

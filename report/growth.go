@@ -164,6 +164,23 @@ func alignX(ps []*plot.Plot, cs []*draw.Canvas) {
 	}
 }
 
+// alignY trims the canvases so that the plots' data areas share their top
+// and bottom edges, as alignX does for left and right.
+func alignY(ps []*plot.Plot, cs []*draw.Canvas) {
+	for range 2 {
+		bottom, top := vg.Length(math.Inf(-1)), vg.Length(math.Inf(1))
+		for i, p := range ps {
+			d := p.DataCanvas(*cs[i])
+			bottom, top = max(bottom, d.Min.Y), min(top, d.Max.Y)
+		}
+		for i, p := range ps {
+			d := p.DataCanvas(*cs[i])
+			cs[i].Min.Y += bottom - d.Min.Y
+			cs[i].Max.Y -= d.Max.Y - top
+		}
+	}
+}
+
 // unlabelled drops the labels of another ticker's ticks.
 type unlabelled struct{ plot.Ticker }
 

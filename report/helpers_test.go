@@ -10,12 +10,16 @@ import (
 	"math"
 	"math/rand/v2"
 	"testing"
+
+	"gonum.org/v1/plot/vg"
 )
 
 // demoMap returns an invented map scene (no real place): one horizontal
-// well along North = 0 with four stages of three clusters, n random traces
-// coloured by a first-slip time that grows with distance from the well's
-// middle, events on the slipped traces and an elliptical outline.
+// well along North = 0 with four stages of three clusters, a primary
+// conduit of 60 m half-length from each cluster along SHmax (azimuth 75°),
+// n random traces coloured by a first-slip time that grows with distance
+// from the well's middle, events on the slipped traces and an elliptical
+// outline.
 func demoMap(n int) *Map {
 	rng := rand.New(rand.NewPCG(1, 2))
 	m := &Map{
@@ -25,13 +29,18 @@ func demoMap(n int) *Map {
 		Colour:  ColourScale{Label: "First slip time", Unit: "h", NoValue: "Never slipped"},
 		Wells:   []Well{{Name: "Well A", Path: []Point{{-900, 0}, {900, 0}}}},
 	}
+	const strike = 75 * math.Pi / 180 // Trace and SHmax azimuth, radians from north.
+	az := strike
+	m.SHmax = &az
 	stages := []string{"Stage 1", "Stage 2", "Stage 3", "Stage 4"}
 	for i, s := range stages {
 		for j := range 3 {
-			m.Clusters = append(m.Clusters, Cluster{At: Point{East: 600 - 400*float64(i) - 60*float64(j), North: 0}, Stage: s})
+			at := Point{East: 600 - 400*float64(i) - 60*float64(j), North: 0}
+			m.Clusters = append(m.Clusters, Cluster{At: at, Stage: s})
+			d := Point{East: 60 * math.Sin(strike), North: 60 * math.Cos(strike)}
+			m.Conduits = append(m.Conduits, Segment{A: Point{at.East - d.East, at.North - d.North}, B: Point{at.East + d.East, at.North + d.North}})
 		}
 	}
-	const strike = 75 * math.Pi / 180 // Trace azimuth, radians from north.
 	for range n {
 		c := Point{East: -1000 + 2000*rng.Float64(), North: -700 + 1400*rng.Float64()}
 		half := 20 + 60*rng.Float64()
@@ -131,6 +140,21 @@ func decodePNG(t testing.TB, w interface {
 	return img
 }
 
+// decodeImage encodes a drawn page as PNG and decodes it, failing the test
+// on any error: the pixels a reader of the file sees.
+func decodeImage(t testing.TB, pg *page) image.Image {
+	t.Helper()
+	var buf bytes.Buffer
+	if err := pg.writePNG(&buf); err != nil {
+		t.Fatal(err)
+	}
+	img, err := png.Decode(&buf)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return img
+}
+
 // nrgbaAt returns the colour of pixel (x, y) as 8-bit NRGBA.
 func nrgbaAt(img image.Image, x, y int) color.NRGBA {
 	return color.NRGBAModel.Convert(img.At(x, y)).(color.NRGBA)
@@ -201,5 +225,111 @@ func checkPicture(t *testing.T, img image.Image, s Size, minInked float64, minCo
 	}
 	if distinct < minColours {
 		t.Errorf("distinct colours = %d, want ≥ %d", distinct, minColours)
+	}
+}
+
+// colourWithin reports whether a pixel within r pixels (a square) of
+// (x, y) is within tol of c in every channel.
+func colourWithin(img image.Image, x, y float64, r int, c color.NRGBA, tol int) bool {
+	cx, cy := int(math.Floor(x)), int(math.Floor(y))
+	b := img.Bounds()
+	for py := cy - r; py <= cy+r; py++ {
+		for px := cx - r; px <= cx+r; px++ {
+			if image.Pt(px, py).In(b) && near(nrgbaAt(img, px, py), c, tol) {
+				return true
+			}
+		}
+	}
+	return false
+}
+
+// imageFrame is where a chart's data area lies on its picture, in image
+// pixels (y down).
+type imageFrame struct {
+	x0, x1        float64 // Left and right edges.
+	yTop, yBottom float64 // Top and bottom edges.
+}
+
+// at returns the pixel of the point at fractions (fx, fy) of the data
+// area's width and height, from its lower left corner.
+func (f imageFrame) at(fx, fy float64) (x, y float64) {
+	return f.x0 + fx*(f.x1-f.x0), f.yBottom - fy*(f.yBottom-f.yTop)
+}
+
+// findImageFrame locates the data area of a chart drawn at size s from the
+// picture itself. The y axis is the longest vertical run of dark pixels
+// (gaps of up to two pixels are bridged: grid lines cross it); the charts
+// set no y padding (fromZero), so the run spans the data area's height,
+// and its column is the data area's left edge for the time charts (no x
+// padding) or the left edge of the padded area for the comparison. The
+// right edge is the page's right margin. With two panels the upper, taller
+// one is found.
+func findImageFrame(t *testing.T, img image.Image, s Size) imageFrame {
+	t.Helper()
+	dark := func(x, y int) bool {
+		c := nrgbaAt(img, x, y)
+		return max(c.R, c.G, c.B) <= 100
+	}
+	b := img.Bounds()
+	bestLen, bestX, bestTop := 0, 0, 0
+	for x := b.Min.X; x < b.Min.X+b.Dx()/2; x++ {
+		top, gap := -1, 0
+		for y := b.Min.Y; y < b.Max.Y; y++ {
+			if dark(x, y) {
+				if top < 0 {
+					top = y
+				}
+				gap = 0
+				if n := y - top + 1; n > bestLen {
+					bestLen, bestX, bestTop = n, x, top
+				}
+				continue
+			}
+			if gap++; gap > 2 {
+				top = -1
+			}
+		}
+	}
+	// The y axis of a chart spans most of the picture's height.
+	if bestLen < s.Height/4 {
+		t.Fatalf("no y axis found: the longest dark vertical run is %d px", bestLen)
+	}
+	pg := newPage(s)
+	right := float64(s.Width) - vg.Length(margin).Dots(pg.dpi)
+	return imageFrame{x0: float64(bestX) + 0.5, x1: right, yTop: float64(bestTop), yBottom: float64(bestTop + bestLen)}
+}
+
+// probe is a place on a picture that must (or must not) show a colour.
+type probe struct {
+	fx, fy float64     // Position, fractions of the data area (chart) or map coordinates.
+	colour color.NRGBA // Expected colour.
+	absent bool        // The colour must not be there.
+	r      int         // Search radius, pixels; 0 means probeRadius.
+}
+
+// checkProbes fails the test unless every probe's colour is within
+// probeRadius pixels of its position (or, for an absent probe, nowhere
+// that near): the data were drawn where they are. probeRadius covers the
+// locating error of the frame (one pixel) and a line's antialiased edge;
+// probeTol the 8-bit rounding of the renderer's colours.
+func checkProbes(t *testing.T, img image.Image, at func(fx, fy float64) (x, y float64), probes []probe) {
+	t.Helper()
+	const probeRadius, probeTol = 3, 2
+	if len(probes) == 0 {
+		t.Fatal("no probe: the picture would not be checked for its data")
+	}
+	for _, p := range probes {
+		x, y := at(p.fx, p.fy)
+		r := p.r
+		if r == 0 {
+			r = probeRadius
+		}
+		if got := colourWithin(img, x, y, r, p.colour, probeTol); got == p.absent {
+			what := "missing"
+			if p.absent {
+				what = "present"
+			}
+			t.Errorf("colour %v %s near (%g, %g), pixel (%.0f, %.0f)", p.colour, what, p.fx, p.fy, x, y)
+		}
 	}
 }

@@ -71,13 +71,16 @@ func (m *Map) keyRows(l mapLayers) []keyRow {
 	if len(m.Wells) > 0 {
 		rows = append(rows, keyRow{text: "Well path", symbol: lineSymbol(draw.LineStyle{Color: colourWell, Width: widthWell})})
 	}
+	if len(m.Conduits) > 0 {
+		rows = append(rows, keyRow{text: "Primary conduit", symbol: lineSymbol(styleConduit)})
+	}
 	if len(m.Clusters) > 0 {
 		rows = append(rows, keyRow{text: "Perforation cluster", height: 2 * radiusCluster,
 			symbol: func(c draw.Canvas, at vg.Point) { drawDiamond(c, at, radiusCluster) }})
 	}
 	if len(m.Outline) > 0 {
 		rows = append(rows, keyRow{text: "Stimulated-area outline",
-			symbol: lineSymbol(draw.LineStyle{Color: okabeVermillion, Width: widthOutline, Dashes: dashOutline})})
+			symbol: lineSymbol(styleOutline)})
 	}
 	if len(l.levels) > 0 {
 		rows = append(rows, keyRow{text: "Synthetic events"})
@@ -92,27 +95,46 @@ func (m *Map) keyRows(l mapLayers) []keyRow {
 	return rows
 }
 
-// keyBelow draws the rows side by side, centred, at the bottom of c and
+// keyBelow draws the rows side by side at the bottom of c, each line
+// centred, wrapping to further lines when they do not fit the width, and
 // returns the canvas above them.
 func keyBelow(c draw.Canvas, rows []keyRow) draw.Canvas {
 	st := textStyle(sizeKey, false, draw.XLeft, draw.YCenter)
 	const rowGap = 24 // Between entries, points.
-	var width, height vg.Length
-	for i, r := range rows {
-		width += keySymbolWidth + keyTextGap + st.Width(r.text)
-		if i > 0 {
-			width += rowGap
-		}
-		height = max(height, r.height, st.FontExtents().Height)
-	}
-	x := c.Center().X - width/2
-	mid := c.Min.Y + height/2
+	width := func(r keyRow) vg.Length { return keySymbolWidth + keyTextGap + st.Width(r.text) }
+	// Split into lines, top line first.
+	var lines [][]keyRow
+	var lineWidth vg.Length
 	for _, r := range rows {
-		r.symbol(c, vg.Point{X: x + keySymbolWidth/2, Y: mid})
-		x += keySymbolWidth + keyTextGap
-		c.FillText(st, vg.Point{X: x, Y: mid}, r.text)
-		x += st.Width(r.text) + rowGap
+		w := width(r)
+		if n := len(lines); n > 0 && lineWidth+rowGap+w <= c.Max.X-c.Min.X {
+			lines[n-1] = append(lines[n-1], r)
+			lineWidth += rowGap + w
+			continue
+		}
+		lines = append(lines, []keyRow{r})
+		lineWidth = w
 	}
-	c.Min.Y += height + 8
+	y := c.Min.Y
+	for i := len(lines) - 1; i >= 0; i-- {
+		var total, height vg.Length
+		for j, r := range lines[i] {
+			total += width(r)
+			if j > 0 {
+				total += rowGap
+			}
+			height = max(height, r.height, st.FontExtents().Height)
+		}
+		x := c.Center().X - total/2
+		mid := y + height/2
+		for _, r := range lines[i] {
+			r.symbol(c, vg.Point{X: x + keySymbolWidth/2, Y: mid})
+			x += keySymbolWidth + keyTextGap
+			c.FillText(st, vg.Point{X: x, Y: mid}, r.text)
+			x += st.Width(r.text) + rowGap
+		}
+		y += height + keyRowGap
+	}
+	c.Min.Y = y + 8 - keyRowGap
 	return c
 }

@@ -58,13 +58,22 @@ type Event struct {
 	Magnitude float64 // Moment magnitude Mw.
 }
 
+// Segment is a straight map-view segment, such as a primary conduit.
+type Segment struct {
+	A, B Point // Ends, m.
+}
+
 // Polygon is an area outline: the first ring is the outer boundary, any
 // further rings are holes. Rings need not repeat their first point.
 type Polygon [][]Point
 
 // Map is the quick-look map of a run: fracture traces coloured by a value,
-// wells, clusters, events, the stimulated-area outline, a scale bar and a
-// north arrow.
+// primary conduits, wells, clusters, events, the stimulated-area outline,
+// a scale bar, a north arrow and, optionally, the SHmax direction.
+//
+// The stimulated traces read first: events are light grey rings drawn
+// beneath the coloured traces, the outline is a thin line, and labels are
+// placed clear of the cluster markers, the events and each other.
 type Map struct {
 	Title string // Drawn at the top; the caller's words.
 	// Extent is the area shown (always whole; widened along one axis for
@@ -81,6 +90,13 @@ type Map struct {
 	Clusters []Cluster
 	Events   []Event
 	Outline  []Polygon // Stimulated area, drawn as outlines.
+	// Conduits are primary conduits (map-view segments), drawn as dashed
+	// dark lines above the traces.
+	Conduits []Segment
+	// SHmax, when not nil, is the azimuth of the maximum horizontal
+	// stress, radians clockwise from north, drawn as a double-headed
+	// arrow in the upper-left corner.
+	SHmax *float64
 }
 
 // WritePNG draws the map at size s (zero: DefaultSize) and writes it to w
@@ -121,6 +137,17 @@ func (m *Map) validate() error {
 			return err
 		}
 	}
+	for i, c := range m.Conduits {
+		if err := checkPoint("Conduits", i, "A", c.A); err != nil {
+			return err
+		}
+		if err := checkPoint("Conduits", i, "B", c.B); err != nil {
+			return err
+		}
+	}
+	if m.SHmax != nil && !finite(*m.SHmax) {
+		return fmt.Errorf("report: map SHmax azimuth = %g rad: must be finite", *m.SHmax)
+	}
 	for i, e := range m.Events {
 		if err := checkPoint("Events", i, "At", e.At); err != nil {
 			return err
@@ -145,16 +172,7 @@ func (m *Map) validate() error {
 }
 
 // validateScale checks the colour range.
-func (m *Map) validateScale() error {
-	c := m.Colour
-	if c.Min == 0 && c.Max == 0 {
-		return nil
-	}
-	if !finite(c.Min) || !finite(c.Max) || !(c.Max > c.Min) {
-		return fmt.Errorf("report: map Colour range [%g, %g]: need finite Min < Max (or both zero for the data range)", c.Min, c.Max)
-	}
-	return nil
-}
+func (m *Map) validateScale() error { return checkColourRange("map", m.Colour) }
 
 // checkPoint returns an error when p has a NaN or infinite coordinate.
 func checkPoint(list string, i int, what string, p Point) error {
@@ -170,12 +188,7 @@ func checkPoint(list string, i int, what string, p Point) error {
 func (m *Map) extent() (Extent, error) {
 	e := m.Extent
 	if e != (Extent{}) {
-		if !finite(e.MinEast) || !finite(e.MaxEast) || !finite(e.MinNorth) || !finite(e.MaxNorth) ||
-			!(e.MaxEast > e.MinEast) || !(e.MaxNorth > e.MinNorth) {
-			return e, fmt.Errorf("report: map Extent east [%g, %g] m, north [%g, %g] m: need finite edges with MinEast < MaxEast and MinNorth < MaxNorth",
-				e.MinEast, e.MaxEast, e.MinNorth, e.MaxNorth)
-		}
-		return e, checkSides(e)
+		return e, checkExtent(e)
 	}
 	b, ok := m.bounds()
 	if !ok {
@@ -190,6 +203,16 @@ func (m *Map) extent() (Extent, error) {
 		return b, fmt.Errorf("%w (extent fitted to the features; set Map.Extent)", err)
 	}
 	return b, nil
+}
+
+// checkExtent requires finite edges in order and sides within limits.
+func checkExtent(e Extent) error {
+	if !finite(e.MinEast) || !finite(e.MaxEast) || !finite(e.MinNorth) || !finite(e.MaxNorth) ||
+		!(e.MaxEast > e.MinEast) || !(e.MaxNorth > e.MinNorth) {
+		return fmt.Errorf("report: map Extent east [%g, %g] m, north [%g, %g] m: need finite edges with MinEast < MaxEast and MinNorth < MaxNorth",
+			e.MinEast, e.MaxEast, e.MinNorth, e.MaxNorth)
+	}
+	return checkSides(e)
 }
 
 // Limits of the sides of a map extent, m.
@@ -237,6 +260,10 @@ func (m *Map) bounds() (Extent, bool) {
 	for _, c := range m.Clusters {
 		add(c.At)
 	}
+	for _, c := range m.Conduits {
+		add(c.A)
+		add(c.B)
+	}
 	for _, e := range m.Events {
 		add(e.At)
 	}
@@ -253,36 +280,35 @@ func (m *Map) bounds() (Extent, bool) {
 // colourRange returns the value range of the colour scale, and false when
 // no trace has a value.
 func (m *Map) colourRange() (lo, hi float64, ok bool) {
-	if m.Colour.Min != 0 || m.Colour.Max != 0 {
-		return m.Colour.Min, m.Colour.Max, true
-	}
-	lo, hi = math.Inf(1), math.Inf(-1)
-	for _, t := range m.Traces {
-		if !math.IsNaN(t.Value) {
-			lo, hi = math.Min(lo, t.Value), math.Max(hi, t.Value)
+	return valueRange(m.Colour, func(yield func(float64) bool) {
+		for _, t := range m.Traces {
+			if !yield(t.Value) {
+				return
+			}
 		}
-	}
-	if lo > hi {
-		return 0, 0, false
-	}
-	if lo == hi {
-		// One value: a unit-wide range centred on it, so the colour bar
-		// has a range to show.
-		lo, hi = lo-0.5, hi+0.5
-	}
-	return lo, hi, true
+	})
 }
 
-// magnitudeLevels returns the integer magnitudes of the size key: from
-// floor(min Mw) up to the first level at or above max Mw, in steps of
-// one or more so that there are at most five levels.
+// magnitudeLevels returns the integer magnitudes of the map's size key.
 func (m *Map) magnitudeLevels() []float64 {
-	if len(m.Events) == 0 {
+	mws := make([]float64, len(m.Events))
+	for i, e := range m.Events {
+		mws[i] = e.Magnitude
+	}
+	return magnitudeLevels(mws)
+}
+
+// magnitudeLevels returns the integer magnitudes of a size key: from
+// floor(min Mw) up to the first level at or above max Mw, in steps of
+// one or more so that there are at most five levels; nil for no
+// magnitudes.
+func magnitudeLevels(mws []float64) []float64 {
+	if len(mws) == 0 {
 		return nil
 	}
 	lo, hi := math.Inf(1), math.Inf(-1)
-	for _, e := range m.Events {
-		lo, hi = math.Min(lo, e.Magnitude), math.Max(hi, e.Magnitude)
+	for _, mw := range mws {
+		lo, hi = math.Min(lo, mw), math.Max(hi, mw)
 	}
 	lo, hi = math.Floor(lo), math.Ceil(hi)
 	const maxLevels = 5

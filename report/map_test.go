@@ -4,12 +4,12 @@ import (
 	"bytes"
 	"image"
 	"image/color"
-	"image/png"
 	"math"
 	"strings"
 	"testing"
 
 	"gonum.org/v1/plot/vg"
+	"gonum.org/v1/plot/vg/draw"
 
 	"slipfront/internal/numtest"
 )
@@ -42,15 +42,7 @@ func renderDecoded(t *testing.T, m *Map, s Size) (image.Image, mapFrame) {
 	if err != nil {
 		t.Fatalf("render: %v", err)
 	}
-	var buf bytes.Buffer
-	if err := pg.writePNG(&buf); err != nil {
-		t.Fatal(err)
-	}
-	img, err := png.Decode(&buf)
-	if err != nil {
-		t.Fatal(err)
-	}
-	return img, f
+	return decodeImage(t, pg), f
 }
 
 // sample is one pixel of an image.
@@ -178,31 +170,56 @@ func TestMapAllNaN(t *testing.T) {
 	}
 }
 
-// TestMapDegenerate draws valid but sparse maps: each must render a frame.
+// TestMapDegenerate draws valid but sparse maps and checks that each
+// feature is drawn where it is, in its colour (probes in map coordinates):
+// a trace of the only value in the middle colour of viridis (the colour
+// range is one unit about it), wells in their near-black, outlines in
+// vermilion, an event as a light grey ring of 3.75 pt (8.3 px at 160 dpi;
+// the mean of the event radii, mapdraw.go) about its epicentre; and nothing
+// where nothing lies.
 func TestMapDegenerate(t *testing.T) {
 	ext := Extent{MinEast: 0, MaxEast: 100, MinNorth: 0, MaxNorth: 100}
+	mid := Viridis(0.5)
+	ring := color.NRGBA{162, 162, 162, 255} // colourEvent (96 grey at alpha 150) over white.
+	const ringRadius = 8                    // Pixels: 3.75 pt at 160 dpi is 8.3 px.
 	for _, tc := range []struct {
-		name string
-		m    Map
+		name   string
+		m      Map
+		probes []probe
 	}{
-		{"empty with extent", Map{Extent: ext}},
-		{"no traces", Map{Extent: ext, Wells: []Well{{Name: "W", Path: []Point{{10, 50}, {90, 50}}}}}},
-		{"no events", Map{Traces: []Trace{{A: Point{0, 0}, B: Point{10, 10}, Value: 1}}}},
-		{"one value", Map{Traces: []Trace{{A: Point{0, 0}, B: Point{10, 10}, Value: 3}, {A: Point{5, 0}, B: Point{5, 10}, Value: 3}}}},
-		{"single point fitted", Map{Events: []Event{{At: Point{3, 4}, Magnitude: -1}}}},
-		{"vertical well", Map{Wells: []Well{{Name: "V", Path: []Point{{0, 0}}}}}},
+		{"empty with extent", Map{Extent: ext}, []probe{{fx: 50, fy: 50, colour: white}}},
+		{"no traces", Map{Extent: ext, Wells: []Well{{Name: "W", Path: []Point{{10, 50}, {90, 50}}}}},
+			[]probe{{fx: 30, fy: 50, colour: colourWell}, {fx: 70, fy: 50, colour: colourWell}}},
+		{"no events", Map{Traces: []Trace{{A: Point{0, 0}, B: Point{10, 10}, Value: 1}}},
+			[]probe{{fx: 5, fy: 5, colour: mid}}},
+		{"one value", Map{Traces: []Trace{{A: Point{0, 0}, B: Point{10, 10}, Value: 3}, {A: Point{5, 0}, B: Point{5, 10}, Value: 3}}},
+			[]probe{{fx: 2, fy: 2, colour: mid}, {fx: 5, fy: 8, colour: mid}}},
+		{"single point fitted", Map{Events: []Event{{At: Point{3, 4}, Magnitude: -1}}},
+			[]probe{{fx: 3, fy: 4, colour: white}, {fx: 3, fy: 4, colour: ring, r: ringRadius + 2}}},
+		{"vertical well", Map{Wells: []Well{{Name: "V", Path: []Point{{0, 0}}}}},
+			[]probe{{fx: 0, fy: 0, colour: colourWell}}},
 		{"features outside", Map{Extent: ext, Traces: []Trace{{A: Point{-500, -500}, B: Point{-400, 900}, Value: 1}},
 			Events: []Event{{At: Point{1e6, 0}, Magnitude: 0}}, Wells: []Well{{Name: "far", Path: []Point{{-1e5, 0}, {-2e5, 0}}}},
-			Clusters: []Cluster{{At: Point{-900, 0}, Stage: "S"}}, Outline: []Polygon{{{{-10, -10}, {-5, -10}, {-5, -5}}}}}},
-		{"trace through", Map{Extent: ext, Traces: []Trace{{A: Point{-1e6, 50}, B: Point{1e6, 50}, Value: 1}}}},
-		{"outline with hole", Map{Outline: []Polygon{{{{0, 0}, {100, 0}, {100, 100}, {0, 100}}, {{40, 40}, {60, 40}, {60, 60}}}}}},
-		{"zero-length trace", Map{Extent: ext, Traces: []Trace{{A: Point{50, 50}, B: Point{50, 50}, Value: 1}}}},
-		{"tiny extent", Map{Extent: Extent{0, 0.02, 0, 0.02}, Traces: []Trace{{A: Point{0, 0}, B: Point{0.01, 0.01}, Value: 1}}}},
-		{"huge extent", Map{Extent: Extent{-5e6, 5e6, -5e6, 5e6}, Traces: []Trace{{A: Point{0, 0}, B: Point{1e6, 1e6}, Value: 1}}}},
+			Clusters: []Cluster{{At: Point{-900, 0}, Stage: "S"}}, Outline: []Polygon{{{{-10, -10}, {-5, -10}, {-5, -5}}}}},
+			[]probe{{fx: 50, fy: 50, colour: white}, {fx: 3, fy: 50, colour: mid, absent: true}, {fx: 3, fy: 3, colour: okabeVermillion, absent: true}}},
+		{"trace through", Map{Extent: ext, Traces: []Trace{{A: Point{-1e6, 50}, B: Point{1e6, 50}, Value: 1}}},
+			[]probe{{fx: 5, fy: 50, colour: mid}, {fx: 50, fy: 50, colour: mid}, {fx: 95, fy: 50, colour: mid}}},
+		// The dashes (6 pt on, 3 pt off) leave gaps of 7 px: a 17 px
+		// window always holds part of a dash.
+		{"outline with hole", Map{Outline: []Polygon{{{{0, 0}, {100, 0}, {100, 100}, {0, 100}}, {{40, 40}, {60, 40}, {60, 60}}}}},
+			[]probe{{fx: 50, fy: 40, colour: okabeVermillion, r: 8}, {fx: 60, fy: 50, colour: okabeVermillion, r: 8}, {fx: 50, fy: 30, colour: white}}},
+		// A point has no length to stroke: nothing is drawn.
+		{"zero-length trace", Map{Extent: ext, Traces: []Trace{{A: Point{50, 50}, B: Point{50, 50}, Value: 1}}},
+			[]probe{{fx: 50, fy: 50, colour: mid, absent: true}}},
+		{"tiny extent", Map{Extent: Extent{0, 0.02, 0, 0.02}, Traces: []Trace{{A: Point{0, 0}, B: Point{0.01, 0.01}, Value: 1}}},
+			[]probe{{fx: 0.005, fy: 0.005, colour: mid}}},
+		{"huge extent", Map{Extent: Extent{-5e6, 5e6, -5e6, 5e6}, Traces: []Trace{{A: Point{0, 0}, B: Point{1e6, 1e6}, Value: 1}}},
+			[]probe{{fx: 5e5, fy: 5e5, colour: mid}}},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
-			img := decodePNG(t, &tc.m, Size{Width: 640, Height: 480})
-			checkPicture(t, img, Size{Width: 640, Height: 480}, minInkedFrame, 4)
+			img, f := renderDecoded(t, &tc.m, DefaultSize)
+			checkPicture(t, img, DefaultSize, minInkedFrame, 4)
+			checkProbes(t, img, func(e, n float64) (x, y float64) { return f.pixel(Point{e, n}) }, tc.probes)
 		})
 	}
 }
@@ -336,11 +353,123 @@ func TestEventColour(t *testing.T) {
 	if c := eventColour(10); c != colourEvent {
 		t.Errorf("few events: %v, want the key colour %v", c, colourEvent)
 	}
-	// 800 events: alpha 170·√(200/800) = 85.
-	if c := eventColour(800); c.A != 85 {
-		t.Errorf("800 events: alpha %d, want 85", c.A)
+	// 800 events: alpha 150·√(200/800) = 75.
+	if c := eventColour(800); c.A != 75 {
+		t.Errorf("800 events: alpha %d, want 75", c.A)
 	}
 	if c := eventColour(1e7); c.A != 40 {
 		t.Errorf("10⁷ events: alpha %d, want the floor 40", c.A)
+	}
+}
+
+// TestMapLabelsClear places the well and stage labels of the demo map and
+// checks that each lies inside the data area, clear of every cluster
+// marker and of the other labels.
+func TestMapLabelsClear(t *testing.T) {
+	m := demoMap(400)
+	ext, err := m.extent()
+	if err != nil {
+		t.Fatal(err)
+	}
+	var placed []placedLabel
+	layers := mapLayers{m: m, levels: m.magnitudeLevels(), cmap: NewViridisMap(0, 6), placed: &placed}
+	_, f := renderMapPage(DefaultSize, mapSpec{extent: ext, layers: layers, side: func(draw.Canvas) {}})
+	wantLabels := 1 + 4 // One well, four stages.
+	if len(placed) != wantLabels {
+		t.Fatalf("%d labels placed, want %d: %+v", len(placed), wantLabels, placed)
+	}
+	at := func(q Point) vg.Point {
+		return vg.Point{
+			X: f.data.X((q.East - f.minE) / (f.maxE - f.minE)),
+			Y: f.data.Y((q.North - f.minN) / (f.maxN - f.minN)),
+		}
+	}
+	for i, a := range placed {
+		if !inside(a.box, f.data.Rectangle) {
+			t.Errorf("label %q at %v is not inside the data area %v", a.text, a.box, f.data.Rectangle)
+		}
+		for _, c := range m.Clusters {
+			if o := overlapArea(a.box, squareAround(at(c.At), radiusCluster)); o > 0 {
+				t.Errorf("label %q overlaps the cluster marker at %v by %.1f pt²", a.text, c.At, o)
+			}
+		}
+		for _, b := range placed[i+1:] {
+			if o := overlapArea(a.box, b.box); o > 0 {
+				t.Errorf("labels %q and %q overlap by %.1f pt²", a.text, b.text, o)
+			}
+		}
+	}
+}
+
+// TestMapConduitsAndSHmax: the conduits add dark dashed pixels along
+// their path and the SHmax arrow adds black pixels in the upper-left
+// corner; without them, those pixels are not there.
+func TestMapConduitsAndSHmax(t *testing.T) {
+	m := demoMap(200)
+	img, f := renderDecoded(t, m, DefaultSize)
+	bare := demoMap(200)
+	bare.Conduits, bare.SHmax = nil, nil
+	imgBare, _ := renderDecoded(t, bare, DefaultSize)
+	// Dark pixels under the middle of each conduit, off the well line
+	// (the points at ±40 m along the conduit, 10 m off the well).
+	hits, tried := 0, 0
+	for _, c := range m.Conduits {
+		for _, s := range []float64{0.1, 0.9} {
+			q := Point{c.A.East + s*(c.B.East-c.A.East), c.A.North + s*(c.B.North-c.A.North)}
+			x, y := f.pixel(q)
+			tried++
+			if d := darkest(img, int(x), int(y)); int(d.R)+int(d.G)+int(d.B) < 3*80 {
+				hits++
+			}
+		}
+	}
+	// A dash of 5 pt in 7.5: about two thirds of the samples fall on ink.
+	if tried == 0 || hits < tried/3 {
+		t.Errorf("%d of %d conduit samples are dark, want at least a third", hits, tried)
+	}
+	box := shmaxBox(f.data)
+	count := func(img image.Image) int {
+		n := 0
+		for y := int(f.pg.height) - int(box.Max.Y.Dots(f.pg.dpi)); y < int(f.pg.height)-int(box.Min.Y.Dots(f.pg.dpi)); y++ {
+			for x := int(box.Min.X.Dots(f.pg.dpi)); x < int(box.Max.X.Dots(f.pg.dpi)); x++ {
+				if c := nrgbaAt(img, x, y); c.R < 40 && c.G < 40 && c.B < 40 {
+					n++
+				}
+			}
+		}
+		return n
+	}
+	// The arrow: a 1.4 pt line 32 pt long (≈ 3 × 70 px) and two heads,
+	// plus the bold label.
+	const minArrowPixels = 150
+	if with, without := count(img), count(imgBare); with < without+minArrowPixels {
+		t.Errorf("black pixels in the SHmax panel: %d with the arrow, %d without; want at least %d more", with, without, minArrowPixels)
+	}
+}
+
+func TestLabelPlacer(t *testing.T) {
+	frame := vg.Rectangle{Max: vg.Point{X: 100, Y: 100}}
+	lp := newLabelPlacer(frame)
+	lp.block(squareAround(vg.Point{X: 50, Y: 60}, 5)) // A marker above the anchor.
+	cands := labelCandidates(vg.Point{X: 50, Y: 50}, 20, 8, 4)
+	if len(cands) != 24 {
+		t.Fatalf("%d candidates, want 24", len(cands))
+	}
+	got, ok := lp.place(cands)
+	// Above (y 54–62) overlaps the marker (55–65); below is free.
+	want := vg.Rectangle{Min: vg.Point{X: 40, Y: 38}, Max: vg.Point{X: 60, Y: 46}}
+	if !ok || got != want {
+		t.Errorf("placed at %v (%v), want below the anchor %v", got, ok, want)
+	}
+	// The second label at the same anchor goes elsewhere.
+	if got2, ok := lp.place(cands); !ok || overlapArea(got2, got) > 0 {
+		t.Errorf("second label at %v overlaps the first at %v", got2, got)
+	}
+	// Nothing fits in a frame smaller than the label.
+	if _, ok := newLabelPlacer(vg.Rectangle{Max: vg.Point{X: 10, Y: 10}}).place(cands); ok {
+		t.Error("a label larger than the frame was placed")
+	}
+	if a := overlapArea(squareAround(vg.Point{}, 1), squareAround(vg.Point{X: 1, Y: 1}, 1)); a != 1 {
+		t.Errorf("overlap of two unit-offset 2×2 squares = %v, want 1", a)
 	}
 }

@@ -7,47 +7,69 @@ import (
 	"slices"
 
 	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/text"
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
 )
 
-// Map styles, points.
+// Map styles, points. The stimulated traces read first: events are
+// small, light and beneath them; the outline is thin.
 const (
 	widthTrace     = 1.6
 	widthNoValue   = 0.7
 	widthWell      = 3.2
-	widthOutline   = 2.0
-	widthEvent     = 0.8
-	radiusEventMin = 2.0 // At the smallest key magnitude.
-	radiusEventMax = 9.0 // At the largest key magnitude.
+	widthOutline   = 1.0
+	widthConduit   = 2.0
+	widthEvent     = 0.6
+	radiusEventMin = 1.5 // At the smallest key magnitude.
+	radiusEventMax = 6.0 // At the largest key magnitude.
 	radiusCluster  = 4.0 // Half-diagonal of the cluster diamond.
 )
 
 var (
 	colourWell  = color.NRGBA{26, 26, 26, 255}
-	colourEvent = color.NRGBA{0, 0, 0, 170}
-	dashOutline = []vg.Length{6, 3}
+	colourEvent = color.NRGBA{96, 96, 96, 150}
+	// styleConduit: dark and dashed, so it differs from the solid well
+	// and from every viridis trace in greyscale too.
+	styleConduit = draw.LineStyle{Color: colourWell, Width: widthConduit, Dashes: []vg.Length{5, 2.5}}
+	styleOutline = draw.LineStyle{Color: okabeVermillion, Width: widthOutline}
 )
 
-// mapLayers draws the features of a Map in order: grey traces, coloured
-// traces (latest first, so the earliest lie on top), events, outlines,
-// wells, clusters and labels. It is a plot.Plotter.
+// mapLayers draws the features of a Map in order: grey traces, events,
+// coloured traces (latest first, so the earliest lie on top), conduits,
+// outlines, wells, clusters, the SHmax arrow and the labels. It is a
+// plot.Plotter.
 type mapLayers struct {
 	m      *Map
-	cmap   *ViridisMap // nil when no trace has a value.
-	levels []float64   // Magnitudes of the event size key.
+	cmap   *ColourMap // nil when no trace has a value.
+	levels []float64  // Magnitudes of the event size key.
+	// placed, when not nil, receives the boxes of the labels drawn, page
+	// points (for tests).
+	placed *[]placedLabel
 }
 
 // Plot draws the layers on the data canvas c of p.
 func (l mapLayers) Plot(c draw.Canvas, p *plot.Plot) {
 	tx, ty := p.Transforms(&c)
 	at := func(q Point) vg.Point { return vg.Point{X: tx(q.East), Y: ty(q.North)} }
-	l.traces(c, at)
+	order := traceOrder(l.m.Traces)
+	split := 0
+	for split < len(order) && (math.IsNaN(l.m.Traces[order[split]].Value) || l.cmap == nil) {
+		split++
+	}
+	l.traces(c, at, order[:split])
 	l.events(c, at)
+	l.traces(c, at, order[split:])
+	l.conduits(c, at)
 	l.outlines(c, at)
 	l.wells(c, at)
 	l.clusters(c, at)
-	l.labels(c, at)
+	lp := newLabelPlacer(c.Rectangle)
+	lp.block(northArrowBox(c), scaleBarBox(c, (p.X.Max-p.X.Min)/float64(c.Max.X-c.Min.X)))
+	if l.m.SHmax != nil {
+		lp.block(drawSHmaxArrow(c, *l.m.SHmax))
+	}
+	l.labels(c, at, lp)
 }
 
 // traceOrder returns the trace indices in drawing order: no-value traces
@@ -72,10 +94,12 @@ func traceOrder(ts []Trace) []int {
 	return order
 }
 
-func (l mapLayers) traces(c draw.Canvas, at func(Point) vg.Point) {
+// traces draws the traces of the given indices: without a value (or
+// without a colour map) thin and grey, else in their colour.
+func (l mapLayers) traces(c draw.Canvas, at func(Point) vg.Point, idx []int) {
 	grey := draw.LineStyle{Color: greyNoValue, Width: widthNoValue}
 	sty := draw.LineStyle{Width: widthTrace}
-	for _, i := range traceOrder(l.m.Traces) {
+	for _, i := range idx {
 		t := l.m.Traces[i]
 		a, b, ok := clipSegment(c.Rectangle, at(t.A), at(t.B))
 		if !ok {
@@ -90,9 +114,17 @@ func (l mapLayers) traces(c draw.Canvas, at func(Point) vg.Point) {
 	}
 }
 
+func (l mapLayers) conduits(c draw.Canvas, at func(Point) vg.Point) {
+	for _, s := range l.m.Conduits {
+		if a, b, ok := clipSegment(c.Rectangle, at(s.A), at(s.B)); ok {
+			c.StrokeLine2(styleConduit, a.X, a.Y, b.X, b.Y)
+		}
+	}
+}
+
 // eventColour returns the circle colour for a catalogue of n events: the
 // key's colour up to fewEvents, then fainter as 1/√n (down to an alpha of
-// 40/255) so that dense catalogues do not hide the traces beneath.
+// 40/255) so that dense catalogues do not hide the traces.
 func eventColour(n int) color.NRGBA {
 	const fewEvents = 200
 	c := colourEvent
@@ -127,7 +159,7 @@ func (l mapLayers) events(c draw.Canvas, at func(Point) vg.Point) {
 }
 
 func (l mapLayers) outlines(c draw.Canvas, at func(Point) vg.Point) {
-	sty := draw.LineStyle{Color: okabeVermillion, Width: widthOutline, Dashes: dashOutline}
+	sty := styleOutline
 	for _, poly := range l.m.Outline {
 		for _, ring := range poly {
 			pts := make([]vg.Point, 0, len(ring)+1)
@@ -181,9 +213,37 @@ func drawDiamond(c draw.Canvas, pt vg.Point, r vg.Length) {
 	c.Stroke(path)
 }
 
-// labels writes well names beside the first path point inside the frame
-// and each stage's name above the centroid of its clusters.
-func (l mapLayers) labels(c draw.Canvas, at func(Point) vg.Point) {
+// placedLabel is a label drawn on a map and its box, page points.
+type placedLabel struct {
+	text string
+	box  vg.Rectangle
+}
+
+// labels writes well names near the first path point inside the frame
+// and each stage's name near the centroid of its clusters, each at the
+// first place clear of the cluster markers, the events, the corner boxes
+// and the labels already placed.
+func (l mapLayers) labels(c draw.Canvas, at func(Point) vg.Point, lp *labelPlacer) {
+	for _, cl := range l.m.Clusters {
+		if pt := at(cl.At); c.Contains(pt) {
+			lp.block(squareAround(pt, radiusCluster+1))
+		}
+	}
+	for _, e := range l.m.Events {
+		if pt := at(e.At); c.Contains(pt) {
+			lp.block(squareAround(pt, eventRadius(e.Magnitude, l.levels)))
+		}
+	}
+	put := func(st text.Style, anchor vg.Point, gap vg.Length, s string) {
+		box, ok := lp.place(labelCandidates(anchor, st.Width(s), st.Height(s), gap))
+		if !ok {
+			return
+		}
+		haloText(c, st, box.Min, s)
+		if l.placed != nil {
+			*l.placed = append(*l.placed, placedLabel{text: s, box: box})
+		}
+	}
 	wellSty := textStyle(sizeTag, true, draw.XLeft, draw.YBottom)
 	for _, w := range l.m.Wells {
 		if w.Name == "" {
@@ -191,15 +251,15 @@ func (l mapLayers) labels(c draw.Canvas, at func(Point) vg.Point) {
 		}
 		for _, q := range w.Path {
 			if pt := at(q); c.Contains(pt) {
-				haloText(c, wellSty, vg.Point{X: pt.X + 5, Y: pt.Y + 5}, w.Name)
+				put(wellSty, pt, 5, w.Name)
 				break
 			}
 		}
 	}
-	stageSty := textStyle(sizeTag, false, draw.XCenter, draw.YBottom)
+	stageSty := textStyle(sizeTag, false, draw.XLeft, draw.YBottom)
 	for _, s := range stageCentroids(l.m.Clusters) {
 		if pt := at(s.at); c.Contains(pt) {
-			haloText(c, stageSty, vg.Point{X: pt.X, Y: pt.Y + radiusCluster + 4}, s.name)
+			put(stageSty, pt, radiusCluster+3, s.name)
 		}
 	}
 }

@@ -6,6 +6,7 @@ import (
 	"math"
 
 	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/palette"
 	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
@@ -39,24 +40,37 @@ func (m *Map) render(s Size) (*page, mapFrame, error) {
 	if err != nil {
 		return nil, mapFrame{}, err
 	}
-	pg := newPage(s)
-	body := frame(pg.dc, m.Title, m.CRSNote)
-
-	const gap = 12 // Between map and side panel, points.
-	side := vg.Length(math.Min(220, math.Max(150, 0.22*float64(body.Max.X-body.Min.X))))
-	mapArea, sideArea := body, body
-	mapArea.Max.X -= side + gap
-	sideArea.Min.X = sideArea.Max.X - side
-
 	layers := mapLayers{m: m, levels: m.magnitudeLevels()}
 	if lo, hi, ok := m.colourRange(); ok {
 		layers.cmap = NewViridisMap(lo, hi)
 	}
+	pg, f := renderMapPage(s, mapSpec{title: m.Title, note: m.CRSNote, extent: ext, layers: layers,
+		side: func(c draw.Canvas) { m.drawSidePanel(c, layers) }})
+	return pg, f, nil
+}
+
+// mapSpec is what every map picture hands to renderMapPage: the words
+// around it, the area shown, what is drawn on the data area and what in
+// the side panel.
+type mapSpec struct {
+	title, note string
+	extent      Extent
+	layers      plot.Plotter
+	side        func(c draw.Canvas)
+}
+
+// renderMapPage lays out a map on a new page of size s (resolved): title,
+// notes, the data area at an equal aspect ratio with its frame, a scale
+// bar and a north arrow, and a side panel on the right.
+func renderMapPage(s Size, spec mapSpec) (*page, mapFrame) {
+	pg := newPage(s)
+	mapArea, sideArea := splitSide(frame(pg.dc, spec.title, spec.note))
+
 	p := newPlot("Easting (local), m", "Northing (local), m")
 	p.X.Padding, p.Y.Padding = 0, 0
-	p.Add(layers)
-	p.X.Min, p.X.Max = ext.MinEast, ext.MaxEast
-	p.Y.Min, p.Y.Max = ext.MinNorth, ext.MaxNorth
+	p.Add(spec.layers)
+	p.X.Min, p.X.Max = spec.extent.MinEast, spec.extent.MaxEast
+	p.Y.Min, p.Y.Max = spec.extent.MinNorth, spec.extent.MaxNorth
 	area := equalAspect(p, mapArea)
 	p.Draw(area)
 	data := p.DataCanvas(area)
@@ -65,9 +79,8 @@ func (m *Map) render(s Size) (*page, mapFrame, error) {
 	drawScaleBar(data, (p.X.Max-p.X.Min)/float64(data.Max.X-data.Min.X))
 	drawNorthArrow(data)
 
-	m.drawSidePanel(sideArea, layers)
-	f := mapFrame{pg: pg, data: data, minE: p.X.Min, maxE: p.X.Max, minN: p.Y.Min, maxN: p.Y.Max}
-	return pg, f, nil
+	spec.side(sideArea)
+	return pg, mapFrame{pg: pg, data: data, minE: p.X.Min, maxE: p.X.Max, minN: p.Y.Min, maxN: p.Y.Max}
 }
 
 // equalAspect widens p's axis ranges (keeping their centres) until one
@@ -135,51 +148,94 @@ func lengthLabel(l float64) string {
 	return fmt.Sprintf("%g m", l)
 }
 
+// Scale-bar layout, points.
+const (
+	scaleBarHeight = 4
+	scaleBarPad    = 5
+	scaleBarInset  = 12 // From the data area's lower-left corner.
+)
+
+// scaleBarLayout returns the scale bar's round length, m, its length on
+// the page, its label and its panel, in the lower left corner of the data
+// area c; metresPerPoint is the map scale.
+func scaleBarLayout(c draw.Canvas, metresPerPoint float64) (length float64, barLen vg.Length, label string, box vg.Rectangle) {
+	width := float64(c.Max.X - c.Min.X)
+	length = niceLength(0.2 * width * metresPerPoint)
+	barLen = vg.Length(length / metresPerPoint)
+	label = lengthLabel(length)
+	st := textStyle(sizeKey, false, draw.XCenter, draw.YBottom)
+	x0, y0 := c.Min.X+scaleBarInset, c.Min.Y+scaleBarInset
+	box = vg.Rectangle{
+		Min: vg.Point{X: x0 - scaleBarPad, Y: y0 - scaleBarPad},
+		Max: vg.Point{X: x0 + barLen + scaleBarPad, Y: y0 + scaleBarHeight + 3 + st.Height(label) + scaleBarPad},
+	}
+	return length, barLen, label, box
+}
+
+// scaleBarBox returns the panel of the scale bar.
+func scaleBarBox(c draw.Canvas, metresPerPoint float64) vg.Rectangle {
+	_, _, _, box := scaleBarLayout(c, metresPerPoint)
+	return box
+}
+
 // drawScaleBar draws a two-part scale bar of a round length, about a fifth
 // of the frame width, in the lower left corner of the data area;
 // metresPerPoint is the map scale.
 func drawScaleBar(c draw.Canvas, metresPerPoint float64) {
-	width := float64(c.Max.X - c.Min.X)
-	length := niceLength(0.2 * width * metresPerPoint)
-	barLen := vg.Length(length / metresPerPoint)
-	const barHeight, pad = 4, 5
-	label := lengthLabel(length)
+	_, barLen, label, box := scaleBarLayout(c, metresPerPoint)
 	st := textStyle(sizeKey, false, draw.XCenter, draw.YBottom)
-	x0, y0 := c.Min.X+12, c.Min.Y+12
-	box := vg.Rectangle{
-		Min: vg.Point{X: x0 - pad, Y: y0 - pad},
-		Max: vg.Point{X: x0 + barLen + pad, Y: y0 + barHeight + 3 + st.Height(label) + pad},
-	}
+	x0, y0 := c.Min.X+scaleBarInset, c.Min.Y+scaleBarInset
 	c.SetColor(translucentWhite)
 	c.Fill(box.Path())
 	half := barLen / 2
-	left := vg.Rectangle{Min: vg.Point{X: x0, Y: y0}, Max: vg.Point{X: x0 + half, Y: y0 + barHeight}}
-	right := vg.Rectangle{Min: vg.Point{X: x0 + half, Y: y0}, Max: vg.Point{X: x0 + barLen, Y: y0 + barHeight}}
+	left := vg.Rectangle{Min: vg.Point{X: x0, Y: y0}, Max: vg.Point{X: x0 + half, Y: y0 + scaleBarHeight}}
+	right := vg.Rectangle{Min: vg.Point{X: x0 + half, Y: y0}, Max: vg.Point{X: x0 + barLen, Y: y0 + scaleBarHeight}}
 	c.SetColor(okabeBlack)
 	c.Fill(left.Path())
 	c.SetColor(white)
 	c.Fill(right.Path())
 	c.SetLineStyle(draw.LineStyle{Color: okabeBlack, Width: 0.8})
 	c.Stroke(vg.Rectangle{Min: left.Min, Max: right.Max}.Path())
-	c.FillText(st, vg.Point{X: x0 + half, Y: y0 + barHeight + 3}, label)
+	c.FillText(st, vg.Point{X: x0 + half, Y: y0 + scaleBarHeight + 3}, label)
 }
 
 // translucentWhite backs the scale bar and the north arrow.
 var translucentWhite = color.NRGBA{255, 255, 255, 215}
 
+// North-arrow layout, points.
+const (
+	northHeadW, northHeadH, northShaft, northPad = 9, 11, 12, 4
+	northInset                                   = 22 // Arrow axis from the right edge.
+)
+
+// northArrowGeometry returns the arrow's axis x, the top of its "N", its
+// tip and the base of its head, and its panel, in the upper right corner
+// of the data area c.
+func northArrowGeometry(c draw.Canvas) (x, top, tip, base vg.Length, box vg.Rectangle) {
+	st := textStyle(sizeLabel, true, draw.XCenter, draw.YTop)
+	x = c.Max.X - northInset
+	top = c.Max.Y - 8
+	tip = top - st.Height("N") - 2
+	base = tip - northHeadH
+	box = vg.Rectangle{
+		Min: vg.Point{X: x - northHeadW/2 - northPad, Y: base - northShaft - northPad},
+		Max: vg.Point{X: x + northHeadW/2 + northPad, Y: top + northPad},
+	}
+	return x, top, tip, base, box
+}
+
+// northArrowBox returns the panel of the north arrow.
+func northArrowBox(c draw.Canvas) vg.Rectangle {
+	_, _, _, _, box := northArrowGeometry(c)
+	return box
+}
+
 // drawNorthArrow draws a half-filled arrow with an "N" in the upper right
 // corner of the data area, pointing to grid north (+North).
 func drawNorthArrow(c draw.Canvas) {
-	const headW, headH, shaft, pad = 9, 11, 12, 4
+	const headW, headH, shaft = northHeadW, northHeadH, northShaft
+	x, top, tip, base, box := northArrowGeometry(c)
 	st := textStyle(sizeLabel, true, draw.XCenter, draw.YTop)
-	x := c.Max.X - 22
-	top := c.Max.Y - 8
-	tip := top - st.Height("N") - 2
-	base := tip - headH
-	box := vg.Rectangle{
-		Min: vg.Point{X: x - headW/2 - pad, Y: base - shaft - pad},
-		Max: vg.Point{X: x + headW/2 + pad, Y: top + pad},
-	}
 	c.SetColor(translucentWhite)
 	c.Fill(box.Path())
 	c.FillText(st, vg.Point{X: x, Y: top}, "N")
@@ -205,22 +261,39 @@ func drawNorthArrow(c draw.Canvas) {
 // drawSidePanel draws the colour bar (or a note when no trace has a value)
 // and the key of the map's symbols.
 func (m *Map) drawSidePanel(c draw.Canvas, l mapLayers) {
+	var notes []string
+	if l.cmap == nil && len(m.Traces) > 0 {
+		notes = []string{"No trace has a value:", "all are drawn grey."}
+	}
+	var cmap palette.ColorMap
+	if l.cmap != nil {
+		cmap = l.cmap
+	}
+	drawColourPanel(c, cmap, m.Colour.axisLabel(), notes, m.keyRows(l))
+}
+
+// drawColourPanel draws, from the top of c down: a vertical colour bar of
+// cmap over 42 % of the height (nothing when cmap is nil), the note lines,
+// then the key rows.
+func drawColourPanel(c draw.Canvas, cmap palette.ColorMap, label string, notes []string, rows []keyRow) {
 	height := c.Max.Y - c.Min.Y
 	top := c.Max.Y
-	if l.cmap != nil {
+	if cmap != nil {
 		barArea := c
 		barArea.Min.Y = c.Max.Y - 0.42*height
-		drawColourBar(barArea, l.cmap, m.Colour.axisLabel())
+		drawColourBar(barArea, cmap, label)
 		top = barArea.Min.Y - 14
-	} else if len(m.Traces) > 0 {
+	}
+	if len(notes) > 0 {
 		st := textStyle(sizeKey, false, draw.XLeft, draw.YTop)
-		c.FillText(st, vg.Point{X: c.Min.X, Y: top}, "No trace has a value:")
-		top -= st.FontExtents().Height
-		c.FillText(st, vg.Point{X: c.Min.X, Y: top}, "all are drawn grey.")
-		top -= st.FontExtents().Height + 14
+		for _, n := range notes {
+			c.FillText(st, vg.Point{X: c.Min.X, Y: top}, n)
+			top -= st.FontExtents().Height
+		}
+		top -= 14
 	}
 	c.Max.Y = top
-	drawKey(c, m.keyRows(l))
+	drawKey(c, rows)
 }
 
 // axisLabel returns "Label, Unit" for the colour bar.
@@ -235,9 +308,9 @@ func (s ColourScale) axisLabel() string {
 	return label + ", " + s.Unit
 }
 
-// drawColourBar draws a vertical viridis bar with its axis and label at the
+// drawColourBar draws a vertical colour bar with its axis and label at the
 // left of area.
-func drawColourBar(area draw.Canvas, cmap *ViridisMap, label string) {
+func drawColourBar(area draw.Canvas, cmap palette.ColorMap, label string) {
 	const barWidth = 16 // Points.
 	p := newPlot("", label)
 	p.HideX()

@@ -101,23 +101,25 @@ func unitByte(v float64) uint8 {
 	return uint8(math.Round(255 * math.Min(1, math.Max(0, v))))
 }
 
-// ViridisMap is a palette.ColorMap over [Min, Max] using Viridis, for
-// gonum/plot plotters such as plotter.ColorBar. Its zero value is not
-// usable; make one with NewViridisMap.
-type ViridisMap struct {
+// ColourMap is a palette.ColorMap over [Min, Max] with a continuous
+// colour scale (viridis or a diverging one), for gonum/plot plotters such
+// as plotter.ColorBar. Its zero value is not usable; make one with
+// NewViridisMap or NewDivergingMap.
+type ColourMap struct {
 	min, max, alpha float64
+	scale           func(t float64) color.NRGBA // Opaque colour at t ∈ [0, 1].
 }
 
-var _ palette.ColorMap = (*ViridisMap)(nil)
+var _ palette.ColorMap = (*ColourMap)(nil)
 
 // NewViridisMap returns an opaque viridis colour map over [min, max].
-func NewViridisMap(min, max float64) *ViridisMap {
-	return &ViridisMap{min: min, max: max, alpha: 1}
+func NewViridisMap(min, max float64) *ColourMap {
+	return &ColourMap{min: min, max: max, alpha: 1, scale: Viridis}
 }
 
 // At returns the colour of v, or an error when v is NaN or outside
 // [Min, Max] (the palette.ColorMap contract).
-func (m *ViridisMap) At(v float64) (color.Color, error) {
+func (m *ColourMap) At(v float64) (color.Color, error) {
 	switch {
 	case math.IsNaN(v):
 		return nil, palette.ErrNaN
@@ -130,33 +132,33 @@ func (m *ViridisMap) At(v float64) (color.Color, error) {
 }
 
 // clamped returns the colour of v with v clamped to [Min, Max].
-func (m *ViridisMap) clamped(v float64) color.NRGBA {
+func (m *ColourMap) clamped(v float64) color.NRGBA {
 	t := 0.0
 	if m.max > m.min {
 		t = (v - m.min) / (m.max - m.min)
 	}
-	c := Viridis(t)
+	c := m.scale(t)
 	c.A = unitByte(m.alpha)
 	return c
 }
 
-// Max returns the value drawn with the last (yellow) colour.
-func (m *ViridisMap) Max() float64 { return m.max }
+// Max returns the value drawn with the last colour.
+func (m *ColourMap) Max() float64 { return m.max }
 
 // SetMax sets the value drawn with the last colour.
-func (m *ViridisMap) SetMax(v float64) { m.max = v }
+func (m *ColourMap) SetMax(v float64) { m.max = v }
 
-// Min returns the value drawn with the first (dark purple) colour.
-func (m *ViridisMap) Min() float64 { return m.min }
+// Min returns the value drawn with the first colour.
+func (m *ColourMap) Min() float64 { return m.min }
 
 // SetMin sets the value drawn with the first colour.
-func (m *ViridisMap) SetMin(v float64) { m.min = v }
+func (m *ColourMap) SetMin(v float64) { m.min = v }
 
 // Alpha returns the opacity, 0 (transparent) to 1 (opaque).
-func (m *ViridisMap) Alpha() float64 { return m.alpha }
+func (m *ColourMap) Alpha() float64 { return m.alpha }
 
 // SetAlpha sets the opacity; it panics outside [0, 1].
-func (m *ViridisMap) SetAlpha(a float64) {
+func (m *ColourMap) SetAlpha(a float64) {
 	if !(a >= 0 && a <= 1) {
 		panic(fmt.Sprintf("report: alpha %g outside [0, 1]", a))
 	}
@@ -164,14 +166,14 @@ func (m *ViridisMap) SetAlpha(a float64) {
 }
 
 // Palette returns n colours evenly spaced from Min to Max.
-func (m *ViridisMap) Palette(n int) palette.Palette {
+func (m *ColourMap) Palette(n int) palette.Palette {
 	cs := make(colours, n)
 	for i := range cs {
 		t := 0.0
 		if n > 1 {
 			t = float64(i) / float64(n-1)
 		}
-		c := Viridis(t)
+		c := m.scale(t)
 		c.A = unitByte(m.alpha)
 		cs[i] = c
 	}

@@ -63,16 +63,22 @@ func lookup(tree map[string]any, path string) any {
 	return cur
 }
 
-// renderValue writes a raw value as it would appear in the file.
+// renderValue writes a raw value as it would appear in the file, cut to
+// maxEchoed characters.
 func renderValue(raw any) string {
+	var s string
 	switch v := raw.(type) {
 	case string:
-		return strconv.Quote(v)
+		return echo(v)
 	case []any, []map[string]any, map[string]any:
-		return fmt.Sprintf("%v", v)
+		s = fmt.Sprintf("%v", v)
 	default:
-		return fmt.Sprint(v)
+		s = fmt.Sprint(v)
 	}
+	if r := []rune(s); len(r) > maxEchoed {
+		return string(r[:maxEchoed]) + "…"
+	}
+	return s
 }
 
 // decodeStruct fills the struct v from the table node. Keys in node that
@@ -325,7 +331,12 @@ func (d *decoder) number(path string, raw any, kind unitKind) (float64, bool) {
 	if kind != "" {
 		s, ok := raw.(string)
 		if !ok {
-			d.fail(path, raw, "needs a unit, written as a string (%s: %s), e.g. \"%v %s\"", kind, unitNames(kind), raw, unitTable[kind][0].name)
+			example := "2600"
+			switch raw.(type) {
+			case int64, float64:
+				example = renderValue(raw)
+			}
+			d.fail(path, raw, "needs a unit, written as a string (%s: %s), e.g. \"%s %s\"", kind, unitNames(kind), example, unitTable[kind][0].name)
 			return 0, false
 		}
 		x, err := parseQuantity(s, kind)
@@ -424,7 +435,10 @@ func (r rangeSpec) check(x float64, kind unitKind) string {
 }
 
 func (r rangeSpec) describe(unit string) string {
-	num := func(v float64) string { return strconv.FormatFloat(v, 'g', -1, 64) }
+	num := func(v float64) string {
+		t := strconv.FormatFloat(v, 'g', -1, 64)
+		return strings.NewReplacer("e+0", "e", "e+", "e", "e-0", "e-").Replace(t)
+	}
 	if math.IsInf(r.hi, 1) {
 		if r.loOpen {
 			return "> " + num(r.lo) + unit

@@ -23,11 +23,16 @@
 // unit is ever guessed. Inside, everything is SI (m, s, Pa, Pa·s, 1/Pa, m³,
 // m³/s) and angles are radians. Conversion factors follow NIST Special
 // Publication 811 (2008), Appendix B; the US oil barrel is 42 US gallons.
+// Lengths may be in the US survey foot, "ftUS" (1200/3937 m), which State
+// Plane coordinates use; "ft" is the international foot (0.3048 m).
 //
 // # Conventions
 //
 // Local coordinates are East-North metres from the scenario origin, depths
-// are true vertical depth, positive down. Stress is compression-positive.
+// are true vertical depth, positive down. The origin lies in the projected
+// CRS named by domain.crs (an EPSG code the gis package knows) or read
+// from the WKT file domain.crs_wkt; the local axes are parallel to its
+// grid. Stress is compression-positive.
 // Azimuths are clockwise from north; quadrant bearings such as N75E (75°
 // east of north) and S20W (200°) are accepted.
 //

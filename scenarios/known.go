@@ -28,12 +28,17 @@ func ReadKnownFractures(r io.Reader, name string) ([]KnownFracture, error) {
 	if err != nil {
 		return nil, csvError(name, err)
 	}
+	if !slices.ContainsFunc(header, func(h string) bool { return slices.Contains(knownColumns, strings.TrimSpace(h)) }) {
+		// Not a header of ours at all (perhaps the wrong file): say so
+		// without repeating what the file holds.
+		return nil, fmt.Errorf("%s:1: the first line names none of the columns %s; is this the known-fracture table?", name, strings.Join(knownColumns, ","))
+	}
 	col := map[string]int{}
 	for i, h := range header {
 		h = strings.TrimSpace(h)
 		if !slices.Contains(knownColumns, h) {
 			line, _ := cr.FieldPos(i)
-			return nil, fmt.Errorf("%s:%d: unknown column %q%s; columns: %s", name, line, h, suggest(h, knownColumns), strings.Join(knownColumns, ","))
+			return nil, fmt.Errorf("%s:%d: unknown column %s%s; columns: %s", name, line, echo(h), suggest(h, knownColumns), strings.Join(knownColumns, ","))
 		}
 		col[h] = i
 	}
@@ -43,6 +48,7 @@ func ReadKnownFractures(r io.Reader, name string) ([]KnownFracture, error) {
 		}
 	}
 	var out []KnownFracture
+	seen := map[string]int{} // name → line
 	for {
 		rec, err := cr.Read()
 		if err == io.EOF {
@@ -56,6 +62,10 @@ func ReadKnownFractures(r io.Reader, name string) ([]KnownFracture, error) {
 		if err != nil {
 			return nil, err
 		}
+		if first, dup := seen[k.Name]; dup {
+			return nil, fmt.Errorf("%s:%d: name %s repeats the name on line %d; names must be unique", name, line, echo(k.Name), first)
+		}
+		seen[k.Name] = line
 		out = append(out, k)
 	}
 }
@@ -85,7 +95,7 @@ func knownFracture(rec []string, col map[string]int, name string, line int) (Kno
 		s := strings.TrimSpace(rec[col[f.col]])
 		v, err := strconv.ParseFloat(s, 64)
 		if err != nil || math.IsNaN(v) || math.IsInf(v, 0) {
-			return k, fmt.Errorf("%s:%d: %s = %q: not a number", name, line, f.col, s)
+			return k, fmt.Errorf("%s:%d: %s = %s: not a number", name, line, f.col, echo(s))
 		}
 		if v < f.lo || v > f.hi || (f.loOpen && v == f.lo) {
 			r := rangeSpec{set: true, lo: f.lo, hi: f.hi, loOpen: f.loOpen}

@@ -6,6 +6,7 @@ import (
 	"encoding/hex"
 	"encoding/json"
 	"errors"
+	"io"
 	"io/fs"
 	"os"
 	"path"
@@ -17,6 +18,8 @@ import (
 	"slipfront/internal/badinput"
 
 	"github.com/BurntSushi/toml"
+
+	"slipfront/gis"
 )
 
 //go:embed examples/*.toml examples/*.csv
@@ -53,11 +56,12 @@ func LoadExample(name string, overrides ...Override) (*Scenario, error) {
 }
 
 // Load reads the scenario file at path with overrides applied. A known
-// fracture file is resolved relative to the scenario's folder. When no
+// fracture file and a CRS WKT file are resolved relative to the
+// scenario's folder. When no
 // file exists at path but path names an embedded example ("demo"), the
 // example is loaded.
 func Load(p string, overrides ...Override) (*Scenario, error) {
-	src, err := os.ReadFile(p)
+	src, err := readInputFile(p)
 	if errors.Is(err, fs.ErrNotExist) && !strings.ContainsRune(p, filepath.Separator) {
 		if _, exErr := ExampleSource(p); exErr == nil {
 			return LoadExample(p, overrides...)
@@ -70,7 +74,8 @@ func Load(p string, overrides ...Override) (*Scenario, error) {
 }
 
 // Parse decodes, converts and validates a scenario. name is used in
-// messages; files resolves the known-fracture file named in the scenario.
+// messages; files resolves the known-fracture and CRS WKT files named in
+// the scenario.
 // Every problem found is reported at once, as Errors.
 func Parse(name string, src []byte, files fs.FS, overrides ...Override) (*Scenario, error) {
 	var tree map[string]any
@@ -93,6 +98,7 @@ func Parse(name string, src []byte, files fs.FS, overrides ...Override) (*Scenar
 	d.decodeStruct("", tree, reflect.ValueOf(s).Elem())
 	if len(d.errs) == 0 {
 		d.readKnownFractures(s, files)
+		d.readCRSWKT(s, files)
 	}
 	if len(d.errs) == 0 {
 		d.validate(s)
@@ -108,7 +114,7 @@ func (d *decoder) readKnownFractures(s *Scenario, files fs.FS) {
 	if s.KnownFractures.File == "" {
 		return
 	}
-	f, err := files.Open(filepath.ToSlash(s.KnownFractures.File))
+	f, err := openInput(files, filepath.ToSlash(s.KnownFractures.File))
 	if err != nil {
 		d.failKey("known_fractures.file", "cannot open: %v", err)
 		return
@@ -120,6 +126,41 @@ func (d *decoder) readKnownFractures(s *Scenario, files fs.FS) {
 		return
 	}
 	s.KnownFractures.Fractures = kf
+}
+
+// readCRSWKT reads the WKT file of domain.crs_wkt into
+// Domain.CRSDefinition, refusing it beside domain.crs.
+func (d *decoder) readCRSWKT(s *Scenario, files fs.FS) {
+	dm := &s.Domain
+	if dm.CRSWKT == "" {
+		return
+	}
+	if dm.CRS != "" {
+		d.failKey("domain.crs_wkt", "give the CRS once: domain.crs = %q is set too", dm.CRS)
+		return
+	}
+	f, err := openInput(files, filepath.ToSlash(dm.CRSWKT))
+	if err != nil {
+		d.failKey("domain.crs_wkt", "cannot open: %v", err)
+		return
+	}
+	defer f.Close()
+	text, err := io.ReadAll(io.LimitReader(f, gis.MaxWKTBytes+1))
+	if err != nil {
+		d.failKey("domain.crs_wkt", "reading: %v", err)
+		return
+	}
+	c, err := gis.ParseWKT(string(text))
+	if err != nil {
+		var we *gis.WKTError
+		if errors.As(err, &we) {
+			d.failKey("domain.crs_wkt", "%s:%d:%d: %s", dm.CRSWKT, we.Line, we.Column, we.Msg)
+		} else {
+			d.failKey("domain.crs_wkt", "%s: %v", dm.CRSWKT, err)
+		}
+		return
+	}
+	dm.CRSDefinition = c.String()
 }
 
 // digest is the SHA-256 of the scenario's canonical SI content (JSON of

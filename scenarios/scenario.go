@@ -43,29 +43,48 @@ type Domain struct {
 	XMax float64 `toml:"x_max" unit:"length" range:"[-1e7,1e7]" doc:"east edge of the map area" example:"1000 m"`
 	YMin float64 `toml:"y_min" unit:"length" range:"[-1e7,1e7]" doc:"south edge of the map area (local north coordinate)" example:"-1000 m"`
 	YMax float64 `toml:"y_max" unit:"length" range:"[-1e7,1e7]" doc:"north edge of the map area" example:"1000 m"`
-	// CRS is "EPSG:<code>" of a projected CRS, or "" for an undefined
-	// Cartesian frame.
-	CRS string `toml:"crs" default:"" doc:"projected CRS of the origin, e.g. \"EPSG:32614\"; empty for an undefined local frame"`
+	// CRS is "EPSG:<code>" of a projected CRS the gis package knows
+	// (gis.ParseCRS), or "" for an undefined Cartesian frame or when
+	// CRSWKT names the CRS.
+	CRS string `toml:"crs" default:"" doc:"projected CRS of the origin as \"EPSG:<code>\": UTM (\"EPSG:32614\"), US State Plane (\"EPSG:2277\", in US survey feet) and other transverse Mercator or Lambert conic CRSs on WGS 84, NAD83 or NAD27; empty for an undefined local frame"`
+	// CRSWKT is a file holding the projected CRS as WKT (WKT1 or WKT2),
+	// relative to the scenario file; "" for none. Exclusive with CRS.
+	CRSWKT string `toml:"crs_wkt" default:"" json:",omitempty" doc:"file with the projected CRS as WKT (WKT1 or WKT2, e.g. a .prj), relative to this file; instead of crs, for any projected CRS"`
+	// CRSDefinition is the text of CRSWKT on one line, read with the
+	// scenario; not a key.
+	CRSDefinition string `toml:"-" json:",omitempty"`
 	// OriginEasting and OriginNorthing place local (0, 0) in the CRS, m.
-	OriginEasting  float64 `toml:"origin_easting" unit:"length" range:"[-1e8,1e8]" default:"0 m" doc:"easting of local (0,0) in the CRS"`
-	OriginNorthing float64 `toml:"origin_northing" unit:"length" range:"[-1e8,1e8]" default:"0 m" doc:"northing of local (0,0) in the CRS"`
+	// They are lengths with a unit; the CRS's own unit is used on output,
+	// so "2300000 ftUS" in a US survey foot CRS lands on 2300000 exactly
+	// ("ft" is the international foot, 2 ppm shorter).
+	OriginEasting  float64 `toml:"origin_easting" unit:"length" range:"[-1e8,1e8]" default:"0 m" doc:"easting of local (0,0) in the CRS, with a unit: write \"ftUS\" for US survey feet (\"ft\" is the international foot)"`
+	OriginNorthing float64 `toml:"origin_northing" unit:"length" range:"[-1e8,1e8]" default:"0 m" doc:"northing of local (0,0) in the CRS, with a unit"`
+}
+
+// CRSSpec returns the CRS as gis.ParseCRS reads it: domain.crs, the WKT
+// text of domain.crs_wkt, or "" for an undefined local frame.
+func (d Domain) CRSSpec() string {
+	if d.CRSDefinition != "" {
+		return d.CRSDefinition
+	}
+	return d.CRS
 }
 
 // Layer is the simulated reservoir interval.
 type Layer struct {
 	// Depth is the true vertical depth of the layer mid-plane, m.
-	Depth float64 `toml:"depth" unit:"length" range:"(0,inf)" doc:"true vertical depth of the layer mid-plane" example:"2600 m"`
+	Depth float64 `toml:"depth" unit:"length" range:"[10,15000]" doc:"true vertical depth of the layer mid-plane" example:"2600 m"`
 	// Thickness of the layer, m.
-	Thickness float64 `toml:"thickness" unit:"length" range:"(0,inf)" doc:"layer thickness" example:"40 m"`
+	Thickness float64 `toml:"thickness" unit:"length" range:"[0.1,2000]" doc:"layer thickness" example:"40 m"`
 }
 
 // Stress is the in-situ stress state, as gradients from the surface.
 // Stress is compression-positive.
 type Stress struct {
-	SvGradient           float64 `toml:"sv_gradient" unit:"gradient" range:"(0,inf)" doc:"vertical stress gradient" example:"25 kPa/m"`
-	SHmaxGradient        float64 `toml:"shmax_gradient" unit:"gradient" range:"(0,inf)" doc:"maximum horizontal stress gradient" example:"27 kPa/m"`
-	ShminGradient        float64 `toml:"shmin_gradient" unit:"gradient" range:"(0,inf)" doc:"minimum horizontal stress gradient" example:"19 kPa/m"`
-	PorePressureGradient float64 `toml:"pore_pressure_gradient" unit:"gradient" range:"[0,inf)" doc:"initial pore-pressure gradient" example:"11 kPa/m"`
+	SvGradient           float64 `toml:"sv_gradient" unit:"gradient" range:"[1000,100000]" doc:"vertical stress gradient" example:"25 kPa/m"`
+	SHmaxGradient        float64 `toml:"shmax_gradient" unit:"gradient" range:"[1000,100000]" doc:"maximum horizontal stress gradient" example:"27 kPa/m"`
+	ShminGradient        float64 `toml:"shmin_gradient" unit:"gradient" range:"[1000,100000]" doc:"minimum horizontal stress gradient" example:"19 kPa/m"`
+	PorePressureGradient float64 `toml:"pore_pressure_gradient" unit:"gradient" range:"[0,100000]" doc:"initial pore-pressure gradient" example:"11 kPa/m"`
 	// SHmaxAzimuth, radians clockwise from north.
 	SHmaxAzimuth float64 `toml:"shmax_azimuth" unit:"azimuth" range:"[0,360]" doc:"azimuth of SHmax, e.g. \"N75E\" or \"75 deg\"" example:"N75E"`
 }
@@ -73,20 +92,20 @@ type Stress struct {
 // Rock holds the elastic, frictional and aperture properties shared by all
 // natural fractures.
 type Rock struct {
-	ShearModulus     float64 `toml:"shear_modulus" unit:"pressure" range:"(0,inf)" default:"15 GPa" doc:"shear modulus G"`
+	ShearModulus     float64 `toml:"shear_modulus" unit:"pressure" range:"[1e8,2e11]" default:"15 GPa" doc:"shear modulus G"`
 	PoissonRatio     float64 `toml:"poisson_ratio" range:"(0,0.5)" default:"0.25" doc:"Poisson's ratio"`
-	FrictionStatic   float64 `toml:"friction_static" range:"(0,inf)" default:"0.6" doc:"static friction coefficient (slip onset)"`
-	FrictionResidual float64 `toml:"friction_residual" range:"(0,inf)" default:"0.5" doc:"residual friction coefficient (after slip); at most friction_static"`
-	Cohesion         float64 `toml:"cohesion" unit:"pressure" range:"[0,inf)" default:"0 MPa" doc:"cohesion of the fracture surfaces"`
+	FrictionStatic   float64 `toml:"friction_static" range:"(0,2]" default:"0.6" doc:"static friction coefficient (slip onset)"`
+	FrictionResidual float64 `toml:"friction_residual" range:"(0,2]" default:"0.5" doc:"residual friction coefficient (after slip); at most friction_static"`
+	Cohesion         float64 `toml:"cohesion" unit:"pressure" range:"[0,1e8]" default:"0 MPa" doc:"cohesion of the fracture surfaces"`
 	// ZeroStressAperture is e0 of Willis-Richards et al. (1996), m.
-	ZeroStressAperture float64 `toml:"zero_stress_aperture" unit:"length" range:"(0,inf)" default:"0.5 mm" doc:"aperture at zero effective normal stress and no slip (e0)"`
+	ZeroStressAperture float64 `toml:"zero_stress_aperture" unit:"length" range:"[1e-7,0.01]" default:"0.5 mm" doc:"aperture at zero effective normal stress and no slip (e0)"`
 	// ClosureStress is σn,ref: the effective normal stress that closes a
 	// fracture to 1/10 of e0, Pa.
-	ClosureStress float64 `toml:"closure_stress" unit:"pressure" range:"(0,inf)" default:"20 MPa" doc:"effective normal stress that closes a fracture to 1/10 of e0"`
+	ClosureStress float64 `toml:"closure_stress" unit:"pressure" range:"[1e4,1e20]" default:"20 MPa" doc:"effective normal stress that closes a fracture to 1/10 of e0"`
 	// DilationAngle φ_dil, radians.
 	DilationAngle float64 `toml:"dilation_angle" unit:"angle" range:"[0,90)" default:"2.5 deg" doc:"shear dilation angle"`
 	// DilationSlipLimit D_max: slip beyond it adds no dilation, m.
-	DilationSlipLimit float64 `toml:"dilation_slip_limit" unit:"length" range:"[0,inf)" default:"5 mm" doc:"slip beyond which shear dilation stops growing"`
+	DilationSlipLimit float64 `toml:"dilation_slip_limit" unit:"length" range:"[0,1]" default:"5 mm" doc:"slip beyond which shear dilation stops growing"`
 }
 
 // FractureSet is the statistical description of one natural fracture set.
@@ -95,7 +114,7 @@ type FractureSet struct {
 	// Shape is "disc" (size = radius) or "rectangle" (size = length along
 	// strike; height down dip = length × aspect ratio).
 	Shape       string  `toml:"shape" default:"disc" range:"disc|rectangle" doc:"fracture shape: disc (size is the radius) or rectangle (size is the strike length)"`
-	AspectRatio float64 `toml:"aspect_ratio" default:"1" range:"(0,inf)" doc:"rectangles: down-dip height / strike length"`
+	AspectRatio float64 `toml:"aspect_ratio" default:"1" range:"[0.01,100]" doc:"rectangles: down-dip height / strike length"`
 
 	Orientation Orientation `toml:"orientation"`
 	Size        Size        `toml:"size"`
@@ -110,7 +129,7 @@ type Orientation struct {
 	Dip          float64 `toml:"dip" unit:"angle" range:"[0,90]" default:"90 deg" doc:"dip of the mean plane"`
 	DipDirection float64 `toml:"dip_direction" unit:"azimuth" range:"[0,360]" default:"0 deg" doc:"dip direction of the mean plane, clockwise from north"`
 	// Kappa is the Fisher concentration (fisher only).
-	Kappa float64 `toml:"kappa" range:"(0,inf)" default:"20" doc:"Fisher concentration κ (fisher only)"`
+	Kappa float64 `toml:"kappa" range:"(0,1e6]" default:"20" doc:"Fisher concentration κ (fisher only)"`
 }
 
 // Size is the fracture size distribution of a set, m.
@@ -118,15 +137,15 @@ type Size struct {
 	// Distribution is "constant", "power_law", "lognormal" or "exponential".
 	Distribution string `toml:"distribution" default:"power_law" range:"constant|power_law|lognormal|exponential" doc:"size law"`
 	// Value is the size of a constant law, m.
-	Value float64 `toml:"value" unit:"length" range:"(0,inf)" default:"50 m" doc:"constant: the size"`
+	Value float64 `toml:"value" unit:"length" range:"[0.01,1e5]" default:"50 m" doc:"constant: the size"`
 	// Min and Max bound the truncated power law, m.
-	Min float64 `toml:"min" unit:"length" range:"(0,inf)" default:"20 m" doc:"power_law: smallest size"`
-	Max float64 `toml:"max" unit:"length" range:"(0,inf)" default:"200 m" doc:"power_law: largest size"`
+	Min float64 `toml:"min" unit:"length" range:"[0.01,1e5]" default:"20 m" doc:"power_law: smallest size"`
+	Max float64 `toml:"max" unit:"length" range:"[0.01,1e5]" default:"200 m" doc:"power_law: largest size"`
 	// Exponent D of the power law's complementary CDF, P(R > r) ∝ r^-D.
-	Exponent float64 `toml:"exponent" range:"(0,inf)" default:"2.5" doc:"power_law: exponent D of P(size > r) ∝ r^-D (density exponent D+1)"`
+	Exponent float64 `toml:"exponent" range:"[0.1,10]" default:"2.5" doc:"power_law: exponent D of P(size > r) ∝ r^-D (density exponent D+1)"`
 	// Mean and StdDev of the size for lognormal and exponential laws, m.
-	Mean   float64 `toml:"mean" unit:"length" range:"(0,inf)" default:"50 m" doc:"lognormal, exponential: mean size"`
-	StdDev float64 `toml:"std_dev" unit:"length" range:"(0,inf)" default:"20 m" doc:"lognormal: standard deviation of the size"`
+	Mean   float64 `toml:"mean" unit:"length" range:"[0.01,1e5]" default:"50 m" doc:"lognormal, exponential: mean size"`
+	StdDev float64 `toml:"std_dev" unit:"length" range:"[0.001,1e5]" default:"20 m" doc:"lognormal: standard deviation of the size"`
 }
 
 // Intensity is how many fractures a set has.
@@ -134,14 +153,14 @@ type Intensity struct {
 	// Measure is "p32", "p10" or "count".
 	Measure string `toml:"measure" default:"p32" range:"p32|p10|count" doc:"intensity given as p32 (area per volume), p10 (count per length along a line) or count"`
 	// P32 target, fracture area per rock volume, 1/m.
-	P32 float64 `toml:"p32" unit:"intensity" range:"(0,inf)" default:"0.01 1/m" doc:"p32: fracture area per unit volume"`
+	P32 float64 `toml:"p32" unit:"intensity" range:"(0,100]" default:"0.01 1/m" doc:"p32: fracture area per unit volume"`
 	// P10 measured along a line of the given trend and plunge, 1/m.
-	P10 float64 `toml:"p10" unit:"intensity" range:"(0,inf)" default:"0.01 1/m" doc:"p10: fractures per unit length of the measuring line"`
+	P10 float64 `toml:"p10" unit:"intensity" range:"(0,100]" default:"0.01 1/m" doc:"p10: fractures per unit length of the measuring line"`
 	// LineTrend and LinePlunge orient the P10 line, radians.
 	LineTrend  float64 `toml:"line_trend" unit:"azimuth" range:"[0,360]" default:"90 deg" doc:"p10: trend of the measuring line (a well lateral or scanline)"`
 	LinePlunge float64 `toml:"line_plunge" unit:"angle" range:"[-90,90]" default:"0 deg" doc:"p10: plunge of the measuring line, positive down"`
 	// Count of the set's fractures that can reach the map × layer volume.
-	Count int `toml:"count" range:"[1,inf)" default:"100" doc:"count: number of the set's fractures that can reach the map area and layer"`
+	Count int `toml:"count" range:"[1,1e8]" default:"100" doc:"count: number of the set's fractures that can reach the map area and layer"`
 }
 
 // KnownFractures points to mapped faults or fractures added as they are.
@@ -178,15 +197,15 @@ type Well struct {
 	Path []Point `toml:"path" unit:"length" doc:"path points [x, y, depth] from heel to toe" example:"[[\"-600 m\", \"-150 m\", \"2600 m\"], [\"600 m\", \"-150 m\", \"2600 m\"]]"`
 	// PerforationReach: a cluster connects to fractures the well path
 	// crosses within this distance of it along the path, m.
-	PerforationReach float64 `toml:"perforation_reach" unit:"length" range:"(0,inf)" default:"5 m" doc:"a cluster feeds fractures the well crosses within this distance along the path"`
+	PerforationReach float64 `toml:"perforation_reach" unit:"length" range:"(0,1000]" default:"5 m" doc:"a cluster feeds fractures the well crosses within this distance along the path"`
 	// ConduitHalfLength of the optional primary conduit from each cluster,
 	// striking along SHmax; 0 for none, m.
-	ConduitHalfLength float64 `toml:"conduit_half_length" unit:"length" range:"[0,inf)" default:"0 m" doc:"half-length of a primary conduit from each cluster along SHmax; 0 for none"`
+	ConduitHalfLength float64 `toml:"conduit_half_length" unit:"length" range:"[0,5000]" default:"0 m" doc:"half-length of a primary conduit from each cluster along SHmax; 0 for none"`
 	// ConduitAperture of the primary conduit, m.
-	ConduitAperture float64 `toml:"conduit_aperture" unit:"length" range:"(0,inf)" default:"1 mm" doc:"hydraulic aperture of the primary conduits"`
+	ConduitAperture float64 `toml:"conduit_aperture" unit:"length" range:"[1e-7,0.1]" default:"1 mm" doc:"hydraulic aperture of the primary conduits"`
 	// ConduitHeight is the conducting height of the conduits, m (0 = the
 	// layer thickness).
-	ConduitHeight float64 `toml:"conduit_height" unit:"length" range:"[0,inf)" default:"0 m" doc:"conducting height of the primary conduits; 0 for the layer thickness"`
+	ConduitHeight float64 `toml:"conduit_height" unit:"length" range:"[0,2000]" default:"0 m" doc:"conducting height of the primary conduits; 0 for the layer thickness"`
 	Stages        []Stage `toml:"stages" doc:"stages in pumping order along the well (toe first)"`
 }
 
@@ -198,18 +217,18 @@ type Stage struct {
 	// point, m.
 	Clusters    []float64 `toml:"clusters" unit:"length" doc:"cluster positions along the path from its first point" example:"[\"1100 m\", \"1120 m\", \"1140 m\"]"`
 	Fluid       *string   `toml:"fluid" opt:"" doc:"overrides schedule.fluid"`
-	Rate        *float64  `toml:"rate" unit:"rate" range:"(0,inf)" opt:"" doc:"overrides schedule.rate"`
-	Volume      *float64  `toml:"volume" unit:"volume" range:"[0,inf)" opt:"" doc:"overrides schedule.volume"`
-	Duration    *float64  `toml:"duration" unit:"time" range:"[0,inf)" opt:"" doc:"overrides schedule.duration"`
-	PressureCap *float64  `toml:"pressure_cap" unit:"pressure" range:"(0,inf)" opt:"" doc:"overrides schedule.pressure_cap"`
+	Rate        *float64  `toml:"rate" unit:"rate" range:"(0,10]" opt:"" doc:"overrides schedule.rate"`
+	Volume      *float64  `toml:"volume" unit:"volume" range:"[0,1e6]" opt:"" doc:"overrides schedule.volume"`
+	Duration    *float64  `toml:"duration" unit:"time" range:"[0,1e8]" opt:"" doc:"overrides schedule.duration"`
+	PressureCap *float64  `toml:"pressure_cap" unit:"pressure" range:"(0,1e9]" opt:"" doc:"overrides schedule.pressure_cap"`
 }
 
 // Fluid is an injected fluid (Newtonian, slightly compressible).
 type Fluid struct {
-	Viscosity       float64 `toml:"viscosity" unit:"viscosity" range:"(0,inf)" doc:"dynamic viscosity" example:"1 cP"`
-	Compressibility float64 `toml:"compressibility" unit:"compressibility" range:"(0,inf)" default:"4.5e-10 1/Pa" doc:"isothermal compressibility"`
+	Viscosity       float64 `toml:"viscosity" unit:"viscosity" range:"[1e-5,1e3]" doc:"dynamic viscosity" example:"1 cP"`
+	Compressibility float64 `toml:"compressibility" unit:"compressibility" range:"[1e-12,1e-6]" default:"4.5e-10 1/Pa" doc:"isothermal compressibility"`
 	// LeakoffCoefficient is Carter's C_L, m/√s; 0 for none.
-	LeakoffCoefficient float64 `toml:"leakoff_coefficient" unit:"leakoff" range:"[0,inf)" default:"0 m/s^0.5" doc:"Carter leak-off coefficient into the matrix; 0 for none"`
+	LeakoffCoefficient float64 `toml:"leakoff_coefficient" unit:"leakoff" range:"[0,0.01]" default:"0 m/s^0.5" doc:"Carter leak-off coefficient into the matrix; 0 for none"`
 }
 
 // Schedule is the pumping schedule: the order of stages and their defaults.
@@ -224,29 +243,29 @@ type Schedule struct {
 	Control string `toml:"control" default:"rate" range:"rate|pressure" doc:"rate control (capped by pressure_cap) or pressure control"`
 	Fluid   string `toml:"fluid" doc:"default fluid of every stage" example:"slickwater"`
 	// Rate is the total stage rate, m³/s.
-	Rate float64 `toml:"rate" unit:"rate" range:"(0,inf)" default:"10 bbl/min" doc:"default total stage rate"`
+	Rate float64 `toml:"rate" unit:"rate" range:"(0,10]" default:"10 bbl/min" doc:"default total stage rate"`
 	// Volume per stage, m³; 0 means the duration governs.
-	Volume float64 `toml:"volume" unit:"volume" range:"[0,inf)" default:"0 m3" doc:"default stage volume; 0 means the duration ends the stage" example:"2000 bbl"`
+	Volume float64 `toml:"volume" unit:"volume" range:"[0,1e6]" default:"0 m3" doc:"default stage volume; 0 means the duration ends the stage" example:"2000 bbl"`
 	// Duration per stage, s; 0 means the volume governs.
-	Duration float64 `toml:"duration" unit:"time" range:"[0,inf)" default:"0 s" doc:"default stage duration; 0 means the volume ends the stage"`
+	Duration float64 `toml:"duration" unit:"time" range:"[0,1e8]" default:"0 s" doc:"default stage duration; 0 means the volume ends the stage"`
 	// PressureCap on bottom-hole pressure, Pa.
-	PressureCap float64 `toml:"pressure_cap" unit:"pressure" range:"(0,inf)" default:"100 MPa" doc:"bottom-hole pressure cap; injection switches to pressure control at it"`
+	PressureCap float64 `toml:"pressure_cap" unit:"pressure" range:"(0,1e9]" default:"100 MPa" doc:"bottom-hole pressure cap; injection switches to pressure control at it"`
 	// InjectionPressure for pressure control, Pa.
-	InjectionPressure float64 `toml:"injection_pressure" unit:"pressure" range:"(0,inf)" default:"50 MPa" doc:"bottom-hole pressure under pressure control"`
+	InjectionPressure float64 `toml:"injection_pressure" unit:"pressure" range:"(0,1e9]" default:"50 MPa" doc:"bottom-hole pressure under pressure control"`
 	// ShutIn after each stage, s.
-	ShutIn float64 `toml:"shut_in" unit:"time" range:"[0,inf)" default:"30 min" doc:"shut-in after each stage"`
+	ShutIn float64 `toml:"shut_in" unit:"time" range:"[0,1e8]" default:"30 min" doc:"shut-in after each stage"`
 }
 
 // Numerics are discretisation and solver settings.
 type Numerics struct {
-	ElementLength   float64 `toml:"element_length" unit:"length" range:"(0,inf)" default:"10 m" doc:"longest flow element along a trace"`
-	TimeStepInitial float64 `toml:"time_step_initial" unit:"time" range:"(0,inf)" default:"1 s" doc:"first time step of each stage"`
-	TimeStepMin     float64 `toml:"time_step_min" unit:"time" range:"(0,inf)" default:"0.001 s" doc:"smallest time step before the run fails"`
-	TimeStepMax     float64 `toml:"time_step_max" unit:"time" range:"(0,inf)" default:"300 s" doc:"largest time step"`
+	ElementLength   float64 `toml:"element_length" unit:"length" range:"[0.01,1e4]" default:"10 m" doc:"longest flow element along a trace"`
+	TimeStepInitial float64 `toml:"time_step_initial" unit:"time" range:"[1e-6,1e6]" default:"1 s" doc:"first time step of each stage"`
+	TimeStepMin     float64 `toml:"time_step_min" unit:"time" range:"[1e-6,1e6]" default:"0.001 s" doc:"smallest time step before the run fails"`
+	TimeStepMax     float64 `toml:"time_step_max" unit:"time" range:"[1e-6,1e6]" default:"300 s" doc:"largest time step"`
 	// PressureChangeMax per step, Pa.
-	PressureChangeMax float64 `toml:"pressure_change_max" unit:"pressure" range:"(0,inf)" default:"2 MPa" doc:"largest pressure change of any element in one step"`
+	PressureChangeMax float64 `toml:"pressure_change_max" unit:"pressure" range:"[1e3,1e9]" default:"2 MPa" doc:"largest pressure change of any element in one step"`
 	// SlipMax per step, m.
-	SlipMax float64 `toml:"slip_max" unit:"length" range:"(0,inf)" default:"2 mm" doc:"largest new slip of any element in one step"`
+	SlipMax float64 `toml:"slip_max" unit:"length" range:"[1e-7,1]" default:"2 mm" doc:"largest new slip of any element in one step"`
 	// CouplingTolerance is the relative aperture change that ends the
 	// flow–mechanics iterations.
 	CouplingTolerance     float64 `toml:"coupling_tolerance" range:"(0,1)" default:"1e-4" doc:"relative aperture change that ends the flow-mechanics iterations"`
@@ -255,12 +274,14 @@ type Numerics struct {
 	// Solver is "auto", "cholesky", "pcg-jacobi" or "pcg-ic0".
 	Solver string `toml:"solver" default:"auto" range:"auto|cholesky|pcg-jacobi|pcg-ic0" doc:"linear solver: auto picks sparse Cholesky unless the system is too large to factor"`
 	// OutputInterval between snapshot frames and timeline rows, s.
-	OutputInterval float64 `toml:"output_interval" unit:"time" range:"(0,inf)" default:"5 min" doc:"time between snapshot frames and timeline rows"`
+	OutputInterval float64 `toml:"output_interval" unit:"time" range:"[0.001,1e8]" default:"5 min" doc:"time between snapshot frames and timeline rows"`
 	// CellSize of the stimulated-area map, m.
-	CellSize float64 `toml:"cell_size" unit:"length" range:"(0,inf)" default:"10 m" doc:"map cell size for the stimulated area"`
+	CellSize float64 `toml:"cell_size" unit:"length" range:"[0.01,1e4]" default:"10 m" doc:"map cell size for the stimulated area"`
 	// StimulatedSlip is the cumulative slip above which an element counts
 	// as stimulated, m.
-	StimulatedSlip float64 `toml:"stimulated_slip" unit:"length" range:"(0,inf)" default:"0.1 mm" doc:"cumulative slip above which an element counts as stimulated"`
+	StimulatedSlip float64 `toml:"stimulated_slip" unit:"length" range:"[1e-9,1]" default:"0.1 mm" doc:"cumulative slip above which an element counts as stimulated"`
 	// MaxFractures caps the generated fractures per realization.
-	MaxFractures int `toml:"max_fractures" range:"[1,inf)" default:"2000000" doc:"refuse scenarios that would generate more fractures than this"`
+	// MaxSteps bounds the accepted time steps of a run.
+	MaxSteps     int `toml:"max_steps" range:"[1,1e9]" default:"1000000" doc:"refuse schedules that need more time steps than this, and stop a run that takes more"`
+	MaxFractures int `toml:"max_fractures" range:"[1,1e8]" default:"2000000" doc:"refuse scenarios that would generate more fractures than this"`
 }

@@ -1,6 +1,7 @@
 package scenarios
 
 import (
+	"encoding/json"
 	"errors"
 	"math"
 	"strings"
@@ -57,11 +58,67 @@ func parseText(t *testing.T, src string, overrides ...string) (*Scenario, error)
 	if err != nil {
 		return nil, err
 	}
-	files := fstest.MapFS{"faults.csv": {Data: []byte(knownCSV)}}
+	files := fstest.MapFS{"faults.csv": {Data: []byte(knownCSV)}, "crs.prj": {Data: []byte(crsWKT)},
+		"bad.prj": {Data: []byte("PROJCS[\"x\",\n  GEOGCS[\"y\"")}}
 	return Parse("test.toml", []byte(src), files, ov...)
 }
 
+// crsWKT is a made-up transverse Mercator CRS in US survey feet on NAD83,
+// as projinfo writes WKT1 (PROJ 9.1.1).
+const crsWKT = `PROJCS["Local TM (ftUS)",
+    GEOGCS["NAD83",
+        DATUM["North_American_Datum_1983",
+            SPHEROID["GRS 1980",6378137,298.257222101]],
+        PRIMEM["Greenwich",0],
+        UNIT["degree",0.0174532925199433]],
+    PROJECTION["Transverse_Mercator"],
+    PARAMETER["latitude_of_origin",31],
+    PARAMETER["central_meridian",-103.5],
+    PARAMETER["scale_factor",0.9999],
+    PARAMETER["false_easting",656166.666666667],
+    PARAMETER["false_northing",0],
+    UNIT["US survey foot",0.304800609601219],
+    AXIS["Easting",EAST],
+    AXIS["Northing",NORTH]]
+`
+
 const knownCSV = "name,center_x_m,center_y_m,center_depth_m,dip_deg,dip_direction_deg,length_m,height_m\nF1,0,0,2000,80,90,300,100\n"
+
+// TestCRSWKT: a WKT file is read relative to the scenario, kept on one
+// line in the resolved scenario (so a run folder needs no other file),
+// and the origin may be written in US survey feet.
+func TestCRSWKT(t *testing.T) {
+	src := strings.Replace(minimal, `y_max = "500 m"`, "y_max = \"500 m\"\ncrs_wkt = \"crs.prj\"\norigin_easting = \"656166.667 ftUS\"", 1)
+	s, err := parseText(t, src)
+	if err != nil {
+		t.Fatal(err)
+	}
+	d := s.Domain
+	if d.CRS != "" || d.CRSWKT != "crs.prj" || strings.Contains(d.CRSDefinition, "\n") || !strings.HasPrefix(d.CRSDefinition, `PROJCS["Local TM (ftUS)",GEOGCS[`) {
+		t.Errorf("domain %+v", d)
+	}
+	if d.CRSSpec() != d.CRSDefinition {
+		t.Errorf("CRSSpec %q", d.CRSSpec())
+	}
+	// 656166.667 ftUS × 1200/3937 m (NIST SP 811 B.8).
+	numtest.Abs(t, "origin easting, m", d.OriginEasting, 656166.667*1200/3937, 1e-9)
+	base, err := parseText(t, minimal)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if base.Digest == s.Digest || base.Domain.CRSSpec() != "" {
+		t.Errorf("the CRS does not enter the digest, or a scenario without one has a CRS %q", base.Domain.CRSSpec())
+	}
+	// Scenarios without crs_wkt keep their digest: the new fields are
+	// left out of the canonical JSON when empty.
+	b, err := json.Marshal(base)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if strings.Contains(string(b), "CRSWKT") || strings.Contains(string(b), "CRSDefinition") {
+		t.Errorf("empty CRS WKT fields in the canonical JSON: %s", b)
+	}
+}
 
 func TestMinimal(t *testing.T) {
 	s, err := parseText(t, minimal)
@@ -105,7 +162,7 @@ func TestExamplesParse(t *testing.T) {
 		t.Fatal(err)
 	}
 	if len(demo.Wells) != 2 || len(demo.Sets) != 2 || len(demo.KnownFractures.Fractures) != 1 {
-		t.Errorf("demo has %d wells, %d sets, %d known fractures; issue 2 asks for 2, 2, 1",
+		t.Errorf("demo has %d wells, %d sets, %d known fractures; the README describes 2, 2, 1",
 			len(demo.Wells), len(demo.Sets), len(demo.KnownFractures.Fractures))
 	}
 }
@@ -132,7 +189,7 @@ func TestBadValues(t *testing.T) {
 		old, new string
 		want     string
 	}{
-		{"negative kappa", "kappa = 10", "kappa = -3", "test.toml:20: sets[0].orientation.kappa = -3: must be > 0"},
+		{"negative kappa", "kappa = 10", "kappa = -3", "test.toml:20: sets[0].orientation.kappa = -3: must be within (0, 1e6]"},
 		{"dip above 90", "kappa = 10", `dip = "95 deg"`, `test.toml:20: sets[0].orientation.dip = "95 deg": must be within [0, 90] deg`},
 		{"unknown unit", `thickness = "20 m"`, `thickness = "20 furlongs"`, `test.toml:10: layer.thickness = "20 furlongs": unknown unit "furlongs"`},
 		{"no unit", `thickness = "20 m"`, `thickness = 20`, `test.toml:10: layer.thickness = 20: needs a unit`},
@@ -141,26 +198,43 @@ func TestBadValues(t *testing.T) {
 		{"missing key", `depth = "2000 m"`, ``, `test.toml:8: layer.depth: required key is missing (e.g. "2600 m")`},
 		{"bad word", `name = "two"`, "name = \"two\"\nshape = \"disk\"", `test.toml:23: sets[1].shape = "disk": must be one of disc, rectangle (did you mean "disc"?)`},
 		{"inverted size", "kappa = 10", "kappa = 10\n[sets.size]\nmin = \"50 m\"\nmax = \"10 m\"", `test.toml:23: sets[0].size.max = "10 m": must exceed sets[0].size.min = 50 m`},
-		{"negative size", "kappa = 10", "kappa = 10\n[sets.size]\nmin = \"-5 m\"", `test.toml:22: sets[0].size.min = "-5 m": must be > 0 m`},
+		{"negative size", "kappa = 10", "kappa = 10\n[sets.size]\nmin = \"-5 m\"", `test.toml:22: sets[0].size.min = "-5 m": must be within [0.01, 100000] m`},
 		{"shmax below shmin", `shmax_gradient = "26 kPa/m"`, `shmax_gradient = "16 kPa/m"`, `test.toml:13: stress.shmax_gradient = "16 kPa/m": must be at least stress.shmin_gradient`},
 		{"poisson", "[[sets]]\nname = \"one\"", "[rock]\npoisson_ratio = 0.5\n[[sets]]\nname = \"one\"", "test.toml:18: rock.poisson_ratio = 0.5: must be within (0, 0.5)"},
-		{"friction", "[[sets]]\nname = \"one\"", "[rock]\nfriction_static = 0\n[[sets]]\nname = \"one\"", "test.toml:18: rock.friction_static = 0: must be > 0"},
+		{"friction", "[[sets]]\nname = \"one\"", "[rock]\nfriction_static = 0\n[[sets]]\nname = \"one\"", "test.toml:18: rock.friction_static = 0: must be within (0, 2]"},
 		{"unknown fluid", `fluid = "water"`, `fluid = "watr"`, `test.toml:37: schedule.fluid = "watr": no such fluid; fluids: water (did you mean "water"?)`},
 		{"no volume", `volume = "100 m3"`, ``, "wells[0].stages[0].volume: stage A:1 has no volume and no duration"},
 		{"cluster off the path", `clusters = ["500 m"]`, `clusters = ["900 m"]`, `test.toml:33: wells[0].stages[1].clusters[0] = "900 m": must lie on the well path`},
 		{"unknown stage in list", `volume = "100 m3"`, "volume = \"100 m3\"\norder = \"list\"\nsequence = [\"A:1\", \"A:7\"]", `schedule.sequence[1] = "A:7": well "A" has no stage "7"`},
 		{"output interval", `volume = "100 m3"`, "volume = \"100 m3\"\n[numerics]\noutput_interval = \"100 d\"", `numerics.output_interval = "100 d": is longer than the whole schedule`},
 		{"bad crs", `y_max = "500 m"`, "y_max = \"500 m\"\ncrs = \"UTM14\"", `test.toml:8: domain.crs = "UTM14": must be "EPSG:<code>"`},
+		{"unknown EPSG code", `y_max = "500 m"`, "y_max = \"500 m\"\ncrs = \"EPSG:999999\"", `test.toml:8: domain.crs = "EPSG:999999": not a projected CRS this program can place; supported are EPSG:32601–32660`},
+		{"geographic crs", `y_max = "500 m"`, "y_max = \"500 m\"\ncrs = \"EPSG:4326\"", `test.toml:8: domain.crs = "EPSG:4326": CRS "EPSG:4326" is geographic (degrees); local coordinates in metres need a projected CRS`},
+		{"crs twice", `y_max = "500 m"`, "y_max = \"500 m\"\ncrs = \"EPSG:32614\"\ncrs_wkt = \"crs.prj\"", `test.toml:9: domain.crs_wkt = "crs.prj": give the CRS once: domain.crs = "EPSG:32614" is set too`},
+		{"bad WKT", `y_max = "500 m"`, "y_max = \"500 m\"\ncrs_wkt = \"bad.prj\"", `test.toml:8: domain.crs_wkt = "bad.prj": bad.prj:2:13: GEOGCS is not closed`},
+		{"missing WKT", `y_max = "500 m"`, "y_max = \"500 m\"\ncrs_wkt = \"none.prj\"", `test.toml:8: domain.crs_wkt = "none.prj": cannot open`},
 		{"bad start", `volume = "100 m3"`, "volume = \"100 m3\"\nstart = \"May 6\"", `schedule.start = "May 6": must be an RFC 3339 UTC time`},
 		{"syntax", `name = "one"`, `name = "one`, "test.toml:18: TOML syntax"},
 		{"cap below the pore pressure", `volume = "100 m3"`, "volume = \"100 m3\"\npressure_cap = \"15 MPa\"", `schedule.pressure_cap = "15 MPa": must exceed the initial pore pressure, 20000000 Pa`},
 		{"injection pressure below the pore pressure", `volume = "100 m3"`, "volume = \"100 m3\"\ncontrol = \"pressure\"\ninjection_pressure = \"19 MPa\"", `schedule.injection_pressure = "19 MPa": must exceed the initial pore pressure`},
 		{"repeated path point", `path = [["-400 m", "0 m", "2000 m"], ["400 m", "0 m", "2000 m"]]`, `path = [["-400 m", "0 m", "2000 m"], ["-400 m", "0 m", "2100 m"], ["400 m", "0 m", "2000 m"]]`, `wells[0].path[1]`},
-		{"huge domain", `x_max = "500 m"`, `x_max = "1e300 m"`, `domain.x_max = "1e300 m": must be within [-1e+07, 1e+07] m`},
+		{"huge domain", `x_max = "500 m"`, `x_max = "1e300 m"`, `domain.x_max = "1e300 m": must be within [-1e7, 1e7] m`},
 		{"too many outputs", `volume = "100 m3"`, "volume = \"100 m3\"\n[numerics]\noutput_interval = \"1 ms\"", "numerics.output_interval = \"1 ms\": gives"},
 		{"repeated set name", `name = "two"`, `name = "one"`, `test.toml:22: sets[1].name = "one": repeats the name of sets[0]`},
 		{"repeated stage name", `name = "2"`, `name = "1"`, `test.toml:32: wells[0].stages[1].name = "1": repeats the name of wells[0].stages[0]`},
 		{"unknown known-fracture file", `[fluids.water]`, "[known_fractures]\nfile = \"missing.csv\"\n[fluids.water]", `known_fractures.file = "missing.csv": cannot open`},
+		// Reproducers of unsafe input (each once accepted, then failed late or misread).
+		{"space inside a unit", `depth = "2000 m"`, `depth = "2000 m m"`, `test.toml:9: layer.depth = "2000 m m": the unit "m m" has a space inside`},
+		{"prefix apart from its unit", `depth = "2000 m"`, `depth = "2 k m"`, `layer.depth = "2 k m": the unit "k m" has a space inside`},
+		{"no well", "[[wells]]\nname = \"A\"\npath = [[\"-400 m\", \"0 m\", \"2000 m\"], [\"400 m\", \"0 m\", \"2000 m\"]]\n[[wells.stages]]\nname = \"1\"\nclusters = [\"700 m\", \"720 m\"]\n[[wells.stages]]\nname = \"2\"\nclusters = [\"500 m\"]\n", "", "wells: the scenario needs at least one well"},
+		{"well without stages", "[[wells.stages]]\nname = \"1\"\nclusters = [\"700 m\", \"720 m\"]\n[[wells.stages]]\nname = \"2\"\nclusters = [\"500 m\"]\n", "", "wells[0].stages: the well needs at least one stage"},
+		{"well above the layer", `path = [["-400 m", "0 m", "2000 m"], ["400 m", "0 m", "2000 m"]]`, `path = [["-400 m", "0 m", "100 m"], ["400 m", "0 m", "100 m"]]`, "wells[0].path[0] = [-400 m 0 m 100 m]: depth 100 m lies outside the layer (1990 m to 2010 m true vertical depth)"},
+		{"well outside the map", `path = [["-400 m", "0 m", "2000 m"], ["400 m", "0 m", "2000 m"]]`, `path = [["-400 m", "0 m", "2000 m"], ["900 m", "0 m", "2000 m"]]`, "wells[0].path[1] = [900 m 0 m 2000 m]: lies outside the map area x -500 m … 500 m, y -500 m … 500 m"},
+		{"depth beyond any well", `depth = "2000 m"`, `depth = "1e308 m"`, `test.toml:9: layer.depth = "1e308 m": must be within [10, 15000] m`},
+		{"absurd rate", `volume = "100 m3"`, "volume = \"100 m3\"\nrate = \"1e300 m3/s\"", `schedule.rate = "1e300 m3/s": must be within (0, 10] m3/s`},
+		{"absurd modulus", "[[sets]]\nname = \"one\"", "[rock]\nshear_modulus = \"1e-300 Pa\"\n[[sets]]\nname = \"one\"", `rock.shear_modulus = "1e-300 Pa": must be within [1e8, 2e11] Pa`},
+		{"tiny time step", `volume = "100 m3"`, "volume = \"100 m3\"\n[numerics]\ntime_step_initial = \"1e-6 s\"\ntime_step_min = \"1e-6 s\"\ntime_step_max = \"1e-6 s\"", `numerics.time_step_max = "1e-6 s": needs at least`},
+		{"long value cut short", `name = "two"`, `name = "two"` + "\nshape = \"" + strings.Repeat("x", 5000) + "\"", `sets[1].shape = "` + strings.Repeat("x", 60) + `"…: must be one of`},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
@@ -200,7 +274,10 @@ func TestOverrides(t *testing.T) {
 	if c := s.Wells[0].Stages[1].Clusters; len(c) != 2 || c[1] != 510 {
 		t.Errorf("list override: clusters %v", c)
 	}
-	base, _ := parseText(t, minimal)
+	base, err := parseText(t, minimal)
+	if err != nil {
+		t.Fatal(err)
+	}
 	if base.Digest == s.Digest {
 		t.Error("overrides did not change the digest")
 	}
@@ -208,7 +285,7 @@ func TestOverrides(t *testing.T) {
 
 func TestOverrideErrors(t *testing.T) {
 	tests := []struct{ set, want string }{
-		{"sets[0].orientation.kappa=-3", "--set sets[0].orientation.kappa=-3: must be > 0"},
+		{"sets[0].orientation.kappa=-3", "--set sets[0].orientation.kappa=-3: must be within (0, 1e6]"},
 		{"sets[5].orientation.kappa=3", "--set sets[5].orientation.kappa=3: index 5 out of range: the scenario has 2 entries in sets"},
 		{"numerics.cel_size=5 m", `--set numerics.cel_size=5 m: unknown key (did you mean "cell_size"?)`},
 		{"fluids.water.viscosity=20 cQ", `--set fluids.water.viscosity=20 cQ: unknown unit "cQ"`},
@@ -324,10 +401,14 @@ func FuzzParse(f *testing.F) {
 	f.Add([]byte(minimal))
 	f.Add([]byte(Template()))
 	for _, name := range Examples() {
-		src, _ := ExampleSource(name)
+		src, err := ExampleSource(name)
+		if err != nil {
+			f.Fatal(err)
+		}
 		f.Add(src)
 	}
-	files := fstest.MapFS{"faults.csv": {Data: []byte(knownCSV)}}
+	files := fstest.MapFS{"faults.csv": {Data: []byte(knownCSV)}, "crs.prj": {Data: []byte(crsWKT)},
+		"bad.prj": {Data: []byte("PROJCS[\"x\",\n  GEOGCS[\"y\"")}}
 	f.Fuzz(func(t *testing.T, src []byte) {
 		s, err := Parse("fuzz.toml", src, files)
 		if err != nil {
@@ -345,7 +426,10 @@ func FuzzParse(f *testing.F) {
 
 func FuzzReadKnownFractures(f *testing.F) {
 	f.Add([]byte(knownCSV))
-	src, _ := examples.ReadFile("examples/demo-faults.csv")
+	src, err := examples.ReadFile("examples/demo-faults.csv")
+	if err != nil {
+		f.Fatal(err)
+	}
 	f.Add(src)
 	f.Fuzz(func(t *testing.T, data []byte) {
 		k, err := ReadKnownFractures(strings.NewReader(string(data)), "fuzz.csv")

@@ -7,6 +7,7 @@ import (
 	"sort"
 	"strconv"
 	"strings"
+	"unicode"
 )
 
 // Conversion factors to SI. Exact values where the definition is exact;
@@ -14,6 +15,7 @@ import (
 // of the International System of Units", Appendix B.8 and B.9.
 const (
 	foot       = 0.3048                     // m, exact (SP 811 B.8: foot)
+	surveyFoot = 1200.0 / 3937              // m, exact (SP 811 B.8: foot (U.S. survey) 3.048006 E-01; the ratio from memory)
 	inch       = 0.0254                     // m, exact (SP 811 B.8: inch)
 	poundForce = 4.4482216152605            // N, exact (SP 811 B.8: pound-force)
 	psi        = poundForce / (inch * inch) // Pa = 6894.757293168 (SP 811 B.8: 6.894757 E+03)
@@ -53,7 +55,7 @@ var unitTable = map[unitKind][]struct {
 	name   string
 	factor float64
 }{
-	kindLength: {{"m", 1}, {"km", 1e3}, {"cm", 1e-2}, {"mm", 1e-3}, {"um", 1e-6}, {"ft", foot}, {"in", inch}},
+	kindLength: {{"m", 1}, {"km", 1e3}, {"cm", 1e-2}, {"mm", 1e-3}, {"um", 1e-6}, {"ft", foot}, {"ftUS", surveyFoot}, {"in", inch}},
 	kindPressure: {{"Pa", 1}, {"kPa", 1e3}, {"MPa", 1e6}, {"GPa", 1e9}, {"bar", 1e5}, {"psi", psi},
 		{"ksi", 1e3 * psi}},
 	kindGradient: {{"Pa/m", 1}, {"kPa/m", 1e3}, {"MPa/m", 1e6}, {"MPa/km", 1e3}, {"bar/m", 1e5},
@@ -85,7 +87,7 @@ func unitNames(k unitKind) string {
 // normalizeUnit maps typographic variants to the spellings of unitTable.
 func normalizeUnit(u string) string {
 	r := strings.NewReplacer(
-		"³", "3", "µ", "u", "μ", "u", "·", ".", "*", ".", "°", "deg", " ", "",
+		"³", "3", "µ", "u", "μ", "u", "·", ".", "*", ".", "°", "deg",
 	)
 	switch {
 	case strings.HasSuffix(u, "^-1"):
@@ -108,6 +110,8 @@ func normalizeUnit(u string) string {
 		return "mPa.s"
 	case "bpm":
 		return "bbl/min"
+	case "us-ft", "usft", "USft", "US-ft", "ft_US", "ftus":
+		return "ftUS"
 	case "degrees", "degree":
 		return "deg"
 	case "sec":
@@ -139,10 +143,13 @@ func parseQuantity(s string, k unitKind) (float64, error) {
 	}
 	v, err := strconv.ParseFloat(m[1], 64)
 	if err != nil || math.IsInf(v, 0) {
-		return 0, fmt.Errorf("number %q out of range", m[1])
+		return 0, fmt.Errorf("number %s out of range", echo(m[1]))
 	}
 	if m[2] == "" {
 		return 0, fmt.Errorf("needs a unit (%s: %s), e.g. \"%s %s\"", k, unitNames(k), m[1], unitTable[k][0].name)
+	}
+	if strings.ContainsFunc(m[2], unicode.IsSpace) {
+		return 0, fmt.Errorf("the unit %s has a space inside; write it without spaces, e.g. \"%s %s\"", echo(m[2]), m[1], unitTable[k][0].name)
 	}
 	u := normalizeUnit(m[2])
 	for _, e := range unitTable[k] {
@@ -150,7 +157,7 @@ func parseQuantity(s string, k unitKind) (float64, error) {
 			return v * e.factor, nil
 		}
 	}
-	return 0, fmt.Errorf("unknown unit %q for a %s; use one of: %s%s", m[2], k, unitNames(k), suggest(u, unitSpellings(k)))
+	return 0, fmt.Errorf("unknown unit %s for a %s; use one of: %s%s", echo(m[2]), k, unitNames(k), suggest(u, unitSpellings(k)))
 }
 
 // parseBearing converts a quadrant bearing (N75E: 75° east of north) to an

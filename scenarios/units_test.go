@@ -20,6 +20,8 @@ func TestParseQuantity(t *testing.T) {
 	}{
 		{"2600 m", kindLength, 2600, "SI"},
 		{"8500 ft", kindLength, 2590.8, "NIST SP 811 B.8: ft = 0.3048 m exactly"},
+		{"3937 ftUS", kindLength, 1200, "NIST SP 811 B.8: ftUS = 1200/3937 m exactly (ratio from memory)"},
+		{"3937 us-ft", kindLength, 1200, "PROJ's spelling of ftUS"},
 		{"0.05 mm", kindLength, 5e-5, "SI prefix"},
 		{"65 MPa", kindPressure, 65e6, "SI prefix"},
 		{"9400 psi", kindPressure, 64810718.555782594, "NIST SP 811 B.8: lbf = 4.4482216152605 N, in = 0.0254 m"},

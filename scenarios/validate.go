@@ -1,6 +1,7 @@
 package scenarios
 
 import (
+	"errors"
 	"fmt"
 	"maps"
 	"math"
@@ -11,6 +12,7 @@ import (
 
 	"gonum.org/v1/gonum/spatial/r3"
 
+	"slipfront/gis"
 	"slipfront/internal/orient"
 )
 
@@ -38,8 +40,15 @@ func (d *decoder) validateDomain(s *Scenario) {
 	if dm.YMax <= dm.YMin {
 		d.failKey("domain.y_max", "must exceed domain.y_min = %s", formatQuantity(dm.YMin, kindLength))
 	}
-	if dm.CRS != "" && !crsPattern.MatchString(dm.CRS) {
-		d.failKey("domain.crs", `must be "EPSG:<code>" of a projected CRS, e.g. "EPSG:32614", or "" for none`)
+	if dm.CRS == "" {
+		return
+	}
+	if !crsPattern.MatchString(dm.CRS) {
+		d.failKey("domain.crs", `must be "EPSG:<code>" of a projected CRS, e.g. "EPSG:32614", or "" for none (or give a WKT file as domain.crs_wkt)`)
+	} else if _, err := gis.ParseCRS(dm.CRS); errors.Is(err, gis.ErrUnsupportedCRS) {
+		d.failKey("domain.crs", "not a projected CRS this program can place; supported are %s (domain.crs_wkt)", gis.SupportedCRSs())
+	} else if err != nil {
+		d.failKey("domain.crs", "%s", strings.TrimPrefix(err.Error(), "gis: "))
 	}
 }
 
@@ -83,6 +92,9 @@ func (d *decoder) validateSets(s *Scenario) {
 }
 
 func (d *decoder) validateWells(s *Scenario) {
+	if len(s.Wells) == 0 {
+		d.failKey("wells", "the scenario needs at least one well ([[wells]]) with at least one stage")
+	}
 	names := make([]string, len(s.Wells))
 	for i, w := range s.Wells {
 		names[i] = w.Name
@@ -98,6 +110,10 @@ func (d *decoder) validateWells(s *Scenario) {
 			if math.Hypot(w.Path[j].X-w.Path[j-1].X, w.Path[j].Y-w.Path[j-1].Y) < 1e-3 {
 				d.failKey(fmt.Sprintf("%s.path[%d]", p, j), "lies on the previous point in map view; the model needs a well path with map-view legs of at least 1 mm")
 			}
+		}
+		d.validateWellPlace(s, p, w)
+		if len(w.Stages) == 0 {
+			d.failKey(p+".stages", "the well needs at least one stage ([[wells.stages]]) with at least one cluster")
 		}
 		length := w.PathLength()
 		stageNames := make([]string, len(w.Stages))
@@ -120,6 +136,24 @@ func (d *decoder) validateWells(s *Scenario) {
 					d.failKey(sp+".fluid", "no such fluid; fluids: %s", fluidNames(s))
 				}
 			}
+		}
+	}
+}
+
+// validateWellPlace checks that every point of the well path lies in the
+// map area and in the simulated layer: the model is one layer in map view,
+// and a well outside it would be fed as if it were inside.
+func (d *decoder) validateWellPlace(s *Scenario, p string, w Well) {
+	dm, top, bottom := s.Domain, s.Layer.Depth-s.Layer.Thickness/2, s.Layer.Depth+s.Layer.Thickness/2
+	for j, pt := range w.Path {
+		key := fmt.Sprintf("%s.path[%d]", p, j)
+		if pt.X < dm.XMin || pt.X > dm.XMax || pt.Y < dm.YMin || pt.Y > dm.YMax {
+			d.failKey(key, "lies outside the map area x %s … %s, y %s … %s", formatQuantity(dm.XMin, kindLength),
+				formatQuantity(dm.XMax, kindLength), formatQuantity(dm.YMin, kindLength), formatQuantity(dm.YMax, kindLength))
+		}
+		if pt.Depth < top || pt.Depth > bottom {
+			d.failKey(key, "depth %s lies outside the layer (%s to %s true vertical depth): the model simulates one layer, and the well must be landed in it",
+				formatQuantity(pt.Depth, kindLength), formatQuantity(top, kindLength), formatQuantity(bottom, kindLength))
 		}
 	}
 }
@@ -215,6 +249,10 @@ func (d *decoder) validateNumerics(s *Scenario) {
 	}
 	if len(d.errs) > 0 {
 		return
+	}
+	if steps := s.ScheduleLength() / n.TimeStepMax; !(steps <= float64(n.MaxSteps)) {
+		d.failKey("numerics.time_step_max", "needs at least %.4g steps over the %s schedule; numerics.max_steps = %d allows fewer: use a longer time step or raise max_steps",
+			steps, formatQuantity(s.ScheduleLength(), kindTime), n.MaxSteps)
 	}
 	if cols, rows := gridCells(s.Domain, n.CellSize); !(cols*rows <= MaxGridCells) {
 		d.failKey("numerics.cell_size", "gives %.4g × %.4g map cells over the domain; at most %d allowed, use a larger cell", cols, rows, MaxGridCells)

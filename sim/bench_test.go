@@ -9,7 +9,7 @@ import (
 	"slipfront/scenarios"
 )
 
-// BenchmarkDemo runs the whole embedded demo (issue 5).
+// BenchmarkDemo runs the whole embedded demo (the README's performance table).
 func BenchmarkDemo(b *testing.B) {
 	s, err := scenarios.LoadExample("demo")
 	if err != nil {

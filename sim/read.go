@@ -114,6 +114,10 @@ func ReadTimeline(r io.Reader, name string, s *scenarios.Scenario) ([]Sample, er
 
 // parseSample converts one timeline record; empty rate and pressure
 // fields (no well yet) read as NaN.
+// maxMPa bounds the pressures read back, MPa, so that they stay finite in
+// Pa (the scenario's pressure caps are at most 1000 MPa).
+const maxMPa = 1e6
+
 func parseSample(rec []string, stages map[string]int) (Sample, error) {
 	stage, ok := stages[rec[1]]
 	if !ok {
@@ -133,6 +137,9 @@ func parseSample(rec []string, stages map[string]int) (Sample, error) {
 	}
 	if v[6] != math.Trunc(v[6]) || v[7] != math.Trunc(v[7]) || v[6] < 0 || v[7] < 0 {
 		return Sample{}, fmt.Errorf("element and event counts must be whole numbers ≥ 0")
+	}
+	if math.Abs(v[3]) > maxMPa || math.Abs(v[8]) > maxMPa {
+		return Sample{}, fmt.Errorf("pressures of %g and %g MPa: at most %g MPa", v[3], v[8], maxMPa)
 	}
 	return Sample{Time: v[0], Stage: stage, Rate: v[1], Injected: v[2], BHP: v[3] * 1e6,
 		StimulatedArea: v[4], FractureArea: v[5], SlippedElements: int(v[6]), Events: int(v[7]), MaxPressure: v[8] * 1e6}, nil

@@ -2,6 +2,7 @@ package sim
 
 import (
 	"encoding/json"
+	"errors"
 	"fmt"
 	"io"
 	"math"
@@ -63,7 +64,7 @@ const (
 func (r *Recorder) Begin(elements []Element) error {
 	s := r.s
 	h := snapshot.Header{
-		Digest: s.Digest, Seed: s.Seed, Realization: r.realization, CRS: s.Domain.CRS,
+		Digest: s.Digest, Seed: s.Seed, Realization: r.realization, CRS: s.Domain.CRSSpec(),
 		OriginEasting: s.Domain.OriginEasting, OriginNorthing: s.Domain.OriginNorthing, LayerDepth: s.Layer.Depth,
 		Metadata: map[string]string{
 			MetaProgram: "slipfront " + version.Version, MetaScenario: s.Name, MetaStart: s.Schedule.Start,
@@ -125,12 +126,22 @@ func (r *Recorder) Close() error {
 	return r.sw.Close()
 }
 
+// Replayed tells which frames Replay used.
+type Replayed struct {
+	// Times of the frames read, s.
+	Times []float64
+	// Damaged are the times of frames up to t that failed their checksum
+	// and were skipped, s.
+	Damaged []float64
+}
+
 // Replay reads the frames of a snapshot written by a Recorder up to time t,
-// s, into a result: the elements, the state of the last of those frames,
-// the first frame at which each element had slipped and was stimulated
-// (so those times are known to the output interval), and the times of the
-// frames read.
-func Replay(rd *snapshot.Reader, t float64) (*Result, []float64, error) {
+// s, into a result: the elements, the state of the last intact one of
+// those frames, and the first frame at which each element had slipped and
+// was stimulated (so those times are known to the output interval).
+// Damaged frames are skipped and listed; it fails only when no frame up to
+// t is intact.
+func Replay(rd *snapshot.Reader, t float64) (*Result, Replayed, error) {
 	h := rd.Header()
 	n := len(h.Elements)
 	res := &Result{
@@ -155,20 +166,23 @@ func Replay(rd *snapshot.Reader, t float64) (*Result, []float64, error) {
 	var index [len(recordedFields)]int
 	for k, f := range recordedFields {
 		if index[k] = h.FieldIndex(f.Name); index[k] < 0 {
-			return nil, nil, fmt.Errorf("sim: the snapshot lacks the %s field", f.Name)
+			return nil, Replayed{}, fmt.Errorf("sim: the snapshot lacks the %s field", f.Name)
 		}
 	}
-	var times []float64
+	var rp Replayed
 	var fr snapshot.Frame
 	var state Frame
 	for i, info := range rd.Frames() {
 		if info.Time > t {
 			break
 		}
-		if err := rd.ReadFrameInto(&fr, i); err != nil {
-			return nil, nil, err
+		if err := rd.ReadFrameInto(&fr, i); errors.Is(err, snapshot.ErrFormat) {
+			rp.Damaged = append(rp.Damaged, info.Time)
+			continue
+		} else if err != nil {
+			return nil, rp, err
 		}
-		times = append(times, info.Time)
+		rp.Times = append(rp.Times, info.Time)
 		for j, flag := range fr.Flags {
 			if flag&snapshot.FlagSlipped != 0 && math.IsNaN(res.FirstSlip[j]) {
 				res.FirstSlip[j], res.FirstSlipStage[j] = info.Time, int(info.Stage)
@@ -182,12 +196,15 @@ func Replay(rd *snapshot.Reader, t float64) (*Result, []float64, error) {
 			fields[k] = float64s(fr.Fields[at])
 		}
 		state.setRecorded(fields)
-		if i == 0 {
+		if res.InitialAperture == nil {
 			res.InitialAperture = state.Aperture
 		}
 	}
+	if len(rp.Times) == 0 {
+		return nil, rp, fmt.Errorf("sim: no intact frame at or before %g s (%d damaged): %w", t, len(rp.Damaged), snapshot.ErrFormat)
+	}
 	res.Pressure, res.Aperture, res.Slip = state.Pressure, state.Aperture, state.Slip
-	return res, times, nil
+	return res, rp, nil
 }
 
 func nanSlice(n int) []float64 {

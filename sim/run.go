@@ -308,6 +308,10 @@ func (p *phase) limit(t float64) float64 {
 // times its planned time is stopped and reported).
 const maxStretch = 10
 
+// ErrTooManySteps is returned (wrapped) when a run needs more accepted
+// time steps than numerics.max_steps.
+var ErrTooManySteps = errors.New("sim: too many time steps")
+
 // errCut marks a step to repeat with a shorter time step.
 var errCut = errors.New("sim: cut the step")
 
@@ -363,6 +367,9 @@ func (r *runner) step(sys *flow.System, p *phase, sum *StageSummary, end float64
 	}
 	if r.ms.maxNewSlip() > n.SlipMax && dt > 16*n.TimeStepMin {
 		return errCut
+	}
+	if r.res.Steps >= n.MaxSteps {
+		return fmt.Errorf("%w: the run reached numerics.max_steps = %d accepted steps at t = %.6g s", ErrTooManySteps, n.MaxSteps, r.t)
 	}
 	// Accept.
 	r.t = end

@@ -6,6 +6,7 @@ import (
 	"io"
 	"math"
 	"os"
+	"runtime"
 	"slices"
 	"strings"
 	"text/tabwriter"
@@ -72,13 +73,24 @@ func runBatch(ctx context.Context, o *batchOptions, g *globalOptions, stdout, st
 	if err != nil {
 		return badInput(err)
 	}
+	lim, err := g.limits()
+	if err != nil {
+		return err
+	}
+	workers := o.workers
+	if workers == 0 {
+		workers = runtime.NumCPU()
+	}
 	opt := batch.Options{
 		Load: func(extra ...scenarios.Override) (*scenarios.Scenario, error) {
 			s, err := scenarios.Load(o.scenario, append(slices.Clone(base), extra...)...)
 			if err != nil {
 				return nil, err
 			}
-			return s, badInput(checkCRS(s))
+			if err := checkCRS(s); err != nil {
+				return nil, badInput(err)
+			}
+			return s, lim.CheckRun(s, workers)
 		},
 		Realizations: o.realizations, Workers: o.workers, Out: o.out, Resume: o.resume, Force: o.force,
 		Run: pipeline.Realization,

@@ -39,10 +39,10 @@ func runDemo(ctx context.Context, o *demoOptions, g *globalOptions, stdout, stde
 		return err
 	}
 	out := o.folder()
-	if err := out.Prepare(); err != nil { // before the first line is printed
+	if err := out.Check(); err != nil { // before the first line is printed
 		return err
 	}
 	fmt.Fprintf(stdout, "%s: %d wells, %d stages, %d fracture sets and %d mapped fault(s)\n",
 		s.Name, len(s.Wells), len(s.PumpingOrder()), len(s.Sets), len(s.KnownFractures.Fractures))
-	return simulate(ctx, s, out, g, stdout, stderr)
+	return simulate(ctx, s, out, 0, g, stdout, stderr)
 }

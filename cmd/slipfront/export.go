@@ -46,7 +46,10 @@ func newExportCmd(g *globalOptions, stderr io.Writer) *cobra.Command {
 				}
 				o.Time = t
 			}
-			err := pipeline.Export(cmd.Context(), o.dir, o.ExportOptions)
+			notes, err := pipeline.Export(cmd.Context(), o.dir, o.ExportOptions)
+			for _, n := range notes {
+				fmt.Fprintln(stderr, "warning:", n)
+			}
 			if err == nil {
 				fmt.Fprintf(statusWriter(g, stderr), "wrote %s\n", o.Out)
 			}

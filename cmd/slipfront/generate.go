@@ -20,17 +20,21 @@ func newGenerateCmd(g *globalOptions, stdout, stderr io.Writer) *cobra.Command {
 			"  slipfront generate demo --seed 7 --set sets[0].intensity.p32=0.03/m --out net7",
 	}
 	return newScenarioToFolderCmd(cmd, &o, func(ctx context.Context) error {
-		return runGenerate(ctx, &o, stdout, statusWriter(g, stderr))
+		return runGenerate(ctx, &o, g, stdout, statusWriter(g, stderr))
 	})
 }
 
 // runGenerate writes the generate folder and prints the network summary.
-func runGenerate(_ context.Context, o *scenarioToFolder, stdout, status io.Writer) error {
+func runGenerate(_ context.Context, o *scenarioToFolder, g *globalOptions, stdout, status io.Writer) error {
 	s, err := o.load(o.scenario)
 	if err != nil {
 		return err
 	}
-	net, st, err := pipeline.Generate(s, o.folder())
+	lim, err := g.limits()
+	if err != nil {
+		return err
+	}
+	net, st, err := pipeline.Generate(s, o.folder(), lim)
 	if err != nil {
 		return err
 	}

@@ -37,7 +37,7 @@ func TestExitCodes(t *testing.T) {
 		{"version", []string{"version"}, exitOK, ""},
 		{"unknown command", []string{"bogus"}, exitBadInput, "unknown command"},
 		{"missing flag", []string{"generate", "demo"}, exitBadInput, `"out" not set`},
-		{"bad override", []string{"scenario", "check", "demo", "--set", "sets[1].orientation.kappa=-3"}, exitBadInput, "--set sets[1].orientation.kappa=-3: must be > 0"},
+		{"bad override", []string{"scenario", "check", "demo", "--set", "sets[1].orientation.kappa=-3"}, exitBadInput, "--set sets[1].orientation.kappa=-3: must be within (0, 1e6]"},
 		{"unknown key", []string{"scenario", "check", "demo", "--set", "rock.fricton_static=0.5"}, exitBadInput, `did you mean "friction_static"?`},
 		{"missing file", []string{"scenario", "check", filepath.Join(dir, "none.toml")}, exitBadInput, "no such file"},
 		{"too many fractures", []string{"generate", "demo", "--set", "numerics.max_fractures=10", "--out", filepath.Join(dir, "cap")}, exitBadInput, "max_fractures"},
@@ -67,7 +67,8 @@ func TestTemplateAndShow(t *testing.T) {
 }
 
 // TestGenerateDeterministic: same scenario and seed → byte-identical files
-// (issue 2); another seed → a different network.
+// (every draw is seeded by scenario seed, realization and purpose);
+// another seed → a different network.
 func TestGenerateDeterministic(t *testing.T) {
 	dir := t.TempDir()
 	read := func(sub string) map[string][]byte {
@@ -198,8 +199,8 @@ func TestRunOutputs(t *testing.T) {
 }
 
 // A viscosity sweep through the command line: one process and merged
-// shards give the same bytes, and the maps and charts are written (issue
-// 6; the batch package tests workers, resume, Slurm and the rest). The
+// shards give the same bytes, and the maps and charts are written (the
+// batch package tests workers, resume, Slurm and the rest). The
 // single-fracture example keeps it quick.
 func TestBatchAndMerge(t *testing.T) {
 	dir := t.TempDir()
@@ -265,7 +266,7 @@ func TestBatchAndMerge(t *testing.T) {
 	}{
 		{args("x", "--shard", "2/2"), "shard"},
 		{base("y", "--sweep", "rock.frction=0.5,0.6"), `did you mean "friction_`},
-		{base("z", "--sweep", "fluids.water.viscosity=1cP,-2cP"), "must be > 0"},
+		{base("z", "--sweep", "fluids.water.viscosity=1cP,-2cP"), "must be within [1e-5, 1000] Pa.s"},
 	}
 	for _, tc := range bad {
 		if code, _, stderr := runCLI(t, tc.args...); code != exitBadInput || !strings.Contains(stderr, tc.want) {
@@ -344,7 +345,7 @@ func TestExportRun(t *testing.T) {
 	}
 }
 
-// run and inspect work on every embedded example (issue 5).
+// run and inspect work on every embedded example, as the README promises.
 func TestEveryExampleRunsAndInspects(t *testing.T) {
 	for _, name := range scenarios.Examples() {
 		t.Run(name, func(t *testing.T) {
@@ -356,6 +357,51 @@ func TestEveryExampleRunsAndInspects(t *testing.T) {
 			code, out, stderr := runCLI(t, "inspect", filepath.Join(dir, "run.snap"), "--csv")
 			if code != exitOK || strings.Count(out, "\n") < 2 {
 				t.Errorf("inspect %s: exit %d: %s", name, code, stderr)
+			}
+		})
+	}
+}
+
+// Unsafe input of every kind ends with exit 2, a message naming what to
+// change, and no output folder (not even a partial one) left behind, so
+// that the corrected command needs no --force.
+func TestUnsafeInputs(t *testing.T) {
+	dir := t.TempDir()
+	afile := filepath.Join(dir, "afile")
+	if err := os.WriteFile(afile, []byte("x"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	out := filepath.Join(dir, "out")
+	tests := []struct {
+		name string
+		args []string
+		want string
+	}{
+		{"space in a unit", []string{"run", "single-fracture", "--set", "layer.depth=2000 m m", "--out", out}, `the unit "m m" has a space inside`},
+		{"absurd rate", []string{"run", "single-fracture", "--set", "schedule.rate=1e300 m3/s", "--out", out}, "schedule.rate=1e300 m3/s: must be within (0, 10] m3/s"},
+		{"too many steps", []string{"run", "single-fracture", "--set", "numerics.time_step_initial=1e-6 s", "--set", "numerics.time_step_min=1e-6 s",
+			"--set", "numerics.time_step_max=1e-6 s", "--out", out}, "numerics.max_steps"},
+		{"device as scenario", []string{"run", "/dev/zero", "--out", out}, "not a regular file (a device)"},
+		{"output is a file", []string{"run", "single-fracture", "--out", afile}, "is a file, not a folder"},
+		{"empty output", []string{"run", "single-fracture", "--out", ""}, "no output folder"},
+		{"network beyond memory", []string{"generate", "demo", "--memory-limit", "1MB", "--out", out}, "more than the memory limit of 1 MB"},
+		{"run beyond memory", []string{"run", "single-fracture", "--set", "numerics.element_length=1 cm", "--memory-limit", "50MB", "--out", out},
+			"the simulation would take about"},
+		{"bad memory limit", []string{"run", "single-fracture", "--memory-limit", "lots", "--out", out}, "--memory-limit lots"},
+		{"realizations beyond any batch", []string{"batch", "single-fracture", "--realizations", "1000000000000", "--out", out}, "--realizations 1000000000000: must be 1 to 1000000"},
+		{"negative realization", []string{"run", "single-fracture", "--realization", "-1", "--out", out}, "realization -1: must be ≥ 0"},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			code, _, stderr := runCLI(t, tc.args...)
+			if code != exitBadInput || !strings.Contains(stderr, tc.want) {
+				t.Errorf("exit %d, stderr %q; want exit 2 and %q", code, stderr, tc.want)
+			}
+			for _, left := range []string{out, out + ".partial"} {
+				if _, err := os.Stat(left); !os.IsNotExist(err) {
+					t.Errorf("%s left behind (%v)", left, err)
+					os.RemoveAll(left)
+				}
 			}
 		})
 	}

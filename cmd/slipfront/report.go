@@ -19,10 +19,7 @@ func newReportCmd(g *globalOptions, stderr io.Writer) *cobra.Command {
 			"  slipfront report visc --out visc-report",
 		Args: cobra.ExactArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
-			if err := o.folder().Prepare(); err != nil {
-				return err
-			}
-			err := pipeline.WriteReport(cmd.Context(), args[0], o.out)
+			err := pipeline.WriteReport(cmd.Context(), args[0], o.folder())
 			if err == nil {
 				fmt.Fprintf(statusWriter(g, stderr), "wrote %s\n", filepath.Join(o.out, pipeline.ReportPageFile))
 			}

@@ -9,6 +9,8 @@ import (
 
 	"slipfront/internal/badinput"
 	cautionpkg "slipfront/internal/caution"
+	"slipfront/internal/crash"
+	"slipfront/internal/version"
 	"slipfront/pipeline"
 
 	"github.com/spf13/cobra"
@@ -22,6 +24,7 @@ const (
 	exitOK          = 0
 	exitFailure     = 1
 	exitBadInput    = 2
+	exitInternal    = 3 // a bug in slipfront (a recovered panic)
 	exitInterrupted = 130
 )
 
@@ -42,7 +45,20 @@ func statusWriter(g *globalOptions, stderr io.Writer) io.Writer {
 
 // globalOptions are the flags shared by every command.
 type globalOptions struct {
-	quiet bool
+	quiet       bool
+	memoryLimit string
+}
+
+// limits are the resource limits of the global flags.
+func (g *globalOptions) limits() (pipeline.Limits, error) {
+	if g.memoryLimit == "" {
+		return pipeline.Limits{}, nil
+	}
+	b, err := parseBytes(g.memoryLimit)
+	if err != nil {
+		return pipeline.Limits{}, badInput(fmt.Errorf("--memory-limit %s: %w", g.memoryLimit, err))
+	}
+	return pipeline.Limits{Memory: b}, nil
 }
 
 // run executes the command line args and returns the process exit code.
@@ -60,6 +76,7 @@ func run(ctx context.Context, args []string, stdout, stderr io.Writer) int {
 	root.SetErr(stderr)
 	root.SetArgs(args)
 	root.PersistentFlags().BoolVarP(&g.quiet, "quiet", "q", false, "print no progress or status lines")
+	root.PersistentFlags().StringVar(&g.memoryLimit, "memory-limit", "", "memory a run may take, e.g. 8GB or 512MiB; scenarios estimated to need more are refused before they start (default half of the machine's memory)")
 	root.AddCommand(
 		newVersionCmd(stdout),
 		newScenarioCmd(stdout),
@@ -74,9 +91,15 @@ func run(ctx context.Context, args []string, stdout, stderr io.Writer) int {
 		newReportCmd(&g, stderr),
 	)
 	markStarted(root, &started)
-	err := root.ExecuteContext(ctx)
+	err := crash.Capture(func() error { return root.ExecuteContext(ctx) })
 	if err == nil {
 		return exitOK
+	}
+	var bug *crash.Error
+	if errors.As(err, &bug) {
+		fmt.Fprintf(stderr, "slipfront: %v\n%s\nslipfront: this is a bug in slipfront %s, not a problem with your input; "+
+			"please report it to the developers with the command line, the scenario file and this message\n", bug, bug.Stack, version.Version)
+		return exitInternal
 	}
 	fmt.Fprintln(stderr, "slipfront:", err)
 	switch {

@@ -12,8 +12,14 @@ import (
 	"slipfront/sim"
 )
 
+// runOptions are the flags of "slipfront run".
+type runOptions struct {
+	scenarioToFolder
+	realization int
+}
+
 func newRunCmd(g *globalOptions, stdout, stderr io.Writer) *cobra.Command {
-	var o scenarioToFolder
+	var o runOptions
 	cmd := &cobra.Command{
 		Use:   "run SCENARIO --out DIR",
 		Short: "Simulate the pumping schedule on one fracture network",
@@ -23,26 +29,32 @@ func newRunCmd(g *globalOptions, stdout, stderr io.Writer) *cobra.Command {
 		Example: "  slipfront run scenarios/examples/demo.toml --out run1\n" +
 			"  slipfront run demo --set fluids.slickwater.viscosity=20cP --out run-20cp",
 	}
-	return newScenarioToFolderCmd(cmd, &o, func(ctx context.Context) error {
+	cmd = newScenarioToFolderCmd(cmd, &o.scenarioToFolder, func(ctx context.Context) error {
 		return runRun(ctx, &o, g, stdout, stderr)
 	})
+	cmd.Flags().IntVar(&o.realization, "realization", 0, "network realization to run, ≥ 0 (batch realization r with the same --set values is reproduced by --realization r)")
+	return cmd
 }
 
-func runRun(ctx context.Context, o *scenarioToFolder, g *globalOptions, stdout, stderr io.Writer) error {
+func runRun(ctx context.Context, o *runOptions, g *globalOptions, stdout, stderr io.Writer) error {
 	s, err := o.load(o.scenario)
 	if err != nil {
 		return err
 	}
-	return simulate(ctx, s, o.folder(), g, stdout, stderr)
+	return simulate(ctx, s, o.folder(), o.realization, g, stdout, stderr)
 }
 
 // simulate runs scenario s into the folder and prints the stage table,
 // the warnings and the caution, also after a failed run (what was
 // computed is kept).
-func simulate(ctx context.Context, s *scenarios.Scenario, out pipeline.Folder, g *globalOptions, stdout, stderr io.Writer) error {
+func simulate(ctx context.Context, s *scenarios.Scenario, out pipeline.Folder, realization int, g *globalOptions, stdout, stderr io.Writer) error {
+	lim, err := g.limits()
+	if err != nil {
+		return err
+	}
 	status := statusWriter(g, stderr)
 	bar := newProgress(g, stderr, "simulating")
-	res, runErr := pipeline.Simulate(ctx, s, pipeline.SimulateOptions{Out: out, Status: status,
+	res, runErr := pipeline.Simulate(ctx, s, pipeline.SimulateOptions{Out: out, Realization: realization, Limits: lim, Status: status,
 		Progress: func(t, end float64) { bar.set(t / end) }})
 	bar.done()
 	if res == nil {

@@ -70,6 +70,9 @@ func describeScenario(w io.Writer, s *scenarios.Scenario) error {
 	fmt.Fprintf(&b, "%s: valid\n", s.Source)
 	fmt.Fprintf(&b, "  name      %s\n  digest    %s\n  seed      %d\n", s.Name, s.Digest, s.Seed)
 	crs := s.Domain.CRS
+	if s.Domain.CRSWKT != "" {
+		crs = "WKT " + s.Domain.CRSWKT
+	}
 	if crs == "" {
 		crs = "undefined local frame"
 	}

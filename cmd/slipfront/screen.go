@@ -19,17 +19,21 @@ func newScreenCmd(g *globalOptions, stdout, stderr io.Writer) *cobra.Command {
 			"  slipfront screen demo --set rock.friction_static=0.7 --out screen-mu07",
 	}
 	return newScenarioToFolderCmd(cmd, &o, func(ctx context.Context) error {
-		return runScreen(ctx, &o, stdout, statusWriter(g, stderr))
+		return runScreen(ctx, &o, g, stdout, statusWriter(g, stderr))
 	})
 }
 
 // runScreen writes the screen folder and prints its summary.
-func runScreen(_ context.Context, o *scenarioToFolder, stdout, status io.Writer) error {
+func runScreen(_ context.Context, o *scenarioToFolder, g *globalOptions, stdout, status io.Writer) error {
 	s, err := o.load(o.scenario)
 	if err != nil {
 		return err
 	}
-	sc, err := pipeline.Screen(s, o.folder())
+	lim, err := g.limits()
+	if err != nil {
+		return err
+	}
+	sc, err := pipeline.Screen(s, o.folder(), lim)
 	if err != nil {
 		return err
 	}

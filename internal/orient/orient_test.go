@@ -14,11 +14,11 @@ const deg = math.Pi / 180
 
 // Tolerances: the conversions are closed forms, so round-off only.
 const (
-	vecTol   = 1e-6  // REFERENCES.md §1.5 prints 6 decimals
-	angleTol = 1e-11 // radians, ≈ 1e-9 deg as REFERENCES.md §1.5 asks
+	vecTol   = 1e-6  // docs/references.md §1.5 prints 6 decimals
+	angleTol = 1e-11 // radians, ≈ 1e-9 deg as docs/references.md §1.5 asks
 )
 
-// Check values: REFERENCES.md §1.5 table (standard relations of structural
+// Check values: docs/references.md §1.5 table (standard relations of structural
 // geology; Allmendinger, Cardozo & Fisher 2012, ch. 2).
 func TestNormalAndPole(t *testing.T) {
 	tests := []struct {
@@ -68,7 +68,7 @@ func TestRoundTrips(t *testing.T) {
 	}
 }
 
-// n = d × s (REFERENCES.md §1.5): strike, down-dip and normal form a
+// n = d × s (docs/references.md §1.5): strike, down-dip and normal form a
 // right-handed frame.
 func TestFrame(t *testing.T) {
 	for _, c := range [][2]float64{{80, 120}, {30, 225}, {60, 90}, {45, 0}} {
