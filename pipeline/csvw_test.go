@@ -87,7 +87,8 @@ func sameRows(t *testing.T, what string, got, want map[string]int) {
 // Every CSV file of a generate, screen, run and batch folder is plain CSV
 // with one header row, read by Python's csv module, numpy and GDAL, and
 // described by its folder's CSV on the Web metadata, with one row per
-// fracture, trace, event, case, realization… (issue 15).
+// fracture, trace, event, case, realization… A "#" comment line would
+// break all three readers.
 func TestCSVFilesReadAndDescribed(t *testing.T) {
 	s := loadExample(t, "demo")
 	gen := t.TempDir()

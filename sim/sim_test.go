@@ -160,7 +160,8 @@ func TestDemoInvariants(t *testing.T) {
 }
 
 // Every stage whose bottom-hole pressure exceeded Shmin is named by one
-// warning of kind WarnBHPAboveShmin, and no other stage is (issue 15).
+// warning of kind WarnBHPAboveShmin, and no other stage is: a user must
+// see every stage that entered the tensile regime, not only the first.
 func TestShminWarningPerStage(t *testing.T) {
 	s, res := runSmallDemo(t)
 	stress, err := mechanics.StressFromScenario(s.Stress, s.Layer.Depth)

@@ -50,7 +50,7 @@ var printedWarning = regexp.MustCompile(`(?m)^warning: (\d+) × bhp_above_shmin 
 // The demo crosses Shmin in every stage: a small batch of it counts the
 // warnings per realization and per case in its tables, the case's count
 // being the sum over its realizations, and prints them at the end with an
-// example message (issue 15).
+// example message, so that no batch hides a warning its runs gave.
 func TestBatchWarnings(t *testing.T) {
 	if testing.Short() {
 		t.Skip("runs two realizations of the demo")
