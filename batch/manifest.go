@@ -43,6 +43,8 @@ type ManifestScenario struct {
 	Name   string `json:"name"`
 	Digest string `json:"digest"`
 	Seed   uint64 `json:"seed"`
+	// Start of pumping, UTC (RFC 3339), stamped on the batch's maps.
+	Start string `json:"schedule_start,omitempty"`
 }
 
 // ManifestCase is one case of a batch.

@@ -203,7 +203,7 @@ func makePlan(opts Options) (*Manifest, []Case, error) {
 	cases := Cases(opts.Sweeps)
 	m := &Manifest{
 		Format: ManifestFormat, ProgramVersion: version.Version,
-		Scenario: ManifestScenario{Name: base.Name, Digest: base.Digest, Seed: base.Seed},
+		Scenario: ManifestScenario{Name: base.Name, Digest: base.Digest, Seed: base.Seed, Start: base.Schedule.Start},
 		Sweeps:   opts.Sweeps, Realizations: opts.Realizations, Shard: opts.Shard,
 	}
 	if m.Sweeps == nil {

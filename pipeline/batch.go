@@ -111,7 +111,7 @@ func WriteBatchMaps(ctx context.Context, dir string) error {
 	if err != nil {
 		return err
 	}
-	if err := writeGeoPackage(ctx, filepath.Join(dir, MapsFile), pl, layers); err != nil {
+	if err := writeGeoPackage(ctx, filepath.Join(dir, MapsFile), pl, layers, scheduleStart(m.Scenario.Start)); err != nil {
 		return err
 	}
 	for i := range aggs {

@@ -8,6 +8,7 @@ import (
 	"path/filepath"
 	"slices"
 	"strings"
+	"time"
 
 	"slipfront/batch"
 	"slipfront/gis"
@@ -77,7 +78,7 @@ func (r *Run) export(ctx context.Context, o ExportOptions) error {
 		if err != nil {
 			return err
 		}
-		return writeLayers(ctx, o, pl, layers)
+		return writeLayers(ctx, o, pl, layers, scheduleStart(r.Scenario.Schedule.Start))
 	case "geojson":
 		if o.Layer == "" {
 			return badinput.Errorf("geojson writes one layer: choose it with --layer (%s)", strings.Join(LayerNames, ", "))
@@ -109,7 +110,8 @@ func (r *Run) export(ctx context.Context, o ExportOptions) error {
 
 // catalog is the run's events as a QuakeML catalogue.
 func (r *Run) catalog() gis.Catalog {
-	c := gis.Catalog{ID: fmt.Sprintf("slipfront-%s-r%d", r.Scenario.Digest[:12], r.Network.Realization), Start: r.start(),
+	start := scheduleStart(r.Scenario.Schedule.Start)
+	c := gis.Catalog{ID: fmt.Sprintf("slipfront-%s-r%d", r.Scenario.Digest[:12], r.Network.Realization), Start: start,
 		Description: "synthetic microseismic events of a slipfront run of " + r.Scenario.Name + " (not observed data)"}
 	for _, e := range r.Result.Events {
 		c.Events = append(c.Events, gis.Event{Time: e.Time, East: e.X, North: e.Y, Depth: e.Depth, Magnitude: e.Magnitude})
@@ -118,7 +120,7 @@ func (r *Run) catalog() gis.Catalog {
 }
 
 // writeLayers writes the layers, or only o.Layer, to a GeoPackage.
-func writeLayers(ctx context.Context, o ExportOptions, pl gis.Placement, layers []gis.Layer) error {
+func writeLayers(ctx context.Context, o ExportOptions, pl gis.Placement, layers []gis.Layer, stamp time.Time) error {
 	if o.Layer != "" {
 		l, err := pick(layers, o.Layer)
 		if err != nil {
@@ -126,7 +128,7 @@ func writeLayers(ctx context.Context, o ExportOptions, pl gis.Placement, layers 
 		}
 		layers = []gis.Layer{l}
 	}
-	return writeGeoPackage(ctx, o.Out, pl, layers) // a new file, renamed over o.Out
+	return writeGeoPackage(ctx, o.Out, pl, layers, stamp) // a new file, renamed over o.Out
 }
 
 func pick(layers []gis.Layer, name string) (gis.Layer, error) {
@@ -144,7 +146,7 @@ func exportBatch(ctx context.Context, dir string, o ExportOptions) error {
 	if !math.IsNaN(o.Time) {
 		return badinput.Errorf("--time applies to a run folder; a batch folder holds final probabilities")
 	}
-	_, aggs, err := batch.ReadAggregates(ctx, dir)
+	m, aggs, err := batch.ReadAggregates(ctx, dir)
 	if err != nil {
 		return err
 	}
@@ -154,7 +156,7 @@ func exportBatch(ctx context.Context, dir string, o ExportOptions) error {
 	}
 	switch o.Format {
 	case "gpkg":
-		return writeLayers(ctx, o, pl, layers)
+		return writeLayers(ctx, o, pl, layers, scheduleStart(m.Scenario.Start))
 	case "geojson":
 		l, err := pickDefault(layers, o.Layer)
 		if err != nil {

@@ -150,7 +150,7 @@ func (r *Run) outlineLayer() (gis.Layer, error) {
 			{Name: "stimulated_area_m2", Type: gis.Real}}}
 	g, sg := r.Grid(), r.Scenario.MapGrid()
 	res := r.Result
-	start := r.start()
+	start := scheduleStart(r.Scenario.Schedule.Start)
 	for _, t := range r.OutlineTimes {
 		mask := sim.StimulatedCells(sg, res.Elements, func(i int) bool { return res.StimulatedAt[i] <= t })
 		mp, err := gis.Outline(g, mask)
@@ -178,7 +178,7 @@ func (r *Run) eventLayer() gis.Layer {
 			{Name: "fracture_id", Type: gis.Int32}, {Name: "depth_m", Type: gis.Real}, {Name: "slip_mm", Type: gis.Real},
 			{Name: "rupture_area_m2", Type: gis.Real}, {Name: "moment_Nm", Type: gis.Real}, {Name: "magnitude_Mw", Type: gis.Real},
 		}}
-	start := r.start()
+	start := scheduleStart(r.Scenario.Schedule.Start)
 	for _, e := range r.Result.Events {
 		if !r.shows(e.Time) {
 			continue
@@ -187,13 +187,6 @@ func (r *Run) eventLayer() gis.Layer {
 			e.Time, utc(start, e.Time), r.stageName(e.Stage), e.Fracture, e.Depth, e.Slip * 1e3, e.Area, e.Moment, e.Magnitude}})
 	}
 	return l
-}
-
-// start returns schedule.start (validated RFC 3339 by the scenario
-// parser).
-func (r *Run) start() time.Time {
-	start, _ := time.Parse(time.RFC3339, r.Scenario.Schedule.Start)
-	return start
 }
 
 // utc returns the UTC date and time t s after start.

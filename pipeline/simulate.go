@@ -134,7 +134,7 @@ func writeRunMaps(ctx context.Context, dir string, r *Run) error {
 	if err != nil {
 		return err
 	}
-	if err := writeGeoPackage(ctx, filepath.Join(dir, MapsFile), pl, layers); err != nil {
+	if err := writeGeoPackage(ctx, filepath.Join(dir, MapsFile), pl, layers, scheduleStart(r.Scenario.Schedule.Start)); err != nil {
 		return err
 	}
 	return writeRunPictures(dir, r)

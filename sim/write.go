@@ -267,9 +267,9 @@ func WriteStageTable(w io.Writer, res *Result) error {
 		if !math.IsNaN(st.MaxMagnitude) {
 			mw = fmt.Sprintf("%.2f", st.MaxMagnitude)
 		}
-		fmt.Fprintf(&b, "%-10s %12.1f %14.2f %16.0f %8d %9s\n", st.Name, st.Injected, st.PeakBHP/1e6, st.NewArea, st.Events, mw)
+		fmt.Fprintf(&b, "%-10s %12.4g %14.2f %16.0f %8d %9s\n", st.Name, st.Injected, st.PeakBHP/1e6, st.NewArea, st.Events, mw)
 	}
-	fmt.Fprintf(&b, "total: %.1f m3 injected, stimulated area %.0f m2 (fracture surface %.0f m2), %d events, peak BHP %.2f MPa\n",
+	fmt.Fprintf(&b, "total: %.4g m3 injected, stimulated area %.0f m2 (fracture surface %.0f m2), %d events, peak BHP %.2f MPa\n",
 		res.Injected, res.StimulatedArea, res.FractureArea, len(res.Events), res.PeakBHP/1e6)
 	_, err := io.WriteString(w, b.String())
 	return err

@@ -52,7 +52,7 @@ func Describe(w io.Writer, r *Reader) error {
 	if err := tw.Flush(); err != nil {
 		return err
 	}
-	if err := describeFrames(w, frames, stageNames(&h)); err != nil {
+	if err := describeFrames(w, r, frames, stageNames(&h)); err != nil {
 		return err
 	}
 	stored, raw := int64(0), int64(0)
@@ -69,14 +69,20 @@ func Describe(w io.Writer, r *Reader) error {
 	return nil
 }
 
-func describeFrames(w io.Writer, frames []FrameInfo, names []string) error {
+// describeFrames lists the frames, each checked against its checksum,
+// with their stages by name when names has them.
+func describeFrames(w io.Writer, r *Reader, frames []FrameInfo, names []string) error {
 	if len(frames) == 0 {
 		return nil
 	}
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', tabwriter.AlignRight)
-	fmt.Fprintln(tw, "frame\ttime_s\tstage\tstored_bytes\t")
+	fmt.Fprintln(tw, "frame\ttime_s\tstage\tstored_bytes\tcheck\t")
 	for i, f := range frames {
-		fmt.Fprintf(tw, "%d\t%s\t%s\t%d\t\n", i, fmtFloat(f.Time), stageLabel(int(f.Stage), names), f.Size)
+		check := "ok"
+		if err := r.CheckFrame(i); err != nil {
+			check = "DAMAGED"
+		}
+		fmt.Fprintf(tw, "%d\t%s\t%s\t%d\t%s\t\n", i, fmtFloat(f.Time), stageLabel(int(f.Stage), names), f.Size, check)
 	}
 	return tw.Flush()
 }

@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"fmt"
 	"math"
+	"slices"
 	"strings"
 	"testing"
 )
@@ -20,7 +21,7 @@ func TestDescribe(t *testing.T) {
 		"easting 612345.5 m, northing 3512345.25 m", "2600 m",
 		"6 on 1 fractures", "pressure [Pa], aperture [m], slip [m]", "cluster [1]",
 		`metadata notes "multi-line\nvalue"`, "frames 5, time 0 s to 240 s",
-		"frame time_s stage stored_bytes", "compression:",
+		"frame time_s stage stored_bytes check", "compression:",
 	} {
 		if !strings.Contains(text, want) {
 			t.Errorf("Describe output lacks %q:\n%s", want, text)
@@ -29,12 +30,26 @@ func TestDescribe(t *testing.T) {
 	if strings.Contains(text, "recovered") {
 		t.Errorf("Describe of a closed file mentions recovery:\n%s", text)
 	}
-	// One table row per frame: index, time, stage, stored size.
+	// One table row per frame: index, time, stage, stored size, check.
 	last := info[4]
 	rows := lines(out.String())
 	row := squeeze(rows[len(rows)-2])
-	if want := fmt.Sprintf("4 240 2 %d", last.Size); row != want {
+	if want := fmt.Sprintf("4 240 2 %d ok", last.Size); row != want {
 		t.Errorf("last frame row %q, want %q", row, want)
+	}
+	// A flipped byte inside frame 2's arrays is found by its checksum.
+	damaged := bytes.Clone(b)
+	damaged[info[2].Offset+info[2].Size-3] ^= 0xff
+	out.Reset()
+	if err := Describe(&out, open(t, damaged)); err != nil {
+		t.Fatal(err)
+	}
+	rows = lines(squeeze(out.String()))
+	if want := fmt.Sprintf("2 120 1 %d DAMAGED", info[2].Size); !slices.Contains(rows, want) {
+		t.Errorf("Describe of a file with a damaged frame 2 lacks the row %q:\n%s", want, out.String())
+	}
+	if n := strings.Count(out.String(), "DAMAGED"); n != 1 {
+		t.Errorf("%d frames marked damaged, want 1", n)
 	}
 	out.Reset()
 	if err := Describe(&out, open(t, b[:last.Offset+10])); err != nil {

@@ -255,22 +255,11 @@ func (r *Reader) ReadFrame(i int) (Frame, error) {
 
 // ReadFrameInto reads frame i into dst, reusing the capacity of its slices.
 func (r *Reader) ReadFrameInto(dst *Frame, i int) error {
-	if i < 0 || i >= len(r.frames) {
-		return fmt.Errorf("snapshot: frame %d does not exist (the snapshot holds frames 0 to %d)", i, len(r.frames)-1)
+	payload, err := r.framePayload(i)
+	if err != nil {
+		return err
 	}
 	info := r.frames[i]
-	b, err := r.readAt(info.Offset, info.Size)
-	if err != nil {
-		return fmt.Errorf("snapshot: reading frame %d: %w", i, err)
-	}
-	h, ok := parseBlockHeader(b)
-	payload := b[blockHeaderSize:]
-	if !ok || h.tag != tagFrame || h.length != uint64(len(payload)) {
-		return formatErr(info.Offset, "frame %d is damaged (block header)", i)
-	}
-	if checksum(payload) != h.payloadCRC {
-		return formatErr(info.Offset, "frame %d is damaged (checksum mismatch)", i)
-	}
 	c := &cursor{b: payload, base: info.Offset + blockHeaderSize}
 	c.u32("sequence number")
 	t, stage := c.f64("time"), int32(c.u32("stage"))
@@ -284,6 +273,35 @@ func (r *Reader) ReadFrameInto(dst *Frame, i int) error {
 	}
 	dst.Time, dst.Stage = t, stage
 	return nil
+}
+
+// CheckFrame reads frame i's block and checks its header and checksum
+// without decoding the arrays: nil for an intact frame, an error matching
+// ErrFormat (or an I/O error) otherwise.
+func (r *Reader) CheckFrame(i int) error {
+	_, err := r.framePayload(i)
+	return err
+}
+
+// framePayload reads the block of frame i and returns its checked payload.
+func (r *Reader) framePayload(i int) ([]byte, error) {
+	if i < 0 || i >= len(r.frames) {
+		return nil, fmt.Errorf("snapshot: frame %d does not exist (the snapshot holds frames 0 to %d)", i, len(r.frames)-1)
+	}
+	info := r.frames[i]
+	b, err := r.readAt(info.Offset, info.Size)
+	if err != nil {
+		return nil, fmt.Errorf("snapshot: reading frame %d: %w", i, err)
+	}
+	h, ok := parseBlockHeader(b)
+	payload := b[blockHeaderSize:]
+	if !ok || h.tag != tagFrame || h.length != uint64(len(payload)) {
+		return nil, formatErr(info.Offset, "frame %d is damaged (block header)", i)
+	}
+	if checksum(payload) != h.payloadCRC {
+		return nil, formatErr(info.Offset, "frame %d is damaged (checksum mismatch)", i)
+	}
+	return payload, nil
 }
 
 func (r *Reader) decodeFrameArrays(c *cursor, dst *Frame) {
