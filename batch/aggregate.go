@@ -1,13 +1,10 @@
 package batch
 
 import (
-	"bytes"
 	"context"
-	"encoding/csv"
 	"fmt"
 	"math"
 	"slices"
-	"strconv"
 
 	"gonum.org/v1/gonum/stat"
 )
@@ -23,9 +20,10 @@ import (
 // With 20 realizations P10 = x₂, P50 = x₁₀ and P90 = x₁₈.
 const QuantileKind = stat.Empirical
 
-// Percentiles reported: P10, P50, P90 are the 10th, 50th and 90th
-// percentiles in ascending order, so P10 ≤ P50 ≤ P90: P90 is the large
-// value, exceeded by about a tenth of the realizations.
+// Percentiles reported: P10, P50, P90 (the tables' _q10, _q50, _q90
+// columns) are the 10th, 50th and 90th percentiles in ascending order, so
+// P10 ≤ P50 ≤ P90: P90 is the high case, exceeded by about a tenth of the
+// realizations.
 var percentileLevels = [3]float64{0.10, 0.50, 0.90}
 
 // Stats summarises one quantity over a case's realizations.
@@ -54,91 +52,57 @@ func Summarize(values []float64) Stats {
 	}
 }
 
-const percentilesComment = `# slipfront batch: stimulated map area per case and time, over all realizations of the case.
-# P10, P50, P90 are the 10th, 50th and 90th percentiles in ascending order (P10 <= P50 <= P90; P90 is the larger value),
-# computed as gonum stat.Quantile with stat.Empirical (Hyndman and Fan 1996, definition 1: the value of rank ceil(n*p), always a realization's value).
-# std is the sample standard deviation (n - 1 denominator), empty for a single realization. Areas in m2, time in s.
-`
-
-const comparisonComment = `# slipfront batch: one row per case. Percentiles as in percentiles.csv: P10 <= P50 <= P90 (ascending; P90 is the larger value),
-# gonum stat.Quantile with stat.Empirical (Hyndman and Fan 1996, definition 1: the value of rank ceil(n*p)). max_magnitude_Mw is empty when no realization had an event.
-`
-
 // aggregate reads every result of a complete batch in (case,
-// realization) order and writes realizations.csv, percentiles.csv,
-// comparison.csv and one probability grid per case into dir.
+// realization) order and writes the batch's tables, probability grids,
+// CSV metadata and summary into dir (see the package documentation).
 func aggregate(ctx context.Context, dir string, m *Manifest, hooks *Hooks) error {
-	var realBuf, pctBuf, cmpBuf bytes.Buffer
-	realCSV, pctCSV, cmpCSV := csv.NewWriter(&realBuf), csv.NewWriter(&pctBuf), csv.NewWriter(&cmpBuf)
-	pctBuf.WriteString(percentilesComment)
-	cmpBuf.WriteString(comparisonComment)
-	keys := make([]string, len(m.Sweeps))
-	for i, s := range m.Sweeps {
-		keys[i] = s.Key
+	aggs, err := readAggregates(ctx, dir, m, hooks)
+	if err != nil {
+		return fmt.Errorf("batch: aggregating: %w", err)
 	}
-	head := func(cols ...string) []string { return append(append([]string{"case"}, keys...), cols...) }
-	realCSV.Write(head("realization", "network_digest", "final_area_m2", "fracture_area_m2", "events",
-		"max_magnitude_Mw", "peak_bhp_MPa", "injected_volume_m3"))
-	pctCSV.Write(head("time_s", "p10_area_m2", "p50_area_m2", "p90_area_m2", "mean_area_m2", "std_area_m2"))
-	cmpCSV.Write(head("realizations", "p10_final_area_m2", "p50_final_area_m2", "p90_final_area_m2", "mean_final_area_m2",
-		"p10_fracture_area_m2", "p50_fracture_area_m2", "p90_fracture_area_m2", "mean_events", "max_magnitude_Mw",
-		"p50_peak_bhp_MPa", "max_peak_bhp_MPa", "mean_injected_volume_m3"))
-
-	grids := make([][]byte, len(m.Cases))
-	for c := range m.Cases {
-		if err := ctx.Err(); err != nil {
-			return fmt.Errorf("batch: aggregating interrupted: %w", err)
-		}
-		cs, err := readCase(dir, m, c, hooks, realCSV)
-		if err != nil {
-			return fmt.Errorf("batch: aggregating: %w", err)
-		}
-		a := cs.aggregate(m.Cases[c])
-		writePercentiles(pctCSV, &a)
-		writeComparison(cmpCSV, &a)
-		var b bytes.Buffer
-		if err := WriteProbabilityGrid(&b, cs.grid); err != nil {
-			return err
-		}
-		grids[c] = b.Bytes()
+	files, err := renderAggregates(m, aggs)
+	if err != nil {
+		return fmt.Errorf("batch: aggregating: %w", err)
 	}
-	for _, w := range []*csv.Writer{realCSV, pctCSV, cmpCSV} {
-		w.Flush()
-		if err := w.Error(); err != nil {
-			return fmt.Errorf("batch: aggregating: %w", err)
-		}
-	}
-	for c, b := range grids {
-		if err := writeBytesAtomic(dir, ProbabilityGridName(c), b); err != nil {
-			return err
-		}
-	}
-	for _, f := range []struct {
-		name string
-		b    []byte
-	}{{RealizationsName, realBuf.Bytes()}, {PercentilesName, pctBuf.Bytes()}, {ComparisonName, cmpBuf.Bytes()}} {
-		if err := writeBytesAtomic(dir, f.name, f.b); err != nil {
+	for _, f := range files {
+		if err := writeBytesAtomic(dir, f.name, f.data); err != nil {
 			return err
 		}
 	}
 	return nil
 }
 
+// readAggregates reads every case's results in (case, realization) order
+// and sums them up.
+func readAggregates(ctx context.Context, dir string, m *Manifest, hooks *Hooks) ([]CaseAggregate, error) {
+	out := make([]CaseAggregate, len(m.Cases))
+	for c := range m.Cases {
+		if err := ctx.Err(); err != nil {
+			return nil, fmt.Errorf("interrupted: %w", err)
+		}
+		cs, err := readCase(dir, m, c, hooks)
+		if err != nil {
+			return nil, err
+		}
+		out[c] = cs.aggregate(m.Cases[c])
+	}
+	return out, nil
+}
+
 // caseStats gathers one case's results.
 type caseStats struct {
-	area                               [][]float64 // [realization][time]
+	results                            []*Result
 	final, fracture, events, peak, vol []float64
 	maxMw                              float64 // NaN when no events
 	grid                               *ProbabilityGrid
 }
 
-// readCase reads case c's results in realization order, writing their
-// rows to realCSV when it is not nil.
-func readCase(dir string, m *Manifest, c int, hooks *Hooks, realCSV *csv.Writer) (*caseStats, error) {
+// readCase reads case c's results in realization order.
+func readCase(dir string, m *Manifest, c int, hooks *Hooks) (*caseStats, error) {
 	mc := &m.Cases[c]
 	n := m.Realizations
 	cs := &caseStats{
-		area: make([][]float64, n), final: make([]float64, n), fracture: make([]float64, n),
+		results: make([]*Result, n), final: make([]float64, n), fracture: make([]float64, n),
 		events: make([]float64, n), peak: make([]float64, n), vol: make([]float64, n), maxMw: math.NaN(),
 	}
 	counts := make([]int32, mc.Grid.Cells())
@@ -147,13 +111,6 @@ func readCase(dir string, m *Manifest, c int, hooks *Hooks, realCSV *csv.Writer)
 		if err != nil {
 			return nil, err
 		}
-		if realCSV != nil {
-			row := append([]string{strconv.Itoa(c)}, mc.Values...)
-			realCSV.Write(append(row, strconv.Itoa(r), res.NetworkDigest, formatFloat(res.FinalArea),
-				formatFloat(res.FractureArea), strconv.Itoa(res.Events), formatOptional(res.MaxMagnitude),
-				formatFloat(res.PeakPressure/1e6), formatFloat(res.InjectedVolume)))
-		}
-		cs.area[r] = res.Area
 		cs.final[r], cs.fracture[r], cs.events[r] = res.FinalArea, res.FractureArea, float64(res.Events)
 		cs.peak[r], cs.vol[r] = res.PeakPressure, res.InjectedVolume
 		if res.Events > 0 && !(res.MaxMagnitude <= cs.maxMw) {
@@ -162,6 +119,8 @@ func readCase(dir string, m *Manifest, c int, hooks *Hooks, realCSV *csv.Writer)
 		for _, i := range res.Cells {
 			counts[i]++
 		}
+		res.Cells = nil // counted; the aggregates keep the rest
+		cs.results[r] = res
 	}
 	cs.grid = &ProbabilityGrid{Case: c, Label: mc.Label, Realizations: n, Grid: mc.Grid}
 	for i, k := range counts {
@@ -176,34 +135,20 @@ func readCase(dir string, m *Manifest, c int, hooks *Hooks, realCSV *csv.Writer)
 func (cs *caseStats) aggregate(mc ManifestCase) CaseAggregate {
 	a := CaseAggregate{Case: mc, Realizations: len(cs.final), MaxMagnitude: cs.maxMw, Probability: cs.grid,
 		Final: Summarize(cs.final), Fracture: Summarize(cs.fracture), Events: Summarize(cs.events),
-		PeakPressure: Summarize(cs.peak), InjectedVolume: Summarize(cs.vol)}
-	at := make([]float64, len(cs.area))
+		PeakPressure: Summarize(cs.peak), InjectedVolume: Summarize(cs.vol),
+		Results: cs.results, Warnings: CountWarnings(cs.results)}
+	at := make([]float64, len(cs.results))
 	for k := range mc.TimeGrid.Points {
-		for r := range cs.area {
-			at[r] = cs.area[r][k]
+		for r, res := range cs.results {
+			at[r] = res.Area[k]
 		}
 		a.Times = append(a.Times, mc.TimeGrid.Time(k))
 		a.Area = append(a.Area, Summarize(at))
 	}
-	return a
-}
-
-func writePercentiles(w *csv.Writer, a *CaseAggregate) {
-	for k, s := range a.Area {
-		row := append([]string{strconv.Itoa(a.Case.Index)}, a.Case.Values...)
-		w.Write(append(row, formatFloat(a.Times[k]), formatFloat(s.P10), formatFloat(s.P50),
-			formatFloat(s.P90), formatFloat(s.Mean), formatOptional(s.Std)))
+	for _, res := range cs.results {
+		res.Area = nil // summarised
 	}
-}
-
-func writeComparison(w *csv.Writer, a *CaseAggregate) {
-	final, frac := a.Final, a.Fracture
-	row := append([]string{strconv.Itoa(a.Case.Index)}, a.Case.Values...)
-	w.Write(append(row, strconv.Itoa(a.Realizations),
-		formatFloat(final.P10), formatFloat(final.P50), formatFloat(final.P90), formatFloat(final.Mean),
-		formatFloat(frac.P10), formatFloat(frac.P50), formatFloat(frac.P90),
-		formatFloat(a.Events.Mean), formatOptional(a.MaxMagnitude),
-		formatFloat(a.PeakPressure.P50/1e6), formatFloat(a.PeakPressure.Max/1e6), formatFloat(a.InjectedVolume.Mean)))
+	return a
 }
 
 // formatOptional is formatFloat, with NaN written as an empty field.
@@ -215,7 +160,7 @@ func formatOptional(v float64) string {
 }
 
 // CaseAggregate is what a complete batch found for one case: the numbers
-// of percentiles.csv, comparison.csv and the case's probability grid.
+// of its tables and its probability grid.
 type CaseAggregate struct {
 	Case         ManifestCase
 	Realizations int
@@ -229,6 +174,11 @@ type CaseAggregate struct {
 	// MaxMagnitude over all realizations; NaN when none had an event.
 	MaxMagnitude float64
 	Probability  *ProbabilityGrid
+	// Results are the case's realizations in order, without their area
+	// curves and cells (summarised above).
+	Results []*Result
+	// Warnings of the case's realizations, counted by kind.
+	Warnings []WarningCount
 }
 
 // ReadAggregates reads every result of the complete batch folder dir (a
@@ -242,16 +192,9 @@ func ReadAggregates(ctx context.Context, dir string) (*Manifest, []CaseAggregate
 	if m.Shard.Count > 1 {
 		return nil, nil, inputErrorf("%s holds shard %d/%d of a batch: merge the shards first", dir, m.Shard.Index, m.Shard.Count)
 	}
-	out := make([]CaseAggregate, len(m.Cases))
-	for c := range m.Cases {
-		if err := ctx.Err(); err != nil {
-			return nil, nil, err
-		}
-		cs, err := readCase(dir, m, c, nil, nil)
-		if err != nil {
-			return nil, nil, err
-		}
-		out[c] = cs.aggregate(m.Cases[c])
+	aggs, err := readAggregates(ctx, dir, m, nil)
+	if err != nil {
+		return nil, nil, err
 	}
-	return m, out, nil
+	return m, aggs, nil
 }

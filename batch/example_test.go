@@ -49,9 +49,9 @@ func ExampleGridFor() {
 	}
 	// The demo's domain is x −800…800 m, y −500…500 m with 10 m cells:
 	// 160 × 100. (15, −125) is column ⌊815/10⌋ = 81, row ⌊375/10⌋ = 37,
-	// index 37·160 + 81 = 6001. Its six stages of 300 bbl at 8 bbl/min
-	// (2250 s) and 20 min shut-ins last 6 × 3450 s = 20700 s: 69 intervals
-	// of 5 min, 70 times.
+	// index 37·160 + 81 = 6001. Its six stages of 200 bbl at 10 bbl/min
+	// (1200 s) and 20 min shut-ins last 6 × 2400 s = 14400 s: 48
+	// intervals of 5 min, 49 times.
 	g, _ := batch.GridFor(s)
 	i, _ := g.CellAt(15, -125)
 	col, row := g.ColRow(i)
@@ -99,14 +99,26 @@ func ExampleRun() {
 	}
 	fmt.Println(sum.Ran, "results, aggregated:", sum.Aggregated)
 	b, _ := os.ReadFile(filepath.Join(dir, batch.ComparisonName))
-	for _, line := range strings.Split(string(b), "\n") {
-		if f := strings.Split(line, ","); len(f) > 6 && !strings.HasPrefix(line, "#") {
-			fmt.Println(strings.Join(f[:6], ","))
+	for _, line := range strings.Split(strings.TrimSpace(string(b)), "\n") {
+		fmt.Println(strings.Join(strings.Split(line, ",")[:6], ","))
+	}
+	// The paired comparison: 20 cP against the reference 1 cP on the same
+	// networks, area ratio 1/20 in every realization.
+	b, _ = os.ReadFile(filepath.Join(dir, batch.PairedPercentilesName))
+	rows := strings.Split(strings.TrimSpace(string(b)), "\n")
+	head, row := strings.Split(rows[0], ","), strings.Split(rows[1], ",")
+	for i := range head {
+		if strings.HasPrefix(head[i], "stimulated_area_ratio") {
+			fmt.Println(head[i], row[i])
 		}
 	}
 	// Output:
 	// 6 results, aggregated: true
-	// case,fluids.slickwater.viscosity,realizations,p10_final_area_m2,p50_final_area_m2,p90_final_area_m2
+	// case,fluids.slickwater.viscosity,realizations,stimulated_area_m2_q10,stimulated_area_m2_q50,stimulated_area_m2_q90
 	// 0,1 cP,3,1000,2000,3000
 	// 1,20 cP,3,50,100,150
+	// stimulated_area_ratio_q10 0.05
+	// stimulated_area_ratio_q50 0.05
+	// stimulated_area_ratio_q90 0.05
+	// stimulated_area_ratio_count 3
 }

@@ -10,17 +10,23 @@ import (
 	"path/filepath"
 	"strings"
 
+	"slipfront/internal/csvw"
 	"slipfront/internal/outdir"
 )
 
 // Names of the files in a batch folder.
 const (
-	ManifestName     = "manifest.json"
-	ResultsDir       = "results"
-	RealizationsName = "realizations.csv"
-	PercentilesName  = "percentiles.csv"
-	ComparisonName   = "comparison.csv"
-	ProbabilityDir   = "probability"
+	ManifestName          = "manifest.json"
+	ResultsDir            = "results"
+	RealizationsName      = "realizations.csv"
+	PercentilesName       = "percentiles.csv"
+	ComparisonName        = "comparison.csv"
+	WarningsName          = "warnings.csv"
+	PairedName            = "paired.csv"
+	PairedPercentilesName = "paired-percentiles.csv"
+	SummaryName           = "summary.json"
+	CSVMetadataName       = csvw.FileName
+	ProbabilityDir        = "probability"
 )
 
 // ResultName is the path of the result file of case c, realization r,
@@ -32,8 +38,12 @@ func ResultName(c, r int) string {
 // ProbabilityGridName is the path of case c's probability grid relative to
 // the batch folder: probability/case-0001.csv.
 func ProbabilityGridName(c int) string {
-	return filepath.Join(ProbabilityDir, fmt.Sprintf("case-%04d.csv", c))
+	return filepath.Join(ProbabilityDir, probabilityGridFile(c))
 }
+
+// probabilityGridFile is the name of case c's probability grid in the
+// probability folder.
+func probabilityGridFile(c int) string { return fmt.Sprintf("case-%04d.csv", c) }
 
 // isTempName reports whether a file name is a temporary file of
 // outdir.WriteFile (".NAME.tmp-RANDOM"), which is never read.

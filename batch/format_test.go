@@ -22,6 +22,8 @@ func sampleResult() *Result {
 		PeakPressure: 41.5e6, InjectedVolume: 31.8, Interval: 300,
 		Area:  []float64{0, 10.5, 200.25, 12345.5},
 		Cells: []int{3, 17, 18, 400},
+		Warnings: []Warning{{Kind: "bhp_above_shmin", Message: "stage W1:1: bottom-hole pressure exceeded Shmin"},
+			{Kind: "volume_not_reached", Message: "stage W2:1: pumped 10 of 30 m³"}},
 	}
 }
 
@@ -45,7 +47,7 @@ func sameResult(a, b *Result) bool {
 func TestResultRoundTrip(t *testing.T) {
 	for _, res := range []*Result{sampleResult(), func() *Result {
 		r := sampleResult()
-		r.Events, r.MaxMagnitude, r.Cells = 0, math.NaN(), nil
+		r.Events, r.MaxMagnitude, r.Cells, r.Warnings = 0, math.NaN(), nil, nil
 		return r
 	}()} {
 		got, err := ReadResult(bytes.NewReader(encodeResult(t, res)))
@@ -54,6 +56,9 @@ func TestResultRoundTrip(t *testing.T) {
 		}
 		if res.Cells == nil {
 			res.Cells = []int{}
+		}
+		if res.Warnings == nil {
+			res.Warnings = []Warning{}
 		}
 		if !sameResult(got, res) {
 			t.Errorf("round trip: got %+v, want %+v", got, res)
@@ -83,9 +88,16 @@ func TestResultRejectsDamage(t *testing.T) {
 	damage("huge length", func(b []byte) []byte { binary.LittleEndian.PutUint64(b[12:], 1<<40); return b }, ErrFormat)
 	var unsupported *UnsupportedError
 	b := bytes.Clone(good)
-	binary.LittleEndian.PutUint16(b[8:], 2)
-	if _, err := ReadResult(bytes.NewReader(b)); !errors.As(err, &unsupported) || unsupported.Version != 2 {
-		t.Errorf("version 2: err = %v, want UnsupportedError", err)
+	binary.LittleEndian.PutUint16(b[8:], ResultVersion+1)
+	if _, err := ReadResult(bytes.NewReader(b)); !errors.As(err, &unsupported) || unsupported.Version != ResultVersion+1 {
+		t.Errorf("version %d: err = %v, want UnsupportedError", ResultVersion+1, err)
+	}
+	// Version 1 did not record warnings: refused with a message that says
+	// why and what to do, as a format error (a resumed batch redoes it).
+	binary.LittleEndian.PutUint16(b[8:], 1)
+	var fe *FormatError
+	if _, err := ReadResult(bytes.NewReader(b)); !errors.As(err, &fe) || !strings.Contains(err.Error(), "warnings") || !strings.Contains(err.Error(), "--resume") {
+		t.Errorf("version 1: err = %v, want a FormatError naming the warnings and --resume", err)
 	}
 }
 
@@ -105,6 +117,9 @@ func TestResultRejectsBadValues(t *testing.T) {
 		{"no digest", func(r *Result) { r.CaseDigest = "" }},
 		{"no interval", func(r *Result) { r.Interval = 0 }},
 		{"empty curve", func(r *Result) { r.Area = nil }},
+		{"warning without kind", func(r *Result) { r.Warnings[0].Kind = "" }},
+		{"warning kind with a comma", func(r *Result) { r.Warnings[0].Kind = "a,b" }},
+		{"warning message on two lines", func(r *Result) { r.Warnings[1].Message = "a\nb" }},
 	} {
 		r := sampleResult()
 		tc.edit(r)
@@ -113,13 +128,17 @@ func TestResultRejectsBadValues(t *testing.T) {
 		}
 	}
 	// A payload with an unknown key is refused.
-	body := []byte(`{"case":0,"realization":0,"case_digest":"a","network_digest":"","final_area_m2":0,"fracture_area_m2":0,"events":0,"max_magnitude_mw":null,"peak_bhp_pa":0,"injected_volume_m3":0,"interval_s":1,"area_m2":[0],"cells":[],"extra":1}`)
+	body := []byte(`{"case":0,"realization":0,"case_digest":"a","network_digest":"","final_area_m2":0,"fracture_area_m2":0,"events":0,"max_magnitude_mw":null,"peak_bhp_pa":0,"injected_volume_m3":0,"interval_s":1,"area_m2":[0],"cells":[],"warnings":[],"extra":1}`)
 	if _, err := decodeResultJSON(body); !errors.Is(err, ErrFormat) {
 		t.Errorf("unknown key: err = %v", err)
 	}
 	body = bytes.Replace(body, []byte(`,"extra":1`), nil, 1)
 	if _, err := decodeResultJSON(body); err != nil {
 		t.Errorf("the same payload without the unknown key: %v", err)
+	}
+	// warnings is required since version 2.
+	if _, err := decodeResultJSON(bytes.Replace(body, []byte(`,"warnings":[]`), nil, 1)); !errors.Is(err, ErrFormat) {
+		t.Errorf("no warnings key: err = %v", err)
 	}
 }
 
@@ -153,17 +172,30 @@ func sampleGrid() *ProbabilityGrid {
 	}
 }
 
+// gridManifest is a manifest whose case 1 has sampleGrid's grid, label
+// and realization count: what ReadProbabilityGrid takes them from.
+func gridManifest(p *ProbabilityGrid) *Manifest {
+	m := &Manifest{Realizations: p.Realizations, Cases: make([]ManifestCase, p.Case+1)}
+	m.Cases[p.Case] = ManifestCase{Index: p.Case, Label: p.Label, Grid: p.Grid}
+	return m
+}
+
 func TestProbabilityGridRoundTrip(t *testing.T) {
 	p := sampleGrid()
 	var b bytes.Buffer
 	if err := WriteProbabilityGrid(&b, p); err != nil {
 		t.Fatal(err)
 	}
+	// Plain CSV: the header row first, no comment lines.
+	if !strings.HasPrefix(b.String(), "col,row,x_center_m,y_center_m,stimulated_realizations,stimulation_probability\n") ||
+		strings.Contains(b.String(), "#") {
+		t.Errorf("not a plain CSV with the header first:\n%s", b.String())
+	}
 	// Cell 31 is column 1, row 1: centre (−150 + 15, −100 + 15); 1 of 3.
 	if !strings.Contains(b.String(), "\n1,1,-135,-85,1,0.3333333333333333\n") {
 		t.Errorf("row of cell 31 missing:\n%s", b.String())
 	}
-	got, err := ReadProbabilityGrid(bytes.NewReader(b.Bytes()))
+	got, err := ReadProbabilityGrid(bytes.NewReader(b.Bytes()), gridManifest(p), p.Case)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -178,52 +210,57 @@ func TestProbabilityGridRoundTrip(t *testing.T) {
 	p.Grid.CRS = ""
 	b.Reset()
 	WriteProbabilityGrid(&b, p)
-	if got, err := ReadProbabilityGrid(&b); err != nil || got.Grid.CRS != "" {
+	if got, err := ReadProbabilityGrid(&b, gridManifest(p), p.Case); err != nil || got.Grid.CRS != "" {
 		t.Errorf("empty CRS: %v, %+v", err, got)
 	}
 }
 
 func TestProbabilityGridRejects(t *testing.T) {
 	var b bytes.Buffer
-	WriteProbabilityGrid(&b, sampleGrid())
+	p := sampleGrid()
+	WriteProbabilityGrid(&b, p)
 	good := b.String()
+	m := gridManifest(p)
 	for _, tc := range []struct{ name, old, new string }{
-		{"magic", "format 1", "format 2"},
-		{"unknown key", "# rows: 20", "# rowz: 20"},
-		{"missing key", "# rows: 20\n", ""},
+		{"other header", "stimulation_probability\n", "probability\n"},
+		{"comment line", "col,row", "# a comment\ncol,row"},
 		{"count above realizations", "0,0,-145,-95,3,1", "0,0,-145,-95,4,1.3333333333333333"},
 		{"wrong probability", "0,0,-145,-95,3,1", "0,0,-145,-95,3,0.9"},
-		{"wrong centre", "0,0,-145,-95,3,1", "0,0,-140,-95,3,1"},
-		{"off the grid", "29,19,145,95,2", "30,19,155,95,2"},
+		{"wrong centre", "0,0,-145,-95,", "0,0,-140,-95,"},
+		{"off the grid", "29,19,145,95,", "30,19,155,95,"},
 		{"out of order", "1,1,-135,-85,1", "0,0,-145,-95,1"},
-		{"short row", "1,1,-135,-85,1,0.3333333333333333", "1,1,-135,-85,1"},
+		{"short row", ",1,0.3333333333333333", ",1"},
 	} {
 		bad := strings.Replace(good, tc.old, tc.new, 1)
 		if bad == good {
 			t.Fatalf("%s: edit did not apply", tc.name)
 		}
-		if _, err := ReadProbabilityGrid(strings.NewReader(bad)); !errors.Is(err, ErrFormat) {
+		if _, err := ReadProbabilityGrid(strings.NewReader(bad), m, p.Case); !errors.Is(err, ErrFormat) {
 			t.Errorf("%s: err = %v, want ErrFormat", tc.name, err)
 		}
 	}
-	long := strings.Replace(good, "# label: ", "# label: "+strings.Repeat("x", maxGridLine), 1)
-	if _, err := ReadProbabilityGrid(strings.NewReader(long)); !errors.Is(err, ErrFormat) || !strings.Contains(err.Error(), "line 4") {
-		t.Errorf("over-long line: err = %v, want ErrFormat at line 4", err)
+	long := strings.Replace(good, "\n1,1,", "\n"+strings.Repeat("1", maxGridLine)+",1,", 1)
+	if _, err := ReadProbabilityGrid(strings.NewReader(long), m, p.Case); !errors.Is(err, ErrFormat) || !strings.Contains(err.Error(), "line 3") {
+		t.Errorf("over-long line: err = %v, want ErrFormat at line 3", err)
 	}
-	cut := good[:strings.Index(good, "col,row")]
-	if _, err := ReadProbabilityGrid(strings.NewReader(cut)); !errors.Is(err, io.ErrUnexpectedEOF) {
-		t.Errorf("cut before the header: err = %v, want io.ErrUnexpectedEOF", err)
+	if _, err := ReadProbabilityGrid(strings.NewReader(""), m, p.Case); !errors.Is(err, io.ErrUnexpectedEOF) {
+		t.Errorf("empty file: err = %v, want io.ErrUnexpectedEOF", err)
+	}
+	if _, err := ReadProbabilityGrid(strings.NewReader(good), m, 2); err == nil {
+		t.Error("a case the manifest does not have was read")
 	}
 }
 
 func FuzzReadProbabilityGrid(f *testing.F) {
 	var b bytes.Buffer
-	WriteProbabilityGrid(&b, sampleGrid())
+	p := sampleGrid()
+	WriteProbabilityGrid(&b, p)
+	m := gridManifest(p)
 	f.Add(b.String())
-	f.Add(b.String()[:200])
-	f.Add(strings.Replace(b.String(), "# cols: 30", "# cols: 99999999999", 1))
+	f.Add(b.String()[:120])
+	f.Add(strings.Replace(b.String(), "\n1,1,", "\n99999999999,1,", 1))
 	f.Fuzz(func(t *testing.T, text string) {
-		p, err := ReadProbabilityGrid(strings.NewReader(text))
+		p, err := ReadProbabilityGrid(strings.NewReader(text), m, 1)
 		if err != nil {
 			if !errors.Is(err, ErrFormat) && !errors.Is(err, io.ErrUnexpectedEOF) {
 				t.Fatalf("unexpected error kind: %v", err)
@@ -234,7 +271,7 @@ func FuzzReadProbabilityGrid(f *testing.F) {
 		if err := WriteProbabilityGrid(&out, p); err != nil {
 			t.Fatalf("a grid that reads does not write: %v", err)
 		}
-		again, err := ReadProbabilityGrid(&out)
+		again, err := ReadProbabilityGrid(&out, m, 1)
 		if err != nil || !reflect.DeepEqual(p, again) {
 			t.Fatalf("round trip: %v\n%+v\n%+v", err, p, again)
 		}
@@ -254,8 +291,11 @@ func TestManifestReadRejects(t *testing.T) {
 		t.Fatalf("reading a written manifest: %v", err)
 	}
 	for _, tc := range []struct{ name, old, new string }{
-		{"newer format", "manifest/1", "manifest/7"},
-		{"other file", "slipfront-batch-manifest/1", "something"},
+		{"newer format", "manifest/2", "manifest/7"},
+		{"older format", "manifest/2", "manifest/1"},
+		{"other file", "slipfront-batch-manifest/2", "something"},
+		{"reference not a value", `"reference": "1 cP"`, `"reference": "2 cP"`},
+		{"no reference", `"reference": "1 cP"`, `"reference": ""`},
 		{"unknown key", `"realizations"`, `"realisations"`},
 		{"zero realizations", `"realizations": 1`, `"realizations": 0`},
 		{"case label", `"label": "fluids.slickwater.viscosity=1 cP, schedule.rate=8 bbl/min"`, `"label": "x"`},
@@ -276,8 +316,8 @@ func TestManifestReadRejects(t *testing.T) {
 // FuzzDecodeResultJSON fuzzes the payload behind the checksum, which
 // FuzzReadResult rarely reaches.
 func FuzzDecodeResultJSON(f *testing.F) {
-	f.Add([]byte(`{"case":0,"realization":3,"case_digest":"a","network_digest":"n","final_area_m2":5,"fracture_area_m2":2,"events":1,"max_magnitude_mw":-1.5,"peak_bhp_pa":3e7,"injected_volume_m3":30,"interval_s":60,"area_m2":[0,5],"cells":[1,4]}`))
-	f.Add([]byte(`{"case":0,"realization":0,"case_digest":"a","network_digest":"","final_area_m2":0,"fracture_area_m2":0,"events":0,"max_magnitude_mw":null,"peak_bhp_pa":0,"injected_volume_m3":0,"interval_s":1,"area_m2":[0],"cells":[]}`))
+	f.Add([]byte(`{"case":0,"realization":3,"case_digest":"a","network_digest":"n","final_area_m2":5,"fracture_area_m2":2,"events":1,"max_magnitude_mw":-1.5,"peak_bhp_pa":3e7,"injected_volume_m3":30,"interval_s":60,"area_m2":[0,5],"cells":[1,4],"warnings":[{"kind":"bhp_above_shmin","message":"stage 1: BHP above Shmin"}]}`))
+	f.Add([]byte(`{"case":0,"realization":0,"case_digest":"a","network_digest":"","final_area_m2":0,"fracture_area_m2":0,"events":0,"max_magnitude_mw":null,"peak_bhp_pa":0,"injected_volume_m3":0,"interval_s":1,"area_m2":[0],"cells":[],"warnings":[]}`))
 	f.Add([]byte(`{"case":-1}`))
 	f.Fuzz(func(t *testing.T, body []byte) {
 		res, err := decodeResultJSON(body)
@@ -290,6 +330,37 @@ func FuzzDecodeResultJSON(f *testing.F) {
 		again, err := ReadResult(bytes.NewReader(encodeResult(t, res)))
 		if err != nil || !sameResult(res, again) {
 			t.Fatalf("round trip: %v\n%+v\n%+v", err, res, again)
+		}
+	})
+}
+
+func FuzzReadManifest(f *testing.F) {
+	out := f.TempDir()
+	o := testOptions(f, out)
+	o.Realizations = 1
+	runBatch(f, o)
+	good, err := os.ReadFile(filepath.Join(out, ManifestName))
+	if err != nil {
+		f.Fatal(err)
+	}
+	f.Add(good)
+	f.Add(bytes.Replace(good, []byte("manifest/2"), []byte("manifest/1"), 1))
+	f.Add([]byte(`{"format":"slipfront-batch-manifest/2"}`))
+	f.Fuzz(func(t *testing.T, data []byte) {
+		m, err := ReadManifest(bytes.NewReader(data))
+		if err != nil {
+			if !errors.Is(err, ErrFormat) {
+				t.Fatalf("error is not ErrFormat: %v", err)
+			}
+			return
+		}
+		var b bytes.Buffer
+		if err := WriteManifest(&b, m); err != nil {
+			t.Fatal(err)
+		}
+		again, err := ReadManifest(&b)
+		if err != nil || !reflect.DeepEqual(m, again) {
+			t.Fatalf("round trip: %v\n%+v\n%+v", err, m, again)
 		}
 	})
 }

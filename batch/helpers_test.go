@@ -57,6 +57,13 @@ func fakeOutcome(s *scenarios.Scenario, r int, work int) (*Outcome, error) {
 	}
 	o.PeakPressure = 30e6 + 5e6*rng.Float64() + 1e8*visc
 	o.InjectedVolume = 30 + rng.Float64()
+	// Warnings: 0 to 2 of one kind, and sometimes one of another.
+	for k := range rng.IntN(3) {
+		o.Warnings = append(o.Warnings, Warning{Kind: "bhp_above_shmin", Message: fmt.Sprintf("stage %d: fake warning of realization %d", k, r)})
+	}
+	if rng.IntN(4) == 0 {
+		o.Warnings = append(o.Warnings, Warning{Kind: "volume_not_reached", Message: fmt.Sprintf("fake warning of realization %d", r)})
+	}
 	cells := int(o.FinalArea / (g.CellSize * g.CellSize))
 	for range min(cells, g.Cells()) {
 		o.Cells = append(o.Cells, rng.IntN(g.Cells()))
@@ -109,7 +116,11 @@ func testOptions(t testing.TB, out string) Options {
 func aggregateFiles(t testing.TB, dir string) map[string][]byte {
 	t.Helper()
 	out := map[string][]byte{}
-	names := []string{ManifestName, RealizationsName, PercentilesName, ComparisonName}
+	names := []string{ManifestName, RealizationsName, PercentilesName, ComparisonName, WarningsName, SummaryName,
+		CSVMetadataName, filepath.Join(ProbabilityDir, CSVMetadataName)}
+	if _, err := os.Stat(filepath.Join(dir, PairedName)); err == nil {
+		names = append(names, PairedName, PairedPercentilesName)
+	}
 	grids, err := filepath.Glob(filepath.Join(dir, ProbabilityDir, "*.csv"))
 	if err != nil {
 		t.Fatal(err)

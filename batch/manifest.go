@@ -10,8 +10,12 @@ import (
 )
 
 // ManifestFormat names the manifest layout; it changes when the layout
-// does.
-const ManifestFormat = "slipfront-batch-manifest/1"
+// does. Layout 2 added the sweeps' reference values; a manifest of layout
+// 1 is refused (its results lack the warnings too).
+const ManifestFormat = "slipfront-batch-manifest/2"
+
+// manifestVersion is the number at the end of ManifestFormat.
+const manifestVersion = 2
 
 // Manifest describes a batch folder: what was run, so that resuming and
 // merging can refuse folders that do not belong together. It is written
@@ -80,11 +84,14 @@ func ReadManifest(r io.Reader) (*Manifest, error) {
 		return nil, &FormatError{What: what, Offset: -1, Msg: err.Error()}
 	}
 	if probe.Format != ManifestFormat {
-		if strings.HasPrefix(probe.Format, "slipfront-batch-manifest/") {
-			v, _ := strconv.Atoi(strings.TrimPrefix(probe.Format, "slipfront-batch-manifest/"))
-			return nil, &UnsupportedError{What: what, Version: v, Max: 1}
+		v, err := strconv.Atoi(strings.TrimPrefix(probe.Format, "slipfront-batch-manifest/"))
+		switch {
+		case !strings.HasPrefix(probe.Format, "slipfront-batch-manifest/") || err != nil || v < 1:
+			return nil, &FormatError{What: what, Offset: -1, Msg: fmt.Sprintf("format %q: not a slipfront batch manifest", probe.Format)}
+		case v > manifestVersion:
+			return nil, &UnsupportedError{What: what, Version: v, Max: manifestVersion}
 		}
-		return nil, &FormatError{What: what, Offset: -1, Msg: fmt.Sprintf("format %q: not a slipfront batch manifest", probe.Format)}
+		return nil, &FormatError{What: what, Offset: -1, Msg: fmt.Sprintf("format %q was written by an earlier slipfront and is no longer read: run the batch again with --force", probe.Format)}
 	}
 	d := json.NewDecoder(bytes.NewReader(b))
 	d.DisallowUnknownFields()
@@ -108,6 +115,11 @@ func (m *Manifest) check() error {
 	}
 	if err := checkSweeps(m.Sweeps); err != nil {
 		return err
+	}
+	for _, sw := range m.Sweeps {
+		if sw.Reference == "" {
+			return fmt.Errorf("sweep %s has no reference value", sw.Key)
+		}
 	}
 	cases := Cases(m.Sweeps)
 	if n := len(cases) * m.Realizations; n > MaxResults {
@@ -154,7 +166,10 @@ func (m *Manifest) difference(got *Manifest, withShard bool) (field, want, have 
 	if withShard {
 		pairs = append(pairs, pair{"shard", m.Shard.String(), got.Shard.String()})
 	} else {
-		pairs = append(pairs, pair{"shard count", m.Shard.normal().Count, got.Shard.normal().Count})
+		// Shards merged together must agree on the references too; a
+		// resumed batch may change them (they only steer the aggregates).
+		pairs = append(pairs, pair{"shard count", m.Shard.normal().Count, got.Shard.normal().Count},
+			pair{"reference values", referencesText(m.Sweeps), referencesText(got.Sweeps)})
 	}
 	for _, p := range pairs {
 		if w, h := fmt.Sprint(p.want), fmt.Sprint(p.have); w != h {
@@ -175,6 +190,14 @@ func (m *Manifest) difference(got *Manifest, withShard bool) (field, want, have 
 		}
 	}
 	return "", "", "", false
+}
+
+func referencesText(sweeps []Sweep) string {
+	parts := make([]string, len(sweeps))
+	for i, s := range sweeps {
+		parts[i] = s.Key + "=" + s.Reference
+	}
+	return strings.Join(parts, " ")
 }
 
 func sweepsText(sweeps []Sweep) string {

@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"math"
 	"slices"
+	"strings"
 
 	"slipfront/scenarios"
 )
@@ -48,6 +49,34 @@ type Outcome struct {
 	// the scenario's Grid (GridFor): index = row·Cols + col, row 0 south.
 	// Order and repeats do not matter; they are sorted and made unique.
 	Cells []int
+	// Warnings are the conditions the run's result should be read with,
+	// in the order they arose.
+	Warnings []Warning
+}
+
+// Warning is one condition a realization's result should be read with.
+type Warning struct {
+	// Kind names the condition: lower-case letters, digits and "_", e.g.
+	// "bhp_above_shmin"; the batch counts warnings by kind.
+	Kind string
+	// Message says what happened, for people (one line).
+	Message string
+}
+
+// maxWarnings caps the warnings of one realization.
+const maxWarnings = 10000
+
+// check reports the first problem of a warning.
+func (w Warning) check() error {
+	if w.Kind == "" || len(w.Kind) > 64 || strings.TrimFunc(w.Kind, func(r rune) bool {
+		return r == '_' || 'a' <= r && r <= 'z' || '0' <= r && r <= '9'
+	}) != "" {
+		return fmt.Errorf("warning kind %.70q: want 1 to 64 lower-case letters, digits or _", w.Kind)
+	}
+	if strings.ContainsAny(w.Message, "\r\n") {
+		return fmt.Errorf("warning %s: the message holds a line break", w.Kind)
+	}
+	return nil
 }
 
 // check reports the first inconsistency of an outcome for a grid with
@@ -90,6 +119,14 @@ func (o *Outcome) check(nCells int) error {
 			return fmt.Errorf("Cells[%d] = %d: outside the map grid of %d cells", i, c, nCells)
 		}
 	}
+	if len(o.Warnings) > maxWarnings {
+		return fmt.Errorf("%d warnings: at most %d", len(o.Warnings), maxWarnings)
+	}
+	for _, w := range o.Warnings {
+		if err := w.check(); err != nil {
+			return err
+		}
+	}
 	return nil
 }
 
@@ -114,5 +151,6 @@ func newResult(c, r int, caseDigest string, g Grid, tg TimeGrid, o *Outcome) (*R
 		Interval: tg.Interval,
 		Area:     tg.Resample(nil, o.Times, o.Areas),
 		Cells:    cells,
+		Warnings: slices.Clone(o.Warnings),
 	}, nil
 }

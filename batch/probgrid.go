@@ -9,39 +9,61 @@ import (
 	"math"
 	"strconv"
 	"strings"
+
+	"slipfront/internal/csvw"
 )
 
-// Probability-grid file: UTF-8 text, "\n" line ends.
+// Probability-grid file: plain CSV (RFC 4180, UTF-8, "\n" line ends), one
+// header row and no comment lines:
 //
-//	# slipfront probability grid, format 1
-//	# note: probability = count / realizations; unlisted cells are 0; row 0 is the south edge
-//	# case: 0
-//	# label: fluids.slickwater.viscosity=1 cP
-//	# realizations: 20
-//	# crs: EPSG:32614
-//	# origin_easting_m: 612000
-//	# origin_northing_m: 3540000
-//	# x_min_m: -800
-//	# y_min_m: -500
-//	# cell_size_m: 10
-//	# cols: 160
-//	# rows: 100
-//	col,row,x_center_m,y_center_m,count,probability
+//	col,row,x_center_m,y_center_m,stimulated_realizations,stimulation_probability
 //	81,37,15,-125,3,0.15
 //	…
 //
-// The first line is fixed. Then come "# key: value" lines with the keys
-// above, each exactly once, in any order ("note" is free text and
-// optional). The CSV header follows, then one row per cell stimulated in
-// at least one realization, in ascending cell index (row·cols + col):
-// column, row, the cell centre in local metres, the number of
-// realizations in which the cell was stimulated, and that number divided
-// by realizations.
-const (
-	probGridMagic = "# slipfront probability grid, format 1"
-	probGridNote  = "probability = count / realizations; unlisted cells are 0; row 0 is the south edge"
-	probGridHead  = "col,row,x_center_m,y_center_m,count,probability"
-)
+// then one row per cell stimulated in at least one realization, in
+// ascending cell index (row·cols + col): column, row (0 = south), the
+// cell centre in local metres, the number of realizations
+// in which the cell was stimulated, and that number divided by the
+// realizations. Unlisted cells were never stimulated. The grid itself
+// (CRS, origin, corner, cell size, columns, rows) and the realization
+// count are the case's in manifest.json; the folder's csv-metadata.json
+// repeats them for other readers.
+var probGridTable = csvw.Table{
+	Title: "stimulation probability",
+	Columns: []csvw.Column{
+		{Title: "col", Datatype: csvw.Integer, Description: "column of the map cell, 0 at the west edge"},
+		{Title: "row", Datatype: csvw.Integer, Description: "row of the map cell, 0 at the south edge"},
+		{Title: "x_center_m", Datatype: csvw.Double, Unit: "m", Description: "cell centre, local east of the scenario origin"},
+		{Title: "y_center_m", Datatype: csvw.Double, Unit: "m", Description: "cell centre, local north of the scenario origin"},
+		{Title: "stimulated_realizations", Datatype: csvw.Integer, Description: "realizations of the case in which the cell was stimulated"},
+		{Title: "stimulation_probability", Datatype: csvw.Double, Description: "stimulated_realizations divided by the case's realizations, 0 to 1"},
+	},
+}
+
+// probGridHead is the header row of a probability grid.
+var probGridHead = strings.Join(probGridTable.Header(), ",")
+
+// probabilityTable describes case p's probability grid for the CSV
+// metadata of the probability folder, with the grid's geometry.
+func probabilityTable(p *ProbabilityGrid) csvw.Table {
+	t := probGridTable
+	t.URL = probabilityGridFile(p.Case)
+	g := p.Grid
+	crs := g.CRS
+	switch {
+	case crs == "":
+		crs = "an undefined local frame"
+	case !strings.HasPrefix(crs, "EPSG:"):
+		crs = "the CRS given as WKT in manifest.json"
+	}
+	t.Title = fmt.Sprintf("stimulation probability, case %d", p.Case)
+	t.Description = fmt.Sprintf("Case %d (%s), %d realizations: the share of them in which each map cell was stimulated; "+
+		"unlisted cells are 0. Grid: %d columns × %d rows of %s m cells, south-west corner at local (%s, %s) m; "+
+		"local (0, 0) is easting %s m, northing %s m (in metres, whatever the CRS's unit) in %s.",
+		p.Case, p.Label, p.Realizations, g.Cols, g.Rows, formatFloat(g.CellSize), formatFloat(g.XMin), formatFloat(g.YMin),
+		formatFloat(g.OriginEasting), formatFloat(g.OriginNorthing), crs)
+	return t
+}
 
 // ProbabilityGrid is the share of a case's realizations in which each map
 // cell was stimulated.
@@ -85,22 +107,6 @@ func WriteProbabilityGrid(w io.Writer, p *ProbabilityGrid) error {
 	}
 	var b bytes.Buffer
 	g := p.Grid
-	fmt.Fprintf(&b, "%s\n# note: %s\n", probGridMagic, probGridNote)
-	for _, kv := range [][2]string{
-		{"case", strconv.Itoa(p.Case)},
-		{"label", p.Label},
-		{"realizations", strconv.Itoa(p.Realizations)},
-		{"crs", g.CRS},
-		{"origin_easting_m", formatFloat(g.OriginEasting)},
-		{"origin_northing_m", formatFloat(g.OriginNorthing)},
-		{"x_min_m", formatFloat(g.XMin)},
-		{"y_min_m", formatFloat(g.YMin)},
-		{"cell_size_m", formatFloat(g.CellSize)},
-		{"cols", strconv.Itoa(g.Cols)},
-		{"rows", strconv.Itoa(g.Rows)},
-	} {
-		fmt.Fprintf(&b, "# %s: %s\n", kv[0], kv[1])
-	}
 	b.WriteString(probGridHead + "\n")
 	for _, c := range p.Cells {
 		col, row := g.ColRow(c.Index)
@@ -121,8 +127,6 @@ func (p *ProbabilityGrid) check() error {
 		return fmt.Errorf("case %d: must be ≥ 0", p.Case)
 	case p.Realizations < 1:
 		return fmt.Errorf("realizations %d: must be ≥ 1", p.Realizations)
-	case strings.ContainsAny(p.Label, "\r\n") || strings.ContainsAny(p.Grid.CRS, "\r\n"):
-		return fmt.Errorf("label or CRS holds a line break")
 	}
 	for i, c := range p.Cells {
 		switch {
@@ -135,17 +139,42 @@ func (p *ProbabilityGrid) check() error {
 	return nil
 }
 
-// ReadProbabilityGrid reads a probability-grid file. Malformed input
-// returns an error matching ErrFormat that names the line; it never
-// panics.
-func ReadProbabilityGrid(r io.Reader) (*ProbabilityGrid, error) {
+// ReadProbabilityGrid reads the probability grid of case c of the batch
+// whose manifest is m (the manifest gives the grid and the realization
+// count). Malformed input returns an error matching ErrFormat that names
+// the line; a file cut before its header returns io.ErrUnexpectedEOF. It
+// never panics.
+func ReadProbabilityGrid(r io.Reader, m *Manifest, c int) (*ProbabilityGrid, error) {
+	if c < 0 || c >= len(m.Cases) {
+		return nil, fmt.Errorf("batch: probability grid of case %d: the batch has %d cases", c, len(m.Cases))
+	}
+	p := &ProbabilityGrid{Case: c, Label: m.Cases[c].Label, Realizations: m.Realizations, Grid: m.Cases[c].Grid}
+	if err := p.check(); err != nil {
+		return nil, &FormatError{What: "manifest.json", Offset: -1, Msg: err.Error()}
+	}
 	rd := &gridReader{sc: bufio.NewScanner(r)}
 	rd.sc.Buffer(make([]byte, 0, 4096), maxGridLine)
-	p, err := rd.read()
+	head, err := rd.next()
 	if err != nil {
 		return nil, err
 	}
-	return p, nil
+	if head != probGridHead {
+		return nil, rd.fail("header %.100q: not a slipfront probability grid (want %q)", head, probGridHead)
+	}
+	for {
+		if !rd.sc.Scan() {
+			if err := rd.scanErr(); err != nil {
+				return nil, err
+			}
+			return p, nil
+		}
+		rd.line++
+		cell, err := rd.parseRow(p, rd.sc.Text())
+		if err != nil {
+			return nil, err
+		}
+		p.Cells = append(p.Cells, cell)
+	}
 }
 
 // maxGridLine caps a line of a probability-grid file, bytes.
@@ -184,104 +213,6 @@ func (rd *gridReader) next() (string, error) {
 	return rd.sc.Text(), nil
 }
 
-func (rd *gridReader) read() (*ProbabilityGrid, error) {
-	first, err := rd.next()
-	if err != nil {
-		return nil, err
-	}
-	if first != probGridMagic {
-		return nil, rd.fail("first line %.60q: not a slipfront probability grid (want %q)", first, probGridMagic)
-	}
-	meta, err := rd.readMeta()
-	if err != nil {
-		return nil, err
-	}
-	p := &ProbabilityGrid{}
-	if err := rd.applyMeta(p, meta); err != nil {
-		return nil, err
-	}
-	for {
-		if !rd.sc.Scan() {
-			if err := rd.scanErr(); err != nil {
-				return nil, err
-			}
-			return p, nil
-		}
-		rd.line++
-		c, err := rd.parseRow(p, rd.sc.Text())
-		if err != nil {
-			return nil, err
-		}
-		p.Cells = append(p.Cells, c)
-	}
-}
-
-var probGridKeys = []string{"case", "label", "realizations", "crs", "origin_easting_m", "origin_northing_m",
-	"x_min_m", "y_min_m", "cell_size_m", "cols", "rows"}
-
-// readMeta reads "# key: value" lines up to and including the CSV header.
-func (rd *gridReader) readMeta() (map[string]string, error) {
-	meta := map[string]string{}
-	for {
-		text, err := rd.next()
-		if err != nil {
-			return nil, err
-		}
-		if text == probGridHead {
-			break
-		}
-		rest, ok := strings.CutPrefix(text, "# ")
-		key, val, ok2 := strings.Cut(rest, ": ")
-		if !ok || !ok2 {
-			if ok && strings.HasSuffix(rest, ":") && !strings.Contains(rest, " ") {
-				key, val, ok2 = strings.TrimSuffix(rest, ":"), "", true
-			}
-			if !ok2 {
-				return nil, rd.fail("%.60q: want \"# key: value\" or the header %q", text, probGridHead)
-			}
-		}
-		if _, dup := meta[key]; dup {
-			return nil, rd.fail("key %q given twice", key)
-		}
-		known := key == "note"
-		for _, k := range probGridKeys {
-			known = known || k == key
-		}
-		if !known {
-			return nil, rd.fail("unknown key %.40q; known: %s", key, strings.Join(probGridKeys, ", "))
-		}
-		meta[key] = val
-	}
-	for _, k := range probGridKeys {
-		if _, ok := meta[k]; !ok {
-			return nil, rd.fail("header line reached without key %q", k)
-		}
-	}
-	return meta, nil
-}
-
-func (rd *gridReader) applyMeta(p *ProbabilityGrid, meta map[string]string) error {
-	var err error
-	ints := map[string]*int{"case": &p.Case, "realizations": &p.Realizations, "cols": &p.Grid.Cols, "rows": &p.Grid.Rows}
-	for k, dst := range ints {
-		if *dst, err = strconv.Atoi(meta[k]); err != nil {
-			return rd.fail("%s: %q is not a whole number", k, meta[k])
-		}
-	}
-	floats := map[string]*float64{"origin_easting_m": &p.Grid.OriginEasting, "origin_northing_m": &p.Grid.OriginNorthing,
-		"x_min_m": &p.Grid.XMin, "y_min_m": &p.Grid.YMin, "cell_size_m": &p.Grid.CellSize}
-	for k, dst := range floats {
-		if *dst, err = strconv.ParseFloat(meta[k], 64); err != nil {
-			return rd.fail("%s: %q is not a number", k, meta[k])
-		}
-	}
-	p.Label, p.Grid.CRS = meta["label"], meta["crs"]
-	if err := p.check(); err != nil {
-		return rd.fail("%v", err)
-	}
-	return nil
-}
-
 // Tolerances of the derived columns, which a reader recomputes: the
 // centre within a millionth of a cell, the probability within 1e-12
 // (both far above the rounding of the shortest decimal form, far below
@@ -293,8 +224,8 @@ const (
 
 func (rd *gridReader) parseRow(p *ProbabilityGrid, text string) (CellCount, error) {
 	f := strings.Split(text, ",")
-	if len(f) != 6 {
-		return CellCount{}, rd.fail("%d fields, want 6 (%s)", len(f), probGridHead)
+	if len(f) != len(probGridTable.Columns) {
+		return CellCount{}, rd.fail("%d fields, want %d (%s)", len(f), len(probGridTable.Columns), probGridHead)
 	}
 	var n [3]int
 	for i, k := range []int{0, 1, 4} {
@@ -321,14 +252,15 @@ func (rd *gridReader) parseRow(p *ProbabilityGrid, text string) (CellCount, erro
 		return CellCount{}, rd.fail("cell (%d, %d) is out of order or repeated: rows must be in ascending row·cols+col", col, row)
 	}
 	if c.Count < 1 || c.Count > p.Realizations {
-		return CellCount{}, rd.fail("count %d: must be 1 to %d", c.Count, p.Realizations)
+		return CellCount{}, rd.fail("stimulated_realizations %d: must be 1 to %d", c.Count, p.Realizations)
 	}
 	cx, cy := g.Centre(c.Index)
-	if math.Abs(x[0]-cx) > centreTol*g.CellSize || math.Abs(x[1]-cy) > centreTol*g.CellSize {
+	tol := centreTol * g.CellSize
+	if math.Abs(x[0]-cx) > tol || math.Abs(x[1]-cy) > tol {
 		return CellCount{}, rd.fail("centre (%g, %g) is not the centre (%g, %g) of cell (%d, %d)", x[0], x[1], cx, cy, col, row)
 	}
 	if math.Abs(x[2]-p.Probability(c)) > probabilityTol {
-		return CellCount{}, rd.fail("probability %g is not count/realizations = %g", x[2], p.Probability(c))
+		return CellCount{}, rd.fail("stimulation_probability %g is not stimulated_realizations/realizations = %g", x[2], p.Probability(c))
 	}
 	return c, nil
 }

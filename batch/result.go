@@ -29,8 +29,9 @@ import (
 const (
 	resultMagic = "SFBATRES"
 	// ResultVersion is the result-file format version this program writes
-	// and the newest it reads.
-	ResultVersion    = 1
+	// and the only one it reads: version 1 did not record warnings, so a
+	// result of version 1 is refused (a resumed batch runs it again).
+	ResultVersion    = 2
 	resultHeaderSize = 24
 	// maxResultPayload caps the compressed payload and maxResultJSON the
 	// decompressed JSON, bytes.
@@ -65,27 +66,36 @@ type Result struct {
 	Area     []float64
 	// Cells: stimulated map cells, ascending and unique.
 	Cells []int
+	// Warnings of the run, in the order they arose.
+	Warnings []Warning
 }
 
 // resultJSON is the payload's JSON object. Keys: case, realization,
 // case_digest, network_digest, final_area_m2, fracture_area_m2, events,
 // max_magnitude_mw (null when there are no events), peak_bhp_pa,
 // injected_volume_m3, interval_s, area_m2 (array), cells (array of
-// integers). Unknown keys are rejected.
+// integers), warnings (array of objects with kind and message; since
+// version 2). All are required; unknown keys are rejected.
 type resultJSON struct {
-	Case           int       `json:"case"`
-	Realization    int       `json:"realization"`
-	CaseDigest     string    `json:"case_digest"`
-	NetworkDigest  string    `json:"network_digest"`
-	FinalArea      float64   `json:"final_area_m2"`
-	FractureArea   float64   `json:"fracture_area_m2"`
-	Events         int       `json:"events"`
-	MaxMagnitude   *float64  `json:"max_magnitude_mw"`
-	PeakPressure   float64   `json:"peak_bhp_pa"`
-	InjectedVolume float64   `json:"injected_volume_m3"`
-	Interval       float64   `json:"interval_s"`
-	Area           []float64 `json:"area_m2"`
-	Cells          []int     `json:"cells"`
+	Case           int           `json:"case"`
+	Realization    int           `json:"realization"`
+	CaseDigest     string        `json:"case_digest"`
+	NetworkDigest  string        `json:"network_digest"`
+	FinalArea      float64       `json:"final_area_m2"`
+	FractureArea   float64       `json:"fracture_area_m2"`
+	Events         int           `json:"events"`
+	MaxMagnitude   *float64      `json:"max_magnitude_mw"`
+	PeakPressure   float64       `json:"peak_bhp_pa"`
+	InjectedVolume float64       `json:"injected_volume_m3"`
+	Interval       float64       `json:"interval_s"`
+	Area           []float64     `json:"area_m2"`
+	Cells          []int         `json:"cells"`
+	Warnings       []warningJSON `json:"warnings"`
+}
+
+type warningJSON struct {
+	Kind    string `json:"kind"`
+	Message string `json:"message"`
 }
 
 // The encoder and decoder are safe for concurrent EncodeAll/DecodeAll.
@@ -129,6 +139,10 @@ func WriteResult(w io.Writer, res *Result) error {
 	if j.Cells == nil {
 		j.Cells = []int{}
 	}
+	j.Warnings = make([]warningJSON, len(res.Warnings))
+	for i, w := range res.Warnings {
+		j.Warnings[i] = warningJSON{Kind: w.Kind, Message: w.Message}
+	}
 	if !math.IsNaN(res.MaxMagnitude) {
 		m := res.MaxMagnitude
 		j.MaxMagnitude = &m
@@ -167,10 +181,12 @@ func ReadResult(r io.Reader) (*Result, error) {
 	if string(head[:8]) != resultMagic {
 		return nil, &FormatError{What: what, Offset: 0, Msg: fmt.Sprintf("magic %q: not a slipfront batch result", head[:8])}
 	}
-	if v := binary.LittleEndian.Uint16(head[8:]); v != ResultVersion {
-		if v > ResultVersion {
-			return nil, &UnsupportedError{What: what, Version: int(v), Max: ResultVersion}
-		}
+	switch v := binary.LittleEndian.Uint16(head[8:]); {
+	case v > ResultVersion:
+		return nil, &UnsupportedError{What: what, Version: int(v), Max: ResultVersion}
+	case v == 1:
+		return nil, &FormatError{What: what, Offset: 8, Msg: "format version 1, written by an earlier slipfront, does not record the run's warnings and is no longer read: run the realization again (batch --resume does)"}
+	case v != ResultVersion:
 		return nil, &FormatError{What: what, Offset: 8, Msg: fmt.Sprintf("version %d is not valid", v)}
 	}
 	if f := binary.LittleEndian.Uint16(head[10:]); f != 0 {
@@ -213,14 +229,18 @@ func decodeResultJSON(body []byte) (*Result, error) {
 	if d.More() {
 		return nil, &FormatError{What: what, Offset: -1, Msg: "JSON payload: data after the object"}
 	}
-	if j.Area == nil || j.Cells == nil || j.CaseDigest == "" {
-		return nil, &FormatError{What: what, Offset: -1, Msg: "JSON payload: case_digest, area_m2 and cells are required"}
+	if j.Area == nil || j.Cells == nil || j.Warnings == nil || j.CaseDigest == "" {
+		return nil, &FormatError{What: what, Offset: -1, Msg: "JSON payload: case_digest, area_m2, cells and warnings are required"}
 	}
 	res := &Result{
 		Case: j.Case, Realization: j.Realization, CaseDigest: j.CaseDigest,
 		NetworkDigest: j.NetworkDigest, FinalArea: j.FinalArea, FractureArea: j.FractureArea,
 		Events: j.Events, MaxMagnitude: math.NaN(), PeakPressure: j.PeakPressure,
 		InjectedVolume: j.InjectedVolume, Interval: j.Interval, Area: j.Area, Cells: j.Cells,
+		Warnings: make([]Warning, len(j.Warnings)),
+	}
+	for i, w := range j.Warnings {
+		res.Warnings[i] = Warning{Kind: w.Kind, Message: w.Message}
 	}
 	if j.MaxMagnitude != nil {
 		res.MaxMagnitude = *j.MaxMagnitude
@@ -236,7 +256,7 @@ func (res *Result) check() error {
 	o := Outcome{
 		FinalArea: res.FinalArea, FractureArea: res.FractureArea, Events: res.Events,
 		MaxMagnitude: res.MaxMagnitude, PeakPressure: res.PeakPressure, InjectedVolume: res.InjectedVolume,
-		Times: make([]float64, len(res.Area)), Areas: res.Area,
+		Times: make([]float64, len(res.Area)), Areas: res.Area, Warnings: res.Warnings,
 	}
 	switch {
 	case res.Case < 0 || res.Realization < 0:

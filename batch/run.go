@@ -9,6 +9,7 @@ import (
 	"os"
 	"path/filepath"
 	"runtime"
+	"slices"
 	"sync"
 	"time"
 
@@ -172,6 +173,10 @@ func (o *Options) check() error {
 	if n := len(Cases(o.Sweeps)) * o.Realizations; n > MaxResults {
 		return inputErrorf("%d cases × %d realizations = %d results: at most %d; use fewer realizations or sweep values", len(Cases(o.Sweeps)), o.Realizations, n, MaxResults)
 	}
+	o.Sweeps = slices.Clone(o.Sweeps)
+	for i, s := range o.Sweeps {
+		o.Sweeps[i].Reference = s.Values[s.reference()]
+	}
 	return nil
 }
 
@@ -225,7 +230,8 @@ func makePlan(opts Options) (*Manifest, []Case, error) {
 }
 
 // batchFiles are the files and folders a batch writes, removed by Force.
-var batchFiles = []string{ResultsDir, ProbabilityDir, RealizationsName, PercentilesName, ComparisonName, ManifestName}
+var batchFiles = []string{ResultsDir, ProbabilityDir, RealizationsName, PercentilesName, ComparisonName, WarningsName,
+	PairedName, PairedPercentilesName, SummaryName, CSVMetadataName, ManifestName}
 
 // prepareFolder checks Out against the options, clears it for Force, and
 // writes the manifest.

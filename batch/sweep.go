@@ -2,6 +2,7 @@ package batch
 
 import (
 	"fmt"
+	"slices"
 	"strconv"
 	"strings"
 	"unicode"
@@ -14,6 +15,52 @@ import (
 type Sweep struct {
 	Key    string   `json:"key"`
 	Values []string `json:"values"`
+	// Reference is the value the other values are compared with in the
+	// paired comparison (see Pairing); "" means the first value.
+	Reference string `json:"reference"`
+}
+
+// reference returns the index of the sweep's reference value; -1 when
+// the reference is not one of the values.
+func (s Sweep) reference() int {
+	if s.Reference == "" {
+		return 0
+	}
+	return slices.Index(s.Values, s.Reference)
+}
+
+// SetReference makes value the reference of the sweep that has it: ref is
+// "VALUE", which must be a value of exactly one sweep, or "KEY=VALUE".
+func SetReference(sweeps []Sweep, ref string) error {
+	key, value, named := strings.Cut(ref, "=")
+	if !named {
+		key, value = "", ref
+	}
+	key, value = strings.TrimSpace(key), strings.TrimSpace(value)
+	var found []int
+	for i, s := range sweeps {
+		if (!named || s.Key == key) && slices.Contains(s.Values, value) {
+			found = append(found, i)
+		}
+	}
+	switch {
+	case len(sweeps) == 0:
+		return inputErrorf("--reference %q: there is no --sweep to compare against", ref)
+	case len(found) == 0 && named && !slices.ContainsFunc(sweeps, func(s Sweep) bool { return s.Key == key }):
+		return inputErrorf("--reference %q: no --sweep of %s", ref, key)
+	case len(found) == 0:
+		var lists []string
+		for _, s := range sweeps {
+			if !named || s.Key == key {
+				lists = append(lists, s.String())
+			}
+		}
+		return inputErrorf("--reference %q: not a swept value; the sweeps are %s", ref, strings.Join(lists, " "))
+	case len(found) > 1:
+		return inputErrorf("--reference %q: a value of several sweeps; name the sweep as KEY=VALUE", ref)
+	}
+	sweeps[found[0]].Reference = value
+	return nil
 }
 
 // String returns "key=v1,v2,…", the form ParseSweep reads.
@@ -48,6 +95,7 @@ func ParseSweep(text string) (Sweep, error) {
 		}
 		sw.Values = append(sw.Values, v)
 	}
+	sw.Reference = sw.Values[0]
 	return sw, nil
 }
 
@@ -115,14 +163,17 @@ const (
 // maxCases caps the product of the sweeps.
 const maxCases = 100000
 
-// checkSweeps checks that keys are distinct, every sweep has values and
-// the product is not absurdly large.
+// checkSweeps checks that keys are distinct, every sweep has values and a
+// reference among them, and the product is not absurdly large.
 func checkSweeps(sweeps []Sweep) error {
 	keys := map[string]bool{}
 	total := 1
 	for _, s := range sweeps {
 		if len(s.Values) == 0 {
 			return inputErrorf("--sweep %s has no values", s.Key)
+		}
+		if s.reference() < 0 {
+			return inputErrorf("--sweep %s: reference %q is not one of its values", s, s.Reference)
 		}
 		if keys[s.Key] {
 			return inputErrorf("--sweep %s is given twice; list all its values in one --sweep", s.Key)

@@ -1,38 +1,67 @@
 package dfn
 
 import (
-	"encoding/csv"
 	"encoding/json"
 	"fmt"
 	"io"
 	"math"
 	"strconv"
 	"text/tabwriter"
+
+	"slipfront/internal/csvw"
 )
 
-// Column headers of the written files.
+// The tables of a generate folder, described for csv-metadata.json
+// (package csvw); their URLs are left to the folder's owner.
 var (
-	FractureColumns = []string{"id", "set", "set_name", "name", "shape",
-		"center_x_m", "center_y_m", "center_z_m", "dip_deg", "dip_direction_deg",
-		"size_m", "height_m", "area_m2"}
-	TraceColumns = []string{"id", "fracture_id", "set", "x0_m", "y0_m", "x1_m", "y1_m",
-		"length_m", "height_m", "cluster"}
+	FracturesTable = csvw.Table{
+		Title:       "fractures",
+		Description: "Every fracture of the realization's network, generated and mapped, in 3-D.",
+		Columns: []csvw.Column{
+			{Title: "fracture_id", Datatype: csvw.Integer, Description: "index of the fracture in the network (fracture_id of every other table)"},
+			{Title: "set", Datatype: csvw.Integer, Description: "index of the fracture's set in the scenario; -1 for mapped fractures"},
+			{Title: "set_name", Datatype: csvw.String, Description: "name of the set (" + KnownSetName + " for mapped fractures)"},
+			{Title: "name", Datatype: csvw.String, Description: "name of a mapped fracture; empty for generated ones"},
+			{Title: "shape", Datatype: csvw.String, Description: "disc or rectangle"},
+			{Title: "center_x_m", Datatype: csvw.Double, Unit: "m", Description: "centre, local east of the scenario origin"},
+			{Title: "center_y_m", Datatype: csvw.Double, Unit: "m", Description: "centre, local north of the scenario origin"},
+			{Title: "center_depth_m", Datatype: csvw.Double, Unit: "m", Description: "centre, true vertical depth, positive down"},
+			{Title: "dip_deg", Datatype: csvw.Double, Unit: "deg", Description: "dip, 0 to 90"},
+			{Title: "dip_direction_deg", Datatype: csvw.Double, Unit: "deg", Description: "dip direction, clockwise from north, 0 to 360"},
+			{Title: "size_m", Datatype: csvw.Double, Unit: "m", Description: "disc radius, or the rectangle's length along strike"},
+			{Title: "height_m", Datatype: csvw.Double, Unit: "m", Description: "down-dip extent of the fracture (disc: its diameter)"},
+			{Title: "area_m2", Datatype: csvw.Double, Unit: "m2", Description: "area of one face of the fracture"},
+		},
+	}
+	TracesTable = csvw.Table{
+		Title:       "traces",
+		Description: "The traces of the fractures on the layer mid-plane: the map-view segments that carry flow.",
+		Columns: []csvw.Column{
+			{Title: "trace_id", Datatype: csvw.Integer, Description: "index of the trace in the network"},
+			{Title: "fracture_id", Datatype: csvw.Integer, Description: "index of its fracture (fracture_id of fractures.csv)"},
+			{Title: "set", Datatype: csvw.Integer, Description: "index of the fracture's set in the scenario; -1 for mapped fractures"},
+			{Title: "x0_m", Datatype: csvw.Double, Unit: "m", Description: "first end, local east of the scenario origin"},
+			{Title: "y0_m", Datatype: csvw.Double, Unit: "m", Description: "first end, local north"},
+			{Title: "x1_m", Datatype: csvw.Double, Unit: "m", Description: "second end, local east"},
+			{Title: "y1_m", Datatype: csvw.Double, Unit: "m", Description: "second end, local north"},
+			{Title: "trace_length_m", Datatype: csvw.Double, Unit: "m", Description: "length of the trace"},
+			{Title: "conducting_height_m", Datatype: csvw.Double, Unit: "m", Description: "conducting height: down-dip length of the fracture inside the layer"},
+			{Title: "network_cluster", Datatype: csvw.Integer, Description: "index of the trace's connected cluster (a connected component of the trace-intersection graph)"},
+		},
+	}
 )
 
 // fixed formats v with prec decimals ("NaN", "+Inf" for non-finite values).
 func fixed(v float64, prec int) string { return strconv.FormatFloat(v, 'f', prec, 64) }
 
 // WriteFractures writes fractures.csv: one row per fracture, with the
-// columns FractureColumns. id is the index in Network.Fractures; set is
-// the set index (−1 for mapped fractures); lengths in m to 1 mm, angles in
-// degrees to 10⁻⁴, area in m² to 10⁻³ m². size_m is the disc radius or the
-// rectangle's strike length; height_m the down-dip extent.
+// columns of FracturesTable. fracture_id is the index in
+// Network.Fractures; set is the set index (−1 for mapped fractures);
+// lengths in m to 1 mm, angles in degrees to 10⁻⁴, area in m² to 10⁻³ m².
+// The centre's depth is −z.
 func WriteFractures(w io.Writer, n *Network) error {
-	cw := csv.NewWriter(w)
-	if err := cw.Write(FractureColumns); err != nil {
-		return err
-	}
-	row := make([]string, len(FractureColumns))
+	cw := csvw.NewWriter(w, &FracturesTable)
+	row := make([]string, len(FracturesTable.Columns))
 	for i := range n.Fractures {
 		f := &n.Fractures[i]
 		row[0] = strconv.Itoa(i)
@@ -42,31 +71,25 @@ func WriteFractures(w io.Writer, n *Network) error {
 		row[4] = f.Shape.String()
 		row[5] = fixed(f.Centre.X, 3)
 		row[6] = fixed(f.Centre.Y, 3)
-		row[7] = fixed(f.Centre.Z, 3)
+		row[7] = fixed(-f.Centre.Z, 3)
 		row[8] = fixed(deg(f.Dip), 4)
 		row[9] = fixed(deg(f.DipDirection), 4)
 		row[10] = fixed(f.Size, 3)
 		row[11] = fixed(f.Height, 3)
 		row[12] = fixed(f.Area, 3)
-		if err := cw.Write(row); err != nil {
-			return err
-		}
+		cw.Write(row)
 	}
-	cw.Flush()
-	return cw.Error()
+	return cw.Flush()
 }
 
-// WriteTraces writes traces.csv: one row per trace, with the columns
-// TraceColumns. id is the index in Network.Traces, fracture_id the index
-// in Network.Fractures, set the set index (−1 for mapped fractures),
-// cluster the index in Network.Clusters; coordinates are local metres to
-// 1 mm, height_m is the conducting height.
+// WriteTraces writes traces.csv: one row per trace, with the columns of
+// TracesTable. trace_id is the index in Network.Traces, fracture_id the
+// index in Network.Fractures, set the set index (−1 for mapped
+// fractures), network_cluster the index in Network.Clusters; coordinates
+// are local metres to 1 mm.
 func WriteTraces(w io.Writer, n *Network) error {
-	cw := csv.NewWriter(w)
-	if err := cw.Write(TraceColumns); err != nil {
-		return err
-	}
-	row := make([]string, len(TraceColumns))
+	cw := csvw.NewWriter(w, &TracesTable)
+	row := make([]string, len(TracesTable.Columns))
 	for i := range n.Traces {
 		t := &n.Traces[i]
 		row[0] = strconv.Itoa(i)
@@ -79,12 +102,9 @@ func WriteTraces(w io.Writer, n *Network) error {
 		row[7] = fixed(t.Length, 3)
 		row[8] = fixed(t.Height, 3)
 		row[9] = strconv.Itoa(t.Cluster)
-		if err := cw.Write(row); err != nil {
-			return err
-		}
+		cw.Write(row)
 	}
-	cw.Flush()
-	return cw.Error()
+	return cw.Flush()
 }
 
 // NetworkJSON is the content of network.json. Non-finite numbers are

@@ -47,12 +47,12 @@ func TestWriteCSV(t *testing.T) {
 		t.Fatal(err)
 	}
 	frows, trows := readCSV(t, fb.Bytes()), readCSV(t, tb.Bytes())
-	for _, want := range []string{"id", "set", "center_x_m", "center_y_m", "center_z_m", "dip_deg", "dip_direction_deg", "area_m2", "shape", "size_m", "height_m"} {
+	for _, want := range []string{"fracture_id", "set", "center_x_m", "center_y_m", "center_depth_m", "dip_deg", "dip_direction_deg", "area_m2", "shape", "size_m", "height_m"} {
 		if !slices.Contains(frows[0], want) {
 			t.Errorf("fractures.csv lacks column %s", want)
 		}
 	}
-	for _, want := range []string{"id", "fracture_id", "x0_m", "y0_m", "x1_m", "y1_m", "height_m", "cluster", "set", "length_m"} {
+	for _, want := range []string{"trace_id", "fracture_id", "x0_m", "y0_m", "x1_m", "y1_m", "conducting_height_m", "network_cluster", "set", "trace_length_m"} {
 		if !slices.Contains(trows[0], want) {
 			t.Errorf("traces.csv lacks column %s", want)
 		}
@@ -63,7 +63,7 @@ func TestWriteCSV(t *testing.T) {
 	col := func(header []string, name string) int { return slices.Index(header, name) }
 	for i, f := range n.Fractures {
 		row := frows[i+1]
-		numtest.Abs(t, "center_z_m", parse(t, row[col(frows[0], "center_z_m")]), f.Centre.Z, 5e-4)
+		numtest.Abs(t, "center_depth_m", parse(t, row[col(frows[0], "center_depth_m")]), -f.Centre.Z, 5e-4)
 		numtest.Abs(t, "dip_direction_deg", parse(t, row[col(frows[0], "dip_direction_deg")]), deg(f.DipDirection), 5e-5)
 		numtest.Abs(t, "area_m2", parse(t, row[col(frows[0], "area_m2")]), f.Area, 5e-4)
 		if row[col(frows[0], "set")] != strconv.Itoa(f.Set) || row[col(frows[0], "shape")] != f.Shape.String() {
@@ -73,8 +73,9 @@ func TestWriteCSV(t *testing.T) {
 	for i, tr := range n.Traces {
 		row := trows[i+1]
 		numtest.Abs(t, "x1_m", parse(t, row[col(trows[0], "x1_m")]), tr.P1.X, 5e-4)
-		numtest.Abs(t, "height_m", parse(t, row[col(trows[0], "height_m")]), tr.Height, 5e-4)
-		if row[col(trows[0], "fracture_id")] != strconv.Itoa(tr.Fracture) || row[col(trows[0], "cluster")] != strconv.Itoa(tr.Cluster) {
+		numtest.Abs(t, "conducting_height_m", parse(t, row[col(trows[0], "conducting_height_m")]), tr.Height, 5e-4)
+		numtest.Abs(t, "trace_length_m", parse(t, row[col(trows[0], "trace_length_m")]), tr.Length, 5e-4)
+		if row[col(trows[0], "fracture_id")] != strconv.Itoa(tr.Fracture) || row[col(trows[0], "network_cluster")] != strconv.Itoa(tr.Cluster) {
 			t.Fatalf("row %v for %+v", row, tr)
 		}
 	}

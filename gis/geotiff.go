@@ -3,11 +3,13 @@ package gis
 import (
 	"bufio"
 	"encoding/binary"
+	"encoding/xml"
 	"fmt"
 	"io"
 	"math"
 	"slices"
 	"strconv"
+	"strings"
 
 	"github.com/paulmach/orb"
 )
@@ -20,6 +22,10 @@ type Raster struct {
 	Data []float32
 	// NoData marks cells without a value; NaN is allowed.
 	NoData float32
+	// Description names the band's quantity (e.g. "first_slip_time_s")
+	// and Unit is its unit (e.g. "s"); either may be empty. A GeoTIFF
+	// carries them in GDAL's metadata tag.
+	Description, Unit string
 }
 
 // TIFF 6.0 constants (Adobe 1992, TIFF Revision 6.0, §2 and §8).
@@ -54,6 +60,7 @@ const (
 	tagGeoKeyDirectory  = 34735
 	tagGeoDoubleParams  = 34736
 	tagGeoASCIIParams   = 34737
+	tagGDALMetadata     = 42112
 	tagGDALNoData       = 42113
 	compressionNone     = 1
 	photometricBlackIs0 = 1
@@ -72,7 +79,9 @@ const tiffStripBytes = 64 << 10
 // ModelPixelScale (CellSize, CellSize, 0) and ModelTiepoint at the
 // upper-left corner of the north-west cell (RasterPixelIsArea), both in
 // the CRS unit (a 10 m cell is 32.8 ftUS in a US survey foot CRS), the
-// GeoKeys of the CRS (see geoKeys) and GDAL's GDAL_NODATA tag.
+// GeoKeys of the CRS (see geoKeys), GDAL's GDAL_NODATA tag and, when the
+// raster has a Description or Unit, GDAL's GDAL_METADATA tag with the
+// band's description and unit type (see gdalMetadata).
 //
 // The file stores the NORTH row first: file row r holds grid row
 // Rows−1−r.
@@ -170,6 +179,9 @@ func tiffHead(r Raster, toCRS func(orb.Point) orb.Point, unit LinearUnit, gk geo
 	if gk.ascii != "" {
 		entries = append(entries, asciiEntry(tagGeoASCIIParams, gk.ascii))
 	}
+	if md := gdalMetadata(r.Description, r.Unit); md != "" {
+		entries = append(entries, asciiEntry(tagGDALMetadata, md))
+	}
 	entries = append(entries, asciiEntry(tagGDALNoData, nodata))
 	if !slices.IsSortedFunc(entries, func(a, b tiffEntry) int { return int(a.tag) - int(b.tag) }) {
 		panic("gis: TIFF entries not sorted by tag") // TIFF 6.0 §2: ascending order
@@ -235,6 +247,40 @@ func tiffHead(r Raster, toCRS func(orb.Point) orb.Point, unit LinearUnit, gk geo
 		panic("gis: TIFF layout size mismatch")
 	}
 	return head
+}
+
+// gdalMetadata returns the XML of GDAL's GDAL_METADATA TIFF tag (42112)
+// with band 0's description and unit type, or "" when both are empty.
+// The items are the ones GDAL's GTiff driver writes for a band
+// description and unit (GDAL, GTiff driver documentation, "Metadata"):
+//
+//	<GDALMetadata><Item name="DESCRIPTION" sample="0" role="description">…</Item>
+//	<Item name="UNITTYPE" sample="0" role="unittype">…</Item></GDALMetadata>
+//
+// GDAL escapes an item's value for XML and then the whole document again,
+// so the text is escaped twice ("&" is "&amp;amp;"), as gdal_translate
+// 3.6 writes it; the tests read it back with gdalinfo.
+func gdalMetadata(description, unit string) string {
+	if description == "" && unit == "" {
+		return ""
+	}
+	escape := func(s string) string {
+		var b strings.Builder
+		xml.EscapeText(&b, []byte(s))
+		return b.String()
+	}
+	var b strings.Builder
+	b.WriteString("<GDALMetadata>")
+	for _, it := range [...]struct{ name, role, value string }{
+		{"DESCRIPTION", "description", description},
+		{"UNITTYPE", "unittype", unit},
+	} {
+		if it.value != "" {
+			fmt.Fprintf(&b, `<Item name="%s" sample="0" role="%s">%s</Item>`, it.name, it.role, escape(escape(it.value)))
+		}
+	}
+	b.WriteString("</GDALMetadata>")
+	return b.String()
 }
 
 // asciiEntry stores s with its terminating NUL (TIFF 6.0 §2, type ASCII).

@@ -432,3 +432,45 @@ func benchmarkWriteGeoTIFF(b *testing.B, n int) {
 	}
 	b.SetBytes(int64(4 * n * n))
 }
+
+// A band's description and unit go into GDAL's GDAL_METADATA tag, which
+// gdalinfo reads back as the band description and unit type; a raster
+// without them has no such tag.
+func TestGeoTIFFBandMetadata(t *testing.T) {
+	r := sampleRaster(7, 4)
+	tags, _, err := readTIFFTags(writeTIFFBytes(t, samplePlacement, r))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if _, ok := tags[tagGDALMetadata]; ok {
+		t.Error("a raster without description or unit has a GDAL_METADATA tag")
+	}
+	r.Description, r.Unit = "pressure_increase_MPa & <co>", "MPa"
+	b := writeTIFFBytes(t, samplePlacement, r)
+	if tags, _, err = readTIFFTags(b); err != nil {
+		t.Fatal(err)
+	}
+	want := `<GDALMetadata><Item name="DESCRIPTION" sample="0" role="description">pressure_increase_MPa &amp;amp; &amp;lt;co&amp;gt;</Item>` +
+		`<Item name="UNITTYPE" sample="0" role="unittype">MPa</Item></GDALMetadata>` + "\x00"
+	if md := tags[tagGDALMetadata]; md.typ != typeASCII || string(md.data) != want {
+		t.Errorf("GDAL_METADATA %q (type %d), want %q", md.data, md.typ, want)
+	}
+	gdalinfo := needTool(t, "gdalinfo")
+	path := tempPath(t, "band.tif")
+	if err := os.WriteFile(path, b, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	out := runTool(t, []string{"GDAL_PAM_ENABLED=NO"}, gdalinfo, "-json", path)
+	var info struct {
+		Bands []struct {
+			Description string
+			Unit        string
+		}
+	}
+	if err := json.Unmarshal([]byte(out), &info); err != nil {
+		t.Fatalf("%v\n%s", err, out)
+	}
+	if len(info.Bands) != 1 || info.Bands[0].Description != "pressure_increase_MPa & <co>" || info.Bands[0].Unit != "MPa" {
+		t.Errorf("gdalinfo bands %+v, want the description and unit written", info.Bands)
+	}
+}

@@ -109,7 +109,7 @@ func ExampleScreen() {
 		{ID: 3, Set: 1, Normal: r3.Vec{Z: 1}, Area: 400, TraceLength: 0},
 	}
 	sc, err := mechanics.Screen(planes, s, mechanics.Coulomb{Friction: 0.6},
-		mechanics.ScreenOptions{SetNames: []string{"steep", "flat"}})
+		mechanics.ScreenOptions{SetNames: map[int]string{0: "steep", 1: "flat"}})
 	if err != nil {
 		fmt.Println(err)
 		return

@@ -114,16 +114,17 @@ type ScreenOptions struct {
 	// CurveStep is the pressure step of the curve, Pa; 0 means
 	// DefaultCurveStep.
 	CurveStep float64
-	// SetNames name the sets by index (optional); sets without a name are
-	// called "set <index>".
-	SetNames []string
+	// SetNames name the sets by index (optional; an index may be
+	// negative, e.g. for mapped fractures); sets without a name are called
+	// "set <index>".
+	SetNames map[int]string
 }
 
 // Shares are the counts and slipping shares of one set or of all
 // fractures. The share slices are parallel to Screening.Increases; a
 // share is 0 when its total is 0.
 type Shares struct {
-	Set              int     // set index; -1 for all fractures
+	Set              int     // set index (Screening.Total: -1, which a set of mapped fractures may share)
 	Name             string  // set name; "all" for all fractures
 	Fractures        int     // number of fractures
 	TraceLength      float64 // total trace length, m
@@ -208,7 +209,7 @@ func (o ScreenOptions) resolved() (incs []float64, step float64, err error) {
 }
 
 // shares returns the per-set and total shares that slip at each increase.
-func shares(res []PlaneResult, incs []float64, names []string) (sets []Shares, total Shares) {
+func shares(res []PlaneResult, incs []float64, names map[int]string) (sets []Shares, total Shares) {
 	newShares := func(set int, name string) *Shares {
 		return &Shares{Set: set, Name: name, FractureShare: make([]float64, len(incs)),
 			TraceLengthShare: make([]float64, len(incs)), AreaShare: make([]float64, len(incs))}
@@ -267,8 +268,8 @@ func ratio(a, b float64) float64 {
 }
 
 // setName returns the name of set i.
-func setName(i int, names []string) string {
-	if i >= 0 && i < len(names) && names[i] != "" {
+func setName(i int, names map[int]string) string {
+	if names[i] != "" {
 		return names[i]
 	}
 	return fmt.Sprintf("set %d", i)

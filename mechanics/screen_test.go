@@ -55,7 +55,7 @@ func TestScreenPlaneResults(t *testing.T) {
 func TestScreenShares(t *testing.T) {
 	s := workedExample(t)
 	incs := []float64{8.4861e6, 8.4862e6, 9.01e6, 50e6}
-	sc, err := Screen(fixturePlanes(), s, Coulomb{Friction: 0.6}, ScreenOptions{Increases: incs, SetNames: []string{"NE set"}})
+	sc, err := Screen(fixturePlanes(), s, Coulomb{Friction: 0.6}, ScreenOptions{Increases: incs, SetNames: map[int]string{0: "NE set"}})
 	if err != nil {
 		t.Fatal(err)
 	}

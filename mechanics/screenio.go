@@ -6,7 +6,9 @@ import (
 	"io"
 	"math"
 	"strconv"
+	"strings"
 
+	"slipfront/internal/csvw"
 	"slipfront/internal/orient"
 )
 
@@ -58,25 +60,65 @@ func rakeDegrees(rake float64) float64 {
 	return d
 }
 
-// ScreenCSVHeader is the header line of the per-fracture screening table.
-const ScreenCSVHeader = "fracture_id,set,dip_deg,dip_direction_deg,sigma_n_MPa,tau_MPa,slip_tendency," +
-	"dilation_tendency,critical_dp_MPa,rake_deg,area_m2,trace_length_m,slip_tendency_total"
+// ScreenTable describes the per-fracture screening table (screen.csv) for
+// csv-metadata.json (package csvw); its URL is left to the folder's owner.
+var ScreenTable = csvw.Table{
+	Title: "screen",
+	Description: "Pre-injection screening: the in-situ stress resolved on every fracture, its slip tendency and the pore-pressure " +
+		"increase at which it slips (Mohr-Coulomb, total stresses held fixed). Stresses compression-positive, in MPa.",
+	Columns: []csvw.Column{
+		{Title: "fracture_id", Datatype: csvw.Integer, Description: "index of the fracture in the network (fracture_id of fractures.csv)"},
+		{Title: "set", Datatype: csvw.Integer, Description: "index of the fracture's set in the scenario; -1 for mapped fractures"},
+		{Title: "dip_deg", Datatype: csvw.Double, Unit: "deg", Description: "dip, 0 to 90"},
+		{Title: "dip_direction_deg", Datatype: csvw.Double, Unit: "deg", Description: "dip direction, clockwise from north, 0 to 360"},
+		{Title: "sigma_n_MPa", Datatype: csvw.Double, Unit: "MPa", Description: "total normal stress on the plane, compression positive"},
+		{Title: "tau_MPa", Datatype: csvw.Double, Unit: "MPa", Description: "shear stress on the plane"},
+		{Title: "slip_tendency", Datatype: csvw.Double, Description: "effective slip tendency tau / (sigma_n - pore pressure)"},
+		{Title: "dilation_tendency", Datatype: csvw.Double, Description: "(S1 - sigma_n) / (S1 - S3)"},
+		{Title: "critical_dp_MPa", Datatype: csvw.Double, Unit: "MPa", Description: "pore-pressure increase at which the plane slips; <= 0 when it is critical already"},
+		{Title: "rake_deg", Datatype: csvw.Double, Unit: "deg", Description: "rake of the hanging-wall slip direction, (-180, 180]"},
+		{Title: "area_m2", Datatype: csvw.Double, Unit: "m2", Description: "area of one face of the fracture"},
+		{Title: "trace_length_m", Datatype: csvw.Double, Unit: "m", Description: "length of the fracture's trace on the layer mid-plane"},
+		{Title: "slip_tendency_total", Datatype: csvw.Double, Description: "slip tendency with total stress tau / sigma_n (Morris et al. 1996)"},
+		{Title: "set_name", Datatype: csvw.String, Description: "name of the fracture's set"},
+	},
+}
+
+// CurveTable describes the slip-versus-pressure curve (slip-vs-dp.csv).
+var CurveTable = csvw.Table{
+	Title:       "slip versus pressure",
+	Description: "Shares of the fractures that slip at each pore-pressure increase, total stresses held fixed.",
+	Columns: []csvw.Column{
+		{Title: "pressure_increase_MPa", Datatype: csvw.Double, Unit: "MPa", Description: "pore-pressure increase above the initial pore pressure"},
+		{Title: "slipping_area_m2", Datatype: csvw.Double, Unit: "m2", Description: "area of the fractures whose critical_dp_MPa is at most the increase"},
+		{Title: "area_share", Datatype: csvw.Double, Description: "slipping area over the total fracture area, 0 to 1"},
+		{Title: "fracture_share", Datatype: csvw.Double, Description: "share of the fractures that slip, 0 to 1"},
+		{Title: "trace_length_share", Datatype: csvw.Double, Description: "share of the trace length that slips, 0 to 1"},
+	},
+}
+
+// Header lines of the two tables.
+var (
+	ScreenCSVHeader = strings.Join(ScreenTable.Header(), ",")
+	CurveCSVHeader  = strings.Join(CurveTable.Header(), ",")
+)
 
 // WriteCSV writes the per-fracture table (screen.csv): one row per plane
 // in input order under ScreenCSVHeader. slip_tendency is the effective
-// form τ/(σn − p); slip_tendency_total is τ/σn.
+// form τ/(σn − p); slip_tendency_total is τ/σn; set_name is the name of
+// the plane's set (ScreenOptions.SetNames).
 func (sc *Screening) WriteCSV(w io.Writer) error {
-	bw := bufio.NewWriter(w)
-	bw.WriteString(ScreenCSVHeader)
-	bw.WriteByte('\n')
-	var b []byte
+	cw := csvw.NewWriter(w, &ScreenTable)
+	names := make(map[int]string, len(sc.Sets))
+	for _, sh := range sc.Sets {
+		names[sh.Set] = sh.Name
+	}
+	row := make([]string, len(ScreenTable.Columns))
 	for i := range sc.Planes {
 		r := &sc.Planes[i]
-		b = b[:0]
-		b = strconv.AppendInt(b, int64(r.ID), 10)
-		b = append(b, ',')
-		b = strconv.AppendInt(b, int64(r.Set), 10)
-		for _, f := range [...]struct {
+		row[0] = strconv.Itoa(r.ID)
+		row[1] = strconv.Itoa(r.Set)
+		for k, f := range [...]struct {
 			v    float64
 			prec int
 		}{
@@ -92,19 +134,13 @@ func (sc *Screening) WriteCSV(w io.Writer) error {
 			{r.TraceLength, metreDecimals},
 			{r.TotalSlipTendency, ratioDecimals},
 		} {
-			b = append(b, ',')
-			b = appendFixed(b, f.v, f.prec)
+			row[2+k] = fixed(f.v, f.prec)
 		}
-		b = append(b, '\n')
-		if _, err := bw.Write(b); err != nil {
-			return err
-		}
+		row[13] = names[r.Set]
+		cw.Write(row)
 	}
-	return bw.Flush()
+	return cw.Flush()
 }
-
-// CurveCSVHeader is the header line of the slip-versus-pressure curve.
-const CurveCSVHeader = "pressure_increase_MPa,slipping_area_m2,area_share,fracture_share,trace_length_share"
 
 // WriteCurveCSV writes the slip-versus-pressure curve (slip-vs-dp.csv)
 // under CurveCSVHeader: for each pore-pressure increase, the area and the

@@ -23,7 +23,7 @@ var update = flag.Bool("update", false, "rewrite the golden files in testdata/")
 func fixtureScreening(t testing.TB) *Screening {
 	t.Helper()
 	sc, err := Screen(fixturePlanes(), workedExample(t), Coulomb{Friction: 0.6},
-		ScreenOptions{SetNames: []string{"NE set", "E set"}})
+		ScreenOptions{SetNames: map[int]string{0: "NE set", 1: "E set"}})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -133,8 +133,8 @@ func TestWriteCSVReadBack(t *testing.T) {
 			}
 			return v
 		}
-		if row[0] != strconv.Itoa(r.ID) || row[1] != strconv.Itoa(r.Set) {
-			t.Errorf("row %d: id %s set %s", i, row[0], row[1])
+		if row[0] != strconv.Itoa(r.ID) || row[1] != strconv.Itoa(r.Set) || row[13] != map[int]string{0: "NE set", 1: "E set"}[r.Set] {
+			t.Errorf("row %d: id %s set %s set_name %s", i, row[0], row[1], row[13])
 		}
 		// Half a unit of the printed decimals, plus round-off.
 		const d3, d6 = 0.5e-3 + 1e-9, 0.5e-6 + 1e-12

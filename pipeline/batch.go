@@ -10,14 +10,16 @@ import (
 
 	"slipfront/batch"
 	"slipfront/gis"
+	"slipfront/internal/badinput"
 	"slipfront/internal/outdir"
 	"slipfront/report"
 )
 
-// Convention is the percentile convention printed on batch charts; it
-// matches the header of percentiles.csv.
+// Convention is the percentile convention printed on batch charts; the
+// tables' _q10, _q50 and _q90 columns are the same percentiles
+// (batch.PercentileConvention).
 func Convention(realizations int) string {
-	return fmt.Sprintf("P10/P50/P90 = 10th/50th/90th percentiles of %d realizations, ascending (P90 the larger; empirical: the value of rank ceil(n·p))", realizations)
+	return fmt.Sprintf("P10/P50/P90 = 10th/50th/90th percentiles of %d realizations, ascending (P90 the high case; empirical: the value of rank ceil(n·p))", realizations)
 }
 
 // ContourLevels are the probability contours of a batch's map layer.
@@ -26,23 +28,48 @@ var ContourLevels = []float64{0.1, 0.5, 0.9}
 // ProbabilityRaster returns case c's stimulation probability on its grid
 // (share of realizations, 0–1); cells never stimulated hold 0.
 func ProbabilityRaster(a *batch.CaseAggregate) (gis.Raster, gis.Placement, error) {
-	g := a.Probability.Grid
+	return probabilityRaster(a.Probability, nil, "stimulation_probability")
+}
+
+// ProbabilityDifferenceRaster returns the stimulation probability of case
+// a minus that of its reference case ref on their grid (−1 to 1): where
+// the swept value makes stimulation more (> 0) or less (< 0) likely on
+// the same networks.
+func ProbabilityDifferenceRaster(a, ref *batch.CaseAggregate) (gis.Raster, gis.Placement, error) {
+	if a.Probability.Grid != ref.Probability.Grid {
+		return gis.Raster{}, gis.Placement{}, badinput.Errorf("cases %d and %d have different map grids: no probability difference",
+			a.Case.Index, ref.Case.Index)
+	}
+	return probabilityRaster(a.Probability, ref.Probability, "stimulation_probability_difference")
+}
+
+// probabilityRaster returns p, minus ref when it is not nil, as a
+// dimensionless band named description.
+func probabilityRaster(p, ref *batch.ProbabilityGrid, description string) (gis.Raster, gis.Placement, error) {
+	g := p.Grid
 	crs, err := gis.ParseCRS(g.CRS)
 	if err != nil {
 		return gis.Raster{}, gis.Placement{}, err
 	}
-	dense := a.Probability.Dense()
+	dense := p.Dense()
+	if ref != nil {
+		for i, v := range ref.Dense() {
+			dense[i] -= v
+		}
+	}
 	data := make([]float32, len(dense))
 	for i, v := range dense {
 		data[i] = float32(v)
 	}
 	r := gis.Raster{Grid: gis.Grid{Cols: g.Cols, Rows: g.Rows, CellSize: g.CellSize, XMin: g.XMin, YMin: g.YMin},
-		Data: data, NoData: float32(math.NaN())}
+		Data: data, NoData: float32(math.NaN()), Description: description, Unit: "1"}
 	return r, gis.Placement{CRS: crs, Easting: g.OriginEasting, Northing: g.OriginNorthing}, nil
 }
 
-// ProbabilityLayer returns the 10/50/90 % contours of every case, one
-// layer per case named probability_<case>.
+// ProbabilityLayers returns the 10/50/90 % contours of every case, one
+// layer per case named probability_<case>, with fields
+// stimulation_probability (the contour's level) and area_m2 (the map
+// area where the probability is at least that).
 func ProbabilityLayers(aggs []batch.CaseAggregate) ([]gis.Layer, gis.Placement, error) {
 	var layers []gis.Layer
 	var pl gis.Placement
@@ -62,14 +89,19 @@ func ProbabilityLayers(aggs []batch.CaseAggregate) ([]gis.Layer, gis.Placement, 
 		if err != nil {
 			return nil, pl, err
 		}
+		l.Fields[0].Name = "stimulation_probability" // the contour's level
+
 		layers = append(layers, l)
 	}
 	return withCaution(layers), pl, nil
 }
 
 // WriteBatchMaps writes into a complete batch folder: maps.gpkg with the
-// probability contours, one probability GeoTIFF per case, one fan chart per
-// case and a comparison chart of the final stimulated area across cases.
+// probability contours, one probability GeoTIFF per case, one probability
+// difference GeoTIFF per pairing of a case with its reference case
+// (batch.Manifest.Pairings; none where a sweep changes the map grid), one
+// fan chart per case and a comparison
+// chart of the final stimulated area across cases.
 func WriteBatchMaps(ctx context.Context, dir string) error {
 	m, aggs, err := batch.ReadAggregates(ctx, dir)
 	if err != nil {
@@ -89,6 +121,20 @@ func WriteBatchMaps(ctx context.Context, dir string) error {
 			return err
 		}
 		if err := outdir.WriteFile(dir, probabilityRasterFile(a.Case.Index), func(w io.Writer) error {
+			return gis.WriteGeoTIFF(w, pl, r)
+		}); err != nil {
+			return err
+		}
+	}
+	for _, p := range m.Pairings() {
+		if m.Cases[p.Case].Grid != m.Cases[p.Reference].Grid {
+			continue // a swept grid: cells do not correspond
+		}
+		r, pl, err := ProbabilityDifferenceRaster(&aggs[p.Case], &aggs[p.Reference])
+		if err != nil {
+			return err
+		}
+		if err := outdir.WriteFile(dir, probabilityDifferenceFile(p.Case, p.Reference), func(w io.Writer) error {
 			return gis.WriteGeoTIFF(w, pl, r)
 		}); err != nil {
 			return err

@@ -53,6 +53,12 @@ func fanPictureFile(c int) string { return fmt.Sprintf("fan_%04d.png", c) }
 // probabilityRasterFile is the probability GeoTIFF of batch case c.
 func probabilityRasterFile(c int) string { return fmt.Sprintf("probability_%04d.tif", c) }
 
+// probabilityDifferenceFile is the GeoTIFF of the stimulation probability
+// of batch case c minus that of its reference case ref.
+func probabilityDifferenceFile(c, ref int) string {
+	return fmt.Sprintf("probability_difference_%04d_vs_%04d.tif", c, ref)
+}
+
 // isBatchDir reports whether dir holds a batch (its manifest).
 func isBatchDir(dir string) bool { return exists(dir, batch.ManifestName) }
 
@@ -77,12 +83,12 @@ var ourFiles = []string{
 	NetworkFracturesFile, TracesFile, NetworkFile,
 	ScreenTableFile, ScreenSummaryFile, SlipCurveFile,
 	ScenarioFile, SnapshotFile, SummaryFile, TimelineFile, EventsFile, FracturesFile, ContentsFile,
-	MapsFile, MapPictureFile, GrowthPictureFile,
+	CSVMetadataFile, MapsFile, MapPictureFile, GrowthPictureFile,
 	ComparisonPictureFile, ReportPageFile,
 }
 
 // caseFile matches the per-case files of batch maps and reports.
-var caseFile = regexp.MustCompile(`^(fan|probability)_[0-9]{4}\.(png|tif)$`)
+var caseFile = regexp.MustCompile(`^((fan|probability)_[0-9]{4}|probability_difference_[0-9]{4}_vs_[0-9]{4})\.(png|tif)$`)
 
 // tempFile matches the temporary files of outdir.WriteFile and TempPath.
 var tempFile = regexp.MustCompile(`^\..+\.tmp-[0-9]+$`)

@@ -57,7 +57,7 @@ func TestGenerateAndScreenFolders(t *testing.T) {
 	if len(net.Fractures) != 1 || st.Fractures != 1 {
 		t.Errorf("single-fracture network has %d fractures (stats %d), want 1", len(net.Fractures), st.Fractures)
 	}
-	if got, want := folderFiles(t, gen), []string{NetworkFracturesFile, NetworkFile, TracesFile}; !slices.Equal(got, want) {
+	if got, want := folderFiles(t, gen), []string{CSVMetadataFile, NetworkFracturesFile, NetworkFile, TracesFile}; !slices.Equal(got, want) {
 		t.Errorf("generate folder holds %v, want %v", got, want)
 	}
 	if _, _, err := Generate(s, Folder{Dir: gen}, Limits{}); !errors.Is(err, outdir.ErrExists) || !errors.Is(err, badinput.Err) {
@@ -75,7 +75,7 @@ func TestGenerateAndScreenFolders(t *testing.T) {
 	if len(sc.Planes) != 1 {
 		t.Errorf("screening of %d planes, want 1", len(sc.Planes))
 	}
-	if got, want := folderFiles(t, scr), []string{ScreenTableFile, ScreenSummaryFile, SlipCurveFile}; !slices.Equal(got, want) {
+	if got, want := folderFiles(t, scr), []string{CSVMetadataFile, ScreenTableFile, ScreenSummaryFile, SlipCurveFile}; !slices.Equal(got, want) {
 		t.Errorf("screen folder holds %v, want %v", got, want)
 	}
 }
@@ -84,7 +84,7 @@ func TestGenerateAndScreenFolders(t *testing.T) {
 // the batch runner gives the same totals as the run for realization 0.
 func TestSimulateFolderAndRealization(t *testing.T) {
 	dir, mem := runFolder(t)
-	want := []string{ContentsFile, EventsFile, FracturesFile, GrowthPictureFile, MapPictureFile, MapsFile, SnapshotFile, ScenarioFile, SummaryFile, TimelineFile}
+	want := []string{ContentsFile, CSVMetadataFile, EventsFile, FracturesFile, GrowthPictureFile, MapPictureFile, MapsFile, SnapshotFile, ScenarioFile, SummaryFile, TimelineFile}
 	slices.Sort(want)
 	if got := folderFiles(t, dir); !slices.Equal(got, want) {
 		t.Errorf("run folder holds %v, want %v", got, want)

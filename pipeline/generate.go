@@ -10,9 +10,9 @@ import (
 )
 
 // Generate generates realization 0 of the scenario's network and writes
-// the generate folder: NetworkFracturesFile, TracesFile and NetworkFile.
-// It returns the network and its statistics. A network larger than the
-// memory limit is refused before it is drawn.
+// the generate folder: NetworkFracturesFile, TracesFile, NetworkFile and
+// CSVMetadataFile. It returns the network and its statistics. A network
+// larger than the memory limit is refused before it is drawn.
 func Generate(s *scenarios.Scenario, out Folder, lim Limits) (*dfn.Network, dfn.NetworkStats, error) {
 	if err := lim.CheckNetwork(s); err != nil {
 		return nil, dfn.NetworkStats{}, err
@@ -30,6 +30,7 @@ func Generate(s *scenarios.Scenario, out Folder, lim Limits) (*dfn.Network, dfn.
 		namedWriter{NetworkFracturesFile, func(w io.Writer) error { return dfn.WriteFractures(w, net) }},
 		namedWriter{TracesFile, func(w io.Writer) error { return dfn.WriteTraces(w, net) }},
 		namedWriter{NetworkFile, func(w io.Writer) error { return dfn.WriteNetworkJSON(w, net, stats) }},
+		generateMetadata(s),
 	)
 	if err != nil {
 		return nil, dfn.NetworkStats{}, err
@@ -38,9 +39,9 @@ func Generate(s *scenarios.Scenario, out Folder, lim Limits) (*dfn.Network, dfn.
 }
 
 // Screen resolves the in-situ stress on every fracture of realization 0
-// and writes the screen folder: ScreenTableFile, ScreenSummaryFile and
-// SlipCurveFile. The stress, the friction and the network's size are
-// checked before the folder is touched.
+// and writes the screen folder: ScreenTableFile, ScreenSummaryFile,
+// SlipCurveFile and CSVMetadataFile. The stress, the friction and the
+// network's size are checked before the folder is touched.
 func Screen(s *scenarios.Scenario, out Folder, lim Limits) (*mechanics.Screening, error) {
 	stress, err := mechanics.StressFromScenario(s.Stress, s.Layer.Depth)
 	if err != nil {
@@ -69,6 +70,7 @@ func Screen(s *scenarios.Scenario, out Folder, lim Limits) (*mechanics.Screening
 		namedWriter{ScreenTableFile, sc.WriteCSV},
 		namedWriter{ScreenSummaryFile, sc.WriteJSON},
 		namedWriter{SlipCurveFile, sc.WriteCurveCSV},
+		screenMetadata(s),
 	)
 	if err != nil {
 		return nil, err
@@ -77,7 +79,8 @@ func Screen(s *scenarios.Scenario, out Folder, lim Limits) (*mechanics.Screening
 }
 
 // screenPlanes lists every fracture with its trace length on the
-// mid-plane. Mapped fractures get the set index after the generated sets.
+// mid-plane, in the network's set numbering (dfn.KnownSet for mapped
+// fractures).
 func screenPlanes(net *dfn.Network) []mechanics.Plane {
 	traceLength := make([]float64, len(net.Fractures))
 	for _, t := range net.Traces {
@@ -85,20 +88,16 @@ func screenPlanes(net *dfn.Network) []mechanics.Plane {
 	}
 	planes := make([]mechanics.Plane, len(net.Fractures))
 	for i, f := range net.Fractures {
-		set := f.Set
-		if set == dfn.KnownSet {
-			set = len(net.Sets)
-		}
-		planes[i] = mechanics.Plane{ID: i, Set: set, Normal: f.Normal, Area: f.Area, TraceLength: traceLength[i]}
+		planes[i] = mechanics.Plane{ID: i, Set: f.Set, Normal: f.Normal, Area: f.Area, TraceLength: traceLength[i]}
 	}
 	return planes
 }
 
-// setNames names the generated sets and, after them, the mapped fractures.
-func setNames(s *scenarios.Scenario) []string {
-	names := make([]string, 0, len(s.Sets)+1)
-	for _, set := range s.Sets {
-		names = append(names, set.Name)
+// setNames names the generated sets and the mapped fractures.
+func setNames(s *scenarios.Scenario) map[int]string {
+	names := map[int]string{dfn.KnownSet: dfn.KnownSetName}
+	for i, set := range s.Sets {
+		names[i] = set.Name
 	}
-	return append(names, dfn.KnownSetName)
+	return names
 }

@@ -12,10 +12,19 @@ import (
 // RasterNames are the rasters of a run.
 var RasterNames = []string{"first_slip_time", "pressure_increase", "cumulative_slip"}
 
+// rasterBands describes each raster's band: its description (the
+// quantity with its unit, as in the tables) and unit.
+var rasterBands = map[string]struct{ description, unit string }{
+	"first_slip_time":   {"first_slip_time_s", "s"},
+	"pressure_increase": {"pressure_increase_MPa", "MPa"},
+	"cumulative_slip":   {"cumulative_slip_mm", "mm"},
+}
+
 // Raster builds the named raster of the run's state: each cell takes the
-// earliest (first_slip_time, h) or largest (pressure_increase, MPa;
+// earliest (first_slip_time, s) or largest (pressure_increase, MPa;
 // cumulative_slip, mm) value of the natural-fracture elements passing
-// through it; other cells are NoData (NaN).
+// through it; other cells are NoData (NaN). The band carries its
+// description and unit.
 func (r *Run) Raster(name string) (gis.Raster, error) {
 	res := r.Result
 	stress, err := mechanics.StressFromScenario(r.Scenario.Stress, r.Scenario.Layer.Depth)
@@ -27,7 +36,7 @@ func (r *Run) Raster(name string) (gis.Raster, error) {
 	earliest := false
 	switch name {
 	case "first_slip_time":
-		value, earliest = func(i int) float64 { return res.FirstSlip[i] / 3600 }, true
+		value, earliest = func(i int) float64 { return res.FirstSlip[i] }, true
 	case "pressure_increase":
 		value = func(i int) float64 { return (res.Pressure[i] - p0) / 1e6 }
 	case "cumulative_slip":
@@ -57,5 +66,6 @@ func (r *Run) Raster(name string) (gis.Raster, error) {
 			}
 		}
 	}
-	return gis.Raster{Grid: g, Data: data, NoData: float32(math.NaN())}, nil
+	band := rasterBands[name]
+	return gis.Raster{Grid: g, Data: data, NoData: float32(math.NaN()), Description: band.description, Unit: band.unit}, nil
 }

@@ -56,14 +56,14 @@ func writeRunReport(dir, out string) error {
 		}); err != nil {
 			return err
 		}
-		var runWarnings []string
+		var runWarnings []sim.Warning
 		if err := readFile(filepath.Join(dir, SummaryFile), func(f io.Reader) (err error) {
 			r.Result.Stages, runWarnings, err = sim.ReadSummary(f, SummaryFile)
 			return err
 		}); err != nil {
 			return err
 		}
-		warnings = append(warnings, runWarnings...)
+		warnings = append(warnings, warningNotes(runWarnings)...)
 	}
 	if err := writeRunPictures(out, r); err != nil {
 		return err
@@ -113,6 +113,15 @@ func (r *Run) page(warnings []string) *report.Page {
 	return p
 }
 
+// warningNotes are the warnings' messages, for a page.
+func warningNotes(warnings []sim.Warning) []string {
+	var notes []string
+	for _, w := range warnings {
+		notes = append(notes, w.Message)
+	}
+	return notes
+}
+
 func optionalMw(v float64) string {
 	if math.IsNaN(v) {
 		return "-"
@@ -131,17 +140,58 @@ func writeBatchReport(ctx context.Context, dir, out string) error {
 	p := &report.Page{
 		Title: m.Scenario.Name + " — batch",
 		Facts: [][2]string{{"scenario digest", m.Scenario.Digest}, {"seed", fmt.Sprint(m.Scenario.Seed)},
-			{"cases × realizations", fmt.Sprintf("%d × %d", len(m.Cases), m.Realizations)}, {"percentiles", Convention(m.Realizations)}},
+			{"cases × realizations", fmt.Sprintf("%d × %d", len(m.Cases), m.Realizations)}, {"percentiles", batch.PercentileConvention}},
+		Notes:  WarningLines(batch.TotalWarnings(aggs)),
 		Images: []report.Image{{File: ComparisonPictureFile, Caption: "Final stimulated area by case"}},
 	}
-	t := report.Table{Caption: "Cases", Header: []string{"case", "P10 area m²", "P50 area m²", "P90 area m²", "mean events", "max Mw", "P50 peak BHP MPa"}}
+	t := report.Table{Caption: "Cases", Header: []string{"case", "q10 area m²", "q50 area m²", "q90 area m²", "mean events", "max Mw", "q50 peak BHP MPa", "warnings"}}
 	for i := range aggs {
 		a := &aggs[i]
+		warnings, _ := a.WarningTotals()
 		t.Rows = append(t.Rows, []string{caseTitle(a), fmt.Sprintf("%.0f", a.Final.P10), fmt.Sprintf("%.0f", a.Final.P50),
 			fmt.Sprintf("%.0f", a.Final.P90), fmt.Sprintf("%.1f", a.Events.Mean), optionalMw(a.MaxMagnitude),
-			fmt.Sprintf("%.2f", a.PeakPressure.P50/1e6)})
+			fmt.Sprintf("%.2f", a.PeakPressure.P50/1e6), fmt.Sprint(warnings)})
 		p.Images = append(p.Images, report.Image{File: fanPictureFile(a.Case.Index), Caption: "Stimulated area over time, " + caseTitle(a)})
 	}
 	p.Tables = []report.Table{t}
+	if paired := batch.Paired(m, aggs); len(paired) > 0 {
+		pt := report.Table{Caption: "Paired comparison with the reference case (same networks): q50 [q10–q90] over the realizations",
+			Header: PairedHeader}
+		for _, ps := range paired {
+			pt.Rows = append(pt.Rows, PairedRow(m, ps))
+		}
+		p.Tables = append(p.Tables, pt)
+	}
 	return outdir.WriteFile(out, ReportPageFile, p.WriteHTML)
+}
+
+// WarningLines describes warning counts for people: one line per kind
+// with the count, the realizations and an example message.
+func WarningLines(counts []batch.WarningCount) []string {
+	var lines []string
+	for _, c := range counts {
+		lines = append(lines, fmt.Sprintf("%d × %s in %d realizations, e.g. %s", c.Warnings, c.Kind, c.Realizations, c.Example))
+	}
+	return lines
+}
+
+// PairedHeader heads the rows of PairedRow.
+var PairedHeader = []string{"case", "against", "area ratio", "fracture area ratio", "events ratio", "ΔMw"}
+
+// PairedRow is a short row of a pairing for people: the case, its
+// reference, and q50 [q10–q90] of the area, fracture-area and events
+// ratios and of the difference of the largest magnitude.
+func PairedRow(m *batch.Manifest, ps batch.PairedSummary) []string {
+	sw := m.Sweeps[ps.Sweep]
+	row := []string{m.Cases[ps.Case].Label, sw.Key + "=" + sw.Reference}
+	for _, name := range []string{"stimulated_area_ratio", "stimulated_fracture_area_ratio", "events_ratio", "max_magnitude_Mw_difference"} {
+		cell := "-"
+		for _, st := range ps.Stats {
+			if st.Name == name && st.Count > 0 {
+				cell = fmt.Sprintf("%.3g [%.3g–%.3g]", st.P50, st.P10, st.P90)
+			}
+		}
+		row = append(row, cell)
+	}
+	return row
 }

@@ -105,7 +105,8 @@ func (r *Run) stageName(k int) any {
 func (r *Run) fractureLayer() gis.Layer {
 	l := gis.Layer{Name: "fractures", Description: "natural fracture traces on the layer mid-plane with their final state",
 		Geometry: gis.LineString, Fields: []gis.Field{
-			{Name: "fracture_id", Type: gis.Int32}, {Name: "set_name", Type: gis.Text}, {Name: "cluster", Type: gis.Int32},
+			{Name: "fracture_id", Type: gis.Int32}, {Name: "set_name", Type: gis.Text}, {Name: "network_cluster", Type: gis.Int32},
+			{Name: "dip_deg", Type: gis.Real}, {Name: "dip_direction_deg", Type: gis.Real}, {Name: "trace_length_m", Type: gis.Real},
 			{Name: "max_slip_mm", Type: gis.Real}, {Name: "mean_aperture_mm", Type: gis.Real},
 			{Name: "permeability_gain", Type: gis.Real}, {Name: "first_slip_time_s", Type: gis.Real},
 			{Name: "first_slip_stage", Type: gis.Text}, {Name: "stimulated", Type: gis.Boolean},
@@ -121,7 +122,8 @@ func (r *Run) fractureLayer() gis.Layer {
 		}
 		l.Features = append(l.Features, gis.Feature{
 			Geometry: line(pt(t.P0.X, t.P0.Y), pt(t.P1.X, t.P1.Y)),
-			Values: []any{t.Fracture, f.SetName, t.Cluster, f.MaxSlip * 1e3, f.MeanAperture * 1e3,
+			Values: []any{t.Fracture, f.SetName, t.Cluster, f.Dip * 180 / math.Pi, f.DipDirection * 180 / math.Pi, t.Length,
+				f.MaxSlip * 1e3, f.MeanAperture * 1e3,
 				nullable(f.PermeabilityGain), nullable(f.FirstSlip), r.stageName(f.FirstSlipStage), f.StimulatedLength > 0},
 		})
 	}
@@ -130,7 +132,7 @@ func (r *Run) fractureLayer() gis.Layer {
 
 func (r *Run) conduitLayer() gis.Layer {
 	l := gis.Layer{Name: "conduits", Description: "primary conduits from the perforation clusters (elements)",
-		Geometry: gis.LineString, Fields: []gis.Field{{Name: "element", Type: gis.Int32}, {Name: "aperture_mm", Type: gis.Real}}}
+		Geometry: gis.LineString, Fields: []gis.Field{{Name: "element_id", Type: gis.Int32}, {Name: "aperture_mm", Type: gis.Real}}}
 	for i, el := range r.Result.Elements {
 		if el.Set != sim.ConduitSet {
 			continue
@@ -144,9 +146,11 @@ func (r *Run) conduitLayer() gis.Layer {
 // outlineLayer outlines the stimulated cells at every outline time.
 func (r *Run) outlineLayer() (gis.Layer, error) {
 	l := gis.Layer{Name: "stimulated_area", Description: "outline of the stimulated map cells at each snapshot time",
-		Geometry: gis.MultiPolygon, Fields: []gis.Field{{Name: "time_s", Type: gis.Real}, {Name: "area_m2", Type: gis.Real}}}
+		Geometry: gis.MultiPolygon, Fields: []gis.Field{{Name: "time_s", Type: gis.Real}, {Name: "utc_time", Type: gis.DateTime},
+			{Name: "stimulated_area_m2", Type: gis.Real}}}
 	g, sg := r.Grid(), r.Scenario.MapGrid()
 	res := r.Result
+	start := scheduleStart(r.Scenario.Schedule.Start)
 	for _, t := range r.OutlineTimes {
 		mask := sim.StimulatedCells(sg, res.Elements, func(i int) bool { return res.StimulatedAt[i] <= t })
 		mp, err := gis.Outline(g, mask)
@@ -162,7 +166,7 @@ func (r *Run) outlineLayer() (gis.Layer, error) {
 		if cells == 0 {
 			continue
 		}
-		l.Features = append(l.Features, gis.Feature{Geometry: mp, Values: []any{t, float64(cells) * g.CellArea()}})
+		l.Features = append(l.Features, gis.Feature{Geometry: mp, Values: []any{t, utc(start, t), float64(cells) * g.CellArea()}})
 	}
 	return l, nil
 }
@@ -172,23 +176,27 @@ func (r *Run) eventLayer() gis.Layer {
 		Geometry: gis.Point, Fields: []gis.Field{
 			{Name: "time_s", Type: gis.Real}, {Name: "utc_time", Type: gis.DateTime}, {Name: "stage", Type: gis.Text},
 			{Name: "fracture_id", Type: gis.Int32}, {Name: "depth_m", Type: gis.Real}, {Name: "slip_mm", Type: gis.Real},
-			{Name: "area_m2", Type: gis.Real}, {Name: "moment_Nm", Type: gis.Real}, {Name: "magnitude_Mw", Type: gis.Real},
+			{Name: "rupture_area_m2", Type: gis.Real}, {Name: "moment_Nm", Type: gis.Real}, {Name: "magnitude_Mw", Type: gis.Real},
 		}}
 	start := scheduleStart(r.Scenario.Schedule.Start)
 	for _, e := range r.Result.Events {
 		if !r.shows(e.Time) {
 			continue
 		}
-		utc := start.Add(time.Duration(e.Time * float64(time.Second))).UTC()
 		l.Features = append(l.Features, gis.Feature{Geometry: pt(e.X, e.Y), Values: []any{
-			e.Time, utc, r.stageName(e.Stage), e.Fracture, e.Depth, e.Slip * 1e3, e.Area, e.Moment, e.Magnitude}})
+			e.Time, utc(start, e.Time), r.stageName(e.Stage), e.Fracture, e.Depth, e.Slip * 1e3, e.Area, e.Moment, e.Magnitude}})
 	}
 	return l
 }
 
+// utc returns the UTC date and time t s after start.
+func utc(start time.Time, t float64) time.Time {
+	return start.Add(time.Duration(t * float64(time.Second))).UTC()
+}
+
 func (r *Run) wellLayer() gis.Layer {
 	l := gis.Layer{Name: "wells", Description: "well paths in map view", Geometry: gis.LineString,
-		Fields: []gis.Field{{Name: "name", Type: gis.Text}, {Name: "length_m", Type: gis.Real}}}
+		Fields: []gis.Field{{Name: "well", Type: gis.Text}, {Name: "path_length_m", Type: gis.Real}}}
 	for _, w := range r.Scenario.Wells {
 		var ls orb.LineString
 		for _, p := range w.Path {
@@ -201,8 +209,8 @@ func (r *Run) wellLayer() gis.Layer {
 
 func (r *Run) clusterLayer() gis.Layer {
 	l := gis.Layer{Name: "clusters", Description: "perforation clusters", Geometry: gis.Point,
-		Fields: []gis.Field{{Name: "well", Type: gis.Text}, {Name: "stage", Type: gis.Text}, {Name: "cluster", Type: gis.Int32},
-			{Name: "distance_m", Type: gis.Real}, {Name: "pumping_order", Type: gis.Int32}}}
+		Fields: []gis.Field{{Name: "well", Type: gis.Text}, {Name: "stage", Type: gis.Text}, {Name: "perforation_cluster", Type: gis.Int32},
+			{Name: "distance_along_path_m", Type: gis.Real}, {Name: "pumping_order", Type: gis.Int32}}}
 	for k, ps := range r.Scenario.PumpingOrder() {
 		w := r.Scenario.Wells[ps.Well]
 		path := r.Network.Wells[ps.Well].Path

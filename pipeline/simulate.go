@@ -37,11 +37,12 @@ type SimulateOptions struct {
 // through its partial sibling (see Folder): ScenarioFile first,
 // SnapshotFile frame by frame during the run (so a stopped run keeps every
 // complete frame), then SummaryFile, TimelineFile, EventsFile,
-// FracturesFile, the maps and last ContentsFile, after which the folder is
-// put in place. A run that fails part way still writes what it computed
-// and returns its result with the error. A nil result means no folder was
-// written: the input was refused (and the partial folder removed), or
-// writing failed (and the partial folder keeps what was written).
+// FracturesFile, CSVMetadataFile, the maps and last ContentsFile, after
+// which the folder is put in place. A run that fails part way still
+// writes what it computed and returns its result with the error. A nil
+// result means no folder was written: the input was refused (and the
+// partial folder removed), or writing failed (and the partial folder
+// keeps what was written).
 func Simulate(ctx context.Context, s *scenarios.Scenario, o SimulateOptions) (*sim.Result, error) {
 	status := o.Status
 	if status == nil {
@@ -113,6 +114,7 @@ func writeRunFiles(ctx context.Context, out string, s *scenarios.Scenario, net *
 		namedWriter{TimelineFile, func(w io.Writer) error { return sim.WriteTimeline(w, s, res) }},
 		namedWriter{EventsFile, func(w io.Writer) error { return sim.WriteEvents(w, s, res) }},
 		namedWriter{FracturesFile, func(w io.Writer) error { return sim.WriteFractures(w, s, net, res) }},
+		runMetadata(s),
 	)
 	if err != nil {
 		return err
@@ -168,6 +170,9 @@ func Realization(ctx context.Context, s *scenarios.Scenario, r int) (*batch.Outc
 	out := &batch.Outcome{NetworkDigest: net.Digest(), FinalArea: res.StimulatedArea, FractureArea: res.FractureArea,
 		Events: len(res.Events), MaxMagnitude: sim.MaxMagnitude(res.Events), PeakPressure: res.PeakBHP,
 		InjectedVolume: res.Injected, Cells: res.Cells}
+	for _, w := range res.Warnings {
+		out.Warnings = append(out.Warnings, batch.Warning{Kind: w.Kind, Message: w.Message})
+	}
 	for _, x := range res.Timeline {
 		out.Times = append(out.Times, x.Time)
 		out.Areas = append(out.Areas, x.StimulatedArea)

@@ -90,7 +90,7 @@ func parseEvent(rec []string, stages map[string]int) (Event, error) {
 		return Event{}, fmt.Errorf("fracture_id %q: want a whole number ≥ 0", rec[4])
 	}
 	return Event{Time: v[0], X: v[1], Y: v[2], Depth: v[3], Fracture: int(v[4]), Trace: -1, Stage: stage,
-		Slip: v[5], Area: v[6], Moment: v[7], Magnitude: v[8]}, nil
+		Slip: v[5] * 1e-3, Area: v[6], Moment: v[7], Magnitude: v[8]}, nil
 }
 
 // ReadTimeline reads a timeline.csv written by WriteTimeline for scenario
@@ -147,7 +147,7 @@ func parseSample(rec []string, stages map[string]int) (Sample, error) {
 
 // ReadSummary reads the per-stage summaries and the warnings from a
 // summary.json written by WriteSummary.
-func ReadSummary(r io.Reader, name string) (stages []StageSummary, warnings []string, err error) {
+func ReadSummary(r io.Reader, name string) (stages []StageSummary, warnings []Warning, err error) {
 	var sj summaryJSON
 	if err := json.NewDecoder(r).Decode(&sj); err != nil {
 		return nil, nil, fmt.Errorf("%s: %w", name, err)
@@ -162,5 +162,8 @@ func ReadSummary(r io.Reader, name string) (stages []StageSummary, warnings []st
 			Injected: st.InjectedM3, PeakBHP: st.PeakBHPMPa * 1e6, NewArea: st.NewAreaM2, Events: st.Events,
 			MaxMagnitude: mw, Capped: st.Capped, Steps: st.Steps}
 	}
-	return out, sj.Warnings, nil
+	for _, w := range sj.Warnings {
+		warnings = append(warnings, Warning{Kind: w.Kind, Stage: w.Stage, Message: w.Message})
+	}
+	return out, warnings, nil
 }

@@ -1,6 +1,7 @@
 package sim
 
 import (
+	"encoding/json"
 	"errors"
 	"fmt"
 	"io"
@@ -79,6 +80,15 @@ func (r *Recorder) Begin(elements []Element) error {
 		sets.Values[i] = int32(el.Set)
 	}
 	h.Static = []snapshot.StaticField{sets}
+	var names []string
+	for _, ps := range s.PumpingOrder() {
+		names = append(names, ps.Name)
+	}
+	stages, err := json.Marshal(names)
+	if err != nil {
+		return err
+	}
+	h.Metadata[snapshot.MetaStageNames] = string(stages)
 	sw, err := snapshot.NewWriter(r.w, h)
 	if err != nil {
 		return err

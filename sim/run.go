@@ -87,7 +87,7 @@ type Result struct {
 	FrameTimes []float64
 	Events     []Event
 	Stages     []StageSummary
-	Warnings   []string
+	Warnings   []Warning
 	// Totals: Injected, Leaked, m³; MassBalanceError: the sum over the steps
 	// of |injected − leaked − stored| relative to the fluid moved (the sum
 	// of the larger of |injected| and |stored| per step).
@@ -134,7 +134,7 @@ type runner struct {
 	output  float64 // next output time, s
 	res     Result
 	stage   int
-	shminAt bool // warned about BHP > Shmin
+	shminAt bool // warned about BHP > Shmin in the current stage
 	// The last accepted step's rate (m³/s) and bottom-hole pressure (Pa).
 	lastRate, lastBHP float64
 	lastFrame         float64 // time of the last frame, s
@@ -216,6 +216,7 @@ func (r *runner) runStage(ctx context.Context, k int, ps scenarios.PlannedStage)
 	r.cur.BHP = r.wellPressure(k)
 	r.cur.Capped = false
 	r.stage = k
+	r.shminAt = false
 	sum := StageSummary{Name: ps.Name, Start: r.t, MaxMagnitude: math.NaN()}
 	area0, events0 := r.stim.area(), len(r.res.Events)
 	ctl := flow.Control{Mode: flow.RateControl, Rate: ps.Rate, Cap: ps.PressureCap}
@@ -236,9 +237,9 @@ func (r *runner) runStage(ctx context.Context, k int, ps scenarios.PlannedStage)
 		if ctl.Mode == flow.PressureControl {
 			why = "the injection pressure could not drive the planned rate"
 		}
-		r.res.Warnings = append(r.res.Warnings, fmt.Sprintf(
+		r.res.Warnings = append(r.res.Warnings, Warning{Kind: WarnVolumeNotReached, Stage: ps.Name, Message: fmt.Sprintf(
 			"stage %s: pumped %.1f of %.1f m³ in %.0f s (%d times its nominal length) before it was ended; %s",
-			ps.Name, pump.injected, ps.Volume, r.t-sum.Start, maxStretch, why))
+			ps.Name, pump.injected, ps.Volume, r.t-sum.Start, maxStretch, why)})
 	}
 	sum.PumpEnd = r.t
 	if err := r.record(false); err != nil {
@@ -404,15 +405,16 @@ func (r *runner) step(sys *flow.System, p *phase, sum *StageSummary, end float64
 	return nil
 }
 
-// warnTensile records, once, that the bottom-hole pressure exceeded Shmin.
+// warnTensile records, once per stage, that the bottom-hole pressure
+// exceeded Shmin.
 func (r *runner) warnTensile(stage string, bhp float64) {
 	if r.shminAt || bhp <= r.m.shmin {
 		return
 	}
 	r.shminAt = true
-	r.res.Warnings = append(r.res.Warnings, fmt.Sprintf(
+	r.res.Warnings = append(r.res.Warnings, Warning{Kind: WarnBHPAboveShmin, Stage: stage, Message: fmt.Sprintf(
 		"stage %s: bottom-hole pressure %.2f MPa exceeded Shmin %.2f MPa at t = %.0f s: the run entered the tensile-fracturing regime, which this model treats only approximately (existing fractures open; no new fractures grow)",
-		stage, bhp/1e6, r.m.shmin/1e6, r.t))
+		stage, bhp/1e6, r.m.shmin/1e6, r.t)})
 }
 
 // record appends a timeline row at the current time (replacing a row at

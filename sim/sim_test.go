@@ -159,6 +159,46 @@ func TestDemoInvariants(t *testing.T) {
 	checkGainOnlyWhereSlipped(t, s, res)
 }
 
+// Every stage whose bottom-hole pressure exceeded Shmin is named by one
+// warning of kind WarnBHPAboveShmin, and no other stage is: a user must
+// see every stage that entered the tensile regime, not only the first.
+func TestShminWarningPerStage(t *testing.T) {
+	s, res := runSmallDemo(t)
+	stress, err := mechanics.StressFromScenario(s.Stress, s.Layer.Depth)
+	if err != nil {
+		t.Fatal(err)
+	}
+	shmin := math.NaN()
+	for _, p := range stress.Principal() {
+		if p.Name == "Shmin" {
+			shmin = p.Value
+		}
+	}
+	warned := map[string]int{}
+	for _, w := range res.Warnings {
+		if w.Kind == WarnBHPAboveShmin {
+			warned[w.Stage]++
+			if !strings.Contains(w.Message, "stage "+w.Stage+":") || w.String() != w.Message {
+				t.Errorf("warning %+v does not name its stage in its message", w)
+			}
+		}
+	}
+	crossed := 0
+	for _, st := range res.Stages {
+		want := 0
+		if st.PeakBHP > shmin {
+			want = 1
+			crossed++
+		}
+		if warned[st.Name] != want {
+			t.Errorf("stage %s: peak BHP %.4g MPa, Shmin %.4g MPa: %d warnings, want %d", st.Name, st.PeakBHP/1e6, shmin/1e6, warned[st.Name], want)
+		}
+	}
+	if crossed < 2 {
+		t.Fatalf("only %d stages crossed Shmin: the test needs several", crossed)
+	}
+}
+
 // checkGainOnlyWhereSlipped: an element that never slipped has exactly the
 // aperture the closure law gives at its final pressure (no lasting gain);
 // with dilation, a slipped one has more.
@@ -318,7 +358,7 @@ func FuzzReadEvents(f *testing.F) {
 	if err != nil {
 		f.Fatal(err)
 	}
-	f.Add([]byte(EventsHeader + "\n12.5,1,2,2600,3,W1:1,1e-4,100,1.5e9,0.05\n"))
+	f.Add([]byte(EventsHeader + "\n12.5,1,2,2600,3,W1:1,0.1,100,1.5e9,0.05\n"))
 	f.Fuzz(func(t *testing.T, data []byte) {
 		events, err := ReadEvents(bytes.NewReader(data), "fuzz.csv", s)
 		if err != nil {

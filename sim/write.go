@@ -1,7 +1,6 @@
 package sim
 
 import (
-	"encoding/csv"
 	"encoding/json"
 	"fmt"
 	"io"
@@ -9,9 +8,9 @@ import (
 	"strconv"
 	"strings"
 
-	"slipfront/internal/caution"
-
 	"slipfront/dfn"
+	"slipfront/internal/caution"
+	"slipfront/internal/csvw"
 	"slipfront/internal/version"
 	"slipfront/mechanics"
 	"slipfront/scenarios"
@@ -40,14 +39,10 @@ func sci(v float64, prec int) string {
 	return strconv.FormatFloat(v, 'e', prec, 64)
 }
 
-// TimelineHeader is the header of timeline.csv.
-const TimelineHeader = "time_s,stage,rate_m3_s,injected_m3,bhp_MPa,stimulated_area_m2,stimulated_fracture_area_m2,stimulated_volume_m3,slipped_elements,events,max_pressure_MPa"
-
-// WriteTimeline writes timeline.csv: one row per output time and stage
-// boundary.
+// WriteTimeline writes timeline.csv (TimelineTable): one row per output
+// time and stage boundary.
 func WriteTimeline(w io.Writer, s *scenarios.Scenario, res *Result) error {
-	cw := csv.NewWriter(w)
-	cw.Write(strings.Split(TimelineHeader, ","))
+	cw := csvw.NewWriter(w, &TimelineTable)
 	order := s.PumpingOrder()
 	for _, x := range res.Timeline {
 		cw.Write([]string{
@@ -56,26 +51,21 @@ func WriteTimeline(w io.Writer, s *scenarios.Scenario, res *Result) error {
 			strconv.Itoa(x.SlippedElements), strconv.Itoa(x.Events), num(x.MaxPressure/1e6, 6),
 		})
 	}
-	cw.Flush()
-	return cw.Error()
+	return cw.Flush()
 }
 
-// EventsHeader is the header of events.csv.
-const EventsHeader = "time_s,x_m,y_m,depth_m,fracture_id,stage,slip_m,area_m2,moment_Nm,magnitude_Mw"
-
-// WriteEvents writes events.csv: the synthetic microseismic catalogue.
+// WriteEvents writes events.csv (EventsTable): the synthetic microseismic
+// catalogue, slip in mm.
 func WriteEvents(w io.Writer, s *scenarios.Scenario, res *Result) error {
-	cw := csv.NewWriter(w)
-	cw.Write(strings.Split(EventsHeader, ","))
+	cw := csvw.NewWriter(w, &EventsTable)
 	order := s.PumpingOrder()
 	for _, e := range res.Events {
 		cw.Write([]string{
 			num(e.Time, 3), num(e.X, 3), num(e.Y, 3), num(e.Depth, 3), strconv.Itoa(e.Fracture),
-			scenarios.StageNameAt(order, e.Stage), sci(e.Slip, 6), num(e.Area, 3), sci(e.Moment, 6), num(e.Magnitude, 4),
+			scenarios.StageNameAt(order, e.Stage), sci(e.Slip*1e3, 6), num(e.Area, 3), sci(e.Moment, 6), num(e.Magnitude, 4),
 		})
 	}
-	cw.Flush()
-	return cw.Error()
+	return cw.Flush()
 }
 
 // FractureResult is the final state of one fracture that crosses the
@@ -147,14 +137,10 @@ func Fractures(net *dfn.Network, res *Result) []FractureResult {
 	return out
 }
 
-// FracturesHeader is the header of fractures.csv.
-const FracturesHeader = "fracture_id,set,set_name,dip_deg,dip_direction_deg,trace_length_m,height_m,elements,max_slip_mm,mean_slip_mm,initial_aperture_mm,mean_aperture_mm,permeability_gain,max_permeability_gain,first_slip_time_s,first_slip_stage,stimulated_length_m"
-
-// WriteFractures writes fractures.csv: one row per fracture crossing the
-// layer.
+// WriteFractures writes fractures.csv (FracturesTable): one row per
+// fracture crossing the layer.
 func WriteFractures(w io.Writer, s *scenarios.Scenario, net *dfn.Network, res *Result) error {
-	cw := csv.NewWriter(w)
-	cw.Write(strings.Split(FracturesHeader, ","))
+	cw := csvw.NewWriter(w, &FracturesTable)
 	order := s.PumpingOrder()
 	for _, f := range Fractures(net, res) {
 		cw.Write([]string{
@@ -165,31 +151,30 @@ func WriteFractures(w io.Writer, s *scenarios.Scenario, net *dfn.Network, res *R
 			num(f.FirstSlip, 3), scenarios.StageNameAt(order, f.FirstSlipStage), num(f.StimulatedLength, 3),
 		})
 	}
-	cw.Flush()
-	return cw.Error()
+	return cw.Flush()
 }
 
 // summaryJSON is the layout of summary.json.
 type summaryJSON struct {
-	Program     string       `json:"program"`
-	Caution     string       `json:"caution"`
-	Scenario    string       `json:"scenario"`
-	Digest      string       `json:"scenario_digest"`
-	Seed        uint64       `json:"seed"`
-	Realization int          `json:"realization"`
-	NetworkHash string       `json:"network_digest"`
-	Start       string       `json:"schedule_start_utc"`
-	Totals      totalsJSON   `json:"totals"`
-	Stages      []stageJSON  `json:"stages"`
-	Warnings    []string     `json:"warnings"`
-	Numerics    numericsJSON `json:"numerics"`
-	Failure     *string      `json:"failure,omitempty"`
+	Program     string        `json:"program"`
+	Caution     string        `json:"caution"`
+	Scenario    string        `json:"scenario"`
+	Digest      string        `json:"scenario_digest"`
+	Seed        uint64        `json:"seed"`
+	Realization int           `json:"realization"`
+	NetworkHash string        `json:"network_digest"`
+	Start       string        `json:"schedule_start_utc"`
+	Totals      totalsJSON    `json:"totals"`
+	Stages      []stageJSON   `json:"stages"`
+	Warnings    []warningJSON `json:"warnings"`
+	Numerics    numericsJSON  `json:"numerics"`
+	Failure     *string       `json:"failure,omitempty"`
 }
 
 type totalsJSON struct {
 	DurationS          float64  `json:"duration_s"`
-	InjectedM3         float64  `json:"injected_m3"`
-	LeakedM3           float64  `json:"leaked_m3"`
+	InjectedM3         float64  `json:"injected_volume_m3"`
+	LeakedM3           float64  `json:"leaked_volume_m3"`
 	StimulatedAreaM2   float64  `json:"stimulated_area_m2"`
 	FractureAreaM2     float64  `json:"stimulated_fracture_area_m2"`
 	StimulatedVolumeM3 float64  `json:"stimulated_volume_m3"`
@@ -204,13 +189,20 @@ type stageJSON struct {
 	StartS       float64  `json:"start_s"`
 	PumpEndS     float64  `json:"pump_end_s"`
 	EndS         float64  `json:"end_s"`
-	InjectedM3   float64  `json:"injected_m3"`
+	InjectedM3   float64  `json:"injected_volume_m3"`
 	PeakBHPMPa   float64  `json:"peak_bhp_MPa"`
 	NewAreaM2    float64  `json:"new_stimulated_area_m2"`
 	Events       int      `json:"events"`
 	MaxMagnitude *float64 `json:"max_magnitude_Mw"`
 	Capped       bool     `json:"pressure_cap_reached"`
 	Steps        int      `json:"time_steps"`
+}
+
+// warningJSON is one Warning in summary.json.
+type warningJSON struct {
+	Kind    string `json:"kind"`
+	Stage   string `json:"stage"`
+	Message string `json:"message"`
 }
 
 type numericsJSON struct {
@@ -242,9 +234,12 @@ func WriteSummary(w io.Writer, s *scenarios.Scenario, net *dfn.Network, res *Res
 			Events: len(res.Events), MaxMagnitude: optional(maxMw), PeakBHPMPa: res.PeakBHP / 1e6,
 			MassBalanceError: res.MassBalanceError,
 		},
-		Warnings: append([]string{}, res.Warnings...),
+		Warnings: []warningJSON{},
 		Numerics: numericsJSON{Elements: len(res.Elements), Conduits: len(res.Conduits), Solver: res.Solver,
 			FactorEntries: res.FactorEntries, Steps: res.Steps, CutSteps: res.CutSteps},
+	}
+	for _, w := range res.Warnings {
+		sj.Warnings = append(sj.Warnings, warningJSON{Kind: w.Kind, Stage: w.Stage, Message: w.Message})
 	}
 	for _, st := range res.Stages {
 		sj.Stages = append(sj.Stages, stageJSON{

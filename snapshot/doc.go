@@ -144,7 +144,8 @@
 // Coordinates and lengths in metres in the local East-North frame of the
 // scenario origin; depth in metres, positive down; time in seconds since the
 // start of the schedule. Each field carries its unit as a string ("Pa", "m");
-// [WriteFrameCSV] converts pressure to MPa and lengths to mm.
+// [WriteFrameCSV] and [DescribeFrame] convert pressure to MPa and aperture
+// and slip to mm.
 //
 // # Conventions
 //
@@ -152,7 +153,9 @@
 // stage index and the fracture identifiers are the writer's own; by
 // convention a stage index of -1 means "no stage" (before the first stage
 // or during a shut-in). Metadata is free-form: for example the program
-// version and the schedule start time.
+// version and the schedule start time. One key is read by the inspection:
+// [MetaStageNames], the stage names as a JSON array in stage-index order,
+// so that frames are listed by stage name.
 //
 // # Inspection
 //

@@ -2,6 +2,7 @@ package snapshot
 
 import (
 	"bufio"
+	"encoding/json"
 	"fmt"
 	"io"
 	"math"
@@ -29,7 +30,7 @@ func Describe(w io.Writer, r *Reader) error {
 	line("origin", "easting %s m, northing %s m", fmtFloat(h.OriginEasting), fmtFloat(h.OriginNorthing))
 	line("layer depth", "%s m", fmtFloat(h.LayerDepth))
 	line("elements", "%d on %d fractures", len(h.Elements), countFractures(h.Elements))
-	line("frame fields", "%s", describeFields(h.Fields))
+	line("frame fields", "%s (as recorded; frame listings and CSV show MPa and mm)", describeFields(h.Fields))
 	static := make([]Field, len(h.Static))
 	for i, s := range h.Static {
 		static[i] = s.Field
@@ -51,7 +52,7 @@ func Describe(w io.Writer, r *Reader) error {
 	if err := tw.Flush(); err != nil {
 		return err
 	}
-	if err := describeFrames(w, r, frames); err != nil {
+	if err := describeFrames(w, r, frames, stageNames(&h)); err != nil {
 		return err
 	}
 	stored, raw := int64(0), int64(0)
@@ -68,8 +69,9 @@ func Describe(w io.Writer, r *Reader) error {
 	return nil
 }
 
-// describeFrames lists the frames, each checked against its checksum.
-func describeFrames(w io.Writer, r *Reader, frames []FrameInfo) error {
+// describeFrames lists the frames, each checked against its checksum,
+// with their stages by name when names has them.
+func describeFrames(w io.Writer, r *Reader, frames []FrameInfo, names []string) error {
 	if len(frames) == 0 {
 		return nil
 	}
@@ -80,9 +82,31 @@ func describeFrames(w io.Writer, r *Reader, frames []FrameInfo) error {
 		if err := r.CheckFrame(i); err != nil {
 			check = "DAMAGED"
 		}
-		fmt.Fprintf(tw, "%d\t%s\t%d\t%d\t%s\t\n", i, fmtFloat(f.Time), f.Stage, f.Size, check)
+		fmt.Fprintf(tw, "%d\t%s\t%s\t%d\t%s\t\n", i, fmtFloat(f.Time), stageLabel(int(f.Stage), names), f.Size, check)
 	}
 	return tw.Flush()
+}
+
+// stageNames returns the stage names of the header's MetaStageNames
+// metadata, or nil when it is absent or not a JSON array of strings.
+func stageNames(h *Header) []string {
+	var names []string
+	if v, ok := h.Metadata[MetaStageNames]; !ok || json.Unmarshal([]byte(v), &names) != nil {
+		return nil
+	}
+	return names
+}
+
+// stageLabel is stage k's name when names has it, "-" for no stage (k <
+// 0), and the index otherwise.
+func stageLabel(k int, names []string) string {
+	switch {
+	case k < 0:
+		return "-"
+	case k < len(names):
+		return names[k]
+	}
+	return strconv.Itoa(k)
 }
 
 // shorten quotes a metadata value, cut after maxShown bytes.
@@ -132,6 +156,11 @@ func countFractures(elements []Element) int {
 	}
 	return len(seen)
 }
+
+// MetaStageNames is the metadata key under which a writer may record the
+// stage names, in stage-index order, as a JSON array of strings; the
+// inspection then shows stages by name.
+const MetaStageNames = "stage_names"
 
 // CSVHeader is the first line written by WriteFrameCSV.
 const CSVHeader = "element_id,fracture_id,x0_m,y0_m,x1_m,y1_m,pressure_MPa,aperture_mm,slip_mm,state"
@@ -240,12 +269,13 @@ func DescribeFrame(w io.Writer, r *Reader, t float64) error {
 		return err
 	}
 	h := r.Header()
-	fmt.Fprintf(w, "frame %d of %d: time %s s, stage %d\n", i, len(r.Frames()), fmtFloat(f.Time), f.Stage)
+	fmt.Fprintf(w, "frame %d of %d: time %s s, stage %s\n", i, len(r.Frames()), fmtFloat(f.Time), stageLabel(int(f.Stage), stageNames(&h)))
 	tw := tabwriter.NewWriter(w, 0, 0, 2, ' ', 0)
 	fmt.Fprintln(tw, "field\tunit\tmin\tmax\tmean\tnon-finite")
 	for k, fd := range h.Fields {
-		s := summarize(f.Fields[k])
-		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%s\t%d\n", fd.Name, orNone(fd.Unit), s.min, s.max, s.mean, s.nonFinite)
+		unit, scale := shownUnit(fd)
+		s := summarize(f.Fields[k], scale)
+		fmt.Fprintf(tw, "%s\t%s\t%s\t%s\t%s\t%d\n", fd.Name, orNone(unit), s.min, s.max, s.mean, s.nonFinite)
 	}
 	if err := tw.Flush(); err != nil {
 		return err
@@ -272,7 +302,24 @@ type fieldSummary struct {
 	nonFinite      int
 }
 
-func summarize(v []float32) fieldSummary {
+// shownUnit is the unit a field is shown in, the one of the CSV (MPa for
+// the pressure, mm for aperture and slip, when recorded in a unit the CSV
+// converts), else the recorded unit; scale converts to it.
+func shownUnit(fd Field) (unit string, scale float64) {
+	for _, c := range [...]struct {
+		name, unit string
+		from       map[string]float64
+	}{{FieldPressure, "MPa", toMPa}, {FieldAperture, "mm", toMM}, {FieldSlip, "mm", toMM}} {
+		if s, ok := c.from[fd.Unit]; ok && fd.Name == c.name {
+			return c.unit, s
+		}
+	}
+	return fd.Unit, 1
+}
+
+// summarize returns the statistics of v·scale over its finite values;
+// scale is a power of ten.
+func summarize(v []float32, scale float64) fieldSummary {
 	lo, hi, sum, n := math.Inf(1), math.Inf(-1), 0.0, 0
 	for _, x := range v {
 		y := float64(x)
@@ -283,9 +330,9 @@ func summarize(v []float32) fieldSummary {
 	}
 	s := fieldSummary{min: "-", max: "-", mean: "-", nonFinite: len(v) - n}
 	if n > 0 {
-		s.min = string(appendFloat32Scaled(nil, float32(lo), 1))
-		s.max = string(appendFloat32Scaled(nil, float32(hi), 1))
-		s.mean = strconv.FormatFloat(sum/float64(n), 'g', 6, 64)
+		s.min = string(appendFloat32Scaled(nil, float32(lo), scale))
+		s.max = string(appendFloat32Scaled(nil, float32(hi), scale))
+		s.mean = strconv.FormatFloat(sum/float64(n)*scale, 'g', 6, 64)
 	}
 	return s
 }

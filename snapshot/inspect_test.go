@@ -172,8 +172,10 @@ func TestAppendFloat32Scaled(t *testing.T) {
 	}
 }
 
+// DescribeFrame shows the fields in the units of the CSV (MPa, mm; exact
+// SI prefixes, BIPM 2019, Table 7) and the stage by name when the header
+// records the names, by index otherwise.
 func TestDescribeFrame(t *testing.T) {
-	h := csvHeader("Pa", "m")
 	f := Frame{
 		Time:  600,
 		Stage: 2,
@@ -184,20 +186,31 @@ func TestDescribeFrame(t *testing.T) {
 		},
 		Flags: []byte{FlagSlipped, FlagSlipping | FlagSlipped | FlagStimulated},
 	}
-	var out bytes.Buffer
-	if err := DescribeFrame(&out, open(t, encode(t, h, []Frame{f}, true)), 600); err != nil {
-		t.Fatal(err)
-	}
-	text := squeeze(out.String())
-	for _, want := range []string{
-		"frame 0 of 1: time 600 s, stage 2",
-		"slip m 0 0.0025 0.00125 0",
-		"pressure Pa 26000000 26000000 2.6e+07 1",
-		"aperture m 0.00015 0.00015 0.00015 1",
-		"elements flagged: slipping 1, slipped 2, open 0, stimulated 1 (of 2)",
+	named := csvHeader("Pa", "m")
+	named.Metadata = map[string]string{MetaStageNames: `["W1:1","W2:1","W1:2"]`}
+	for _, tc := range []struct {
+		name  string
+		h     Header
+		stage string
+	}{
+		{"no stage names", csvHeader("Pa", "m"), "stage 2"},
+		{"stage names", named, "stage W1:2"},
 	} {
-		if !strings.Contains(text, want) {
-			t.Errorf("DescribeFrame output lacks %q:\n%s", want, text)
+		var out bytes.Buffer
+		if err := DescribeFrame(&out, open(t, encode(t, tc.h, []Frame{f}, true)), 600); err != nil {
+			t.Fatal(err)
+		}
+		text := squeeze(out.String())
+		for _, want := range []string{
+			"frame 0 of 1: time 600 s, " + tc.stage + "\n",
+			"slip mm 0 2.5 1.25 0",
+			"pressure MPa 26 26 26 1",
+			"aperture mm 0.15 0.15 0.15 1",
+			"elements flagged: slipping 1, slipped 2, open 0, stimulated 1 (of 2)",
+		} {
+			if !strings.Contains(text, want) {
+				t.Errorf("%s: DescribeFrame output lacks %q:\n%s", tc.name, want, text)
+			}
 		}
 	}
 }

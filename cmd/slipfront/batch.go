@@ -8,6 +8,8 @@ import (
 	"os"
 	"runtime"
 	"slices"
+	"strings"
+	"text/tabwriter"
 
 	"github.com/spf13/cobra"
 	"golang.org/x/term"
@@ -24,6 +26,7 @@ type batchOptions struct {
 	out          string
 	realizations int
 	sweeps       []string
+	references   []string
 	workers      int
 	shard        string
 	resume       bool
@@ -37,10 +40,12 @@ func newBatchCmd(g *globalOptions, stdout, stderr io.Writer) *cobra.Command {
 		Short: "Run Monte Carlo realizations of the network for every sweep case, on all cores",
 		Long: "batch runs realizations 0…N−1 of the fracture network for every combination of the sweep\n" +
 			"values. Realization r has the same network in every case (common random numbers), so\n" +
-			"differences between cases come from the swept values alone. Each finished realization is a\n" +
-			"file of its own: --resume continues an interrupted batch, --shard i/n runs a share of the\n" +
-			"realizations (e.g. one Slurm array task) for \"slipfront merge\".\n\n" + caution,
+			"differences between cases come from the swept values alone: paired.csv compares every case\n" +
+			"with its reference case (the sweep's first value, or --reference) realization by realization.\n" +
+			"Each finished realization is a file of its own: --resume continues an interrupted batch,\n" +
+			"--shard i/n runs a share of the realizations (e.g. one Slurm array task) for \"slipfront merge\".\n\n" + caution,
 		Example: "  slipfront batch demo --realizations 20 --sweep fluids.slickwater.viscosity=1cP,5cP,20cP --out visc\n" +
+			"  slipfront batch demo --realizations 20 --sweep fluids.slickwater.viscosity=1cP,5cP,20cP --reference 5cP --out visc\n" +
 			"  slipfront batch demo --realizations 200 --shard $SLURM_ARRAY_TASK_ID/$SLURM_ARRAY_TASK_COUNT --resume --out shard-$SLURM_ARRAY_TASK_ID",
 		Args: cobra.ExactArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
@@ -53,6 +58,7 @@ func newBatchCmd(g *globalOptions, stdout, stderr io.Writer) *cobra.Command {
 	f.StringVarP(&o.out, "out", "o", "", "batch folder (required)")
 	f.IntVarP(&o.realizations, "realizations", "n", 0, "realizations per case, ≥ 1 (required)")
 	f.StringArrayVar(&o.sweeps, "sweep", nil, "sweep a scenario value: key=v1,v2,... with units (repeatable; several sweeps form their product)")
+	f.StringArrayVar(&o.references, "reference", nil, "value each case is compared with in paired.csv: VALUE of one sweep, or KEY=VALUE (repeatable, one per sweep; default each sweep's first value)")
 	f.IntVar(&o.workers, "workers", 0, "realizations run at once (default: the number of cores)")
 	f.StringVar(&o.shard, "shard", "", "run only shard i of n: the realizations r with r mod n = i")
 	f.BoolVar(&o.resume, "resume", false, "continue the batch in --out, keeping the realizations already done")
@@ -96,6 +102,11 @@ func runBatch(ctx context.Context, o *batchOptions, g *globalOptions, stdout, st
 		}
 		opt.Sweeps = append(opt.Sweeps, sw)
 	}
+	for _, ref := range o.references {
+		if err := batch.SetReference(opt.Sweeps, ref); err != nil {
+			return badInput(err)
+		}
+	}
 	if o.shard != "" {
 		if opt.Shard, err = batch.ParseShard(o.shard); err != nil {
 			return badInput(err)
@@ -121,7 +132,8 @@ func runBatch(ctx context.Context, o *batchOptions, g *globalOptions, stdout, st
 }
 
 // finishBatch writes the maps and charts of a complete batch folder and
-// prints the comparison of its cases.
+// prints the comparison of its cases, the paired comparison with the
+// reference cases and the warnings.
 func finishBatch(ctx context.Context, dir string, stdout io.Writer) error {
 	if err := pipeline.WriteBatchMaps(ctx, dir); err != nil {
 		return err
@@ -130,19 +142,38 @@ func finishBatch(ctx context.Context, dir string, stdout io.Writer) error {
 	if err != nil {
 		return err
 	}
-	fmt.Fprintf(stdout, "%s (%s)\n", pipeline.Convention(m.Realizations), "areas in m2")
-	fmt.Fprintf(stdout, "%-40s %12s %12s %12s %8s %8s\n", "case", "P10 area", "P50 area", "P90 area", "events", "max Mw")
+	tw := tabwriter.NewWriter(stdout, 0, 0, 2, ' ', 0)
+	fmt.Fprintf(tw, "case\tq10 area m2\tq50 area m2\tq90 area m2\tmean events\tmax Mw\twarnings\n")
 	for i := range aggs {
 		a := &aggs[i]
 		mw := "-"
 		if !math.IsNaN(a.MaxMagnitude) {
 			mw = fmt.Sprintf("%.2f", a.MaxMagnitude)
 		}
-		label := a.Case.Label
-		if label == "" {
-			label = "(no sweep)"
+		warnings, _ := a.WarningTotals()
+		fmt.Fprintf(tw, "%s\t%.0f\t%.0f\t%.0f\t%.1f\t%s\t%d\n", a.Case.Label, a.Final.P10, a.Final.P50, a.Final.P90, a.Events.Mean, mw, warnings)
+	}
+	if err := tw.Flush(); err != nil {
+		return err
+	}
+	fmt.Fprintf(stdout, "q10/q50/q90: %d realizations, ascending; q90 is the high case (%s)\n", m.Realizations, batch.ComparisonName)
+	if paired := batch.Paired(m, aggs); len(paired) > 0 {
+		fmt.Fprintf(stdout, "\npaired with the reference case on the same networks: ratios case/reference (ΔMw: case − reference),\n"+
+			"q50 [q10–q90] over the realizations (%s, %s):\n", batch.PairedName, batch.PairedPercentilesName)
+		tw := tabwriter.NewWriter(stdout, 0, 0, 2, ' ', 0)
+		fmt.Fprintln(tw, strings.Join(pipeline.PairedHeader, "\t"))
+		for _, ps := range paired {
+			fmt.Fprintln(tw, strings.Join(pipeline.PairedRow(m, ps), "\t"))
 		}
-		fmt.Fprintf(stdout, "%-40s %12.0f %12.0f %12.0f %8.1f %8s\n", label, a.Final.P10, a.Final.P50, a.Final.P90, a.Events.Mean, mw)
+		if err := tw.Flush(); err != nil {
+			return err
+		}
+	}
+	if lines := pipeline.WarningLines(batch.TotalWarnings(aggs)); len(lines) > 0 {
+		fmt.Fprintf(stdout, "\nwarnings (%s, %s):\n", batch.WarningsName, batch.SummaryName)
+		for _, l := range lines {
+			fmt.Fprintln(stdout, "warning:", l)
+		}
 	}
 	fmt.Fprintln(stdout, caution)
 	return nil

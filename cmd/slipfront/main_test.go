@@ -182,7 +182,7 @@ func TestRunOutputs(t *testing.T) {
 		}
 	}
 	timeline, _ := os.ReadFile(filepath.Join(dir, "timeline.csv"))
-	if !strings.HasPrefix(string(timeline), "time_s,stage,rate_m3_s,injected_m3,bhp_MPa,stimulated_area_m2,") {
+	if !strings.HasPrefix(string(timeline), "time_s,stage,rate_m3_s,injected_volume_m3,bhp_MPa,stimulated_area_m2,") {
 		t.Errorf("timeline header %.100q", timeline)
 	}
 	code, out, _ := runCLI(t, "inspect", filepath.Join(dir, "run.snap"))
@@ -231,19 +231,18 @@ func TestBatchAndMerge(t *testing.T) {
 		t.Fatal(err)
 	}
 	defer f.Close()
-	r := csv.NewReader(f)
-	r.Comment = '#'
-	rows, err := r.ReadAll()
+	rows, err := csv.NewReader(f).ReadAll()
 	if err != nil || len(rows) != 3 {
 		t.Fatalf("comparison.csv: %v, %d rows", err, len(rows))
 	}
-	col := slices.Index(rows[0], "p50_final_area_m2")
+	col := slices.Index(rows[0], "stimulated_area_m2_q50")
 	thin, _ := strconv.ParseFloat(rows[1][col], 64)
 	thick, _ := strconv.ParseFloat(rows[2][col], 64)
 	if !(thin > thick) {
 		t.Errorf("P50 final area %g m² at 1 cP, %g m² at 20 cP: want less at 20 cP", thin, thick)
 	}
-	for _, name := range []string{"realizations.csv", "percentiles.csv", "comparison.csv", "probability/case-0001.csv"} {
+	for _, name := range []string{"realizations.csv", "percentiles.csv", "comparison.csv", "warnings.csv", "paired.csv",
+		"paired-percentiles.csv", "summary.json", "csv-metadata.json", "probability/case-0001.csv"} {
 		a, _ := os.ReadFile(filepath.Join(dir, "one", name))
 		b, _ := os.ReadFile(filepath.Join(dir, "merged", name))
 		if len(a) == 0 || !bytes.Equal(a, b) {

@@ -1,0 +1,113 @@
+package main
+
+import (
+	"encoding/csv"
+	"os"
+	"path/filepath"
+	"regexp"
+	"slices"
+	"strconv"
+	"strings"
+	"testing"
+)
+
+// readTable reads a CSV file of a batch folder: its header and rows.
+func readTable(t *testing.T, path string) ([]string, [][]string) {
+	t.Helper()
+	f, err := os.Open(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	rows, err := csv.NewReader(f).ReadAll()
+	if err != nil || len(rows) < 2 {
+		t.Fatalf("%s: %v, %d rows", path, err, len(rows))
+	}
+	return rows[0], rows[1:]
+}
+
+// intColumn returns the whole numbers of a column.
+func intColumn(t *testing.T, head []string, rows [][]string, name string) []int {
+	t.Helper()
+	k := slices.Index(head, name)
+	if k < 0 {
+		t.Fatalf("no column %s in %v", name, head)
+	}
+	var out []int
+	for _, r := range rows {
+		v, err := strconv.Atoi(r[k])
+		if err != nil {
+			t.Fatal(err)
+		}
+		out = append(out, v)
+	}
+	return out
+}
+
+// printedWarning matches the line batch prints per kind of warning.
+var printedWarning = regexp.MustCompile(`(?m)^warning: (\d+) × bhp_above_shmin in (\d+) realizations, e\.g\. stage W1:1: bottom-hole pressure .* exceeded Shmin`)
+
+// The demo crosses Shmin in every stage: a small batch of it counts the
+// warnings per realization and per case in its tables, the case's count
+// being the sum over its realizations, and prints them at the end with an
+// example message, so that no batch hides a warning its runs gave.
+func TestBatchWarnings(t *testing.T) {
+	if testing.Short() {
+		t.Skip("runs two realizations of the demo")
+	}
+	dir := filepath.Join(t.TempDir(), "b")
+	code, out, stderr := runCLI(t, "batch", "demo", "-n", "2", "--set", "schedule.volume=10 bbl", "--set", "schedule.shut_in=2 min",
+		"--set", "numerics.element_length=30 m", "--out", dir)
+	if code != exitOK {
+		t.Fatalf("batch: exit %d: %s", code, stderr)
+	}
+	rh, rrows := readTable(t, filepath.Join(dir, "realizations.csv"))
+	perRealization := intColumn(t, rh, rrows, "warnings")
+	sum := 0
+	for r, n := range perRealization {
+		if n < 1 {
+			t.Errorf("realization %d: %d warnings; every demo realization crosses Shmin", r, n)
+		}
+		sum += n
+	}
+	ch, crows := readTable(t, filepath.Join(dir, "comparison.csv"))
+	if got := intColumn(t, ch, crows, "warnings"); len(got) != 1 || got[0] != sum {
+		t.Errorf("comparison.csv warnings %v, want the sum over the realizations %d", got, sum)
+	}
+	wh, wrows := readTable(t, filepath.Join(dir, "warnings.csv"))
+	if got := intColumn(t, wh, wrows, "warnings"); len(got) != 1 || got[0] != sum || wrows[0][slices.Index(wh, "kind")] != "bhp_above_shmin" {
+		t.Errorf("warnings.csv %v: want one row of bhp_above_shmin with %d warnings", wrows, sum)
+	}
+	m := printedWarning.FindStringSubmatch(out)
+	if m == nil {
+		t.Fatalf("batch did not print the Shmin warnings with an example:\n%s", out)
+	}
+	if n, _ := strconv.Atoi(m[1]); n != sum || m[2] != "2" {
+		t.Errorf("printed %s warnings in %s realizations, the tables %d in 2", m[1], m[2], sum)
+	}
+}
+
+// --reference names the case the others are compared with, and batch
+// prints the paired comparison; a value no sweep has is bad input.
+func TestBatchReference(t *testing.T) {
+	dir := t.TempDir()
+	args := func(out string, extra ...string) []string {
+		return append([]string{"batch", "single-fracture", "-n", "2", "--set", "numerics.element_length=40 m",
+			"--sweep", "fluids.water.viscosity=1cP,20cP", "--out", filepath.Join(dir, out)}, extra...)
+	}
+	code, out, stderr := runCLI(t, args("ref", "--reference", "20cP")...)
+	if code != exitOK {
+		t.Fatalf("batch: exit %d: %s", code, stderr)
+	}
+	if !regexp.MustCompile(`(?m)^fluids\.water\.viscosity=1cP +fluids\.water\.viscosity=20cP +\d`).MatchString(out) {
+		t.Errorf("the paired table does not compare 1 cP with the reference 20 cP:\n%s", out)
+	}
+	h, rows := readTable(t, filepath.Join(dir, "ref", "paired.csv"))
+	if got := intColumn(t, h, rows, "reference_case"); !slices.Equal(got, []int{1, 1}) {
+		t.Errorf("paired.csv reference cases %v, want case 1 (20 cP) for both realizations", got)
+	}
+	code, _, stderr = runCLI(t, args("bad", "--reference", "7cP")...)
+	if code != exitBadInput || !strings.Contains(stderr, "--reference") {
+		t.Errorf("--reference 7cP: exit %d, %s", code, stderr)
+	}
+}

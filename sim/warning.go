@@ -1,0 +1,25 @@
+package sim
+
+// Kinds of Warning.
+const (
+	// WarnBHPAboveShmin: the bottom-hole pressure of a stage exceeded
+	// Shmin, so the run entered the tensile-fracturing regime, which the
+	// model treats only approximately. One warning per stage that does.
+	WarnBHPAboveShmin = "bhp_above_shmin"
+	// WarnVolumeNotReached: a stage pumped to a volume was ended before
+	// the volume was in, after a set multiple of its nominal length.
+	WarnVolumeNotReached = "volume_not_reached"
+)
+
+// Warning is a condition of a run that its result should be read with.
+type Warning struct {
+	// Kind is one of the Warn* constants.
+	Kind string
+	// Stage names the stage it happened in.
+	Stage string
+	// Message says what happened, with the numbers, for people.
+	Message string
+}
+
+// String returns the message.
+func (w Warning) String() string { return w.Message }
