@@ -1,0 +1,376 @@
+package mechanics
+
+import (
+	"errors"
+	"fmt"
+	"math"
+
+	"gonum.org/v1/gonum/spatial/r2"
+
+	"slipfront/elastic"
+)
+
+// ContactElement is one element of the friction-contact problem: a
+// vertical fracture patch in map view (see package elastic for its frame
+// and the sign of slip, opening and tractions) with its in-situ tractions
+// and friction.
+type ContactElement struct {
+	Element elastic.Element
+	// Group numbers the elements solved together: the elements of one
+	// trace or conduit, in order along it.
+	Group int
+	// Shear is the in-situ shear traction along the element, signed as
+	// elastic's Δτ (positive drives right-lateral slip), and Normal the
+	// in-situ total normal stress, compression-positive, Pa.
+	Shear, Normal float64
+	// Friction of the element's surfaces.
+	Friction SlipWeakening
+}
+
+// ContactSettings control the solution of the contact problem.
+type ContactSettings struct {
+	// NearRadius, m: within a time step, elements closer than this
+	// (centre to centre) load each other implicitly; farther ones through
+	// the tractions of the committed state, brought up to date by the full
+	// operator at every commit. It must be > 0.
+	NearRadius float64
+	// Tolerance is the change of slip and opening between iterations,
+	// relative to the largest increment of the step, that ends them
+	// (default 1e-6).
+	Tolerance float64
+	// MaxIterations of the block Gauss–Seidel sweeps (default 200).
+	MaxIterations int
+}
+
+// ErrContactNotConverged is returned (wrapped) when the contact iterations
+// do not converge; a shorter time step usually does.
+var ErrContactNotConverged = errors.New("mechanics: friction contact did not converge")
+
+// Contact is the quasi-static friction-contact problem of elastically
+// interacting fracture elements under given fluid pressures.
+//
+// Every element is either stuck, sliding on its friction law, or open:
+//
+//	stuck:   Δs = 0, w = 0, |τ| ≤ c + μ(D)·(σn − p), σn ≥ p
+//	sliding: τ = ±[c + μ(D)·(σn − p)] with the sign of Δs, w = 0, σn ≥ p
+//	open:    w ≥ 0, σn = p, τ = 0
+//
+// where τ and σn are the in-situ tractions plus those that every element's
+// slip s and opening w cause through the elastic operator (stress shadows),
+// D the accumulated slip magnitude and μ(D) linear slip weakening
+// (SlipWeakening; Ida 1972; Palmer & Rice 1973). Slip increments Δs are
+// counted from the committed state of the last time step, so friction is
+// rate-independent and the solution is quasi-static.
+//
+// # Method
+//
+// The elements that slip, are open, or would fail form the working set.
+// Within it, nonlinear block Gauss–Seidel sweeps over the groups (traces):
+// each group's elements are solved together by Newton's method with an
+// active set (stuck, sliding with its sign, open), with the dense block of
+// the group and the other groups' current increments as loads; after each
+// group the tractions of its neighbours are brought up to date. Elements
+// outside the set are checked against their strength after every round,
+// and join it when they fail. Interactions between elements farther apart
+// than NearRadius act through the committed tractions (the full operator
+// at every Commit): a within-step lag that vanishes as the step shrinks.
+//
+// # Instability
+//
+// While a sliding element weakens (D < Dc), its strength falls at the rate
+// W = (μs − μd)·σn′/Dc. The sliding patch is stable as long as its
+// elastic stiffness exceeds that rate: the matrix −K_ss − diag(W) of the
+// weakening sliding elements, symmetrized with the element areas (the
+// operator is reciprocal in that weighting), is positive definite. When it
+// is not, no quasi-static solution continues the slip: the patch ruptures
+// (Uenishi & Rice 2003: this happens at the nucleation length, whatever the
+// loading). The rupture is modelled by its static end state: the patch's
+// friction drops to μd, and every element of the group that fails while
+// the rupture runs joins it at μd, until the residual-friction solution
+// stops at elements below their peak strength. Dynamic overshoot and
+// healing are left out: a ruptured element keeps μd.
+type Contact struct {
+	op    elastic.Operator
+	elems []ContactElement
+	set   ContactSettings
+	// weight is each element's area L·h, m², the weighting that makes the
+	// operator reciprocal.
+	weight []float64
+	// self is each element's self-influence block; near[i] the elements
+	// within NearRadius of i and nearBlock[i][k] the influence of element i
+	// on near[i][k] (the receiver).
+	self      []elastic.Block
+	near      [][]int32
+	nearBlock [][]elastic.Block
+	groups    [][]int
+
+	// The committed state of the step and its tractions.
+	base *ContactState
+	// The trial of the step: increments, flags, tractions.
+	trial trial
+	// caches keeps each group's influence matrix and factorization.
+	caches map[int]*groupCache
+	// Work arrays of the product of a commit.
+	dsAll, dwAll, tsAll, tnAll []float64
+}
+
+// ContactState is the committed mechanical state of every element.
+type ContactState struct {
+	// Slip, m (signed as elastic's slip), Travel the accumulated slip
+	// magnitude D, m (the slip-weakening variable), Opening w, m.
+	Slip, Travel, Opening []float64
+	// Ruptured elements have lost their strength to μd in a rupture.
+	Ruptured []bool
+	// Shear and Normal are the tractions at this state: the in-situ ones
+	// plus those of all slip and opening, Pa.
+	Shear, Normal []float64
+}
+
+// NewContact builds the problem of the elements, whose operator op the
+// caller built from the same elements in the same order.
+func NewContact(op elastic.Operator, elems []ContactElement, s ContactSettings) (*Contact, error) {
+	n := len(elems)
+	if op.Len() != n {
+		panic("mechanics: contact operator and elements differ in length")
+	}
+	if !(s.NearRadius > 0) || math.IsInf(s.NearRadius, 0) {
+		return nil, &InputError{Name: "near radius", Value: s.NearRadius, Want: "must be finite and > 0"}
+	}
+	if s.Tolerance <= 0 {
+		s.Tolerance = 1e-6
+	}
+	if s.MaxIterations <= 0 {
+		s.MaxIterations = 200
+	}
+	c := &Contact{op: op, elems: elems, set: s, weight: make([]float64, n), self: make([]elastic.Block, n)}
+	maxGroup := -1
+	for i, e := range elems {
+		if err := e.Friction.Validate(); err != nil {
+			return nil, fmt.Errorf("element %d: %w", i, err)
+		}
+		if e.Group < 0 {
+			return nil, &InputError{Name: "group", Value: float64(e.Group), Want: "must be ≥ 0"}
+		}
+		maxGroup = max(maxGroup, e.Group)
+		c.weight[i] = e.Element.Length() * e.Element.Height
+		c.self[i] = op.At(i, i)
+	}
+	c.groups = make([][]int, maxGroup+1)
+	for i, e := range elems {
+		c.groups[e.Group] = append(c.groups[e.Group], i)
+	}
+	c.findNear()
+	c.trial = newTrial(n)
+	c.caches = map[int]*groupCache{}
+	c.dsAll, c.dwAll, c.tsAll, c.tnAll = make([]float64, n), make([]float64, n), make([]float64, n), make([]float64, n)
+	return c, nil
+}
+
+// findNear lists, for every element, the elements within NearRadius and
+// their influence, with a uniform grid of element centres.
+func (c *Contact) findNear() {
+	n := len(c.elems)
+	centres := make([]r2.Vec, n)
+	for i, e := range c.elems {
+		centres[i] = e.Element.Centre()
+	}
+	g := newCentreGrid(centres, c.set.NearRadius)
+	c.near = make([][]int32, n)
+	c.nearBlock = make([][]elastic.Block, n)
+	r2max := c.set.NearRadius * c.set.NearRadius
+	for j := range n { // source j
+		g.visit(centres[j], func(i int) {
+			if i == j {
+				return
+			}
+			d := r2.Sub(centres[i], centres[j])
+			if r2.Dot(d, d) <= r2max {
+				c.near[j] = append(c.near[j], int32(i))
+				c.nearBlock[j] = append(c.nearBlock[j], c.op.At(i, j))
+			}
+		})
+	}
+}
+
+// NearPairs returns the number of element pairs that interact implicitly
+// within a step.
+func (c *Contact) NearPairs() int {
+	var k int
+	for _, l := range c.near {
+		k += len(l)
+	}
+	return k
+}
+
+// NewState returns the state before any slip: the in-situ tractions.
+func (c *Contact) NewState() *ContactState {
+	n := len(c.elems)
+	st := &ContactState{Slip: make([]float64, n), Travel: make([]float64, n), Opening: make([]float64, n),
+		Ruptured: make([]bool, n), Shear: make([]float64, n), Normal: make([]float64, n)}
+	for i, e := range c.elems {
+		st.Shear[i], st.Normal[i] = e.Shear, e.Normal
+	}
+	return st
+}
+
+// Begin starts a time step from the committed state st, which Contact
+// keeps until Commit; pStart are the pressures at the start of the step,
+// Pa, against which ruptures measure how far into the step they happened.
+// Calling Begin again discards the trial (a step repeated shorter).
+func (c *Contact) Begin(st *ContactState, pStart []float64) {
+	c.base = st
+	c.trial.reset(c, pStart)
+}
+
+// SolveResult describes one solution of the trial.
+type SolveResult struct {
+	// Sweeps of the block Gauss–Seidel iterations; Active elements in the
+	// working set.
+	Sweeps, Active int
+	// MaxSlip is the largest slip increment of the step, m, outside
+	// ruptures (which happen at once, whatever the step).
+	MaxSlip float64
+	// Ruptured tells that a rupture has happened in this step.
+	Ruptured bool
+}
+
+// Solve finds the slip and opening of every element at the pressures p,
+// Pa, from the committed state of Begin. The result is the trial, read by
+// Aperture and kept by Commit. Successive calls within a step (coupling
+// iterations) start from the previous trial.
+func (c *Contact) Solve(p []float64) (SolveResult, error) {
+	if c.base == nil {
+		panic("mechanics: Contact.Solve before Begin")
+	}
+	if len(p) != len(c.elems) {
+		panic("mechanics: contact pressures of the wrong length")
+	}
+	t := &c.trial
+	t.p = p
+	var res SolveResult
+	for round := 0; ; round++ {
+		t.enlist(c)
+		sweeps, err := c.sweep(round)
+		res.Sweeps += sweeps
+		if err != nil {
+			return res, err
+		}
+		if !t.enlist(c) {
+			break
+		}
+		if round == c.set.MaxIterations {
+			return res, fmt.Errorf("%w: elements kept failing after %d rounds", ErrContactNotConverged, round)
+		}
+	}
+	res.Active = len(t.work)
+	for _, i := range t.work {
+		if !t.ruptured[i] || c.base.Ruptured[i] {
+			res.MaxSlip = math.Max(res.MaxSlip, math.Abs(t.ds[i]))
+		}
+		res.Ruptured = res.Ruptured || (t.ruptured[i] && !c.base.Ruptured[i])
+	}
+	return res, nil
+}
+
+// sweep runs block Gauss–Seidel over the groups of the working set until
+// the increments settle.
+func (c *Contact) sweep(round int) (int, error) {
+	t := &c.trial
+	for k := 1; k <= c.set.MaxIterations; k++ {
+		var change, scale float64
+		for _, g := range c.workGroups() {
+			dc, err := c.solveGroup(g)
+			if err != nil {
+				return k, err
+			}
+			change = math.Max(change, dc)
+		}
+		for _, i := range t.work {
+			scale = math.Max(scale, math.Max(math.Abs(t.ds[i]), math.Abs(t.dw[i])))
+		}
+		if change <= c.set.Tolerance*scale || change <= absTolerance {
+			return k, nil
+		}
+	}
+	return c.set.MaxIterations, fmt.Errorf("%w in %d sweeps (round %d, %d elements active)", ErrContactNotConverged,
+		c.set.MaxIterations, round, len(t.work))
+}
+
+// absTolerance is the change of slip or opening, m, below which the
+// iterations have converged whatever the scale (far below any aperture).
+const absTolerance = 1e-12
+
+// Aperture returns, for element i of the trial, the effective normal
+// stress σn − p, Pa, the accumulated slip D, m, and the opening w, m, and
+// their derivatives with respect to a uniform pressure change of the
+// element's group, ∂D/∂p and ∂w/∂p, m/Pa (0 for elements outside the
+// working set).
+func (c *Contact) Aperture(i int) (sigmaEff, travel, opening, dTravel, dOpening float64) {
+	t := &c.trial
+	sigmaEff = c.base.Normal[i] + t.dn[i] - t.p[i]
+	return sigmaEff, c.base.Travel[i] + math.Abs(t.ds[i]), c.base.Opening[i] + t.dw[i], t.dTravelDp[i], t.dOpeningDp[i]
+}
+
+// Slipping reports whether element i slides in the trial.
+func (c *Contact) Slipping(i int) bool { return c.trial.status[i] == sliding }
+
+// Rupture is one rupture of a step: a run of elements of one group that
+// lost their strength together.
+type Rupture struct {
+	// Elements of the rupture, in order along the group.
+	Elements []int
+	// Nucleation is the element that slipped most when the patch became
+	// unstable.
+	Nucleation int
+	// Fraction in [0, 1] locates the instability within the step: the
+	// stability margin of the sliding patch (the smallest eigenvalue of its
+	// symmetrized stiffness less weakening, see Contact) interpolated
+	// linearly between the start of the step (positive) and its end
+	// (negative) to zero.
+	Fraction float64
+}
+
+// StepSlip is what Commit accepted: the ruptures of the step and the slip
+// moments, N·m, split into seismic (ruptures) and aseismic (stable slip).
+type StepSlip struct {
+	Ruptures                      []Rupture
+	SeismicMoment, AseismicMoment float64
+}
+
+// Commit accepts the trial into the committed state given to Begin: the
+// slip, travel, opening and rupture flags, and the tractions, brought up
+// to date by the full operator on the step's increments. The shear
+// modulus g, Pa, gives the moments M0 = G·Σ A·|Δs| (Aki 1966).
+func (c *Contact) Commit(g float64) StepSlip {
+	t, st := &c.trial, c.base
+	clear(c.dsAll)
+	clear(c.dwAll)
+	var out StepSlip
+	any := false
+	for _, i := range t.work {
+		c.dsAll[i], c.dwAll[i] = t.ds[i], t.dw[i]
+		any = any || t.ds[i] != 0 || t.dw[i] != 0
+		m0 := g * c.weight[i] * math.Abs(t.ds[i])
+		if t.ruptured[i] && !st.Ruptured[i] {
+			out.SeismicMoment += m0
+		} else {
+			out.AseismicMoment += m0
+		}
+	}
+	out.Ruptures = t.rupturesOf(c)
+	for _, i := range t.work {
+		st.Slip[i] += t.ds[i]
+		st.Travel[i] += math.Abs(t.ds[i])
+		st.Opening[i] = math.Max(st.Opening[i]+t.dw[i], 0)
+		st.Ruptured[i] = st.Ruptured[i] || t.ruptured[i]
+	}
+	if any {
+		c.op.MulVecTo(c.tsAll, c.tnAll, c.dsAll, c.dwAll)
+		for i := range st.Shear {
+			st.Shear[i] += c.tsAll[i]
+			st.Normal[i] += c.tnAll[i]
+		}
+	}
+	c.base = nil
+	return out
+}

@@ -1,0 +1,525 @@
+package mechanics
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"slices"
+
+	"gonum.org/v1/gonum/mat"
+
+	"slipfront/elastic"
+)
+
+// groupCache keeps, per group, what does not change between its solves:
+// the dense influence matrix of its working elements and the last
+// factorization with the element states it was made for.
+type groupCache struct {
+	elems []int
+	a     []float64 // 2m × 2m, row-major
+	// The factorization of the reduced Jacobian, valid while key holds.
+	key []byte
+	lu  mat.LU
+	ok  bool
+}
+
+// groupSystem is the local problem of one group's working elements: the
+// unknowns z = [Δs; Δw] (m elements each), their values z0 when the group
+// solve began, the tractions t0 = [τ; σn] there, and the dense influence
+// matrix a (2m × 2m, row-major) with a[r][c] = ∂t_r/∂z_c. Only the free
+// positions of z are solved for: the slip of sliding and open elements and
+// the opening of open ones; the others are fixed (no slip increment, a
+// closed element's opening zero).
+type groupSystem struct {
+	c      *Contact
+	group  int
+	cache  *groupCache
+	elems  []int
+	m      int
+	a      []float64
+	z0, z  []float64
+	t0     []float64
+	free   []int
+	jac    []float64 // |free|², row-major
+	res    []float64 // |free|
+	slopes []float64 // ∂μ/∂D of each element at z (0 unless sliding and weakening)
+}
+
+// maxStatusChanges bounds the active-set iterations of a group solve, and
+// maxNewton the Newton iterations for one set (the equations are piecewise
+// linear: two or three suffice between kinks).
+const (
+	maxStatusChanges = 60
+	maxNewton        = 30
+)
+
+// solveGroup solves group g's working elements with the others' increments
+// as loads, applies the change to the tractions of their neighbours, and
+// returns the largest change of slip or opening, m.
+func (c *Contact) solveGroup(g int) (float64, error) {
+	s := c.newGroupSystem(g)
+	err := s.settle()
+	var u *unstable
+	if errors.As(err, &u) {
+		s.rupture(u.patch, u.lambda)
+		err = s.settle()
+	}
+	if err != nil {
+		return 0, err
+	}
+	s.derivatives()
+	return s.apply(), nil
+}
+
+// newGroupSystem gathers the local problem of group g.
+func (c *Contact) newGroupSystem(g int) *groupSystem {
+	t := &c.trial
+	s := &groupSystem{c: c, group: g}
+	for _, i := range c.groups[g] {
+		if t.inWork[i] {
+			s.elems = append(s.elems, i)
+		}
+	}
+	m := len(s.elems)
+	s.m = m
+	s.cache = c.groupCache(g, s.elems)
+	s.a = s.cache.a
+	n2 := 2 * m
+	s.z0, s.t0 = make([]float64, n2), make([]float64, n2)
+	for k, i := range s.elems {
+		s.z0[k], s.z0[m+k] = t.ds[i], t.dw[i]
+		s.t0[k], s.t0[m+k] = c.base.Shear[i]+t.dt[i], c.base.Normal[i]+t.dn[i]
+	}
+	s.z = slices.Clone(s.z0)
+	s.slopes = make([]float64, m)
+	return s
+}
+
+// groupCache returns group g's cache for the working elements elems,
+// building the influence matrix when they changed.
+func (c *Contact) groupCache(g int, elems []int) *groupCache {
+	gc := c.caches[g]
+	if gc != nil && slices.Equal(gc.elems, elems) {
+		return gc
+	}
+	m := len(elems)
+	n2 := 2 * m
+	gc = &groupCache{elems: slices.Clone(elems), a: make([]float64, n2*n2)}
+	for b, j := range elems { // source
+		for r, i := range elems { // receiver
+			blk, ok := c.influence(i, j)
+			if !ok {
+				continue
+			}
+			gc.a[r*n2+b] = blk.ShearSlip
+			gc.a[r*n2+m+b] = blk.ShearOpening
+			gc.a[(m+r)*n2+b] = blk.NormalSlip
+			gc.a[(m+r)*n2+m+b] = blk.NormalOpening
+		}
+	}
+	c.caches[g] = gc
+	return gc
+}
+
+// influence returns the near-field block of source j on receiver i.
+func (c *Contact) influence(i, j int) (elastic.Block, bool) {
+	if i == j {
+		return c.self[i], true
+	}
+	k, ok := slices.BinarySearch(c.near[j], int32(i))
+	if !ok {
+		return elastic.Block{}, false
+	}
+	return c.nearBlock[j][k], true
+}
+
+// tractions returns τ and σn of local element k at z.
+func (s *groupSystem) tractions(k int) (tau, sigma float64) {
+	n2 := 2 * s.m
+	tau, sigma = s.t0[k], s.t0[s.m+k]
+	rs, rn := s.a[k*n2:(k+1)*n2], s.a[(s.m+k)*n2:(s.m+k+1)*n2]
+	for q := range n2 {
+		if d := s.z[q] - s.z0[q]; d != 0 {
+			tau += rs[q] * d
+			sigma += rn[q] * d
+		}
+	}
+	return tau, sigma
+}
+
+// unstable reports a sliding patch whose weakening outruns its stiffness
+// (an error of settle, handled by solveGroup).
+type unstable struct {
+	patch  []int
+	lambda float64
+}
+
+func (u *unstable) Error() string { return "mechanics: unstable sliding patch" }
+
+// settle alternates Newton solves and status updates until the statuses
+// hold. After every solve the sliding patch's stability is checked: near
+// the instability the statuses would otherwise cycle, and past it no
+// quasi-static solution exists; an *unstable error reports it.
+func (s *groupSystem) settle() error {
+	for range maxStatusChanges {
+		if err := s.newton(); err != nil {
+			return err
+		}
+		if lambda, patch := s.stability(); lambda < 0 {
+			return &unstable{patch: patch, lambda: lambda}
+		}
+		if !s.updateStatus() {
+			return nil
+		}
+	}
+	return fmt.Errorf("%w: group %d's element states kept changing", ErrContactNotConverged, s.group)
+}
+
+// fix sets the fixed positions of z for the current statuses and lists
+// the free ones.
+func (s *groupSystem) fix() {
+	c, t := s.c, &s.c.trial
+	m := s.m
+	s.free = s.free[:0]
+	for k, i := range s.elems {
+		switch t.status[i] {
+		case stuck:
+			s.z[k], s.z[m+k] = 0, -c.base.Opening[i]
+		case sliding:
+			s.z[m+k] = -c.base.Opening[i]
+			s.free = append(s.free, k)
+		case open:
+			s.free = append(s.free, k, m+k)
+		}
+	}
+	slices.Sort(s.free)
+}
+
+// newton solves the equations of the current statuses. The equations are
+// piecewise linear, so the Jacobian changes only where an element crosses
+// a kink (Dc, σn′ = 0): a factorization is kept while the states and
+// slopes it was made for hold, and made again when Newton stalls.
+func (s *groupSystem) newton() error {
+	s.fix()
+	nf := len(s.free)
+	if nf == 0 {
+		return nil
+	}
+	refresh := false
+	prev := math.Inf(1)
+	for it := range maxNewton {
+		s.residual()
+		key := s.key()
+		if refresh || !s.cache.ok || string(key) != string(s.cache.key) {
+			s.cache.lu.Factorize(mat.NewDense(nf, nf, slices.Clone(s.jac)))
+			s.cache.key, s.cache.ok = key, true
+			if s.cache.lu.Det() == 0 {
+				s.cache.ok = false
+				return fmt.Errorf("%w: singular system in group %d", ErrContactNotConverged, s.group)
+			}
+			refresh = false
+		}
+		d := mat.NewVecDense(nf, nil)
+		if err := s.cache.lu.SolveVecTo(d, false, mat.NewVecDense(nf, s.res)); err != nil {
+			s.cache.ok = false
+			return fmt.Errorf("%w: group %d: %v", ErrContactNotConverged, s.group, err)
+		}
+		var step, zmax float64
+		for q, pos := range s.free {
+			s.z[pos] -= d.AtVec(q)
+			step = math.Max(step, math.Abs(d.AtVec(q)))
+			zmax = math.Max(zmax, math.Abs(s.z[pos]))
+		}
+		if step <= 1e-13*(zmax+absScale) {
+			return nil
+		}
+		if step > 0.5*prev || it > 2 {
+			refresh = true // a kink or a changed slope: use the exact Jacobian
+		}
+		prev = step
+	}
+	return nil
+}
+
+// key describes what the reduced Jacobian depends on: the free positions,
+// each element's state, sign and rupture, and the slopes and friction of
+// weakening elements (which change with slip).
+func (s *groupSystem) key() []byte {
+	t := &s.c.trial
+	k := make([]byte, 0, 4*len(s.elems)+8*len(s.free))
+	for j, i := range s.elems {
+		r := byte(0)
+		if t.ruptured[i] {
+			r = 1
+		}
+		k = append(k, byte(t.status[i]), byte(t.sign[i]), r)
+		if s.slopes[j] != 0 {
+			k = append(k, 'w')
+		}
+	}
+	return k
+}
+
+// absScale is a length scale, m, below which slip and opening changes are
+// round-off in Newton's test (a nanometre).
+const absScale = 1e-9
+
+// residual fills s.res and s.jac (the rows and columns of the free
+// positions) for the current statuses at z.
+func (s *groupSystem) residual() {
+	c, t := s.c, &s.c.trial
+	m, n2, nf := s.m, 2*s.m, len(s.free)
+	if cap(s.jac) < nf*nf {
+		s.jac, s.res = make([]float64, nf*nf), make([]float64, nf)
+	}
+	s.jac, s.res = s.jac[:nf*nf], s.res[:nf]
+	clear(s.jac)
+	row := make([]float64, n2)
+	for k, i := range s.elems {
+		tau, sigma := s.tractions(k)
+		eff := sigma - t.p[i]
+		s.slopes[k] = 0
+		switch t.status[i] {
+		case sliding:
+			sg := float64(t.sign[i])
+			travel := c.base.Travel[i] + math.Max(sg*s.z[k], 0)
+			str, slope := c.strength(i, travel, eff, t.ruptured[i])
+			copy(row, s.a[k*n2:(k+1)*n2])
+			if eff > 0 {
+				mu := (str - c.elems[i].Friction.Cohesion) / eff
+				for p, v := range s.a[(m+k)*n2 : (m+k+1)*n2] {
+					row[p] -= sg * mu * v
+				}
+				row[k] -= slope * eff // −s·(∂μ/∂D·s)·σn′
+				s.slopes[k] = slope
+			}
+			s.setRow(s.rowOf(k), row, tau-sg*str)
+		case open:
+			s.setRow(s.rowOf(k), s.a[k*n2:(k+1)*n2], tau)
+			s.setRow(s.rowOf(m+k), s.a[(m+k)*n2:(m+k+1)*n2], eff)
+		}
+	}
+}
+
+// rowOf returns the row of free position pos.
+func (s *groupSystem) rowOf(pos int) int {
+	r, _ := slices.BinarySearch(s.free, pos)
+	return r
+}
+
+// setRow writes residual v and the free columns of the full row into
+// reduced row r.
+func (s *groupSystem) setRow(r int, full []float64, v float64) {
+	nf := len(s.free)
+	s.res[r] = v
+	dst := s.jac[r*nf : (r+1)*nf]
+	for q, pos := range s.free {
+		dst[q] = full[pos]
+	}
+}
+
+// updateStatus moves elements between stuck, sliding and open by the
+// complementarity conditions at z and reports whether any moved.
+func (s *groupSystem) updateStatus() bool {
+	c, t := s.c, &s.c.trial
+	m := s.m
+	changed := false
+	for k, i := range s.elems {
+		tau, sigma := s.tractions(k)
+		eff := sigma - t.p[i]
+		tol := failTolerance * (math.Abs(tau) + math.Abs(sigma) + 1)
+		switch t.status[i] {
+		case stuck:
+			str, _ := c.strength(i, c.base.Travel[i], eff, t.ruptured[i])
+			switch {
+			case eff < -tol:
+				t.status[i], changed = open, true
+			case math.Abs(tau) > str+tol:
+				t.status[i], t.sign[i], changed = sliding, int8(sign(tau)), true
+				if t.rupturing[s.group] {
+					t.ruptured[i] = true
+				}
+			}
+		case sliding:
+			switch {
+			case eff < -tol:
+				t.status[i], changed = open, true
+			case float64(t.sign[i])*s.z[k] < -absScale*1e-3:
+				t.status[i], changed = stuck, true
+			}
+		case open:
+			if c.base.Opening[i]+s.z[m+k] < -absScale*1e-3 {
+				t.status[i], changed = stuck, true
+			}
+		}
+	}
+	return changed
+}
+
+func sign(v float64) float64 {
+	if v < 0 {
+		return -1
+	}
+	return 1
+}
+
+// stability checks the sliding patch: it is stable while its
+// area-weighted stiffness less its weakening,
+//
+//	B = −½(W K_ss + (W K_ss)ᵀ) − diag(W_k·|∂μ/∂D|·σn′_k),
+//
+// (W the element areas; the operator is reciprocal in that weighting, so
+// W K_ss is symmetric up to round-off) is positive definite (a Cholesky
+// factorization exists). For an unstable patch it returns the smallest
+// eigenvalue of B, Pa·m (< 0), and the local indices of the sliding
+// elements; for a stable one +Inf.
+func (s *groupSystem) stability() (float64, []int) {
+	var patch []int
+	weakening := false
+	for k, i := range s.elems {
+		if s.c.trial.status[i] == sliding {
+			patch = append(patch, k)
+			weakening = weakening || s.slopes[k] != 0
+		}
+	}
+	if !weakening {
+		return math.Inf(1), patch
+	}
+	b := s.patchMatrix(patch, s.slopes, s.effAt)
+	var ch mat.Cholesky
+	if ch.Factorize(mat.NewSymDense(len(patch), b)) {
+		return math.Inf(1), patch
+	}
+	return math.Min(smallestEigen(b, len(patch)), 0), patch
+}
+
+// effAt returns σn′ of local element k at z.
+func (s *groupSystem) effAt(k int) float64 {
+	_, sigma := s.tractions(k)
+	return sigma - s.c.trial.p[s.elems[k]]
+}
+
+// patchMatrix builds B for the patch with the given slopes and effective
+// normal stresses (row-major, len(patch)²).
+func (s *groupSystem) patchMatrix(patch []int, slopes []float64, eff func(k int) float64) []float64 {
+	n2, np := 2*s.m, len(patch)
+	b := make([]float64, np*np)
+	for x, k := range patch {
+		wk := s.c.weight[s.elems[k]]
+		for y, l := range patch {
+			wl := s.c.weight[s.elems[l]]
+			b[x*np+y] = -0.5 * (wk*s.a[k*n2+l] + wl*s.a[l*n2+k])
+		}
+		b[x*np+x] -= wk * math.Abs(slopes[k]) * math.Max(eff(k), 0)
+	}
+	return b
+}
+
+// rupture turns the unstable sliding patch into a rupture: its elements
+// drop to residual friction, the group ruptures every element that starts
+// to slide for the rest of the step, and the nucleation is recorded with
+// the fraction of the step at which the patch's stability margin crossed
+// zero (linear between the start of the step and now).
+func (s *groupSystem) rupture(patch []int, lambda1 float64) {
+	t := &s.c.trial
+	t.rupturing[s.group] = true
+	nucleus := patch[0]
+	for _, k := range patch {
+		t.ruptured[s.elems[k]] = true
+		if math.Abs(s.z[k]) > math.Abs(s.z[nucleus]) {
+			nucleus = k
+		}
+	}
+	if _, ok := t.nucleations[s.group]; ok {
+		return
+	}
+	// The same patch at the start of the step: committed travel and
+	// tractions, the step's starting pressures.
+	start := make([]float64, s.m)
+	for _, k := range patch {
+		i := s.elems[k]
+		_, start[k] = s.c.strength(i, s.c.base.Travel[i], s.c.base.Normal[i]-t.pStart[i], s.c.base.Ruptured[i])
+	}
+	lambda0 := smallestEigen(s.patchMatrix(patch, start, func(k int) float64 {
+		i := s.elems[k]
+		return s.c.base.Normal[i] - t.pStart[i]
+	}), len(patch))
+	f := 1.0
+	if lambda0 > 0 && lambda1 < 0 {
+		f = lambda0 / (lambda0 - lambda1)
+	} else if lambda0 <= 0 {
+		f = 0
+	}
+	t.nucleations[s.group] = nucleation{element: s.elems[nucleus], fraction: f}
+}
+
+// derivatives sets ∂D/∂p and ∂w/∂p of the group's elements for a uniform
+// pressure change over the group: J y = −∂r/∂p at the solution.
+func (s *groupSystem) derivatives() {
+	c, t := s.c, &s.c.trial
+	m := s.m
+	for _, i := range s.elems {
+		t.dTravelDp[i], t.dOpeningDp[i] = 0, 0
+	}
+	nf := len(s.free)
+	if nf == 0 {
+		return
+	}
+	s.fix()
+	s.residual()
+	var lu mat.LU
+	lu.Factorize(mat.NewDense(nf, nf, slices.Clone(s.jac)))
+	if lu.Det() == 0 {
+		return
+	}
+	rhs := make([]float64, nf)
+	for k, i := range s.elems {
+		switch t.status[i] {
+		case sliding:
+			if eff := s.effAt(k); eff > 0 {
+				str, _ := c.strength(i, c.base.Travel[i]+math.Abs(s.z[k]), eff, t.ruptured[i])
+				rhs[s.rowOf(k)] = -float64(t.sign[i]) * (str - c.elems[i].Friction.Cohesion) / eff // −∂r/∂p
+			}
+		case open:
+			rhs[s.rowOf(m+k)] = 1
+		}
+	}
+	y := mat.NewVecDense(nf, nil)
+	if lu.SolveVecTo(y, false, mat.NewVecDense(nf, rhs)) != nil {
+		return
+	}
+	for k, i := range s.elems {
+		switch t.status[i] {
+		case sliding:
+			t.dTravelDp[i] = math.Max(float64(t.sign[i])*y.AtVec(s.rowOf(k)), 0)
+		case open:
+			t.dOpeningDp[i] = math.Max(y.AtVec(s.rowOf(m+k)), 0)
+		}
+	}
+}
+
+// apply writes the group's new increments into the trial and adds their
+// change to the tractions of every element within reach; it returns the
+// largest change, m.
+func (s *groupSystem) apply() float64 {
+	c, t := s.c, &s.c.trial
+	m := s.m
+	var change float64
+	for k, j := range s.elems {
+		ds, dw := s.z[k]-s.z0[k], s.z[m+k]-s.z0[m+k]
+		if ds == 0 && dw == 0 {
+			continue
+		}
+		change = math.Max(change, math.Max(math.Abs(ds), math.Abs(dw)))
+		t.ds[j], t.dw[j] = s.z[k], s.z[m+k]
+		b := c.self[j]
+		t.dt[j] += b.ShearSlip*ds + b.ShearOpening*dw
+		t.dn[j] += b.NormalSlip*ds + b.NormalOpening*dw
+		for q, i := range c.near[j] {
+			b := &c.nearBlock[j][q]
+			t.dt[i] += b.ShearSlip*ds + b.ShearOpening*dw
+			t.dn[i] += b.NormalSlip*ds + b.NormalOpening*dw
+		}
+	}
+	return change
+}

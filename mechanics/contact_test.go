@@ -1,0 +1,277 @@
+package mechanics
+
+import (
+	"errors"
+	"math"
+	"testing"
+
+	"gonum.org/v1/gonum/mat"
+	"gonum.org/v1/gonum/spatial/r2"
+
+	"slipfront/elastic"
+	"slipfront/internal/numtest"
+)
+
+// Test rock: G = 30 GPa, ν = 0.25 (the material of docs/references.md
+// §9.2's Sneddon table).
+var testRock = elastic.Material{ShearModulus: 30e9, PoissonRatio: 0.25}
+
+// straightFault returns n equal elements along x from −half to half, in
+// plane strain (the operator's height correction off, so the closed forms
+// of 2-D cracks apply), as one group with the given in-situ tractions.
+func straightFault(t *testing.T, n int, half float64, shear, normal float64, f SlipWeakening) (*Contact, []elastic.Element) {
+	t.Helper()
+	elems := make([]elastic.Element, n)
+	ce := make([]ContactElement, n)
+	for i := range n {
+		x0 := -half + 2*half*float64(i)/float64(n)
+		x1 := -half + 2*half*float64(i+1)/float64(n)
+		elems[i] = elastic.Element{P0: r2.Vec{X: x0}, P1: r2.Vec{X: x1}, Height: 1}
+		ce[i] = ContactElement{Element: elems[i], Shear: shear, Normal: normal, Friction: f}
+	}
+	op, err := elastic.NewDense(elems, testRock, elastic.Settings{PlaneStrain: true})
+	if err != nil {
+		t.Fatal(err)
+	}
+	c, err := NewContact(op, ce, ContactSettings{NearRadius: 4 * half, Tolerance: 1e-10})
+	if err != nil {
+		t.Fatal(err)
+	}
+	return c, elems
+}
+
+func uniform(n int, v float64) []float64 {
+	p := make([]float64, n)
+	for i := range p {
+		p[i] = v
+	}
+	return p
+}
+
+// A crack whose fluid pressure exceeds its normal stress everywhere opens
+// as the elastic solution of K_nn w = p − σn; its opening follows Sneddon
+// (1946): w = 2(1−ν)(Δp/G)√(c² − x²), within the constant-element error of
+// docs/references.md §9.2 (interior ratio ≈ 1 + 0.5/N; excluding two tip
+// elements at each end, |w/w_an − 1| < 0.11).
+func TestContactPressurisedCrack(t *testing.T) {
+	const n, c0, sigma, dp = 40, 1.0, 20e6, 1e6
+	f := SlipWeakening{Static: 0.6, Residual: 0.6, CriticalSlip: 1e-3}
+	c, elems := straightFault(t, n, c0, 0, sigma, f)
+	st := c.NewState()
+	p := uniform(n, sigma+dp)
+	c.Begin(st, uniform(n, 0))
+	res, err := c.Solve(p)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if res.Active != n {
+		t.Fatalf("%d elements active, want all %d open", res.Active, n)
+	}
+	for i, e := range elems {
+		x := e.Centre().X
+		_, _, w, _, dwdp := c.Aperture(i)
+		want := 2 * (1 - testRock.PoissonRatio) * dp / testRock.ShearModulus * math.Sqrt(c0*c0-x*x)
+		if i >= 2 && i < n-2 && math.Abs(w/want-1) > 0.11 {
+			t.Errorf("element %d: opening %.6g m, Sneddon %.6g m", i, w, want)
+		}
+		// The opening is linear in the net pressure: ∂w/∂p = w/Δp.
+		numtest.Rel(t, "∂w/∂p", dwdp, w/dp, 1e-9)
+	}
+	// The centre element (x = c/N) against §9.2's table for N = 40: w =
+	// 5.0613428129e−5 m at Δp = 1 MPa (the same formulation: to 1e−8).
+	_, _, w, _, _ := c.Aperture(n / 2)
+	numtest.Rel(t, "opening at x = c/N", w, 5.0613428129e-5, 1e-8)
+	c.Commit(testRock.ShearModulus)
+	if st.Opening[n/2] != w || st.Normal[n/2] > sigma+dp+1 || st.Normal[n/2] < sigma+dp-1 {
+		t.Errorf("committed opening %g m, normal stress %g Pa; want %g m and the fluid pressure", st.Opening[n/2], st.Normal[n/2], w)
+	}
+}
+
+// Below its strength nothing slips or opens; above it, a fault of
+// constant friction slips by the elliptical profile of a uniform stress
+// drop Δτ = τ − μσn′ (Pollard & Segall 1987: s = 2(1−ν)(Δτ/G)√(c² − x²),
+// the same as the opening of a pressurised crack, docs/references.md §9.2
+// test (c)), and the slip relaxes the shear stress to the strength.
+func TestContactStressDrop(t *testing.T) {
+	const n, c0, sigma, p0 = 40, 1.0, 50e6, 20e6
+	f := SlipWeakening{Static: 0.5, Residual: 0.5, CriticalSlip: 1e-3}
+	strength := f.Static * (sigma - p0)
+	for _, tc := range []struct {
+		name string
+		tau  float64
+	}{{"stuck", strength - 1e5}, {"slips", strength + 1e6}, {"slips left-lateral", -(strength + 1e6)}} {
+		c, elems := straightFault(t, n, c0, tc.tau, sigma, f)
+		st := c.NewState()
+		c.Begin(st, uniform(n, p0))
+		res, err := c.Solve(uniform(n, p0))
+		if err != nil {
+			t.Fatal(err)
+		}
+		drop := math.Abs(tc.tau) - strength
+		if drop < 0 {
+			if res.Active != 0 || res.MaxSlip != 0 {
+				t.Errorf("%s: %d elements active, slip %g m below the strength", tc.name, res.Active, res.MaxSlip)
+			}
+			continue
+		}
+		for i, e := range elems {
+			x := e.Centre().X
+			want := sign(tc.tau) * 2 * (1 - testRock.PoissonRatio) * drop / testRock.ShearModulus * math.Sqrt(c0*c0-x*x)
+			got := c.trial.ds[i]
+			if i >= 2 && i < n-2 && math.Abs(got/want-1) > 0.11 {
+				t.Errorf("%s: element %d slip %.6g m, elliptical profile %.6g m", tc.name, i, got, want)
+			}
+		}
+		slip := c.Commit(testRock.ShearModulus)
+		if len(slip.Ruptures) != 0 || slip.SeismicMoment != 0 || !(slip.AseismicMoment > 0) {
+			t.Errorf("%s: constant friction gave %d ruptures, seismic %g, aseismic %g N·m; want stable slip only",
+				tc.name, len(slip.Ruptures), slip.SeismicMoment, slip.AseismicMoment)
+		}
+		for i := range n {
+			numtest.Rel(t, "shear after slip", math.Abs(st.Shear[i]), strength, 1e-7)
+		}
+	}
+}
+
+// A slip-weakening fault loaded by a growing, localized shear stress slips
+// stably over a patch that grows until it reaches the nucleation length;
+// then it ruptures, whatever the loading (Uenishi & Rice 2003: half-length
+// a_n = 0.579·μ*/W, μ* = G/(1−ν) for in-plane slip, W = (μs − μd)σn′/Dc;
+// the constant as computed in friction_test.go). The last stable patch's
+// half-length must lie within a few elements of a_n.
+func TestContactNucleation(t *testing.T) {
+	const (
+		n       = 400
+		half    = 100.0 // m: elements of 0.5 m
+		sigmaE  = 20e6  // σn′, Pa
+		dc      = 2e-3  // m
+		spread  = 5.0   // m, width of the load
+		perStep = 2e3   // Pa of peak load per step
+	)
+	f := SlipWeakening{Static: 0.6, Residual: 0.5, CriticalSlip: dc}
+	w := f.WeakeningRate(sigmaE)
+	an := NucleationHalfLength(EffectiveShearModulus(testRock.ShearModulus, testRock.PoissonRatio, InPlane), w)
+	// W = 0.1·20e6/2e-3 = 1e9 Pa/m, μ* = 40 GPa: a_n = 0.579·40e9/1e9 ≈
+	// 23 m, 46 elements of 0.5 m.
+	tau0 := f.Static*sigmaE - 0.2e6 // 0.2 MPa below the peak strength
+	c, elems := straightFault(t, n, half, tau0, sigmaE, f)
+	st := c.NewState()
+	p := uniform(n, 0)
+	stable := 0.0
+	for step := 1; step <= 400; step++ {
+		for i, e := range elems {
+			x := e.Centre().X
+			st.Shear[i] += perStep * math.Exp(-x*x/(spread*spread))
+		}
+		c.Begin(st, p)
+		if _, err := c.Solve(p); err != nil {
+			t.Fatalf("step %d: %v", step, err)
+		}
+		var lo, hi = math.Inf(1), math.Inf(-1)
+		for i, e := range elems {
+			if c.Slipping(i) && !c.trial.ruptured[i] {
+				lo, hi = math.Min(lo, e.P0.X), math.Max(hi, e.P1.X)
+			}
+		}
+		slip := c.Commit(testRock.ShearModulus)
+		if len(slip.Ruptures) > 0 {
+			if stable == 0 {
+				t.Fatalf("ruptured at step %d before any stable slip", step)
+			}
+			// Load steps move the patch by under an element here; the
+			// constant elements resolve a_n to about an element.
+			t.Logf("last stable half-length %.3f m, a_n %.3f m (Uenishi & Rice 2003), rupture at step %d", stable, an, step)
+			numtest.Abs(t, "half-length of the last stable patch, m", stable, an, 3*2*half/n)
+			r := slip.Ruptures[0]
+			if len(r.Elements) < int(2*an/(2*half/n)) || !(r.Fraction >= 0 && r.Fraction <= 1) {
+				t.Errorf("rupture of %d elements (fraction %g), want at least the nucleation patch", len(r.Elements), r.Fraction)
+			}
+			if !(slip.SeismicMoment > 0) {
+				t.Errorf("rupture without seismic moment")
+			}
+			return
+		}
+		if hi > lo {
+			stable = (hi - lo) / 2
+		}
+	}
+	t.Fatalf("no rupture after 400 load steps (last stable half-length %g m, a_n %g m)", stable, an)
+}
+
+// The contact solution equals the direct solve of the same linear system
+// when every element slides at constant friction and interacts with every
+// other: a check of the Gauss–Seidel sweeps across two groups.
+func TestContactTwoGroups(t *testing.T) {
+	const sigma, p0 = 40e6, 10e6
+	f := SlipWeakening{Static: 0.4, Residual: 0.4, CriticalSlip: 1e-3}
+	var elems []elastic.Element
+	var ce []ContactElement
+	for g, y := range []float64{0, 0.8} { // two parallel faults 0.8 m apart
+		for i := range 10 {
+			e := elastic.Element{P0: r2.Vec{X: -1 + 0.2*float64(i) + 0.1*float64(g), Y: y}, P1: r2.Vec{X: -0.8 + 0.2*float64(i) + 0.1*float64(g), Y: y}, Height: 1}
+			elems = append(elems, e)
+			ce = append(ce, ContactElement{Element: e, Group: g, Shear: 14e6, Normal: sigma, Friction: f})
+		}
+	}
+	op, err := elastic.NewDense(elems, testRock, elastic.Settings{PlaneStrain: true})
+	if err != nil {
+		t.Fatal(err)
+	}
+	c, err := NewContact(op, ce, ContactSettings{NearRadius: 100, Tolerance: 1e-12})
+	if err != nil {
+		t.Fatal(err)
+	}
+	st := c.NewState()
+	p := uniform(len(elems), p0)
+	c.Begin(st, p)
+	res, err := c.Solve(p)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if res.Sweeps < 2 {
+		t.Errorf("%d sweeps: the groups did not iterate", res.Sweeps)
+	}
+	// Direct: every element slides right-lateral at constant friction, so
+	// (K_ss − μ K_ns) Δs = −(τ0 − μ(σ0 − p)), openings zero.
+	n := len(elems)
+	a := mat.NewDense(n, n, nil)
+	b := mat.NewVecDense(n, nil)
+	for i := range n {
+		for j := range n {
+			blk := op.At(i, j)
+			a.Set(i, j, blk.ShearSlip-f.Static*blk.NormalSlip)
+		}
+		b.SetVec(i, -(14e6 - f.Static*(sigma-p0)))
+	}
+	var want mat.VecDense
+	if err := want.SolveVec(a, b); err != nil {
+		t.Fatal(err)
+	}
+	for i := range n {
+		numtest.Rel(t, "slip against the direct solve", c.trial.ds[i], want.AtVec(i), 1e-8)
+	}
+}
+
+// Misuse and bad settings.
+func TestContactErrors(t *testing.T) {
+	e := elastic.Element{P0: r2.Vec{}, P1: r2.Vec{X: 1}, Height: 1}
+	op, err := elastic.NewDense([]elastic.Element{e}, testRock, elastic.Settings{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	good := SlipWeakening{Static: 0.6, Residual: 0.5, CriticalSlip: 1e-3}
+	for _, tc := range []struct {
+		name string
+		el   ContactElement
+		set  ContactSettings
+	}{
+		{"no radius", ContactElement{Element: e, Friction: good}, ContactSettings{}},
+		{"bad friction", ContactElement{Element: e, Friction: SlipWeakening{Static: 0.5, Residual: 0.6, CriticalSlip: 1e-3}}, ContactSettings{NearRadius: 1}},
+		{"negative group", ContactElement{Element: e, Group: -1, Friction: good}, ContactSettings{NearRadius: 1}},
+	} {
+		var ie *InputError
+		if _, err := NewContact(op, []ContactElement{tc.el}, tc.set); !errors.As(err, &ie) {
+			t.Errorf("%s: error %v, want *InputError", tc.name, err)
+		}
+	}
+}
