@@ -11,6 +11,7 @@ import (
 	"strings"
 
 	"slipfront/internal/outdir"
+	"slipfront/internal/plural"
 )
 
 // Merge combines the shard folders of one batch into out and writes the
@@ -94,7 +95,11 @@ func checkShardSet(dirs []string, ms []*Manifest) error {
 		}
 	}
 	if len(missing) > 0 {
-		return inputErrorf("merge: shard %s missing: give all %d shard folders of the batch", strings.Join(missing, ", "), n)
+		what := "shard " + missing[0] + " is"
+		if len(missing) > 1 {
+			what = "shards " + strings.Join(missing, ", ") + " are"
+		}
+		return inputErrorf("merge: %s missing: give all %d shard folders of the batch", what, n)
 	}
 	return nil
 }
@@ -124,8 +129,8 @@ func checkComplete(ctx context.Context, dir string, m *Manifest) error {
 		}
 	}
 	if missing+bad > 0 {
-		return inputErrorf("merge: shard %s in %s is incomplete: %d results missing and %d unreadable (first: %s); finish it with --resume",
-			m.Shard, dir, missing, bad, first)
+		return inputErrorf("merge: shard %s in %s is incomplete: %s missing and %d unreadable (first: %s); finish it with --resume",
+			m.Shard, dir, plural.S(missing, "result"), bad, first)
 	}
 	return nil
 }

@@ -5,6 +5,8 @@ import (
 	"io"
 	"time"
 
+	"slipfront/internal/plural"
+
 	"github.com/schollz/progressbar/v3"
 )
 
@@ -45,7 +47,7 @@ type barProgress struct {
 
 func (p *barProgress) start(todo, resumed, owned int) {
 	if todo == 0 {
-		fmt.Fprintf(p.w, "batch: all %d results already done\n", owned)
+		fmt.Fprintf(p.w, "batch: all %s already done\n", plural.S(owned, "result"))
 		return
 	}
 	desc := "realizations"
@@ -97,9 +99,9 @@ func (p *lineProgress) start(todo, resumed, owned int) {
 	p.t0 = p.now()
 	p.last = p.t0
 	if resumed > 0 {
-		fmt.Fprintf(p.w, "batch: %d of %d results already done, %d to run\n", resumed, owned, todo)
+		fmt.Fprintf(p.w, "batch: %d of %s already done, %d to run\n", resumed, plural.S(owned, "result"), todo)
 	} else {
-		fmt.Fprintf(p.w, "batch: %d results to run\n", todo)
+		fmt.Fprintf(p.w, "batch: %s to run\n", plural.S(todo, "result"))
 	}
 }
 
@@ -121,8 +123,8 @@ func (p *lineProgress) step() {
 func (p *lineProgress) finish(ok bool) {
 	elapsed := p.now().Sub(p.t0).Round(time.Millisecond)
 	if ok {
-		fmt.Fprintf(p.w, "batch: %d results computed in %s\n", p.done, elapsed)
+		fmt.Fprintf(p.w, "batch: %s computed in %s\n", plural.S(p.done, "result"), elapsed)
 		return
 	}
-	fmt.Fprintf(p.w, "batch: stopped after %d of %d results (%s)\n", p.done, p.todo, elapsed)
+	fmt.Fprintf(p.w, "batch: stopped after %d of %s (%s)\n", p.done, plural.S(p.todo, "result"), elapsed)
 }

@@ -15,6 +15,7 @@ import (
 
 	"slipfront/internal/crash"
 	"slipfront/internal/outdir"
+	"slipfront/internal/plural"
 	"slipfront/internal/version"
 	"slipfront/scenarios"
 )
@@ -171,7 +172,7 @@ func (o *Options) check() error {
 		return err
 	}
 	if n := len(Cases(o.Sweeps)) * o.Realizations; n > MaxResults {
-		return inputErrorf("%d cases × %d realizations = %d results: at most %d; use fewer realizations or sweep values", len(Cases(o.Sweeps)), o.Realizations, n, MaxResults)
+		return inputErrorf("%s × %s = %d results: at most %d; use fewer realizations or sweep values", plural.S(len(Cases(o.Sweeps)), "case"), plural.S(o.Realizations, "realization"), n, MaxResults)
 	}
 	o.Sweeps = slices.Clone(o.Sweeps)
 	for i, s := range o.Sweeps {
@@ -249,7 +250,7 @@ func prepareFolder(opts Options, m *Manifest) error {
 	case errors.Is(err, fs.ErrNotExist) && !opts.Force:
 		entries, rerr := os.ReadDir(opts.Out)
 		if rerr == nil && len(entries) > 0 {
-			return inputError(fmt.Sprintf("%s holds %d entries but no %s; use --force to write the batch into it", opts.Out, len(entries), ManifestName), outdir.ErrExists)
+			return inputError(fmt.Sprintf("%s holds %s but no %s; use --force to write the batch into it", opts.Out, plural.Count(len(entries), "entry", "entries"), ManifestName), outdir.ErrExists)
 		}
 	}
 	if opts.Force {
@@ -323,8 +324,8 @@ func (jr *jobRunner) run(parent context.Context, jobs []job) error {
 	case jr.firstErr != nil:
 		return jr.firstErr
 	case parent.Err() != nil:
-		return fmt.Errorf("batch: interrupted with %d of %d results done; run again with --resume to finish: %w",
-			jr.sum.Resumed+jr.sum.Ran, jr.sum.Owned, parent.Err())
+		return fmt.Errorf("batch: interrupted with %d of %s done; run again with --resume to finish: %w",
+			jr.sum.Resumed+jr.sum.Ran, plural.S(jr.sum.Owned, "result"), parent.Err())
 	}
 	return nil
 }

@@ -395,7 +395,7 @@ func TestMergeRefuses(t *testing.T) {
 	if err := Merge(context.Background(), []string{a0, d0}, filepath.Join(root, "m3")); !errors.As(err, &mm) || mm.Field != "shard count" {
 		t.Errorf("different shard counts: err = %v", err)
 	}
-	if err := Merge(context.Background(), []string{a0}, filepath.Join(root, "m4")); !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), "shard 1/2 missing") {
+	if err := Merge(context.Background(), []string{a0}, filepath.Join(root, "m4")); !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), "shard 1/2 is missing") {
 		t.Errorf("missing shard: err = %v", err)
 	}
 	if err := Merge(context.Background(), []string{a0, a0}, filepath.Join(root, "m5")); !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), "both shard 0/2") {

@@ -7,6 +7,7 @@ import (
 	"strings"
 
 	"slipfront/internal/badinput"
+	"slipfront/internal/plural"
 
 	"github.com/BurntSushi/toml"
 )
@@ -104,7 +105,7 @@ func (o Override) apply(tree map[string]any) (string, error) {
 				return fail("%s is not a list of tables in this scenario", path)
 			}
 			if s.index >= len(list) {
-				return fail("index %d out of range: the scenario has %d entries in %s", s.index, len(list), path)
+				return fail("index %d out of range: the scenario has %s in %s", s.index, plural.Count(len(list), "entry", "entries"), path)
 			}
 			path += "[" + strconv.Itoa(s.index) + "]"
 			if last {

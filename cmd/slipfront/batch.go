@@ -15,6 +15,7 @@ import (
 	"golang.org/x/term"
 
 	"slipfront/batch"
+	"slipfront/internal/plural"
 	"slipfront/pipeline"
 	"slipfront/scenarios"
 )
@@ -122,8 +123,8 @@ func runBatch(ctx context.Context, o *batchOptions, g *globalOptions, stdout, st
 	if err != nil {
 		return err
 	}
-	fmt.Fprintf(stdout, "%d cases × %d realizations: %d run now, %d resumed, in %.1f s\n",
-		sum.Cases, sum.Realizations, sum.Ran, sum.Resumed, sum.Elapsed.Seconds())
+	fmt.Fprintf(stdout, "%s × %s: %d run now, %d resumed, in %.1f s\n",
+		plural.S(sum.Cases, "case"), plural.S(sum.Realizations, "realization"), sum.Ran, sum.Resumed, sum.Elapsed.Seconds())
 	if !sum.Aggregated {
 		fmt.Fprintf(stdout, "shard %d/%d done; combine the shard folders with: slipfront merge DIR... --out DIR\n", sum.Shard.Index, sum.Shard.Count)
 		return nil
@@ -156,7 +157,7 @@ func finishBatch(ctx context.Context, dir string, stdout io.Writer) error {
 	if err := tw.Flush(); err != nil {
 		return err
 	}
-	fmt.Fprintf(stdout, "q10/q50/q90: %d realizations, ascending; q90 is the high case (%s)\n", m.Realizations, batch.ComparisonName)
+	fmt.Fprintf(stdout, "q10/q50/q90: %s, ascending; q90 is the high case (%s)\n", plural.S(m.Realizations, "realization"), batch.ComparisonName)
 	if paired := batch.Paired(m, aggs); len(paired) > 0 {
 		fmt.Fprintf(stdout, "\npaired with the reference case on the same networks: ratios case/reference (ΔMw: case − reference),\n"+
 			"q50 [q10–q90] over the realizations (%s, %s):\n", batch.PairedName, batch.PairedPercentilesName)

@@ -7,6 +7,7 @@ import (
 
 	"github.com/spf13/cobra"
 
+	"slipfront/internal/plural"
 	"slipfront/scenarios"
 )
 
@@ -82,7 +83,7 @@ func describeScenario(w io.Writer, s *scenarios.Scenario) error {
 	for _, set := range s.Sets {
 		fmt.Fprintf(&b, " [%s: %s, %s, %s]", set.Name, set.Orientation.Distribution, set.Size.Distribution, set.Intensity.Measure)
 	}
-	fmt.Fprintf(&b, "\n  known     %d mapped fractures\n", len(s.KnownFractures.Fractures))
+	fmt.Fprintf(&b, "\n  known     %s\n", plural.S(len(s.KnownFractures.Fractures), "mapped fracture"))
 	fmt.Fprintf(&b, "  wells     %d\n", len(s.Wells))
 	order := s.PumpingOrder()
 	names := make([]string, len(order))
