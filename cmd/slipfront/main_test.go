@@ -41,6 +41,8 @@ func TestExitCodes(t *testing.T) {
 		{"unknown key", []string{"scenario", "check", "demo", "--set", "rock.fricton_static=0.5"}, exitBadInput, `did you mean "friction_static"?`},
 		{"missing file", []string{"scenario", "check", filepath.Join(dir, "none.toml")}, exitBadInput, "no such file"},
 		{"too many fractures", []string{"generate", "demo", "--set", "numerics.max_fractures=10", "--out", filepath.Join(dir, "cap")}, exitBadInput, "max_fractures"},
+		{"bare viscosity", []string{"scenario", "check", "demo", "--set", "fluids.slickwater.viscosity=20"}, exitBadInput, `needs a unit: write "20 cP" or "20 mPa.s"`},
+		{"message units", []string{"scenario", "check", "demo", "--set", "schedule.pressure_cap=10MPa"}, exitBadInput, "initial pore pressure, 31.2 MPa"},
 		{"check ok", []string{"scenario", "check", "demo"}, exitOK, ""},
 		{"geographic CRS", []string{"run", "single-fracture", "--set", "domain.crs=EPSG:4326", "--out", filepath.Join(dir, "geo")}, exitBadInput, "projected CRS"},
 		{"negative inspect time", []string{"inspect", "../../snapshot/testdata/small.snap", "--time", "-5s"}, exitBadInput, "--time"},
@@ -266,7 +268,7 @@ func TestBatchAndMerge(t *testing.T) {
 	}{
 		{args("x", "--shard", "2/2"), "shard"},
 		{base("y", "--sweep", "rock.frction=0.5,0.6"), `did you mean "friction_`},
-		{base("z", "--sweep", "fluids.water.viscosity=1cP,-2cP"), "must be within [1e-5, 1000] Pa.s"},
+		{base("z", "--sweep", "fluids.water.viscosity=1cP,-2cP"), "must be within [0.01, 1e6] cP"},
 	}
 	for _, tc := range bad {
 		if code, _, stderr := runCLI(t, tc.args...); code != exitBadInput || !strings.Contains(stderr, tc.want) {
