@@ -17,8 +17,12 @@ type decoder struct {
 	file      string
 	lines     keyLines
 	overrides map[string]string // path → value as given to --set
-	tree      map[string]any    // the file's content, for values in messages
-	errs      Errors
+	applied   []applied         // the overrides in order
+	// newEntries are the named-table entries declared with "+", by path
+	// ("fluids.gel").
+	newEntries map[string]Override
+	tree       map[string]any // the file's content, for values in messages
+	errs       Errors
 }
 
 // fail records a problem with the value raw at path.

@@ -86,13 +86,9 @@ func Parse(name string, src []byte, files fs.FS, overrides ...Override) (*Scenar
 		}
 		return nil, Errors{{File: name, Msg: "TOML: " + err.Error()}}
 	}
-	d := &decoder{file: name, lines: scanKeyLines(string(src)), overrides: map[string]string{}, tree: tree}
-	for _, o := range overrides {
-		p, err := o.apply(tree)
-		if err != nil {
-			return nil, err
-		}
-		d.overrides[p] = o.Value
+	d := &decoder{file: name, lines: scanKeyLines(string(src)), overrides: map[string]string{}, newEntries: map[string]Override{}, tree: tree}
+	if err := d.applyOverrides(tree, overrides); err != nil {
+		return nil, err
 	}
 	s := &Scenario{Source: name}
 	d.decodeStruct("", tree, reflect.ValueOf(s).Elem())
@@ -103,10 +99,14 @@ func Parse(name string, src []byte, files fs.FS, overrides ...Override) (*Scenar
 	if len(d.errs) == 0 {
 		d.validate(s)
 	}
+	if len(d.errs) == 0 {
+		d.checkOverridesUsed(s)
+	}
 	if len(d.errs) > 0 {
 		return nil, d.errs
 	}
 	s.Digest = digest(s)
+	s.Warnings = d.unpumpedWarnings(s)
 	return s, nil
 }
 

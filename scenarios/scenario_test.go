@@ -259,13 +259,13 @@ func TestAllErrorsAtOnce(t *testing.T) {
 }
 
 func TestOverrides(t *testing.T) {
-	s, err := parseText(t, minimal, "fluids.water.viscosity=20cP", "sets[1].orientation.kappa=15",
+	s, err := parseText(t, minimal, "fluids.water.viscosity=20cP", "sets[0].orientation.kappa=15",
 		"numerics.cell_size = 5 m", "schedule.rate=80 bbl/min", "seed=9", `wells[0].stages[1].clusters=["480 m", "510 m"]`)
 	if err != nil {
 		t.Fatal(err)
 	}
 	numtest.Rel(t, "viscosity", s.Fluids["water"].Viscosity, 0.02, 1e-15)
-	numtest.Rel(t, "kappa", s.Sets[1].Orientation.Kappa, 15, 1e-15)
+	numtest.Rel(t, "kappa", s.Sets[0].Orientation.Kappa, 15, 1e-15)
 	numtest.Rel(t, "cell size", s.Numerics.CellSize, 5, 1e-15)
 	numtest.Rel(t, "rate", s.Schedule.Rate, 0.21198305990400002, 1e-12) // NIST SP 811 barrel
 	if s.Seed != 9 {
