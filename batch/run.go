@@ -189,16 +189,8 @@ func makePlan(opts Options) (*Manifest, []Case, error) {
 		return nil, nil, inputError("scenario", err)
 	}
 	for _, sw := range opts.Sweeps {
-		digests := map[string]string{}
-		for _, v := range sw.Values {
-			s, err := opts.Load(scenarios.Override{Key: sw.Key, Value: v})
-			if err != nil {
-				return nil, nil, inputError(fmt.Sprintf("--sweep %s: value %q", sw.Key, v), err)
-			}
-			if other, dup := digests[s.Digest]; dup {
-				return nil, nil, inputErrorf("--sweep %s: values %q and %q give the same scenario", sw.Key, other, v)
-			}
-			digests[s.Digest] = v
+		if err := checkSweepChanges(opts, base, sw); err != nil {
+			return nil, nil, err
 		}
 	}
 	cases := Cases(opts.Sweeps)
@@ -228,6 +220,44 @@ func makePlan(opts Options) (*Manifest, []Case, error) {
 		})
 	}
 	return m, cases, nil
+}
+
+// checkSweepChanges loads the base scenario with each value of the sweep
+// on its own and refuses a sweep that changes nothing a run uses (every
+// value gives the base scenario's run, compared by
+// scenarios.Scenario.UsedDigest: a fluid declared new that no stage
+// pumps changes only what no run reads) and two values that give the same
+// scenario ("1 cP" and "0.001 Pa.s"). Loading refuses a value of a key
+// that no run reads, or that adds an entry nothing names.
+func checkSweepChanges(opts Options, base *scenarios.Scenario, sw Sweep) error {
+	digests := make([]string, len(sw.Values))
+	baseRun := base.UsedDigest()
+	unchanged := 0
+	for i, v := range sw.Values {
+		s, err := opts.Load(scenarios.Override{Key: sw.Key, Value: v})
+		if err != nil {
+			return inputError(fmt.Sprintf("--sweep %s: value %q", sw.Key, v), err)
+		}
+		digests[i] = s.Digest
+		if s.UsedDigest() == baseRun {
+			unchanged++
+		}
+	}
+	if unchanged == len(sw.Values) {
+		what := fmt.Sprintf("its value %q gives", sw.Values[0])
+		if len(sw.Values) > 1 {
+			what = "every value gives"
+		}
+		return inputErrorf("--sweep %s changes nothing a run uses: %s the base scenario's run; sweep other values or another key", sw.Key, what)
+	}
+	for i := range sw.Values {
+		for j := range i {
+			if digests[i] == digests[j] {
+				return inputErrorf("--sweep %s: values %q and %q give the same scenario", sw.Key, sw.Values[j], sw.Values[i])
+			}
+		}
+	}
+	return nil
 }
 
 // batchFiles are the files and folders a batch writes, removed by Force.
