@@ -46,8 +46,10 @@ type Options struct {
 	// Resume continues the batch in Out: results already there and valid
 	// are kept. Out must hold the same batch (manifest), or nothing.
 	Resume bool
-	// Force starts over in an Out that holds files: an earlier batch's
-	// results, aggregates and manifest are deleted first.
+	// Force replaces an earlier batch in Out: everything in Out is deleted
+	// before the batch starts (a batch folder is written in place, so that
+	// Resume can continue it). Out must hold a batch (its manifest) or
+	// nothing: Force never deletes a folder that slipfront did not write.
 	Force bool
 	// Run computes one realization of one case.
 	Run RunFunc
@@ -260,40 +262,61 @@ func checkSweepChanges(opts Options, base *scenarios.Scenario, sw Sweep) error {
 	return nil
 }
 
-// batchFiles are the files and folders a batch writes, removed by Force.
-var batchFiles = []string{ResultsDir, ProbabilityDir, RealizationsName, PercentilesName, ComparisonName, WarningsName,
-	PairedName, PairedPercentilesName, SummaryName, CSVMetadataName, ManifestName}
-
 // prepareFolder checks Out against the options, clears it for Force, and
 // writes the manifest.
 func prepareFolder(opts Options, m *Manifest) error {
 	old, err := readManifestFile(opts.Out)
 	switch {
+	case opts.Force:
+		if err := clearBatchFolder(opts.Out); err != nil {
+			return err
+		}
 	case err == nil && opts.Resume:
 		if field, want, got, differ := m.difference(old, true); differ {
 			return &MismatchError{Field: field, Want: want, Got: got, WantFrom: "this batch", Dir: opts.Out}
 		}
-	case err == nil && !opts.Force:
-		return inputError(opts.Out+" holds a batch; use --resume to continue it or --force to start over", outdir.ErrExists)
-	case err != nil && !errors.Is(err, fs.ErrNotExist) && !opts.Force:
-		return inputError("cannot use "+opts.Out+" (use --force to start over)", err)
-	case errors.Is(err, fs.ErrNotExist) && !opts.Force:
+	case err == nil:
+		return inputError(opts.Out+" holds a batch; use --resume to continue it or --force to replace it", outdir.ErrExists)
+	case !errors.Is(err, fs.ErrNotExist):
+		return inputError("cannot use "+opts.Out+" (use --force to replace it)", err)
+	default:
 		entries, rerr := os.ReadDir(opts.Out)
 		if rerr == nil && len(entries) > 0 {
-			return inputError(fmt.Sprintf("%s holds %s but no %s; use --force to write the batch into it", opts.Out, plural.Count(len(entries), "entry", "entries"), ManifestName), outdir.ErrExists)
-		}
-	}
-	if opts.Force {
-		for _, name := range batchFiles {
-			if err := os.RemoveAll(filepath.Join(opts.Out, name)); err != nil {
-				return fmt.Errorf("batch: clearing %s: %w", opts.Out, err)
-			}
+			return inputError(fmt.Sprintf("%s holds %s but no %s, so it is not a batch folder; choose another --out", opts.Out,
+				plural.Count(len(entries), "entry", "entries"), ManifestName), outdir.ErrExists)
 		}
 	}
 	if err := os.MkdirAll(filepath.Join(opts.Out, ResultsDir), 0o755); err != nil {
 		return fmt.Errorf("batch: %w", err)
 	}
 	return writeFileAtomic(opts.Out, ManifestName, func(w io.Writer) error { return WriteManifest(w, m) })
+}
+
+// clearBatchFolder empties dir for --force. It refuses a folder that
+// holds something but no manifest: --force replaces a batch folder (or
+// the output folder of any command) only when slipfront wrote it, so a
+// mistyped --out cannot delete someone's files. An absent dir is fine.
+func clearBatchFolder(dir string) error {
+	entries, err := os.ReadDir(dir)
+	switch {
+	case errors.Is(err, fs.ErrNotExist):
+		return nil
+	case err != nil:
+		return inputError("output folder", err)
+	}
+	if len(entries) == 0 {
+		return nil
+	}
+	if _, err := os.Lstat(filepath.Join(dir, ManifestName)); err != nil {
+		return inputError(fmt.Sprintf("%s holds %s but no %s, so it is not a batch folder; --force replaces only a batch folder: choose another --out",
+			dir, plural.Count(len(entries), "entry", "entries"), ManifestName), outdir.ErrExists)
+	}
+	for _, e := range entries {
+		if err := os.RemoveAll(filepath.Join(dir, e.Name())); err != nil {
+			return fmt.Errorf("batch: clearing %s: %w", dir, err)
+		}
+	}
+	return nil
 }
 
 // pendingJobs lists the (case, realization) pairs still to run, in

@@ -30,7 +30,7 @@ func newDemoCmd(g *globalOptions, stdout, stderr io.Writer) *cobra.Command {
 		},
 	}
 	cmd.Flags().StringVarP(&o.out, "out", "o", "slipfront-demo", "output folder")
-	cmd.Flags().BoolVar(&o.force, "force", false, "write into an existing, non-empty output folder")
+	o.addForce(cmd)
 	return cmd
 }
 

@@ -43,7 +43,15 @@ func TestExitCodes(t *testing.T) {
 		{"too many fractures", []string{"generate", "demo", "--set", "numerics.max_fractures=10", "--out", filepath.Join(dir, "cap")}, exitBadInput, "max_fractures"},
 		{"bare viscosity", []string{"scenario", "check", "demo", "--set", "fluids.slickwater.viscosity=20"}, exitBadInput, `needs a unit: write "20 cP" or "20 mPa.s"`},
 		{"message units", []string{"scenario", "check", "demo", "--set", "schedule.pressure_cap=10MPa"}, exitBadInput, "initial pore pressure, 31.2 MPa"},
-		{"check ok", []string{"scenario", "check", "demo"}, exitOK, ""},
+		{"check ok", []string{"scenario", "check", "demo"}, exitOK, "warning: demo.toml:118: fluids.linear_gel: no stage pumps this fluid"},
+		{"mistyped fluid", []string{"scenario", "check", "demo", "--set", "fluids.slickwatr.viscosity=20cP"}, exitBadInput,
+			`--set fluids.slickwatr.viscosity=20cP: the scenario has no fluids.slickwatr and nothing names it (fluids: linear_gel, slickwater (did you mean "slickwater"?))`},
+		{"unpumped fluid", []string{"scenario", "check", "demo", "--set", "fluids.linear_gel.viscosity=5cP"}, exitBadInput,
+			"--set fluids.linear_gel.viscosity=5cP: changes nothing a run uses: no stage pumps fluids.linear_gel (the stages pump slickwater)"},
+		{"declared fluid", []string{"scenario", "check", "demo", "--set", "+fluids.gel.viscosity=5cP"}, exitOK,
+			"warning: --set +fluids.gel.viscosity=5cP: no stage pumps this fluid"},
+		{"key of another law", []string{"scenario", "check", "demo", "--set", "sets[0].size.mean=30m"}, exitBadInput,
+			"--set sets[0].size.mean=30m: changes nothing a run uses: sets[0].size.mean is read only when"},
 		{"geographic CRS", []string{"run", "single-fracture", "--set", "domain.crs=EPSG:4326", "--out", filepath.Join(dir, "geo")}, exitBadInput, "projected CRS"},
 		{"negative inspect time", []string{"inspect", "../../snapshot/testdata/small.snap", "--time", "-5s"}, exitBadInput, "--time"},
 	}
@@ -62,9 +70,57 @@ func TestTemplateAndShow(t *testing.T) {
 	if code != exitOK || !strings.Contains(out, "[numerics]") || !strings.Contains(out, "Caution") {
 		t.Errorf("template: exit %d, output %.200q", code, out)
 	}
-	code, out, _ = runCLI(t, "scenario", "show", "demo")
+	code, out, stderr := runCLI(t, "scenario", "show", "demo")
 	if code != exitOK || !strings.Contains(out, `name = "Demo pad (invented)"`) {
 		t.Errorf("show demo: exit %d", code)
+	}
+	if want := "demo.toml reads demo-faults.csv beside it; write them together with: slipfront scenario show demo --out DIR"; !strings.Contains(stderr, want) {
+		t.Errorf("show demo: stderr %q, want %q", stderr, want)
+	}
+}
+
+// digestLine returns the digest line of "scenario check".
+func digestLine(t *testing.T, out string) string {
+	t.Helper()
+	for _, l := range strings.Split(out, "\n") {
+		if strings.HasPrefix(strings.TrimSpace(l), "digest") {
+			return strings.TrimSpace(l)
+		}
+	}
+	t.Fatalf("no digest line in %q", out)
+	return ""
+}
+
+// "scenario show NAME --out DIR" writes a folder that checks as the
+// example does (same digest), for every example; a second write needs
+// --force.
+func TestShowRoundTrip(t *testing.T) {
+	names := scenarios.Examples()
+	if len(names) < 2 {
+		t.Fatalf("examples %v", names)
+	}
+	for _, name := range names {
+		t.Run(name, func(t *testing.T) {
+			dir := filepath.Join(t.TempDir(), "copy")
+			code, _, stderr := runCLI(t, "scenario", "show", name, "--out", dir)
+			if code != exitOK || !strings.Contains(stderr, "wrote "+filepath.Join(dir, name+".toml")) {
+				t.Fatalf("show --out: exit %d: %s", code, stderr)
+			}
+			code, copied, stderr := runCLI(t, "scenario", "check", filepath.Join(dir, name+".toml"))
+			if code != exitOK {
+				t.Fatalf("check the copy: exit %d: %s", code, stderr)
+			}
+			_, embedded, _ := runCLI(t, "scenario", "check", name)
+			if a, b := digestLine(t, copied), digestLine(t, embedded); a != b {
+				t.Errorf("the copy checks as %q, the example as %q", a, b)
+			}
+			if code, _, stderr := runCLI(t, "scenario", "show", name, "--out", dir); code != exitBadInput || !strings.Contains(stderr, "--force") {
+				t.Errorf("second show --out: exit %d: %s", code, stderr)
+			}
+			if code, _, stderr := runCLI(t, "scenario", "show", name, "--out", dir, "--force"); code != exitOK {
+				t.Errorf("show --out --force: exit %d: %s", code, stderr)
+			}
+		})
 	}
 }
 
@@ -225,6 +281,15 @@ func TestBatchAndMerge(t *testing.T) {
 	code, out, stderr := runCLI(t, "merge", filepath.Join(dir, "s1"), filepath.Join(dir, "s0"), "--out", filepath.Join(dir, "merged"))
 	if code != exitOK || !strings.Contains(out, "viscosity=20cP") {
 		t.Fatalf("merge: exit %d: %s\n%s", code, stderr, out)
+	}
+	// merge takes --force as every command does: it replaces an earlier
+	// merged folder.
+	code, _, stderr = runCLI(t, "merge", filepath.Join(dir, "s1"), filepath.Join(dir, "s0"), "--out", filepath.Join(dir, "merged"))
+	if code != exitBadInput || !strings.Contains(stderr, "use --force") {
+		t.Errorf("merge into an earlier merge: exit %d: %s", code, stderr)
+	}
+	if code, _, stderr := runCLI(t, "merge", filepath.Join(dir, "s1"), filepath.Join(dir, "s0"), "--out", filepath.Join(dir, "merged"), "--force"); code != exitOK {
+		t.Fatalf("merge --force: exit %d: %s", code, stderr)
 	}
 	// 20 cP diffuses 20 times slower than 1 cP (D = e²/(12μc_f)), so the
 	// same injection stimulates less: compare the P50 final areas.
@@ -390,6 +455,10 @@ func TestUnsafeInputs(t *testing.T) {
 		{"run beyond memory", []string{"run", "single-fracture", "--set", "numerics.element_length=1 cm", "--memory-limit", "50MB", "--out", out},
 			"the simulation would take about"},
 		{"bad memory limit", []string{"run", "single-fracture", "--memory-limit", "lots", "--out", out}, "--memory-limit lots"},
+		{"mistyped sweep fluid", []string{"batch", "single-fracture", "-n", "2", "--sweep", "fluids.watr.viscosity=1cP,20cP", "--out", out},
+			"--sweep fluids.watr.viscosity: value \"1cP\": --set fluids.watr.viscosity=1cP: the scenario has no fluids.watr"},
+		{"sweep of the base value", []string{"batch", "single-fracture", "-n", "2", "--sweep", "fluids.water.viscosity=1cP", "--out", out},
+			"--sweep fluids.water.viscosity changes nothing a run uses"},
 		{"realizations beyond any batch", []string{"batch", "single-fracture", "--realizations", "1000000000000", "--out", out}, "--realizations 1000000000000: must be 1 to 1000000"},
 		{"negative realization", []string{"run", "single-fracture", "--realization", "-1", "--out", out}, "realization -1: must be ≥ 0"},
 	}
