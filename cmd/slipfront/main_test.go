@@ -540,3 +540,48 @@ func TestByteIdenticalOutputs(t *testing.T) {
 	sameFolders(t, filepath.Join(dir, "w1"), filepath.Join(dir, "w2"))
 	sameFolders(t, filepath.Join(dir, "w1"), filepath.Join(dir, "merged"))
 }
+
+// "slipfront --version" prints what "slipfront version" prints.
+func TestVersionFlag(t *testing.T) {
+	code, flag, _ := runCLI(t, "--version")
+	_, cmd, _ := runCLI(t, "version")
+	if code != exitOK || flag != cmd || !strings.HasPrefix(flag, "slipfront ") {
+		t.Errorf("--version: exit %d, %q; version: %q", code, flag, cmd)
+	}
+}
+
+// inspect on a folder says so with exit 2 and points to the snapshot of a
+// run folder.
+func TestInspectFolder(t *testing.T) {
+	root := t.TempDir()
+	snap, err := os.ReadFile("../../snapshot/testdata/small.snap")
+	if err != nil {
+		t.Fatal(err)
+	}
+	dirs := map[string]string{"run": "run.snap", "run.partial": "run.snap", "batch": "manifest.json", "other": ""}
+	for dir, file := range dirs {
+		if err := os.MkdirAll(filepath.Join(root, dir), 0o755); err != nil {
+			t.Fatal(err)
+		}
+		if file != "" {
+			if err := os.WriteFile(filepath.Join(root, dir, file), snap, 0o644); err != nil {
+				t.Fatal(err)
+			}
+		}
+	}
+	tests := []struct{ dir, want string }{
+		{"run", "run is a folder (a run folder), not a snapshot file; inspect its snapshot with: slipfront inspect " + filepath.Join(root, "run", "run.snap")},
+		{"run.partial", "(the partial folder of a stopped run), not a snapshot file; inspect its snapshot with: slipfront inspect " + filepath.Join(root, "run.partial", "run.snap")},
+		{"batch", "batch is a folder (a batch folder, which keeps no snapshots), not a snapshot file"},
+		{"other", "other is a folder, not a snapshot file"},
+	}
+	for _, tc := range tests {
+		code, out, stderr := runCLI(t, "inspect", filepath.Join(root, tc.dir))
+		if code != exitBadInput || out != "" || !strings.Contains(stderr, tc.want) {
+			t.Errorf("inspect %s: exit %d, stdout %q, stderr %q; want exit 2 and %q", tc.dir, code, out, stderr, tc.want)
+		}
+	}
+	if code, out, stderr := runCLI(t, "inspect", filepath.Join(root, "run", "run.snap")); code != exitOK || !strings.Contains(out, "frames") {
+		t.Errorf("inspect the pointed snapshot: exit %d: %s", code, stderr)
+	}
+}

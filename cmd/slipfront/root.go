@@ -74,6 +74,7 @@ func run(ctx context.Context, args []string, stdout, stderr io.Writer) int {
 	}
 	root.SetOut(stdout)
 	root.SetErr(stderr)
+	addVersionFlag(root)
 	root.SetArgs(args)
 	root.PersistentFlags().BoolVarP(&g.quiet, "quiet", "q", false, "print no progress or status lines")
 	root.PersistentFlags().StringVar(&g.memoryLimit, "memory-limit", "", "memory a run may take, e.g. 8GB or 512MiB; scenarios estimated to need more are refused before they start (default half of the machine's memory)")
