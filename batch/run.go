@@ -56,7 +56,7 @@ type Options struct {
 	// Progress receives progress reports; nil for none. IsTerminal selects
 	// a redrawn bar with rate and time left; otherwise plain lines are
 	// written at each tenth of the work and at least every
-	// ProgressInterval (default 30 s).
+	// ProgressInterval while it runs (default one minute), for logs.
 	Progress         io.Writer
 	IsTerminal       bool
 	ProgressInterval time.Duration
@@ -128,7 +128,7 @@ func Run(ctx context.Context, opts Options) (*Summary, error) {
 		sum.StaleTemps += n
 	}
 	jobs := pendingJobs(opts, m, sum)
-	prog := newProgress(opts.Progress, opts.IsTerminal, opts.ProgressInterval)
+	prog := newReporter(opts.Progress, opts.IsTerminal, opts.ProgressInterval)
 	prog.start(len(jobs), sum.Resumed, sum.Owned)
 	jr := &jobRunner{opts: opts, m: m, cases: cases, sum: sum, prog: prog}
 	err = jr.run(ctx, jobs)
@@ -353,7 +353,7 @@ type jobRunner struct {
 	m     *Manifest
 	cases []Case
 	sum   *Summary
-	prog  progress
+	prog  reporter
 	// cancel stops the other workers after the first failure.
 	cancel context.CancelFunc
 

@@ -215,6 +215,11 @@ func runQuickDemo(t *testing.T) string {
 			quickDemoErr = fmt.Sprintf("run: exit %d: %s", code, stderr)
 		case !strings.Contains(out, "W2:3") || !strings.Contains(out, "Caution"):
 			quickDemoErr = "stage table lacks a stage or the caution:\n" + out
+		case strings.Count(stderr, "\nsimulating: ") < 9 || !strings.Contains(stderr, "h simulated), "):
+			// stderr is no terminal here, as in a Slurm log: a line per tenth.
+			quickDemoErr = "no progress line per tenth of the run on stderr:\n" + stderr
+		case !strings.Contains(stderr, "network: ") || strings.Contains(stderr, " 1 fractures"):
+			quickDemoErr = "status lines:\n" + stderr
 		}
 	})
 	if quickDemoErr != "" {
@@ -367,7 +372,7 @@ func TestExportRun(t *testing.T) {
 		want string
 	}{
 		{[]string{"--format", "shp"}, "format"},
-		{[]string{"--format", "geojson", "--layer", "nope"}, `no layer "nope"`},
+		{[]string{"--format", "geojson", "--layer", "nope"}, `no layer "nope" in a run; layers: fractures, conduits, stimulated_area`},
 		{[]string{"--format", "geotiff", "--layer", "first_slip_time", "--time", "99h"}, "outside the run"},
 		{[]string{"--format", "quakeml", "--out", filepath.Join(out, "events.xml")}, "--force"},
 	}
