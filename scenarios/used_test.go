@@ -1,10 +1,13 @@
 package scenarios
 
 import (
+	"errors"
 	"reflect"
 	"slices"
 	"strings"
 	"testing"
+
+	"slipfront/internal/badinput"
 )
 
 // withGel is minimal with a second fluid that no stage pumps.
@@ -38,6 +41,10 @@ func TestOverridesThatChangeNothing(t *testing.T) {
 			[]string{"wells[0].conduit_aperture is read only when wells[0].conduit_half_length > 0 (it is 0 m)"}},
 		{"injection pressure under rate control", minimal, []string{"schedule.injection_pressure=40MPa"},
 			[]string{`schedule.injection_pressure is read only when schedule.control is pressure (it is "rate")`}},
+		{"a stage beyond the list", minimal, []string{"wells[0].stages[2].name=3"},
+			[]string{"--set wells[0].stages[2].name=3: index 2 out of range: the scenario has 2 entries in wells[0].stages"}},
+		{"a well beyond the list", minimal, []string{"wells[1].name=B"},
+			[]string{"--set wells[1].name=B: index 1 out of range: the scenario has 1 entry in wells"}},
 		{"every such override at once", minimal, []string{"sets[1].orientation.kappa=15", "sets[0].size.mean=30m"},
 			[]string{"sets[1].orientation.kappa=15: changes nothing", "sets[0].size.mean=30m: changes nothing"}},
 	}
@@ -169,4 +176,35 @@ func TestExampleWarnings(t *testing.T) {
 	if _, err := LoadExample("demo", Override{Key: "schedule.fluid", Value: "linear_gel"}); err != nil {
 		t.Error(err)
 	}
+}
+
+// Any override on a valid scenario either parses or fails with bad input
+// and a message, never a panic; what parses has a used digest, and a
+// refused key is named in the message.
+func FuzzOverride(f *testing.F) {
+	for _, set := range []string{"fluids.water.viscosity=2cP", "fluids.watr.viscosity=2cP", "+fluids.gel.viscosity=5cP",
+		"+rock.cohesion=1MPa", "sets[1].orientation.kappa=15", "sets[0].size.mean=30m", "wells[0].conduit_aperture=2mm",
+		"schedule.injection_pressure=40MPa", "wells[0].stages[0].fluid=gel", "fluids[0].viscosity=1cP", "fluids=3",
+		"fluids.water=3", "+fluids.gel=3", "+fluids=3", "sets[9].name=x", "wells[0].stages[1].clusters=[\"480 m\"]"} {
+		f.Add(set)
+	}
+	f.Fuzz(func(t *testing.T, set string) {
+		ov, err := ParseOverride(set)
+		if err != nil {
+			if !errors.Is(err, badinput.Err) {
+				t.Fatalf("%q: %v is not bad input", set, err)
+			}
+			return
+		}
+		s, err := Parse("fuzz.toml", []byte(withGel), nil, ov)
+		if err != nil {
+			if !errors.Is(err, badinput.Err) || err.Error() == "" {
+				t.Fatalf("%q: %v", set, err)
+			}
+			return
+		}
+		if s.UsedDigest() == "" {
+			t.Fatalf("%q: no used digest", set)
+		}
+	})
 }
