@@ -220,7 +220,7 @@ func (d *decoder) applyOverrides(tree map[string]any, overrides []Override) erro
 		var have []string
 		for k := range tree[table].(map[string]any) {
 			if _, isAdded := added[table+"."+k]; !isAdded {
-				have = append(have, k)
+				have = append(have, table+"."+k)
 			}
 		}
 		slices.Sort(have)
@@ -228,8 +228,8 @@ func (d *decoder) applyOverrides(tree map[string]any, overrides []Override) erro
 		if list == "" {
 			list = "none"
 		}
-		return o.errorf("the scenario has no %s and nothing names it (%s: %s%s), so this would add an entry that no run uses; declare a new one with a leading +: --set %s%s=%s",
-			entry, table, list, suggest(name, have), newMark, o.Key, o.Value)
+		return o.errorf("the scenario has no %s%s and nothing names it (it has %s): this would add an entry that no run uses; to add one on purpose, declare it with a leading +: --set %s%s=%s",
+			entry, suggest(entry, have), list, newMark, o.Key, o.Value)
 	}
 	return nil
 }

@@ -24,9 +24,10 @@ func TestOverridesThatChangeNothing(t *testing.T) {
 		want []string
 	}{
 		{"mistyped fluid", minimal, []string{"fluids.watr.viscosity=20cP"},
-			[]string{"--set fluids.watr.viscosity=20cP: the scenario has no fluids.watr", `(fluids: water (did you mean "water"?))`, "--set +fluids.watr.viscosity=20cP"}},
+			[]string{`--set fluids.watr.viscosity=20cP: the scenario has no fluids.watr (did you mean "fluids.water"?) and nothing names it (it has fluids.water)`,
+				"declare it with a leading +: --set +fluids.watr.viscosity=20cP"}},
 		{"mistyped fluid, no close name", minimal, []string{"fluids.brine.compressibility=0.4/GPa"},
-			[]string{"--set fluids.brine.compressibility=0.4/GPa: the scenario has no fluids.brine and nothing names it (fluids: water)"}},
+			[]string{"--set fluids.brine.compressibility=0.4/GPa: the scenario has no fluids.brine and nothing names it (it has fluids.water)"}},
 		{"declared fluid exists", minimal, []string{"+fluids.water.viscosity=2cP"},
 			[]string{"--set +fluids.water.viscosity=2cP: fluids.water exists already; drop the +"}},
 		{"declared key outside a named table", minimal, []string{"+rock.cohesion=1MPa"},

@@ -47,7 +47,7 @@ func TestExitCodes(t *testing.T) {
 		{"force without out", []string{"scenario", "show", "demo", "--force"}, exitBadInput, "--force replaces the folder of --out"},
 		{"check ok", []string{"scenario", "check", "demo"}, exitOK, "warning: demo.toml:118: fluids.linear_gel: no stage pumps this fluid"},
 		{"mistyped fluid", []string{"scenario", "check", "demo", "--set", "fluids.slickwatr.viscosity=20cP"}, exitBadInput,
-			`--set fluids.slickwatr.viscosity=20cP: the scenario has no fluids.slickwatr and nothing names it (fluids: linear_gel, slickwater (did you mean "slickwater"?))`},
+			`--set fluids.slickwatr.viscosity=20cP: the scenario has no fluids.slickwatr (did you mean "fluids.slickwater"?) and nothing names it`},
 		{"unpumped fluid", []string{"scenario", "check", "demo", "--set", "fluids.linear_gel.viscosity=5cP"}, exitBadInput,
 			"--set fluids.linear_gel.viscosity=5cP: changes nothing a run uses: no stage pumps fluids.linear_gel (the stages pump slickwater)"},
 		{"declared fluid", []string{"scenario", "check", "demo", "--set", "+fluids.gel.viscosity=5cP"}, exitOK,
