@@ -23,7 +23,12 @@
 // over the sweeps in the order given, the first sweep outermost; without
 // sweeps there is one case, the base scenario. Every sweep value is loaded
 // and validated on its own, and every case is loaded, before any work
-// starts.
+// starts. A sweep must change the run: one whose every value gives the
+// base scenario's run (scenarios.Scenario.UsedDigest: the scenario without
+// what no run reads, such as a fluid no stage pumps) is refused, and so
+// are two values that give the same scenario; the scenario loader refuses
+// a value of a key that no run reads and a key that adds a fluid nothing
+// names (a mistyped name).
 //
 // Common random numbers. Realization r of every case is run with the
 // case's scenario (same seed unless the seed itself is swept) and r; the

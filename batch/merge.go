@@ -11,6 +11,7 @@ import (
 	"strings"
 
 	"slipfront/internal/outdir"
+	"slipfront/internal/plural"
 )
 
 // Merge combines the shard folders of one batch into out and writes the
@@ -18,12 +19,19 @@ import (
 // apart from the shard index), one folder per shard 0 … n−1, each
 // complete; otherwise Merge returns an error matching badinput.Err that names
 // the folder and the difference or what is missing. out must not exist or
-// be empty. Result files are hard-linked when possible, else copied. The
-// merged folder is a complete batch of one shard: its files are the same
-// bytes as those of the batch run in one process.
-func Merge(ctx context.Context, dirs []string, out string) error {
+// be empty, or hold a batch when force is set (it is replaced, as by
+// Options.Force; never one of the shard folders). Result files are
+// hard-linked when possible, else copied. The merged folder is a complete
+// batch of one shard: its files are the same bytes as those of the batch
+// run in one process.
+func Merge(ctx context.Context, dirs []string, out string, force bool) error {
 	if len(dirs) == 0 {
 		return inputErrorf("merge: no shard folders given")
+	}
+	for _, d := range dirs {
+		if sameFolder(d, out) {
+			return inputErrorf("merge: --out %s is one of the shard folders; choose a new folder", out)
+		}
 	}
 	ms := make([]*Manifest, len(dirs))
 	for i, d := range dirs {
@@ -46,6 +54,11 @@ func Merge(ctx context.Context, dirs []string, out string) error {
 	}
 	for i, d := range dirs {
 		if err := checkComplete(ctx, d, ms[i]); err != nil {
+			return err
+		}
+	}
+	if force {
+		if err := clearBatchFolder(out); err != nil {
 			return err
 		}
 	}
@@ -94,7 +107,11 @@ func checkShardSet(dirs []string, ms []*Manifest) error {
 		}
 	}
 	if len(missing) > 0 {
-		return inputErrorf("merge: shard %s missing: give all %d shard folders of the batch", strings.Join(missing, ", "), n)
+		what := "shard " + missing[0] + " is"
+		if len(missing) > 1 {
+			what = "shards " + strings.Join(missing, ", ") + " are"
+		}
+		return inputErrorf("merge: %s missing: give all %d shard folders of the batch", what, n)
 	}
 	return nil
 }
@@ -124,8 +141,15 @@ func checkComplete(ctx context.Context, dir string, m *Manifest) error {
 		}
 	}
 	if missing+bad > 0 {
-		return inputErrorf("merge: shard %s in %s is incomplete: %d results missing and %d unreadable (first: %s); finish it with --resume",
-			m.Shard, dir, missing, bad, first)
+		return inputErrorf("merge: shard %s in %s is incomplete: %s missing and %d unreadable (first: %s); finish it with --resume",
+			m.Shard, dir, plural.S(missing, "result"), bad, first)
 	}
 	return nil
+}
+
+// sameFolder reports whether a and b name the same existing folder.
+func sameFolder(a, b string) bool {
+	ia, errA := os.Stat(a)
+	ib, errB := os.Stat(b)
+	return errA == nil && errB == nil && os.SameFile(ia, ib)
 }

@@ -5,11 +5,14 @@ import (
 	"io"
 	"time"
 
+	"slipfront/internal/plural"
+	"slipfront/internal/progress"
+
 	"github.com/schollz/progressbar/v3"
 )
 
-// progress reports a batch's advance. Calls are serialized by the caller.
-type progress interface {
+// reporter reports a batch's advance. Calls are serialized by the caller.
+type reporter interface {
 	// start: todo results to compute now, resumed already done of owned.
 	start(todo, resumed, owned int)
 	// step: one more result done.
@@ -18,17 +21,14 @@ type progress interface {
 	finish(ok bool)
 }
 
-func newProgress(w io.Writer, terminal bool, every time.Duration) progress {
+func newReporter(w io.Writer, terminal bool, every time.Duration) reporter {
 	switch {
 	case w == nil:
 		return silentProgress{}
 	case terminal:
 		return &barProgress{w: w}
 	}
-	if every <= 0 {
-		every = 30 * time.Second
-	}
-	return &lineProgress{w: w, every: every, now: time.Now}
+	return &lineProgress{w: w, every: every}
 }
 
 type silentProgress struct{}
@@ -45,7 +45,7 @@ type barProgress struct {
 
 func (p *barProgress) start(todo, resumed, owned int) {
 	if todo == 0 {
-		fmt.Fprintf(p.w, "batch: all %d results already done\n", owned)
+		fmt.Fprintf(p.w, "batch: all %s already done\n", plural.S(owned, "result"))
 		return
 	}
 	desc := "realizations"
@@ -82,47 +82,48 @@ func (p *barProgress) finish(ok bool) {
 }
 
 // lineProgress writes a plain line whenever another tenth of the work is
-// done, or when every has passed since the last line.
+// done, and at least every interval while it runs (internal/progress).
 type lineProgress struct {
-	w                   io.Writer
-	every               time.Duration
-	now                 func() time.Time
-	t0, last            time.Time
-	todo, done, resumed int
-	owned, tenth        int
+	w          io.Writer
+	every      time.Duration
+	lines      *progress.Lines
+	t0         time.Time
+	todo, done int
 }
 
 func (p *lineProgress) start(todo, resumed, owned int) {
-	p.todo, p.resumed, p.owned = todo, resumed, owned
-	p.t0 = p.now()
-	p.last = p.t0
+	p.todo, p.t0 = todo, time.Now()
 	if resumed > 0 {
-		fmt.Fprintf(p.w, "batch: %d of %d results already done, %d to run\n", resumed, owned, todo)
+		fmt.Fprintf(p.w, "batch: %d of %s already done, %d to run\n", resumed, plural.S(owned, "result"), todo)
 	} else {
-		fmt.Fprintf(p.w, "batch: %d results to run\n", todo)
+		fmt.Fprintf(p.w, "batch: %s to run\n", plural.S(todo, "result"))
 	}
+	if todo == 0 {
+		return
+	}
+	p.lines = progress.Start(p.w, p.every, func(s progress.Status) string {
+		rate := s.Done / s.Elapsed.Seconds()
+		line := fmt.Sprintf("batch: %.0f/%.0f done (%d%%), %.3g per s", s.Done, s.Total, s.Percent(), rate)
+		if left := s.LeftText(); left != "" {
+			line += ", " + left
+		}
+		return line
+	})
 }
 
 func (p *lineProgress) step() {
 	p.done++
-	now := p.now()
-	tenth := p.done * 10 / max(p.todo, 1)
-	if tenth == p.tenth && now.Sub(p.last) < p.every {
-		return
-	}
-	p.tenth, p.last = tenth, now
-	elapsed := now.Sub(p.t0)
-	rate := float64(p.done) / elapsed.Seconds()
-	left := time.Duration(float64(p.todo-p.done) / rate * float64(time.Second))
-	fmt.Fprintf(p.w, "batch: %d/%d done (%d%%), %.3g per s, about %s left\n",
-		p.done, p.todo, p.done*100/max(p.todo, 1), rate, left.Round(time.Second))
+	p.lines.Set(float64(p.done), float64(p.todo))
 }
 
 func (p *lineProgress) finish(ok bool) {
-	elapsed := p.now().Sub(p.t0).Round(time.Millisecond)
+	if p.lines != nil {
+		p.lines.Stop()
+	}
+	elapsed := time.Since(p.t0).Round(time.Millisecond)
 	if ok {
-		fmt.Fprintf(p.w, "batch: %d results computed in %s\n", p.done, elapsed)
+		fmt.Fprintf(p.w, "batch: %s computed in %s\n", plural.S(p.done, "result"), elapsed)
 		return
 	}
-	fmt.Fprintf(p.w, "batch: stopped after %d of %d results (%s)\n", p.done, p.todo, elapsed)
+	fmt.Fprintf(p.w, "batch: stopped after %d of %s (%s)\n", p.done, plural.S(p.todo, "result"), elapsed)
 }

@@ -15,6 +15,7 @@ import (
 
 	"slipfront/internal/crash"
 	"slipfront/internal/outdir"
+	"slipfront/internal/plural"
 	"slipfront/internal/version"
 	"slipfront/scenarios"
 )
@@ -45,15 +46,17 @@ type Options struct {
 	// Resume continues the batch in Out: results already there and valid
 	// are kept. Out must hold the same batch (manifest), or nothing.
 	Resume bool
-	// Force starts over in an Out that holds files: an earlier batch's
-	// results, aggregates and manifest are deleted first.
+	// Force replaces an earlier batch in Out: everything in Out is deleted
+	// before the batch starts (a batch folder is written in place, so that
+	// Resume can continue it). Out must hold a batch (its manifest) or
+	// nothing: Force never deletes a folder that slipfront did not write.
 	Force bool
 	// Run computes one realization of one case.
 	Run RunFunc
 	// Progress receives progress reports; nil for none. IsTerminal selects
 	// a redrawn bar with rate and time left; otherwise plain lines are
 	// written at each tenth of the work and at least every
-	// ProgressInterval (default 30 s).
+	// ProgressInterval while it runs (default one minute), for logs.
 	Progress         io.Writer
 	IsTerminal       bool
 	ProgressInterval time.Duration
@@ -125,7 +128,7 @@ func Run(ctx context.Context, opts Options) (*Summary, error) {
 		sum.StaleTemps += n
 	}
 	jobs := pendingJobs(opts, m, sum)
-	prog := newProgress(opts.Progress, opts.IsTerminal, opts.ProgressInterval)
+	prog := newReporter(opts.Progress, opts.IsTerminal, opts.ProgressInterval)
 	prog.start(len(jobs), sum.Resumed, sum.Owned)
 	jr := &jobRunner{opts: opts, m: m, cases: cases, sum: sum, prog: prog}
 	err = jr.run(ctx, jobs)
@@ -171,7 +174,7 @@ func (o *Options) check() error {
 		return err
 	}
 	if n := len(Cases(o.Sweeps)) * o.Realizations; n > MaxResults {
-		return inputErrorf("%d cases × %d realizations = %d results: at most %d; use fewer realizations or sweep values", len(Cases(o.Sweeps)), o.Realizations, n, MaxResults)
+		return inputErrorf("%s × %s = %d results: at most %d; use fewer realizations or sweep values", plural.S(len(Cases(o.Sweeps)), "case"), plural.S(o.Realizations, "realization"), n, MaxResults)
 	}
 	o.Sweeps = slices.Clone(o.Sweeps)
 	for i, s := range o.Sweeps {
@@ -188,16 +191,8 @@ func makePlan(opts Options) (*Manifest, []Case, error) {
 		return nil, nil, inputError("scenario", err)
 	}
 	for _, sw := range opts.Sweeps {
-		digests := map[string]string{}
-		for _, v := range sw.Values {
-			s, err := opts.Load(scenarios.Override{Key: sw.Key, Value: v})
-			if err != nil {
-				return nil, nil, inputError(fmt.Sprintf("--sweep %s: value %q", sw.Key, v), err)
-			}
-			if other, dup := digests[s.Digest]; dup {
-				return nil, nil, inputErrorf("--sweep %s: values %q and %q give the same scenario", sw.Key, other, v)
-			}
-			digests[s.Digest] = v
+		if err := checkSweepChanges(opts, base, sw); err != nil {
+			return nil, nil, err
 		}
 	}
 	cases := Cases(opts.Sweeps)
@@ -229,40 +224,99 @@ func makePlan(opts Options) (*Manifest, []Case, error) {
 	return m, cases, nil
 }
 
-// batchFiles are the files and folders a batch writes, removed by Force.
-var batchFiles = []string{ResultsDir, ProbabilityDir, RealizationsName, PercentilesName, ComparisonName, WarningsName,
-	PairedName, PairedPercentilesName, SummaryName, CSVMetadataName, ManifestName}
+// checkSweepChanges loads the base scenario with each value of the sweep
+// on its own and refuses a sweep that changes nothing a run uses (every
+// value gives the base scenario's run, compared by
+// scenarios.Scenario.UsedDigest: a fluid declared new that no stage
+// pumps changes only what no run reads) and two values that give the same
+// scenario ("1 cP" and "0.001 Pa.s"). Loading refuses a value of a key
+// that no run reads, or that adds an entry nothing names.
+func checkSweepChanges(opts Options, base *scenarios.Scenario, sw Sweep) error {
+	digests := make([]string, len(sw.Values))
+	baseRun := base.UsedDigest()
+	unchanged := 0
+	for i, v := range sw.Values {
+		s, err := opts.Load(scenarios.Override{Key: sw.Key, Value: v})
+		if err != nil {
+			return inputError(fmt.Sprintf("--sweep %s: value %q", sw.Key, v), err)
+		}
+		digests[i] = s.Digest
+		if s.UsedDigest() == baseRun {
+			unchanged++
+		}
+	}
+	if unchanged == len(sw.Values) {
+		what := fmt.Sprintf("its value %q gives", sw.Values[0])
+		if len(sw.Values) > 1 {
+			what = "every value gives"
+		}
+		return inputErrorf("--sweep %s changes nothing a run uses: %s the base scenario's run; sweep other values or another key", sw.Key, what)
+	}
+	for i := range sw.Values {
+		for j := range i {
+			if digests[i] == digests[j] {
+				return inputErrorf("--sweep %s: values %q and %q give the same scenario", sw.Key, sw.Values[j], sw.Values[i])
+			}
+		}
+	}
+	return nil
+}
 
 // prepareFolder checks Out against the options, clears it for Force, and
 // writes the manifest.
 func prepareFolder(opts Options, m *Manifest) error {
 	old, err := readManifestFile(opts.Out)
 	switch {
+	case opts.Force:
+		if err := clearBatchFolder(opts.Out); err != nil {
+			return err
+		}
 	case err == nil && opts.Resume:
 		if field, want, got, differ := m.difference(old, true); differ {
 			return &MismatchError{Field: field, Want: want, Got: got, WantFrom: "this batch", Dir: opts.Out}
 		}
-	case err == nil && !opts.Force:
-		return inputError(opts.Out+" holds a batch; use --resume to continue it or --force to start over", outdir.ErrExists)
-	case err != nil && !errors.Is(err, fs.ErrNotExist) && !opts.Force:
-		return inputError("cannot use "+opts.Out+" (use --force to start over)", err)
-	case errors.Is(err, fs.ErrNotExist) && !opts.Force:
+	case err == nil:
+		return inputError(opts.Out+" holds a batch; use --resume to continue it or --force to replace it", outdir.ErrExists)
+	case !errors.Is(err, fs.ErrNotExist):
+		return inputError("cannot use "+opts.Out+" (use --force to replace it)", err)
+	default:
 		entries, rerr := os.ReadDir(opts.Out)
 		if rerr == nil && len(entries) > 0 {
-			return inputError(fmt.Sprintf("%s holds %d entries but no %s; use --force to write the batch into it", opts.Out, len(entries), ManifestName), outdir.ErrExists)
-		}
-	}
-	if opts.Force {
-		for _, name := range batchFiles {
-			if err := os.RemoveAll(filepath.Join(opts.Out, name)); err != nil {
-				return fmt.Errorf("batch: clearing %s: %w", opts.Out, err)
-			}
+			return inputError(fmt.Sprintf("%s holds %s but no %s, so it is not a batch folder; choose another --out", opts.Out,
+				plural.Count(len(entries), "entry", "entries"), ManifestName), outdir.ErrExists)
 		}
 	}
 	if err := os.MkdirAll(filepath.Join(opts.Out, ResultsDir), 0o755); err != nil {
 		return fmt.Errorf("batch: %w", err)
 	}
 	return writeFileAtomic(opts.Out, ManifestName, func(w io.Writer) error { return WriteManifest(w, m) })
+}
+
+// clearBatchFolder empties dir for --force. It refuses a folder that
+// holds something but no manifest: --force replaces a batch folder (or
+// the output folder of any command) only when slipfront wrote it, so a
+// mistyped --out cannot delete someone's files. An absent dir is fine.
+func clearBatchFolder(dir string) error {
+	entries, err := os.ReadDir(dir)
+	switch {
+	case errors.Is(err, fs.ErrNotExist):
+		return nil
+	case err != nil:
+		return inputError("output folder", err)
+	}
+	if len(entries) == 0 {
+		return nil
+	}
+	if _, err := os.Lstat(filepath.Join(dir, ManifestName)); err != nil {
+		return inputError(fmt.Sprintf("%s holds %s but no %s, so it is not a batch folder; --force replaces only a batch folder: choose another --out",
+			dir, plural.Count(len(entries), "entry", "entries"), ManifestName), outdir.ErrExists)
+	}
+	for _, e := range entries {
+		if err := os.RemoveAll(filepath.Join(dir, e.Name())); err != nil {
+			return fmt.Errorf("batch: clearing %s: %w", dir, err)
+		}
+	}
+	return nil
 }
 
 // pendingJobs lists the (case, realization) pairs still to run, in
@@ -299,7 +353,7 @@ type jobRunner struct {
 	m     *Manifest
 	cases []Case
 	sum   *Summary
-	prog  progress
+	prog  reporter
 	// cancel stops the other workers after the first failure.
 	cancel context.CancelFunc
 
@@ -323,8 +377,8 @@ func (jr *jobRunner) run(parent context.Context, jobs []job) error {
 	case jr.firstErr != nil:
 		return jr.firstErr
 	case parent.Err() != nil:
-		return fmt.Errorf("batch: interrupted with %d of %d results done; run again with --resume to finish: %w",
-			jr.sum.Resumed+jr.sum.Ran, jr.sum.Owned, parent.Err())
+		return fmt.Errorf("batch: interrupted with %d of %s done; run again with --resume to finish: %w",
+			jr.sum.Resumed+jr.sum.Ran, plural.S(jr.sum.Owned, "result"), parent.Err())
 	}
 	return nil
 }

@@ -6,6 +6,7 @@ import (
 	"encoding/csv"
 	"errors"
 	"fmt"
+	"io/fs"
 	"os"
 	"path/filepath"
 	"strings"
@@ -15,6 +16,7 @@ import (
 
 	"slipfront/dfn"
 	"slipfront/internal/badinput"
+	"slipfront/internal/outdir"
 	"slipfront/scenarios"
 )
 
@@ -50,10 +52,33 @@ func TestWorkersAndShardsGiveSameBytes(t *testing.T) {
 	}
 	merged := filepath.Join(root, "merged")
 	// Shard order on the command line does not matter.
-	if err := Merge(context.Background(), []string{shards[2], shards[0], shards[1]}, merged); err != nil {
+	if err := Merge(context.Background(), []string{shards[2], shards[0], shards[1]}, merged, false); err != nil {
 		t.Fatal(err)
 	}
 	sameFiles(t, "1 worker vs 3 shards merged", want, aggregateFiles(t, merged))
+
+	// --force replaces an earlier merge (a stale file of it goes too), and
+	// nothing else.
+	if err := Merge(context.Background(), shards, merged, false); !errors.Is(err, outdir.ErrExists) || !strings.Contains(err.Error(), "--force") {
+		t.Errorf("merge into an earlier merge without force: err = %v", err)
+	}
+	stale := filepath.Join(merged, "fan_0009.png")
+	if err := os.WriteFile(stale, []byte("old"), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if err := Merge(context.Background(), shards, merged, true); err != nil {
+		t.Fatalf("merge --force: %v", err)
+	}
+	sameFiles(t, "merged again with force", want, aggregateFiles(t, merged))
+	if _, err := os.Stat(stale); !errors.Is(err, fs.ErrNotExist) {
+		t.Errorf("merge --force kept a file of the earlier merge (%v)", err)
+	}
+	if err := Merge(context.Background(), shards, shards[1], true); !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), "is one of the shard folders") {
+		t.Errorf("merge into a shard folder: err = %v", err)
+	}
+	if _, err := os.Stat(filepath.Join(shards[1], ManifestName)); err != nil {
+		t.Errorf("a refused merge damaged its shard: %v", err)
+	}
 
 	// The aggregates are not empty: a header and one row per case ×
 	// realization, per case × time, per case.
@@ -303,7 +328,19 @@ func TestBadInput(t *testing.T) {
 		{"second value invalid", func(o *Options) { o.Sweeps = badSweep("fluids.slickwater.viscosity=1 cP,-3 cP") }, `"-3 cP"`},
 		{"value without unit", func(o *Options) { o.Sweeps = badSweep("schedule.rate=8 bbl/min,9") }, `"9"`},
 		{"table key", func(o *Options) { o.Sweeps = badSweep("fluids.slickwater=1,2") }, "fluids.slickwater"},
-		{"same scenario twice", func(o *Options) { o.Sweeps = badSweep("fluids.slickwater.viscosity=1 cP,0.001 Pa.s") }, "same scenario"},
+		{"same scenario twice", func(o *Options) { o.Sweeps = badSweep("fluids.slickwater.viscosity=2 cP,0.002 Pa.s") }, `values "2 cP" and "0.002 Pa.s" give the same scenario`},
+		{"only the base value", func(o *Options) { o.Sweeps = badSweep("fluids.slickwater.viscosity=1 cP") },
+			`--sweep fluids.slickwater.viscosity changes nothing a run uses: its value "1 cP" gives the base scenario's run`},
+		{"every value the base's", func(o *Options) { o.Sweeps = badSweep("fluids.slickwater.viscosity=1 cP,0.001 Pa.s") },
+			"fluids.slickwater.viscosity changes nothing a run uses: every value gives the base scenario's run"},
+		{"mistyped fluid", func(o *Options) { o.Sweeps = badSweep("fluids.slickwatr.viscosity=1 cP,20 cP") },
+			`--sweep fluids.slickwatr.viscosity: value "1 cP": --set fluids.slickwatr.viscosity=1 cP: the scenario has no fluids.slickwatr`},
+		{"unpumped fluid", func(o *Options) { o.Sweeps = badSweep("fluids.gel.viscosity=1 cP,20 cP") },
+			"--set fluids.gel.viscosity=1 cP: changes nothing a run uses: no stage pumps fluids.gel"},
+		{"declared fluid nothing pumps", func(o *Options) { o.Sweeps = badSweep("+fluids.brine.viscosity=1 cP,2 cP") },
+			"--sweep +fluids.brine.viscosity changes nothing a run uses: every value gives the base scenario's run"},
+		{"key of another law", func(o *Options) { o.Sweeps = badSweep("sets[0].size.mean=10 m,20 m") },
+			"sets[0].size.mean is read only when sets[0].size.distribution is lognormal or exponential"},
 		{"same key twice", func(o *Options) {
 			o.Sweeps = append(badSweep("seed=1,2"), badSweep("seed=3,4")...)
 		}, "given twice"},
@@ -361,10 +398,21 @@ func TestFolderRules(t *testing.T) {
 	}
 
 	other := t.TempDir()
-	os.WriteFile(filepath.Join(other, "notes.txt"), []byte("mine"), 0o644)
+	notes := filepath.Join(other, "notes.txt")
+	if err := os.WriteFile(notes, []byte("mine"), 0o644); err != nil {
+		t.Fatal(err)
+	}
 	o2 := testOptions(t, other)
-	if _, err := Run(context.Background(), o2); !errors.Is(err, badinput.Err) {
+	if _, err := Run(context.Background(), o2); !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), "not a batch folder") {
 		t.Errorf("batch into a folder of other files: err = %v, want bad input", err)
+	}
+	// --force replaces only a batch folder: it deletes nobody's notes.
+	o2.Force = true
+	if _, err := Run(context.Background(), o2); !errors.Is(err, outdir.ErrExists) || !strings.Contains(err.Error(), "--force replaces only a batch folder") {
+		t.Errorf("--force on a folder of other files: err = %v", err)
+	}
+	if b, err := os.ReadFile(notes); err != nil || string(b) != "mine" {
+		t.Errorf("--force touched a file it did not write: %q, %v", b, err)
 	}
 }
 
@@ -385,27 +433,27 @@ func TestMergeRefuses(t *testing.T) {
 	d0 := shard("d0", 0, 3, nil)
 
 	var mm *MismatchError
-	err := Merge(context.Background(), []string{a0, b1}, filepath.Join(root, "m1"))
+	err := Merge(context.Background(), []string{a0, b1}, filepath.Join(root, "m1"), false)
 	if !errors.As(err, &mm) || mm.Field != "scenario digest" || !strings.Contains(err.Error(), b1) {
 		t.Errorf("different scenarios: err = %v, want a MismatchError on the scenario digest naming %s", err, b1)
 	}
-	if err := Merge(context.Background(), []string{a0, c1}, filepath.Join(root, "m2")); !errors.As(err, &mm) || mm.Field != "realizations" {
+	if err := Merge(context.Background(), []string{a0, c1}, filepath.Join(root, "m2"), false); !errors.As(err, &mm) || mm.Field != "realizations" {
 		t.Errorf("different realizations: err = %v", err)
 	}
-	if err := Merge(context.Background(), []string{a0, d0}, filepath.Join(root, "m3")); !errors.As(err, &mm) || mm.Field != "shard count" {
+	if err := Merge(context.Background(), []string{a0, d0}, filepath.Join(root, "m3"), false); !errors.As(err, &mm) || mm.Field != "shard count" {
 		t.Errorf("different shard counts: err = %v", err)
 	}
-	if err := Merge(context.Background(), []string{a0}, filepath.Join(root, "m4")); !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), "shard 1/2 missing") {
+	if err := Merge(context.Background(), []string{a0}, filepath.Join(root, "m4"), false); !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), "shard 1/2 is missing") {
 		t.Errorf("missing shard: err = %v", err)
 	}
-	if err := Merge(context.Background(), []string{a0, a0}, filepath.Join(root, "m5")); !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), "both shard 0/2") {
+	if err := Merge(context.Background(), []string{a0, a0}, filepath.Join(root, "m5"), false); !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), "both shard 0/2") {
 		t.Errorf("same shard twice: err = %v", err)
 	}
-	if err := Merge(context.Background(), []string{a0, root}, filepath.Join(root, "m6")); !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), "not a batch folder") {
+	if err := Merge(context.Background(), []string{a0, root}, filepath.Join(root, "m6"), false); !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), "not a batch folder") {
 		t.Errorf("not a batch folder: err = %v", err)
 	}
 	os.Remove(filepath.Join(a1, ResultName(2, 3)))
-	if err := Merge(context.Background(), []string{a0, a1}, filepath.Join(root, "m7")); !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), "incomplete") {
+	if err := Merge(context.Background(), []string{a0, a1}, filepath.Join(root, "m7"), false); !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), "incomplete") {
 		t.Errorf("incomplete shard: err = %v", err)
 	}
 	for _, m := range []string{"m1", "m2", "m3", "m4", "m5", "m6", "m7"} {

@@ -132,7 +132,7 @@ func TestSlurmArray(t *testing.T) {
 		dirs = append(dirs, d)
 	}
 	merged := filepath.Join(cl.dir, "merged")
-	if err := Merge(context.Background(), dirs, merged); err != nil {
+	if err := Merge(context.Background(), dirs, merged, false); err != nil {
 		cl.dumpLogs(t)
 		t.Fatal(err)
 	}

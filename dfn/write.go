@@ -9,6 +9,7 @@ import (
 	"text/tabwriter"
 
 	"slipfront/internal/csvw"
+	"slipfront/internal/plural"
 )
 
 // The tables of a generate folder, described for csv-metadata.json
@@ -227,11 +228,11 @@ func WriteSummary(out io.Writer, n *Network, st NetworkStats) error {
 	if err := tw.Flush(); err != nil {
 		return err
 	}
-	fmt.Fprintf(w, "%d intersections (%.3g per trace), %d clusters, largest cluster holds %.1f%% of the trace length\n",
-		st.Intersections, st.MeanIntersectionsPerTrace, st.Clusters, 100*st.LargestClusterFraction)
+	fmt.Fprintf(w, "%s (%.3g per trace), %s, largest cluster holds %.1f%% of the trace length\n",
+		plural.S(st.Intersections, "intersection"), st.MeanIntersectionsPerTrace, plural.S(st.Clusters, "cluster"), 100*st.LargestClusterFraction)
 	for _, ws := range st.Wells {
-		fmt.Fprintf(w, "well %s: %d crossings over %.0f m (P10 %.4g 1/m), %d connected clusters with %d traces\n",
-			ws.Name, ws.Crossings, ws.PathLength, ws.P10, ws.ConnectedClusters, ws.ConnectedTraces)
+		fmt.Fprintf(w, "well %s: %s over %.0f m (P10 %.4g 1/m), %s with %s\n", ws.Name, plural.S(ws.Crossings, "crossing"),
+			ws.PathLength, ws.P10, plural.S(ws.ConnectedClusters, "connected cluster"), plural.S(ws.ConnectedTraces, "trace"))
 	}
 	return w.err
 }

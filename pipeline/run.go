@@ -3,6 +3,7 @@ package pipeline
 import (
 	"fmt"
 	"math"
+	"strings"
 	"time"
 
 	"github.com/paulmach/orb"
@@ -79,7 +80,7 @@ func (r *Run) Layer(name string) (gis.Layer, error) {
 			return l, nil
 		}
 	}
-	return gis.Layer{}, fmt.Errorf("no layer %q in a run; layers: %v", name, LayerNames)
+	return gis.Layer{}, fmt.Errorf("no layer %q in a run; layers: %s", name, strings.Join(LayerNames, ", "))
 }
 
 func line(a, b orb.Point) orb.LineString { return orb.LineString{a, b} }

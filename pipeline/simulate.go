@@ -12,6 +12,7 @@ import (
 	"slipfront/batch"
 	"slipfront/dfn"
 	"slipfront/internal/badinput"
+	"slipfront/internal/plural"
 	"slipfront/report"
 	"slipfront/scenarios"
 	"slipfront/sim"
@@ -87,7 +88,7 @@ func simulateInto(ctx context.Context, dir string, s *scenarios.Scenario, o Simu
 	if err != nil {
 		return nil, nil, err
 	}
-	fmt.Fprintf(status, "network: %d fractures, %d traces, %d intersections\n", len(net.Fractures), len(net.Traces), len(net.Intersections))
+	fmt.Fprintf(status, "network: %s, %s, %s\n", plural.S(len(net.Fractures), "fracture"), plural.S(len(net.Traces), "trace"), plural.S(len(net.Intersections), "intersection"))
 	snap, err := os.Create(filepath.Join(dir, SnapshotFile))
 	if err != nil {
 		return nil, nil, err

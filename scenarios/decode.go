@@ -17,8 +17,12 @@ type decoder struct {
 	file      string
 	lines     keyLines
 	overrides map[string]string // path → value as given to --set
-	tree      map[string]any    // the file's content, for values in messages
-	errs      Errors
+	applied   []applied         // the overrides in order
+	// newEntries are the named-table entries declared with "+", by path
+	// ("fluids.gel").
+	newEntries map[string]Override
+	tree       map[string]any // the file's content, for values in messages
+	errs       Errors
 }
 
 // fail records a problem with the value raw at path.
@@ -331,12 +335,12 @@ func (d *decoder) number(path string, raw any, kind unitKind) (float64, bool) {
 	if kind != "" {
 		s, ok := raw.(string)
 		if !ok {
-			example := "2600"
+			number := "2600"
 			switch raw.(type) {
 			case int64, float64:
-				example = renderValue(raw)
+				number = renderValue(raw)
 			}
-			d.fail(path, raw, "needs a unit, written as a string (%s: %s), e.g. \"%s %s\"", kind, unitNames(kind), example, unitTable[kind][0].name)
+			d.fail(path, raw, "%s, as a string", needsUnit(number, kind))
 			return 0, false
 		}
 		x, err := parseQuantity(s, kind)
@@ -421,24 +425,39 @@ func (r rangeSpec) check(x float64, kind unitKind) string {
 	if !r.set {
 		return ""
 	}
-	shown, unit := x, ""
-	if kind == kindAngle || kind == kindAzimuth {
-		shown, unit = x/degree, " deg"
-	} else if kind != "" {
-		unit = " " + unitTable[kind][0].name
+	if isAngle(kind) {
+		x /= degree
 	}
-	ok := (shown > r.lo || (!r.loOpen && shown == r.lo)) && (shown < r.hi || (!r.hiOpen && shown == r.hi))
-	if ok && !math.IsNaN(shown) {
+	ok := (x > r.lo || (!r.loOpen && x == r.lo)) && (x < r.hi || (!r.hiOpen && x == r.hi))
+	if ok && !math.IsNaN(x) {
 		return ""
 	}
-	return "must be " + r.describe(unit)
+	return "must be " + r.describeIn(kind)
+}
+
+// isAngle reports whether range tags of kind k are written in degrees
+// rather than SI.
+func isAngle(k unitKind) bool { return k == kindAngle || k == kindAzimuth }
+
+// describeIn describes the range (SI; degrees for angles) in the shown
+// unit of kind k (none for a plain number), or lists the allowed words.
+func (r rangeSpec) describeIn(k unitKind) string {
+	switch {
+	case len(r.words) > 0:
+		return strings.Join(r.words, "|")
+	case k == "":
+		return r.describe("")
+	case isAngle(k):
+		return r.describe(" deg")
+	}
+	u := shownUnit[k]
+	f := unitFactor(k, u)
+	shown := rangeSpec{set: r.set, lo: r.lo / f, hi: r.hi / f, loOpen: r.loOpen, hiOpen: r.hiOpen}
+	return shown.describe(" " + u)
 }
 
 func (r rangeSpec) describe(unit string) string {
-	num := func(v float64) string {
-		t := strconv.FormatFloat(v, 'g', -1, 64)
-		return strings.NewReplacer("e+0", "e", "e+", "e", "e-0", "e-").Replace(t)
-	}
+	num := formatNumber
 	if math.IsInf(r.hi, 1) {
 		if r.loOpen {
 			return "> " + num(r.lo) + unit

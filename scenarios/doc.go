@@ -15,6 +15,12 @@
 // must be > 0"). Unknown keys are errors with the closest known key
 // suggested. Overrides ("--set key=value") change single values by their
 // dotted key before validation, so they are checked exactly like the file.
+// An override may not add a fluid that nothing names unless its key
+// declares it with a leading "+" ("+fluids.gel.viscosity"), and may not
+// change a value that no run reads (a fluid no stage pumps, a key of a
+// law the scenario does not choose): a mistyped key never runs silently.
+// A fluid that no stage pumps is a warning (Scenario.Warnings).
+// UsedDigest identifies what a run uses, Digest everything.
 //
 // # Units
 //

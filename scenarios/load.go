@@ -12,10 +12,12 @@ import (
 	"path"
 	"path/filepath"
 	"reflect"
+	"slices"
 	"sort"
 	"strings"
 
 	"slipfront/internal/badinput"
+	"slipfront/internal/outdir"
 
 	"github.com/BurntSushi/toml"
 
@@ -43,6 +45,66 @@ func ExampleSource(name string) ([]byte, error) {
 		return nil, badinput.Errorf("no example scenario %q; examples: %s", name, strings.Join(Examples(), ", "))
 	}
 	return src, nil
+}
+
+// ExampleFile is one file of an embedded example.
+type ExampleFile struct {
+	Name string
+	Data []byte
+}
+
+// ExampleFiles returns the files of an embedded example: its TOML first,
+// then every file it names (the known-fracture table, a CRS WKT file), so
+// that the files written side by side load as the example does.
+func ExampleFiles(name string) ([]ExampleFile, error) {
+	s, err := LoadExample(name)
+	if err != nil {
+		return nil, err
+	}
+	src, err := ExampleSource(name)
+	if err != nil {
+		return nil, err
+	}
+	files := []ExampleFile{{Name: strings.TrimSuffix(name, ".toml") + ".toml", Data: src}}
+	for _, f := range []string{s.KnownFractures.File, s.Domain.CRSWKT} {
+		if f == "" {
+			continue
+		}
+		data, err := examples.ReadFile(path.Join("examples", f))
+		if err != nil {
+			panic("scenarios: example " + name + " names a file it lacks: " + err.Error())
+		}
+		files = append(files, ExampleFile{Name: f, Data: data})
+	}
+	return files, nil
+}
+
+// WriteExample writes the files of an embedded example (ExampleFiles)
+// into the folder dir and returns their paths. The folder is written as a
+// whole, through dir + ".partial" (internal/outdir): an existing dir is
+// replaced only with force, and only when it holds nothing but files of
+// that example.
+func WriteExample(name, dir string, force bool) ([]string, error) {
+	files, err := ExampleFiles(name)
+	if err != nil {
+		return nil, err
+	}
+	ours := func(n string) bool {
+		return slices.ContainsFunc(files, func(f ExampleFile) bool { return f.Name == n })
+	}
+	st, err := outdir.Begin(dir, force, ours)
+	if err != nil {
+		return nil, err
+	}
+	var paths []string
+	for _, f := range files {
+		if err := outdir.WriteFile(st.Dir, f.Name, func(w io.Writer) error { _, err := w.Write(f.Data); return err }); err != nil {
+			st.Abandon()
+			return nil, err
+		}
+		paths = append(paths, filepath.Join(dir, f.Name))
+	}
+	return paths, st.Commit()
 }
 
 // LoadExample reads an embedded example scenario with overrides applied.
@@ -86,13 +148,9 @@ func Parse(name string, src []byte, files fs.FS, overrides ...Override) (*Scenar
 		}
 		return nil, Errors{{File: name, Msg: "TOML: " + err.Error()}}
 	}
-	d := &decoder{file: name, lines: scanKeyLines(string(src)), overrides: map[string]string{}, tree: tree}
-	for _, o := range overrides {
-		p, err := o.apply(tree)
-		if err != nil {
-			return nil, err
-		}
-		d.overrides[p] = o.Value
+	d := &decoder{file: name, lines: scanKeyLines(string(src)), overrides: map[string]string{}, newEntries: map[string]Override{}, tree: tree}
+	if err := d.applyOverrides(tree, overrides); err != nil {
+		return nil, err
 	}
 	s := &Scenario{Source: name}
 	d.decodeStruct("", tree, reflect.ValueOf(s).Elem())
@@ -103,10 +161,14 @@ func Parse(name string, src []byte, files fs.FS, overrides ...Override) (*Scenar
 	if len(d.errs) == 0 {
 		d.validate(s)
 	}
+	if len(d.errs) == 0 {
+		d.checkOverridesUsed(s)
+	}
 	if len(d.errs) > 0 {
 		return nil, d.errs
 	}
 	s.Digest = digest(s)
+	s.Warnings = d.unpumpedWarnings(s)
 	return s, nil
 }
 

@@ -15,6 +15,9 @@ package scenarios
 //	         as in mathematics: "(0,inf)", "[0,0.5)"; or a list of allowed
 //	         words: "disc|rectangle"
 //	doc:     one line for the template
+//	when:    the value is read only when a sibling key has one of some
+//	         values ("distribution=lognormal|exponential") or is positive
+//	         ("conduit_half_length>0"); see UsedDigest
 type Scenario struct {
 	Name string `toml:"name" doc:"scenario name, shown in reports" example:"Demo scenario"`
 	Seed uint64 `toml:"seed" default:"1" range:"[0,inf)" doc:"seed of every random draw (with realization index and purpose)"`
@@ -34,6 +37,9 @@ type Scenario struct {
 	Source string `toml:"-"`
 	// Digest is the SHA-256 of the canonical SI content, hex; not a key.
 	Digest string `toml:"-"`
+	// Warnings name what the scenario holds but no run uses (a fluid no
+	// stage pumps), each with its file, line and key; not a key.
+	Warnings []string `toml:"-" json:"-"`
 }
 
 // Domain is the map area of interest in local East-North coordinates and
@@ -114,7 +120,7 @@ type FractureSet struct {
 	// Shape is "disc" (size = radius) or "rectangle" (size = length along
 	// strike; height down dip = length × aspect ratio).
 	Shape       string  `toml:"shape" default:"disc" range:"disc|rectangle" doc:"fracture shape: disc (size is the radius) or rectangle (size is the strike length)"`
-	AspectRatio float64 `toml:"aspect_ratio" default:"1" range:"[0.01,100]" doc:"rectangles: down-dip height / strike length"`
+	AspectRatio float64 `toml:"aspect_ratio" when:"shape=rectangle" default:"1" range:"[0.01,100]" doc:"rectangles: down-dip height / strike length"`
 
 	Orientation Orientation `toml:"orientation"`
 	Size        Size        `toml:"size"`
@@ -126,10 +132,10 @@ type Orientation struct {
 	// Distribution is "fisher", "uniform" or "fixed".
 	Distribution string `toml:"distribution" default:"fisher" range:"fisher|uniform|fixed" doc:"pole distribution: fisher about the mean pole, uniform on the sphere, or fixed"`
 	// Dip and DipDirection of the mean plane, radians.
-	Dip          float64 `toml:"dip" unit:"angle" range:"[0,90]" default:"90 deg" doc:"dip of the mean plane"`
-	DipDirection float64 `toml:"dip_direction" unit:"azimuth" range:"[0,360]" default:"0 deg" doc:"dip direction of the mean plane, clockwise from north"`
+	Dip          float64 `toml:"dip" when:"distribution=fisher|fixed" unit:"angle" range:"[0,90]" default:"90 deg" doc:"dip of the mean plane"`
+	DipDirection float64 `toml:"dip_direction" when:"distribution=fisher|fixed" unit:"azimuth" range:"[0,360]" default:"0 deg" doc:"dip direction of the mean plane, clockwise from north"`
 	// Kappa is the Fisher concentration (fisher only).
-	Kappa float64 `toml:"kappa" range:"(0,1e6]" default:"20" doc:"Fisher concentration κ (fisher only)"`
+	Kappa float64 `toml:"kappa" when:"distribution=fisher" range:"(0,1e6]" default:"20" doc:"Fisher concentration κ (fisher only)"`
 }
 
 // Size is the fracture size distribution of a set, m.
@@ -137,15 +143,15 @@ type Size struct {
 	// Distribution is "constant", "power_law", "lognormal" or "exponential".
 	Distribution string `toml:"distribution" default:"power_law" range:"constant|power_law|lognormal|exponential" doc:"size law"`
 	// Value is the size of a constant law, m.
-	Value float64 `toml:"value" unit:"length" range:"[0.01,1e5]" default:"50 m" doc:"constant: the size"`
+	Value float64 `toml:"value" when:"distribution=constant" unit:"length" range:"[0.01,1e5]" default:"50 m" doc:"constant: the size"`
 	// Min and Max bound the truncated power law, m.
-	Min float64 `toml:"min" unit:"length" range:"[0.01,1e5]" default:"20 m" doc:"power_law: smallest size"`
-	Max float64 `toml:"max" unit:"length" range:"[0.01,1e5]" default:"200 m" doc:"power_law: largest size"`
+	Min float64 `toml:"min" when:"distribution=power_law" unit:"length" range:"[0.01,1e5]" default:"20 m" doc:"power_law: smallest size"`
+	Max float64 `toml:"max" when:"distribution=power_law" unit:"length" range:"[0.01,1e5]" default:"200 m" doc:"power_law: largest size"`
 	// Exponent D of the power law's complementary CDF, P(R > r) ∝ r^-D.
-	Exponent float64 `toml:"exponent" range:"[0.1,10]" default:"2.5" doc:"power_law: exponent D of P(size > r) ∝ r^-D (density exponent D+1)"`
+	Exponent float64 `toml:"exponent" when:"distribution=power_law" range:"[0.1,10]" default:"2.5" doc:"power_law: exponent D of P(size > r) ∝ r^-D (density exponent D+1)"`
 	// Mean and StdDev of the size for lognormal and exponential laws, m.
-	Mean   float64 `toml:"mean" unit:"length" range:"[0.01,1e5]" default:"50 m" doc:"lognormal, exponential: mean size"`
-	StdDev float64 `toml:"std_dev" unit:"length" range:"[0.001,1e5]" default:"20 m" doc:"lognormal: standard deviation of the size"`
+	Mean   float64 `toml:"mean" when:"distribution=lognormal|exponential" unit:"length" range:"[0.01,1e5]" default:"50 m" doc:"lognormal, exponential: mean size"`
+	StdDev float64 `toml:"std_dev" when:"distribution=lognormal" unit:"length" range:"[0.001,1e5]" default:"20 m" doc:"lognormal: standard deviation of the size"`
 }
 
 // Intensity is how many fractures a set has.
@@ -153,14 +159,14 @@ type Intensity struct {
 	// Measure is "p32", "p10" or "count".
 	Measure string `toml:"measure" default:"p32" range:"p32|p10|count" doc:"intensity given as p32 (area per volume), p10 (count per length along a line) or count"`
 	// P32 target, fracture area per rock volume, 1/m.
-	P32 float64 `toml:"p32" unit:"intensity" range:"(0,100]" default:"0.01 1/m" doc:"p32: fracture area per unit volume"`
+	P32 float64 `toml:"p32" when:"measure=p32" unit:"intensity" range:"(0,100]" default:"0.01 1/m" doc:"p32: fracture area per unit volume"`
 	// P10 measured along a line of the given trend and plunge, 1/m.
-	P10 float64 `toml:"p10" unit:"intensity" range:"(0,100]" default:"0.01 1/m" doc:"p10: fractures per unit length of the measuring line"`
+	P10 float64 `toml:"p10" when:"measure=p10" unit:"intensity" range:"(0,100]" default:"0.01 1/m" doc:"p10: fractures per unit length of the measuring line"`
 	// LineTrend and LinePlunge orient the P10 line, radians.
-	LineTrend  float64 `toml:"line_trend" unit:"azimuth" range:"[0,360]" default:"90 deg" doc:"p10: trend of the measuring line (a well lateral or scanline)"`
-	LinePlunge float64 `toml:"line_plunge" unit:"angle" range:"[-90,90]" default:"0 deg" doc:"p10: plunge of the measuring line, positive down"`
+	LineTrend  float64 `toml:"line_trend" when:"measure=p10" unit:"azimuth" range:"[0,360]" default:"90 deg" doc:"p10: trend of the measuring line (a well lateral or scanline)"`
+	LinePlunge float64 `toml:"line_plunge" when:"measure=p10" unit:"angle" range:"[-90,90]" default:"0 deg" doc:"p10: plunge of the measuring line, positive down"`
 	// Count of the set's fractures that can reach the map × layer volume.
-	Count int `toml:"count" range:"[1,1e8]" default:"100" doc:"count: number of the set's fractures that can reach the map area and layer"`
+	Count int `toml:"count" when:"measure=count" range:"[1,1e8]" default:"100" doc:"count: number of the set's fractures that can reach the map area and layer"`
 }
 
 // KnownFractures points to mapped faults or fractures added as they are.
@@ -202,10 +208,10 @@ type Well struct {
 	// striking along SHmax; 0 for none, m.
 	ConduitHalfLength float64 `toml:"conduit_half_length" unit:"length" range:"[0,5000]" default:"0 m" doc:"half-length of a primary conduit from each cluster along SHmax; 0 for none"`
 	// ConduitAperture of the primary conduit, m.
-	ConduitAperture float64 `toml:"conduit_aperture" unit:"length" range:"[1e-7,0.1]" default:"1 mm" doc:"hydraulic aperture of the primary conduits"`
+	ConduitAperture float64 `toml:"conduit_aperture" when:"conduit_half_length>0" unit:"length" range:"[1e-7,0.1]" default:"1 mm" doc:"hydraulic aperture of the primary conduits"`
 	// ConduitHeight is the conducting height of the conduits, m (0 = the
 	// layer thickness).
-	ConduitHeight float64 `toml:"conduit_height" unit:"length" range:"[0,2000]" default:"0 m" doc:"conducting height of the primary conduits; 0 for the layer thickness"`
+	ConduitHeight float64 `toml:"conduit_height" when:"conduit_half_length>0" unit:"length" range:"[0,2000]" default:"0 m" doc:"conducting height of the primary conduits; 0 for the layer thickness"`
 	Stages        []Stage `toml:"stages" doc:"stages in pumping order along the well (toe first)"`
 }
 
@@ -251,7 +257,7 @@ type Schedule struct {
 	// PressureCap on bottom-hole pressure, Pa.
 	PressureCap float64 `toml:"pressure_cap" unit:"pressure" range:"(0,1e9]" default:"100 MPa" doc:"bottom-hole pressure cap; injection switches to pressure control at it"`
 	// InjectionPressure for pressure control, Pa.
-	InjectionPressure float64 `toml:"injection_pressure" unit:"pressure" range:"(0,1e9]" default:"50 MPa" doc:"bottom-hole pressure under pressure control"`
+	InjectionPressure float64 `toml:"injection_pressure" when:"control=pressure" unit:"pressure" range:"(0,1e9]" default:"50 MPa" doc:"bottom-hole pressure under pressure control"`
 	// ShutIn after each stage, s.
 	ShutIn float64 `toml:"shut_in" unit:"time" range:"[0,1e8]" default:"30 min" doc:"shut-in after each stage"`
 }

@@ -100,7 +100,7 @@ func writeKey(b *strings.Builder, f reflect.StructField) {
 		notes = append(notes, u)
 	}
 	if r := f.Tag.Get("range"); r != "" {
-		notes = append(notes, "allowed "+describeRangeTag(r, unitKind(f.Tag.Get("unit"))))
+		notes = append(notes, "allowed "+parseRange(r).describeIn(unitKind(f.Tag.Get("unit"))))
 	}
 	line := name + " = " + value
 	prefix := ""
@@ -128,19 +128,4 @@ func exampleLiteral(f reflect.StructField, v string) string {
 		return strconv.Quote(v)
 	}
 	return v
-}
-
-func describeRangeTag(tag string, kind unitKind) string {
-	r := parseRange(tag)
-	if len(r.words) > 0 {
-		return strings.Join(r.words, "|")
-	}
-	unit := ""
-	switch {
-	case kind == kindAngle || kind == kindAzimuth:
-		unit = " deg"
-	case kind != "":
-		unit = " " + unitTable[kind][0].name
-	}
-	return r.describe(unit)
 }

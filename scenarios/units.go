@@ -1,6 +1,7 @@
 package scenarios
 
 import (
+	"errors"
 	"fmt"
 	"math"
 	"regexp"
@@ -70,6 +71,58 @@ var unitTable = map[unitKind][]struct {
 	kindAzimuth:   {{"rad", 1}, {"deg", degree}},
 	kindIntensity: {{"1/m", 1}, {"1/km", 1e-3}, {"1/ft", 1 / foot}},
 	kindLeakoff:   {{"m/s^0.5", 1}, {"ft/min^0.5", foot / math.Sqrt(minute)}},
+}
+
+// shownUnit is the unit in which messages and the template state a
+// quantity of each kind: the unit of the output files where they hold such
+// a quantity (MPa, m, s, m3, m3/s: the README's table of units in outputs),
+// otherwise the unit the trade writes most (kPa/m, cP, 1/GPa: common
+// practice, no source). Angles are in degrees.
+var shownUnit = map[unitKind]string{
+	kindLength: "m", kindPressure: "MPa", kindGradient: "kPa/m", kindViscosity: "cP",
+	kindCompressibility: "1/GPa", kindRate: "m3/s", kindVolume: "m3", kindTime: "s",
+	kindAngle: "deg", kindAzimuth: "deg", kindIntensity: "1/m", kindLeakoff: "m/s^0.5",
+}
+
+// usualUnits are the units suggested for a number written without one:
+// the ones the trade writes most, metric and oilfield (common practice, no
+// source). The SI unit alone would mislead where it is far from the
+// habit: 20 Pa.s is a thousand times the likely 20 cP.
+var usualUnits = map[unitKind][]string{
+	kindLength: {"m", "ft"}, kindPressure: {"MPa", "psi"}, kindGradient: {"kPa/m", "psi/ft"},
+	kindViscosity: {"cP", "mPa.s"}, kindCompressibility: {"1/GPa", "1/psi"}, kindRate: {"bbl/min", "m3/min"},
+	kindVolume: {"m3", "bbl"}, kindTime: {"min", "h", "s"}, kindAngle: {"deg"}, kindAzimuth: {"deg"},
+	kindIntensity: {"1/m", "1/ft"}, kindLeakoff: {"m/s^0.5", "ft/min^0.5"},
+}
+
+// unitFactor is the factor to SI of the unit name of kind k; it panics on
+// a unit the table lacks (a bug in the tables above).
+func unitFactor(k unitKind, name string) float64 {
+	for _, u := range unitTable[k] {
+		if u.name == name {
+			return u.factor
+		}
+	}
+	panic(fmt.Sprintf("scenarios: no unit %q for a %s", name, k))
+}
+
+// needsUnit says that the number needs a unit and writes it with each
+// usual unit of kind k: "needs a unit: "20 cP" or "20 mPa.s" (viscosity
+// units: Pa.s, mPa.s, cP, P)".
+func needsUnit(number string, k unitKind) string {
+	var with []string
+	for _, u := range usualUnits[k] {
+		with = append(with, strconv.Quote(number+" "+u))
+	}
+	return fmt.Sprintf("needs a unit: write %s (%s units: %s)", orList(with), k, unitNames(k))
+}
+
+// orList joins items as "a", "a or b", "a, b or c".
+func orList(items []string) string {
+	if len(items) <= 1 {
+		return strings.Join(items, "")
+	}
+	return strings.Join(items[:len(items)-1], ", ") + " or " + items[len(items)-1]
 }
 
 // unitNames returns the accepted spellings of a kind, for messages.
@@ -146,10 +199,10 @@ func parseQuantity(s string, k unitKind) (float64, error) {
 		return 0, fmt.Errorf("number %s out of range", echo(m[1]))
 	}
 	if m[2] == "" {
-		return 0, fmt.Errorf("needs a unit (%s: %s), e.g. \"%s %s\"", k, unitNames(k), m[1], unitTable[k][0].name)
+		return 0, errors.New(needsUnit(m[1], k))
 	}
 	if strings.ContainsFunc(m[2], unicode.IsSpace) {
-		return 0, fmt.Errorf("the unit %s has a space inside; write it without spaces, e.g. \"%s %s\"", echo(m[2]), m[1], unitTable[k][0].name)
+		return 0, fmt.Errorf("the unit %s has a space inside; write it without spaces, e.g. \"%s %s\"", echo(m[2]), m[1], usualUnits[k][0])
 	}
 	u := normalizeUnit(m[2])
 	for _, e := range unitTable[k] {
@@ -193,13 +246,20 @@ func unitSpellings(k unitKind) []string {
 	return names
 }
 
-// formatQuantity writes an SI value in the first unit of its kind
-// (degrees for angles), for the template and messages.
+// formatQuantity writes an SI value in the shown unit of its kind, for
+// messages: formatQuantity(2.86e7, kindPressure) is "28.6 MPa".
 func formatQuantity(v float64, k unitKind) string {
-	if k == kindAngle || k == kindAzimuth {
-		return strconv.FormatFloat(v/degree, 'g', 10, 64) + " deg"
-	}
-	return strconv.FormatFloat(v, 'g', 10, 64) + " " + unitTable[k][0].name
+	u := shownUnit[k]
+	return formatNumber(v/unitFactor(k, u)) + " " + u
+}
+
+// formatNumber writes v with at most 10 significant digits (so that a
+// converted value such as 1e-5/1e-3 reads 0.01) and exponents without a
+// plus sign or leading zero (1e6, 2.5e-7).
+func formatNumber(v float64) string {
+	v, _ = strconv.ParseFloat(strconv.FormatFloat(v, 'g', 10, 64), 64)
+	t := strconv.FormatFloat(v, 'g', -1, 64)
+	return strings.NewReplacer("e+0", "e", "e+", "e", "e-0", "e-").Replace(t)
 }
 
 // suggest returns ` (did you mean "x"?)` for the candidate closest to s, or

@@ -75,6 +75,88 @@ func TestParseQuantityErrors(t *testing.T) {
 	}
 }
 
+// A number without a unit is suggested with the units the trade uses,
+// never with the SI unit alone where that is far from the habit (20 Pa.s
+// is 1000 times the likely 20 cP).
+func TestNeedsUnitSuggestsUsualUnits(t *testing.T) {
+	tests := []struct {
+		in      string
+		kind    unitKind
+		want    []string
+		notWant string
+	}{
+		{"20", kindViscosity, []string{`"20 cP" or "20 mPa.s"`}, `"20 Pa.s"`},
+		{"55", kindPressure, []string{`"55 MPa" or "55 psi"`}, `"55 Pa"`},
+		{"80", kindRate, []string{`"80 bbl/min" or "80 m3/min"`}, `"80 m3/s"`},
+		{"2600", kindLength, []string{`"2600 m" or "2600 ft"`}, `"2600 km"`},
+		{"22", kindGradient, []string{`"22 kPa/m" or "22 psi/ft"`}, `"22 Pa/m"`},
+		{"30", kindTime, []string{`"30 min", "30 h" or "30 s"`}, `"30 d"`},
+		{"0.45", kindCompressibility, []string{`"0.45 1/GPa" or "0.45 1/psi"`}, `"0.45 1/Pa"`},
+	}
+	for _, tc := range tests {
+		_, err := parseQuantity(tc.in, tc.kind)
+		if err == nil {
+			t.Errorf("%s %q: accepted without a unit", tc.kind, tc.in)
+			continue
+		}
+		for _, w := range tc.want {
+			if !strings.Contains(err.Error(), w) {
+				t.Errorf("%s %q: error %q, want it to contain %s", tc.kind, tc.in, err, w)
+			}
+		}
+		if strings.Contains(err.Error(), tc.notWant) {
+			t.Errorf("%s %q: error %q suggests %s", tc.kind, tc.in, err, tc.notWant)
+		}
+	}
+}
+
+// Every kind has a shown unit and usual units, and each of them is a unit
+// of that kind (unitFactor panics otherwise).
+func TestUnitTablesAgree(t *testing.T) {
+	if len(unitTable) == 0 {
+		t.Fatal("no unit kinds")
+	}
+	for k := range unitTable {
+		if _, ok := shownUnit[k]; !ok {
+			t.Errorf("%s: no shown unit", k)
+		}
+		if len(usualUnits[k]) == 0 {
+			t.Errorf("%s: no usual units", k)
+		}
+		for _, u := range append([]string{shownUnit[k]}, usualUnits[k]...) {
+			if f := unitFactor(k, u); !(f > 0) {
+				t.Errorf("%s: unit %s has factor %g", k, u, f)
+			}
+		}
+	}
+	if len(shownUnit) != len(unitTable) || len(usualUnits) != len(unitTable) {
+		t.Errorf("%d kinds, %d shown units, %d usual unit lists", len(unitTable), len(shownUnit), len(usualUnits))
+	}
+}
+
+// Messages state quantities in the units of the output files (MPa, m, s)
+// or the trade's (kPa/m, cP), rounded to ten significant digits.
+func TestFormatQuantity(t *testing.T) {
+	tests := []struct {
+		v    float64
+		kind unitKind
+		want string
+	}{
+		{2.86e7, kindPressure, "28.6 MPa"},
+		{18500, kindGradient, "18.5 kPa/m"},
+		{1e-5, kindViscosity, "0.01 cP"},
+		{4.5e-10, kindCompressibility, "0.45 1/GPa"},
+		{90 * degree, kindAzimuth, "90 deg"},
+		{1e7, kindLength, "1e7 m"},
+		{7200, kindTime, "7200 s"},
+	}
+	for _, tc := range tests {
+		if got := formatQuantity(tc.v, tc.kind); got != tc.want {
+			t.Errorf("formatQuantity(%g, %s) = %q, want %q", tc.v, tc.kind, got, tc.want)
+		}
+	}
+}
+
 func TestEditDistance(t *testing.T) {
 	for _, tc := range []struct {
 		a, b string

@@ -11,6 +11,8 @@ import (
 	"strings"
 	"text/tabwriter"
 	"unicode/utf8"
+
+	"slipfront/internal/plural"
 )
 
 // Describe writes a human-readable account of the snapshot: the header,
@@ -29,7 +31,7 @@ func Describe(w io.Writer, r *Reader) error {
 	line("CRS", "%s", orNone(h.CRS))
 	line("origin", "easting %s m, northing %s m", fmtFloat(h.OriginEasting), fmtFloat(h.OriginNorthing))
 	line("layer depth", "%s m", fmtFloat(h.LayerDepth))
-	line("elements", "%d on %d fractures", len(h.Elements), countFractures(h.Elements))
+	line("elements", "%d on %s", len(h.Elements), plural.S(countFractures(h.Elements), "fracture"))
 	line("frame fields", "%s (as recorded; frame listings and CSV show MPa and mm)", describeFields(h.Fields))
 	static := make([]Field, len(h.Static))
 	for i, s := range h.Static {

@@ -19,7 +19,7 @@ func TestDescribe(t *testing.T) {
 	for _, want := range []string{
 		h.Digest, "EPSG:32614", "seed 42", "realization 3",
 		"easting 612345.5 m, northing 3512345.25 m", "2600 m",
-		"6 on 1 fractures", "pressure [Pa], aperture [m], slip [m]", "cluster [1]",
+		"6 on 1 fracture", "pressure [Pa], aperture [m], slip [m]", "cluster [1]",
 		`metadata notes "multi-line\nvalue"`, "frames 5, time 0 s to 240 s",
 		"frame time_s stage stored_bytes check", "compression:",
 	} {

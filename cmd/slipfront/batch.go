@@ -15,6 +15,7 @@ import (
 	"golang.org/x/term"
 
 	"slipfront/batch"
+	"slipfront/internal/plural"
 	"slipfront/pipeline"
 	"slipfront/scenarios"
 )
@@ -62,7 +63,7 @@ func newBatchCmd(g *globalOptions, stdout, stderr io.Writer) *cobra.Command {
 	f.IntVar(&o.workers, "workers", 0, "realizations run at once (default: the number of cores)")
 	f.StringVar(&o.shard, "shard", "", "run only shard i of n: the realizations r with r mod n = i")
 	f.BoolVar(&o.resume, "resume", false, "continue the batch in --out, keeping the realizations already done")
-	f.BoolVar(&o.force, "force", false, "start over in an --out that holds an earlier batch")
+	f.BoolVar(&o.force, "force", false, "replace an existing batch folder: its results are deleted and the batch starts over (--resume keeps them)")
 	cmd.MarkFlagRequired("out")
 	cmd.MarkFlagRequired("realizations")
 	return cmd
@@ -122,8 +123,8 @@ func runBatch(ctx context.Context, o *batchOptions, g *globalOptions, stdout, st
 	if err != nil {
 		return err
 	}
-	fmt.Fprintf(stdout, "%d cases × %d realizations: %d run now, %d resumed, in %.1f s\n",
-		sum.Cases, sum.Realizations, sum.Ran, sum.Resumed, sum.Elapsed.Seconds())
+	fmt.Fprintf(stdout, "%s × %s: %d run now, %d resumed, in %.1f s\n",
+		plural.S(sum.Cases, "case"), plural.S(sum.Realizations, "realization"), sum.Ran, sum.Resumed, sum.Elapsed.Seconds())
 	if !sum.Aggregated {
 		fmt.Fprintf(stdout, "shard %d/%d done; combine the shard folders with: slipfront merge DIR... --out DIR\n", sum.Shard.Index, sum.Shard.Count)
 		return nil
@@ -156,7 +157,7 @@ func finishBatch(ctx context.Context, dir string, stdout io.Writer) error {
 	if err := tw.Flush(); err != nil {
 		return err
 	}
-	fmt.Fprintf(stdout, "q10/q50/q90: %d realizations, ascending; q90 is the high case (%s)\n", m.Realizations, batch.ComparisonName)
+	fmt.Fprintf(stdout, "q10/q50/q90: %s, ascending; q90 is the high case (%s)\n", plural.S(m.Realizations, "realization"), batch.ComparisonName)
 	if paired := batch.Paired(m, aggs); len(paired) > 0 {
 		fmt.Fprintf(stdout, "\npaired with the reference case on the same networks: ratios case/reference (ΔMw: case − reference),\n"+
 			"q50 [q10–q90] over the realizations (%s, %s):\n", batch.PairedName, batch.PairedPercentilesName)
@@ -180,21 +181,22 @@ func finishBatch(ctx context.Context, dir string, stdout io.Writer) error {
 }
 
 func newMergeCmd(stdout io.Writer) *cobra.Command {
-	var out string
+	var o folderOptions
 	cmd := &cobra.Command{
 		Use:   "merge DIR... --out DIR",
 		Short: "Combine the shard folders of one batch into a complete batch folder",
 		Example: "  slipfront merge shard-0 shard-1 shard-2 shard-3 --out visc\n" +
-			"  slipfront merge shard-* --out visc",
+			"  slipfront merge shard-* --out visc --force",
 		Args: cobra.MinimumNArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
-			if err := batch.Merge(cmd.Context(), args, out); err != nil {
+			if err := batch.Merge(cmd.Context(), args, o.out, o.force); err != nil {
 				return err
 			}
-			return finishBatch(cmd.Context(), out, stdout)
+			return finishBatch(cmd.Context(), o.out, stdout)
 		},
 	}
-	cmd.Flags().StringVarP(&out, "out", "o", "", "merged batch folder, new or empty (required)")
+	cmd.Flags().StringVarP(&o.out, "out", "o", "", "merged batch folder, new or empty (required)")
+	cmd.Flags().BoolVar(&o.force, "force", false, "replace an existing batch folder (not one of the shards)")
 	cmd.MarkFlagRequired("out")
 	return cmd
 }

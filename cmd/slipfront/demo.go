@@ -7,6 +7,7 @@ import (
 
 	"github.com/spf13/cobra"
 
+	"slipfront/internal/plural"
 	"slipfront/scenarios"
 )
 
@@ -29,7 +30,7 @@ func newDemoCmd(g *globalOptions, stdout, stderr io.Writer) *cobra.Command {
 		},
 	}
 	cmd.Flags().StringVarP(&o.out, "out", "o", "slipfront-demo", "output folder")
-	cmd.Flags().BoolVar(&o.force, "force", false, "write into an existing, non-empty output folder")
+	o.addForce(cmd)
 	return cmd
 }
 
@@ -42,7 +43,7 @@ func runDemo(ctx context.Context, o *demoOptions, g *globalOptions, stdout, stde
 	if err := out.Check(); err != nil { // before the first line is printed
 		return err
 	}
-	fmt.Fprintf(stdout, "%s: %d wells, %d stages, %d fracture sets and %d mapped fault(s)\n",
-		s.Name, len(s.Wells), len(s.PumpingOrder()), len(s.Sets), len(s.KnownFractures.Fractures))
+	fmt.Fprintf(stdout, "%s: %s, %s, %s and %s\n", s.Name, plural.S(len(s.Wells), "well"), plural.S(len(s.PumpingOrder()), "stage"),
+		plural.S(len(s.Sets), "fracture set"), plural.S(len(s.KnownFractures.Fractures), "mapped fault"))
 	return simulate(ctx, s, out, 0, g, stdout, stderr)
 }

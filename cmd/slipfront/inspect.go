@@ -3,9 +3,14 @@ package main
 import (
 	"fmt"
 	"io"
+	"os"
+	"path/filepath"
 
 	"github.com/spf13/cobra"
 
+	"slipfront/batch"
+	"slipfront/internal/outdir"
+	"slipfront/pipeline"
 	"slipfront/scenarios"
 	"slipfront/snapshot"
 )
@@ -37,6 +42,9 @@ func newInspectCmd(stdout io.Writer) *cobra.Command {
 }
 
 func runInspect(o *inspectOptions, stdout io.Writer) error {
+	if info, err := os.Stat(o.file); err == nil && info.IsDir() {
+		return badInput(folderHint(o.file))
+	}
 	r, err := snapshot.Open(o.file)
 	if err != nil {
 		return badInput(err)
@@ -62,4 +70,29 @@ func runInspect(o *inspectOptions, stdout io.Writer) error {
 		return snapshot.WriteFrameCSV(stdout, r.Reader, t)
 	}
 	return snapshot.DescribeFrame(stdout, r.Reader, t)
+}
+
+// folderHint explains that dir is a folder, not a snapshot, and points to
+// what it holds: the snapshot of a run folder (complete or partial), or
+// the commands that read a batch folder.
+func folderHint(dir string) error {
+	snap := filepath.Join(dir, pipeline.SnapshotFile)
+	switch {
+	case isFile(snap):
+		what := "a run folder"
+		if outdir.IsPartial(dir) {
+			what = "the partial folder of a stopped run"
+		}
+		return fmt.Errorf("%s is a folder (%s), not a snapshot file; inspect its snapshot with: slipfront inspect %s", dir, what, snap)
+	case isFile(filepath.Join(dir, batch.ManifestName)):
+		return fmt.Errorf("%s is a folder (a batch folder, which keeps no snapshots), not a snapshot file; "+
+			"its tables are CSV files, and slipfront report or export draws its maps", dir)
+	}
+	return fmt.Errorf("%s is a folder, not a snapshot file; a run writes its snapshot as %s in its folder", dir, pipeline.SnapshotFile)
+}
+
+// isFile reports whether path is a regular file.
+func isFile(path string) bool {
+	info, err := os.Stat(path)
+	return err == nil && info.Mode().IsRegular()
 }

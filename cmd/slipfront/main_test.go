@@ -41,7 +41,19 @@ func TestExitCodes(t *testing.T) {
 		{"unknown key", []string{"scenario", "check", "demo", "--set", "rock.fricton_static=0.5"}, exitBadInput, `did you mean "friction_static"?`},
 		{"missing file", []string{"scenario", "check", filepath.Join(dir, "none.toml")}, exitBadInput, "no such file"},
 		{"too many fractures", []string{"generate", "demo", "--set", "numerics.max_fractures=10", "--out", filepath.Join(dir, "cap")}, exitBadInput, "max_fractures"},
-		{"check ok", []string{"scenario", "check", "demo"}, exitOK, ""},
+		{"bare viscosity", []string{"scenario", "check", "demo", "--set", "fluids.slickwater.viscosity=20"}, exitBadInput, `needs a unit: write "20 cP" or "20 mPa.s"`},
+		{"message units", []string{"scenario", "check", "demo", "--set", "schedule.pressure_cap=10MPa"}, exitBadInput, "initial pore pressure, 31.2 MPa"},
+		{"unknown example", []string{"scenario", "show", "dmeo", "--out", filepath.Join(dir, "dmeo")}, exitBadInput, `no example scenario "dmeo"; examples: demo, single-fracture`},
+		{"force without out", []string{"scenario", "show", "demo", "--force"}, exitBadInput, "--force replaces the folder of --out"},
+		{"check ok", []string{"scenario", "check", "demo"}, exitOK, "warning: demo.toml:118: fluids.linear_gel: no stage pumps this fluid"},
+		{"mistyped fluid", []string{"scenario", "check", "demo", "--set", "fluids.slickwatr.viscosity=20cP"}, exitBadInput,
+			`--set fluids.slickwatr.viscosity=20cP: the scenario has no fluids.slickwatr (did you mean "fluids.slickwater"?) and nothing names it`},
+		{"unpumped fluid", []string{"scenario", "check", "demo", "--set", "fluids.linear_gel.viscosity=5cP"}, exitBadInput,
+			"--set fluids.linear_gel.viscosity=5cP: changes nothing a run uses: no stage pumps fluids.linear_gel (the stages pump slickwater)"},
+		{"declared fluid", []string{"scenario", "check", "demo", "--set", "+fluids.gel.viscosity=5cP"}, exitOK,
+			"warning: --set +fluids.gel.viscosity=5cP: no stage pumps this fluid"},
+		{"key of another law", []string{"scenario", "check", "demo", "--set", "sets[0].size.mean=30m"}, exitBadInput,
+			"--set sets[0].size.mean=30m: changes nothing a run uses: sets[0].size.mean is read only when"},
 		{"geographic CRS", []string{"run", "single-fracture", "--set", "domain.crs=EPSG:4326", "--out", filepath.Join(dir, "geo")}, exitBadInput, "projected CRS"},
 		{"negative inspect time", []string{"inspect", "../../snapshot/testdata/small.snap", "--time", "-5s"}, exitBadInput, "--time"},
 	}
@@ -60,9 +72,57 @@ func TestTemplateAndShow(t *testing.T) {
 	if code != exitOK || !strings.Contains(out, "[numerics]") || !strings.Contains(out, "Caution") {
 		t.Errorf("template: exit %d, output %.200q", code, out)
 	}
-	code, out, _ = runCLI(t, "scenario", "show", "demo")
+	code, out, stderr := runCLI(t, "scenario", "show", "demo")
 	if code != exitOK || !strings.Contains(out, `name = "Demo pad (invented)"`) {
 		t.Errorf("show demo: exit %d", code)
+	}
+	if want := "demo.toml reads demo-faults.csv beside it; write them together with: slipfront scenario show demo --out DIR"; !strings.Contains(stderr, want) {
+		t.Errorf("show demo: stderr %q, want %q", stderr, want)
+	}
+}
+
+// digestLine returns the digest line of "scenario check".
+func digestLine(t *testing.T, out string) string {
+	t.Helper()
+	for _, l := range strings.Split(out, "\n") {
+		if strings.HasPrefix(strings.TrimSpace(l), "digest") {
+			return strings.TrimSpace(l)
+		}
+	}
+	t.Fatalf("no digest line in %q", out)
+	return ""
+}
+
+// "scenario show NAME --out DIR" writes a folder that checks as the
+// example does (same digest), for every example; a second write needs
+// --force.
+func TestShowRoundTrip(t *testing.T) {
+	names := scenarios.Examples()
+	if len(names) < 2 {
+		t.Fatalf("examples %v", names)
+	}
+	for _, name := range names {
+		t.Run(name, func(t *testing.T) {
+			dir := filepath.Join(t.TempDir(), "copy")
+			code, _, stderr := runCLI(t, "scenario", "show", name, "--out", dir)
+			if code != exitOK || !strings.Contains(stderr, "wrote "+filepath.Join(dir, name+".toml")) {
+				t.Fatalf("show --out: exit %d: %s", code, stderr)
+			}
+			code, copied, stderr := runCLI(t, "scenario", "check", filepath.Join(dir, name+".toml"))
+			if code != exitOK {
+				t.Fatalf("check the copy: exit %d: %s", code, stderr)
+			}
+			_, embedded, _ := runCLI(t, "scenario", "check", name)
+			if a, b := digestLine(t, copied), digestLine(t, embedded); a != b {
+				t.Errorf("the copy checks as %q, the example as %q", a, b)
+			}
+			if code, _, stderr := runCLI(t, "scenario", "show", name, "--out", dir); code != exitBadInput || !strings.Contains(stderr, "--force") {
+				t.Errorf("second show --out: exit %d: %s", code, stderr)
+			}
+			if code, _, stderr := runCLI(t, "scenario", "show", name, "--out", dir, "--force"); code != exitOK {
+				t.Errorf("show --out --force: exit %d: %s", code, stderr)
+			}
+		})
 	}
 }
 
@@ -157,6 +217,11 @@ func runQuickDemo(t *testing.T) string {
 			quickDemoErr = fmt.Sprintf("run: exit %d: %s", code, stderr)
 		case !strings.Contains(out, "W2:3") || !strings.Contains(out, "Caution"):
 			quickDemoErr = "stage table lacks a stage or the caution:\n" + out
+		case strings.Count(stderr, "\nsimulating: ") < 9 || !strings.Contains(stderr, "h simulated), "):
+			// stderr is no terminal here, as in a Slurm log: a line per tenth.
+			quickDemoErr = "no progress line per tenth of the run on stderr:\n" + stderr
+		case !strings.Contains(stderr, "network: ") || strings.Contains(stderr, " 1 fractures"):
+			quickDemoErr = "status lines:\n" + stderr
 		}
 	})
 	if quickDemoErr != "" {
@@ -224,6 +289,15 @@ func TestBatchAndMerge(t *testing.T) {
 	if code != exitOK || !strings.Contains(out, "viscosity=20cP") {
 		t.Fatalf("merge: exit %d: %s\n%s", code, stderr, out)
 	}
+	// merge takes --force as every command does: it replaces an earlier
+	// merged folder.
+	code, _, stderr = runCLI(t, "merge", filepath.Join(dir, "s1"), filepath.Join(dir, "s0"), "--out", filepath.Join(dir, "merged"))
+	if code != exitBadInput || !strings.Contains(stderr, "use --force") {
+		t.Errorf("merge into an earlier merge: exit %d: %s", code, stderr)
+	}
+	if code, _, stderr := runCLI(t, "merge", filepath.Join(dir, "s1"), filepath.Join(dir, "s0"), "--out", filepath.Join(dir, "merged"), "--force"); code != exitOK {
+		t.Fatalf("merge --force: exit %d: %s", code, stderr)
+	}
 	// 20 cP diffuses 20 times slower than 1 cP (D = e²/(12μc_f)), so the
 	// same injection stimulates less: compare the P50 final areas.
 	f, err := os.Open(filepath.Join(dir, "merged", "comparison.csv"))
@@ -266,7 +340,7 @@ func TestBatchAndMerge(t *testing.T) {
 	}{
 		{args("x", "--shard", "2/2"), "shard"},
 		{base("y", "--sweep", "rock.frction=0.5,0.6"), `did you mean "friction_`},
-		{base("z", "--sweep", "fluids.water.viscosity=1cP,-2cP"), "must be within [1e-5, 1000] Pa.s"},
+		{base("z", "--sweep", "fluids.water.viscosity=1cP,-2cP"), "must be within [0.01, 1e6] cP"},
 	}
 	for _, tc := range bad {
 		if code, _, stderr := runCLI(t, tc.args...); code != exitBadInput || !strings.Contains(stderr, tc.want) {
@@ -300,7 +374,7 @@ func TestExportRun(t *testing.T) {
 		want string
 	}{
 		{[]string{"--format", "shp"}, "format"},
-		{[]string{"--format", "geojson", "--layer", "nope"}, `no layer "nope"`},
+		{[]string{"--format", "geojson", "--layer", "nope"}, `no layer "nope" in a run; layers: fractures, conduits, stimulated_area`},
 		{[]string{"--format", "geotiff", "--layer", "first_slip_time", "--time", "99h"}, "outside the run"},
 		{[]string{"--format", "quakeml", "--out", filepath.Join(out, "events.xml")}, "--force"},
 	}
@@ -388,6 +462,10 @@ func TestUnsafeInputs(t *testing.T) {
 		{"run beyond memory", []string{"run", "single-fracture", "--set", "numerics.element_length=1 cm", "--memory-limit", "50MB", "--out", out},
 			"the simulation would take about"},
 		{"bad memory limit", []string{"run", "single-fracture", "--memory-limit", "lots", "--out", out}, "--memory-limit lots"},
+		{"mistyped sweep fluid", []string{"batch", "single-fracture", "-n", "2", "--sweep", "fluids.watr.viscosity=1cP,20cP", "--out", out},
+			"--sweep fluids.watr.viscosity: value \"1cP\": --set fluids.watr.viscosity=1cP: the scenario has no fluids.watr"},
+		{"sweep of the base value", []string{"batch", "single-fracture", "-n", "2", "--sweep", "fluids.water.viscosity=1cP", "--out", out},
+			"--sweep fluids.water.viscosity changes nothing a run uses"},
 		{"realizations beyond any batch", []string{"batch", "single-fracture", "--realizations", "1000000000000", "--out", out}, "--realizations 1000000000000: must be 1 to 1000000"},
 		{"negative realization", []string{"run", "single-fracture", "--realization", "-1", "--out", out}, "realization -1: must be ≥ 0"},
 	}
@@ -468,4 +546,49 @@ func TestByteIdenticalOutputs(t *testing.T) {
 	}
 	sameFolders(t, filepath.Join(dir, "w1"), filepath.Join(dir, "w2"))
 	sameFolders(t, filepath.Join(dir, "w1"), filepath.Join(dir, "merged"))
+}
+
+// "slipfront --version" prints what "slipfront version" prints.
+func TestVersionFlag(t *testing.T) {
+	code, flag, _ := runCLI(t, "--version")
+	_, cmd, _ := runCLI(t, "version")
+	if code != exitOK || flag != cmd || !strings.HasPrefix(flag, "slipfront ") {
+		t.Errorf("--version: exit %d, %q; version: %q", code, flag, cmd)
+	}
+}
+
+// inspect on a folder says so with exit 2 and points to the snapshot of a
+// run folder.
+func TestInspectFolder(t *testing.T) {
+	root := t.TempDir()
+	snap, err := os.ReadFile("../../snapshot/testdata/small.snap")
+	if err != nil {
+		t.Fatal(err)
+	}
+	dirs := map[string]string{"run": "run.snap", "run.partial": "run.snap", "batch": "manifest.json", "other": ""}
+	for dir, file := range dirs {
+		if err := os.MkdirAll(filepath.Join(root, dir), 0o755); err != nil {
+			t.Fatal(err)
+		}
+		if file != "" {
+			if err := os.WriteFile(filepath.Join(root, dir, file), snap, 0o644); err != nil {
+				t.Fatal(err)
+			}
+		}
+	}
+	tests := []struct{ dir, want string }{
+		{"run", "run is a folder (a run folder), not a snapshot file; inspect its snapshot with: slipfront inspect " + filepath.Join(root, "run", "run.snap")},
+		{"run.partial", "(the partial folder of a stopped run), not a snapshot file; inspect its snapshot with: slipfront inspect " + filepath.Join(root, "run.partial", "run.snap")},
+		{"batch", "batch is a folder (a batch folder, which keeps no snapshots), not a snapshot file"},
+		{"other", "other is a folder, not a snapshot file"},
+	}
+	for _, tc := range tests {
+		code, out, stderr := runCLI(t, "inspect", filepath.Join(root, tc.dir))
+		if code != exitBadInput || out != "" || !strings.Contains(stderr, tc.want) {
+			t.Errorf("inspect %s: exit %d, stdout %q, stderr %q; want exit 2 and %q", tc.dir, code, out, stderr, tc.want)
+		}
+	}
+	if code, out, stderr := runCLI(t, "inspect", filepath.Join(root, "run", "run.snap")); code != exitOK || !strings.Contains(out, "frames") {
+		t.Errorf("inspect the pointed snapshot: exit %d: %s", code, stderr)
+	}
 }

@@ -74,12 +74,13 @@ func run(ctx context.Context, args []string, stdout, stderr io.Writer) int {
 	}
 	root.SetOut(stdout)
 	root.SetErr(stderr)
+	addVersionFlag(root)
 	root.SetArgs(args)
 	root.PersistentFlags().BoolVarP(&g.quiet, "quiet", "q", false, "print no progress or status lines")
 	root.PersistentFlags().StringVar(&g.memoryLimit, "memory-limit", "", "memory a run may take, e.g. 8GB or 512MiB; scenarios estimated to need more are refused before they start (default half of the machine's memory)")
 	root.AddCommand(
 		newVersionCmd(stdout),
-		newScenarioCmd(stdout),
+		newScenarioCmd(&g, stdout, stderr),
 		newGenerateCmd(&g, stdout, stderr),
 		newScreenCmd(&g, stdout, stderr),
 		newRunCmd(&g, stdout, stderr),
@@ -177,8 +178,17 @@ type folderOptions struct {
 
 func (o *folderOptions) addFlags(cmd *cobra.Command) {
 	cmd.Flags().StringVarP(&o.out, "out", "o", "", "output folder (required)")
-	cmd.Flags().BoolVar(&o.force, "force", false, "write into an existing, non-empty output folder")
+	o.addForce(cmd)
 	cmd.MarkFlagRequired("out")
+}
+
+// forceHelp is what --force means for every command that writes a
+// folder: the same rule everywhere.
+const forceHelp = "replace an existing output folder; only one that slipfront wrote, and only once the new output is complete"
+
+// addForce adds --force.
+func (o *folderOptions) addForce(cmd *cobra.Command) {
+	cmd.Flags().BoolVar(&o.force, "force", false, forceHelp)
 }
 
 // folder is the output folder the flags name.

@@ -53,9 +53,9 @@ func simulate(ctx context.Context, s *scenarios.Scenario, out pipeline.Folder, r
 		return err
 	}
 	status := statusWriter(g, stderr)
-	bar := newProgress(g, stderr, "simulating")
+	bar := newProgress(g, stderr, "simulating", "h simulated", 3600)
 	res, runErr := pipeline.Simulate(ctx, s, pipeline.SimulateOptions{Out: out, Realization: realization, Limits: lim, Status: status,
-		Progress: func(t, end float64) { bar.set(t / end) }})
+		Progress: bar.set})
 	bar.done()
 	if res == nil {
 		return runErr

@@ -1,16 +1,18 @@
 package main
 
 import (
+	"errors"
 	"fmt"
 	"io"
 	"strings"
 
 	"github.com/spf13/cobra"
 
+	"slipfront/internal/plural"
 	"slipfront/scenarios"
 )
 
-func newScenarioCmd(stdout io.Writer) *cobra.Command {
+func newScenarioCmd(g *globalOptions, stdout, stderr io.Writer) *cobra.Command {
 	cmd := &cobra.Command{
 		Use:   "scenario",
 		Short: "Write the annotated scenario template, show an example, or check a scenario file",
@@ -26,26 +28,65 @@ func newScenarioCmd(stdout io.Writer) *cobra.Command {
 				return err
 			},
 		},
-		&cobra.Command{
-			Use:     "show NAME",
-			Short:   "Print an embedded example scenario (" + strings.Join(scenarios.Examples(), ", ") + ")",
-			Example: "  slipfront scenario show demo > demo.toml",
-			Args:    cobra.ExactArgs(1),
-			RunE: func(_ *cobra.Command, args []string) error {
-				src, err := scenarios.ExampleSource(args[0])
-				if err != nil {
-					return badInput(err)
-				}
-				_, err = stdout.Write(src)
-				return err
-			},
-		},
-		newCheckCmd(stdout),
+		newShowCmd(g, stdout, stderr),
+		newCheckCmd(stdout, stderr),
 	)
 	return cmd
 }
 
-func newCheckCmd(stdout io.Writer) *cobra.Command {
+func newShowCmd(g *globalOptions, stdout, stderr io.Writer) *cobra.Command {
+	var o folderOptions
+	cmd := &cobra.Command{
+		Use:   "show NAME [--out DIR]",
+		Short: "Print an embedded example scenario (" + strings.Join(scenarios.Examples(), ", ") + "), or write it with the files it reads into a folder",
+		Long: "show prints the example's TOML. An example that reads other files (demo reads its mapped faults\n" +
+			"from demo-faults.csv) checks and runs only beside them: --out DIR writes the TOML and those files\n" +
+			"into DIR, ready to edit and to run.",
+		Example: "  slipfront scenario show demo\n" +
+			"  slipfront scenario show demo --out my-demo && slipfront scenario check my-demo/demo.toml",
+		Args: cobra.ExactArgs(1),
+		RunE: func(_ *cobra.Command, args []string) error {
+			return runShow(args[0], &o, g, stdout, stderr)
+		},
+	}
+	cmd.Flags().StringVarP(&o.out, "out", "o", "", "folder to write the example's TOML and the files it reads into")
+	o.addForce(cmd)
+	return cmd
+}
+
+// runShow prints an example, or writes it with its files into o.out.
+func runShow(name string, o *folderOptions, g *globalOptions, stdout, stderr io.Writer) error {
+	status := statusWriter(g, stderr)
+	if o.out != "" {
+		paths, err := scenarios.WriteExample(name, o.out, o.force)
+		if err != nil {
+			return err
+		}
+		fmt.Fprintf(status, "wrote %s; check it with: slipfront scenario check %s\n", strings.Join(paths, ", "), paths[0])
+		return nil
+	}
+	if o.force {
+		return badInput(errors.New("--force replaces the folder of --out; give --out DIR"))
+	}
+	files, err := scenarios.ExampleFiles(name)
+	if err != nil {
+		return err
+	}
+	if _, err := stdout.Write(files[0].Data); err != nil {
+		return err
+	}
+	if len(files) > 1 {
+		others := make([]string, len(files)-1)
+		for i, f := range files[1:] {
+			others[i] = f.Name
+		}
+		fmt.Fprintf(status, "note: %s reads %s beside it; write them together with: slipfront scenario show %s --out DIR\n",
+			files[0].Name, strings.Join(others, ", "), name)
+	}
+	return nil
+}
+
+func newCheckCmd(stdout, stderr io.Writer) *cobra.Command {
 	var o scenarioOptions
 	cmd := &cobra.Command{
 		Use:     "check FILE",
@@ -56,6 +97,9 @@ func newCheckCmd(stdout io.Writer) *cobra.Command {
 			s, err := o.load(args[0])
 			if err != nil {
 				return err
+			}
+			for _, w := range s.Warnings {
+				fmt.Fprintln(stderr, "warning:", w)
 			}
 			return describeScenario(stdout, s)
 		},
@@ -82,7 +126,7 @@ func describeScenario(w io.Writer, s *scenarios.Scenario) error {
 	for _, set := range s.Sets {
 		fmt.Fprintf(&b, " [%s: %s, %s, %s]", set.Name, set.Orientation.Distribution, set.Size.Distribution, set.Intensity.Measure)
 	}
-	fmt.Fprintf(&b, "\n  known     %d mapped fractures\n", len(s.KnownFractures.Fractures))
+	fmt.Fprintf(&b, "\n  known     %s\n", plural.S(len(s.KnownFractures.Fractures), "mapped fracture"))
 	fmt.Fprintf(&b, "  wells     %d\n", len(s.Wells))
 	order := s.PumpingOrder()
 	names := make([]string, len(order))

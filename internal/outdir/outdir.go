@@ -13,6 +13,7 @@ import (
 	"path/filepath"
 
 	"slipfront/internal/badinput"
+	"slipfront/internal/plural"
 )
 
 // ErrExists is matched by the error returned when an output folder holds
@@ -33,7 +34,7 @@ func Prepare(dir string, force bool) error {
 	case err != nil:
 		return fmt.Errorf("output folder %s: %w", dir, err)
 	case len(entries) > 0 && !force:
-		return badinput.Errorf("%w: %s holds %d entries; use --force to write into it (files of the same name are replaced)", ErrExists, dir, len(entries))
+		return badinput.Errorf("%w: %s holds %s; use --force to write into it (files of the same name are replaced)", ErrExists, dir, plural.Count(len(entries), "entry", "entries"))
 	}
 	return nil
 }

@@ -8,6 +8,7 @@ import (
 	"path/filepath"
 
 	"slipfront/internal/badinput"
+	"slipfront/internal/plural"
 )
 
 // PartialSuffix names the sibling folder a staged output is written into
@@ -60,8 +61,8 @@ func Check(final string, force bool, ours func(name string) bool) error {
 		return badinput.Errorf("%w: %s is a file, not a folder", ErrExists, final)
 	case err == nil && !force:
 		if entries, rerr := os.ReadDir(final); rerr != nil || len(entries) > 0 {
-			return badinput.Errorf("%w: %s holds %d entries; use --force to replace it (it is replaced only when the new output is complete)",
-				ErrExists, final, len(entries))
+			return badinput.Errorf("%w: %s holds %s; use --force to replace it (it is replaced only when the new output is complete)",
+				ErrExists, final, plural.Count(len(entries), "entry", "entries"))
 		}
 	case err != nil && !errors.Is(err, fs.ErrNotExist):
 		return badinput.Errorf("output folder %s: %w", final, err)
