@@ -57,7 +57,7 @@ func TestGenerateAndScreenFolders(t *testing.T) {
 	if len(net.Fractures) != 1 || st.Fractures != 1 {
 		t.Errorf("single-fracture network has %d fractures (stats %d), want 1", len(net.Fractures), st.Fractures)
 	}
-	if got, want := folderFiles(t, gen), []string{CSVMetadataFile, NetworkFracturesFile, NetworkFile, TracesFile}; !slices.Equal(got, want) {
+	if got, want := folderFiles(t, gen), []string{CSVMetadataFile, NetworkFracturesFile, NetworkFile, ScenarioFile, TracesFile}; !slices.Equal(got, want) {
 		t.Errorf("generate folder holds %v, want %v", got, want)
 	}
 	if _, _, err := Generate(s, Folder{Dir: gen}, Limits{}); !errors.Is(err, outdir.ErrExists) || !errors.Is(err, badinput.Err) {
@@ -75,8 +75,28 @@ func TestGenerateAndScreenFolders(t *testing.T) {
 	if len(sc.Planes) != 1 {
 		t.Errorf("screening of %d planes, want 1", len(sc.Planes))
 	}
-	if got, want := folderFiles(t, scr), []string{CSVMetadataFile, ScreenTableFile, ScreenSummaryFile, SlipCurveFile}; !slices.Equal(got, want) {
+	want := []string{CSVMetadataFile, CriticalMapFile, MohrPictureFile, ScenarioFile, ScreenTableFile, ScreenSummaryFile,
+		SlipSharesPictureFile, SlipCurveFile, CriticalNetFile, SlipTendencyNetFile}
+	slices.Sort(want)
+	if got := folderFiles(t, scr); !slices.Equal(got, want) {
 		t.Errorf("screen folder holds %v, want %v", got, want)
+	}
+	// Their reports: the pictures and the page.
+	for _, c := range []struct {
+		dir  string
+		want []string
+	}{
+		{gen, []string{NetworkMapFile, PolesPictureFile, ReportPageFile}},
+		{scr, []string{CriticalMapFile, MohrPictureFile, SlipSharesPictureFile, CriticalNetFile, SlipTendencyNetFile, ReportPageFile}},
+	} {
+		rep := t.TempDir()
+		if err := WriteReport(context.Background(), c.dir, Folder{Dir: rep}); err != nil {
+			t.Fatal(err)
+		}
+		slices.Sort(c.want)
+		if got := folderFiles(t, rep); !slices.Equal(got, c.want) {
+			t.Errorf("report of %s holds %v, want %v", c.dir, got, c.want)
+		}
 	}
 }
 
@@ -84,7 +104,10 @@ func TestGenerateAndScreenFolders(t *testing.T) {
 // the batch runner gives the same totals as the run for realization 0.
 func TestSimulateFolderAndRealization(t *testing.T) {
 	dir, mem := runFolder(t)
-	want := []string{ContentsFile, CSVMetadataFile, EventsFile, FracturesFile, GrowthPictureFile, MapPictureFile, MapsFile, SnapshotFile, ScenarioFile, SummaryFile, TimelineFile}
+	// The demo's two wells have a section each.
+	pictures := []string{DistanceTimeFile, GrowthPictureFile, MagnitudeFrequencyFile, MapPictureFile, sectionPictureFile(0), sectionPictureFile(1)}
+	want := append([]string{ContentsFile, CSVMetadataFile, EventsFile, FracturesFile, MapsFile, SnapshotFile, ScenarioFile, SummaryFile, TimelineFile},
+		pictures...)
 	slices.Sort(want)
 	if got := folderFiles(t, dir); !slices.Equal(got, want) {
 		t.Errorf("run folder holds %v, want %v", got, want)
@@ -101,7 +124,7 @@ func TestSimulateFolderAndRealization(t *testing.T) {
 	if err := WriteReport(context.Background(), dir, Folder{Dir: rep}); err != nil {
 		t.Fatal(err)
 	}
-	wantReport := []string{GrowthPictureFile, MapPictureFile, ReportPageFile}
+	wantReport := append([]string{ReportPageFile}, pictures...)
 	slices.Sort(wantReport)
 	if got := folderFiles(t, rep); !slices.Equal(got, wantReport) {
 		t.Errorf("report folder holds %v, want %v", got, wantReport)

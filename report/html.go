@@ -86,7 +86,7 @@ figcaption { margin-top: 0.3em; }
 {{range .Rows}}<tr>{{range .}}<td>{{.}}</td>{{end}}</tr>
 {{end}}</table>
 {{end}}{{with .Figures}}<h2>Pictures</h2>
-{{range .}}<figure><img src="{{.Src}}" alt="{{.Caption}}"><figcaption>{{.Caption}}</figcaption></figure>
+{{range .}}<figure><img src="{{.Src}}" alt="{{.Caption}}"><figcaption>{{.Caption}} <code>{{.File}}</code></figcaption></figure>
 {{end}}{{end}}{{with .Inputs}}<h2>Inputs</h2>
 {{range .}}<table class="inputs"><caption>{{.Caption}}</caption>
 <tr>{{range .Header}}<th>{{.}}</th>{{end}}</tr>
@@ -98,15 +98,15 @@ figcaption { margin-top: 0.3em; }
 
 // figure is an image as the template draws it.
 type figure struct {
-	Src     any
-	Caption string
+	Src           any
+	Caption, File string
 }
 
 // WriteHTML writes the page.
 func (p *Page) WriteHTML(w io.Writer) error {
 	figures := make([]figure, len(p.Images))
 	for i, im := range p.Images {
-		figures[i] = figure{Src: im.src(), Caption: im.Caption}
+		figures[i] = figure{Src: im.src(), Caption: im.Caption, File: im.File}
 	}
 	return pageTemplate.Execute(w, struct {
 		*Page
