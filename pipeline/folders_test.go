@@ -1,6 +1,7 @@
 package pipeline
 
 import (
+	"bytes"
 	"context"
 	"errors"
 	"math"
@@ -97,6 +98,45 @@ func TestGenerateAndScreenFolders(t *testing.T) {
 		if got := folderFiles(t, rep); !slices.Equal(got, c.want) {
 			t.Errorf("report of %s holds %v, want %v", c.dir, got, c.want)
 		}
+		// The same folder gives the same page: no clock time in it.
+		again := t.TempDir()
+		if err := WriteReport(context.Background(), c.dir, Folder{Dir: again}); err != nil {
+			t.Fatal(err)
+		}
+		a, err := os.ReadFile(filepath.Join(rep, ReportPageFile))
+		if err != nil {
+			t.Fatal(err)
+		}
+		b, err := os.ReadFile(filepath.Join(again, ReportPageFile))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if !bytes.Equal(a, b) {
+			t.Errorf("two reports of %s differ", c.dir)
+		}
+	}
+	// A generate folder whose scenario was swapped is refused.
+	other := loadExample(t, "demo")
+	if err := writeFiles(gen, scenarioWriter(other)); err != nil {
+		t.Fatal(err)
+	}
+	if err := WriteReport(context.Background(), gen, Folder{Dir: t.TempDir()}); !errors.Is(err, badinput.Err) ||
+		!strings.Contains(err.Error(), "mixes two scenarios") {
+		t.Errorf("report of a generate folder with another scenario: %v", err)
+	}
+	if err := writeFiles(scr, scenarioWriter(other)); err != nil {
+		t.Fatal(err)
+	}
+	if err := WriteReport(context.Background(), scr, Folder{Dir: t.TempDir()}); !errors.Is(err, badinput.Err) ||
+		!strings.Contains(err.Error(), "mixes two scenarios") {
+		t.Errorf("report of a screen folder with another scenario: %v", err)
+	}
+	if err := os.Remove(filepath.Join(scr, ScenarioFile)); err != nil {
+		t.Fatal(err)
+	}
+	if err := WriteReport(context.Background(), scr, Folder{Dir: t.TempDir()}); !errors.Is(err, badinput.Err) ||
+		!strings.Contains(err.Error(), "run screen again") {
+		t.Errorf("report of a screen folder without its scenario: %v", err)
 	}
 }
 
