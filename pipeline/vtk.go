@@ -26,7 +26,8 @@ var (
 // o.Time), and per time k vtkFracturesFile(k), the fractures crossing the
 // layer as 3-D polygons (gis.WriteVTKPolygons) with VTKFractureFields,
 // and vtkEventsFile(k), the events up to that time as points with
-// VTKEventFields. Coordinates are the scenario's CRS, origin applied.
+// VTKEventFields. Coordinates are the scenario's CRS, origin applied,
+// z the elevation, all in the CRS's unit (gis.WriteVTKPolygons).
 func exportVTK(dir string, o ExportOptions) ([]string, error) {
 	r, err := LoadRun(dir, o.Time)
 	if err != nil {
