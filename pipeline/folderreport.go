@@ -79,7 +79,7 @@ func stressFacts(sc *mechanics.Screening) [][2]string {
 	for k, p := range st.Principal() {
 		trend, plunge := orient.TrendAndPlunge(p.Axis)
 		facts = append(facts, [2]string{fmt.Sprintf("S%d (%s)", k+1, p.Name),
-			fmt.Sprintf("%.2f MPa, trend %.1f°, plunge %.1f°", p.Value/1e6, trend*180/math.Pi, plunge*180/math.Pi)})
+			fmt.Sprintf("%.2f MPa, trend %s°, plunge %s°", p.Value/1e6, degrees1(trend), degrees1(plunge))})
 	}
 	regime := st.Regime()
 	if regime == "" {
@@ -97,6 +97,16 @@ func stressFacts(sc *mechanics.Screening) [][2]string {
 		[2]string{"frictional limit", fmt.Sprintf("(S1 − p)/(S3 − p) = %.3f, limit %.3f: %s", l.Ratio, l.Limit, verdict)},
 		[2]string{"fractures screened", fmt.Sprint(len(sc.Planes))},
 	)
+}
+
+// degrees1 writes an angle, radians, in degrees with one decimal, without
+// the sign of a round-off below the last decimal ("0.0", not "-0.0").
+func degrees1(a float64) string {
+	d := math.Round(a*180/math.Pi*10) / 10
+	if d == 0 {
+		d = 0 // Drops the sign of −0.
+	}
+	return fmt.Sprintf("%.1f", d)
 }
 
 // shareTable is the share of fractures and of trace length that slip at

@@ -36,7 +36,7 @@ func screenPictures(s *scenarios.Scenario, net *dfn.Network, sc *mechanics.Scree
 	axes := stressAxes(sc.Stress)
 	note := fmt.Sprintf("%d fractures of realization 0", len(sc.Planes))
 	byTendency := &report.Stereonet{Title: s.Name + " — poles by slip tendency", Note: note, Axes: axes, Graticule: true,
-		Colour: report.ColourScale{Label: "Slip tendency τ/σn′", Unit: "1"}}
+		Colour: report.ColourScale{Label: "Slip tendency τ/σn′"}}
 	byCritical := &report.Stereonet{Title: s.Name + " — poles by critical pressure increase", Note: note, Axes: axes, Graticule: true,
 		Colour: report.ColourScale{Label: "Critical pressure increase Δp_c", Unit: "MPa"}}
 	critical := map[int]float64{}
@@ -157,7 +157,7 @@ func networkPictures(s *scenarios.Scenario, net *dfn.Network) ([]picture, error)
 		key += fmt.Sprintf("; %d = %s", i, set.Name)
 	}
 	key += "; mapped fractures grey"
-	colour := report.ColourScale{Label: "Set", Unit: "number", NoValue: "Mapped fractures"}
+	colour := report.ColourScale{Label: "Set number", NoValue: "Mapped fractures"}
 	if n := len(s.Sets); n > 1 {
 		colour.Min, colour.Max = 0, float64(n-1)
 	}
