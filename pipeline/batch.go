@@ -140,7 +140,11 @@ func WriteBatchMaps(ctx context.Context, dir string) error {
 			return err
 		}
 	}
-	ps, _, err := batchPictures(m, aggs)
+	s, err := batchScenario(dir, m)
+	if err != nil {
+		return err
+	}
+	ps, _, err := batchPictures(m, aggs, s)
 	if err != nil {
 		return err
 	}

@@ -2,13 +2,35 @@ package pipeline
 
 import (
 	"fmt"
+	"path/filepath"
 
 	"github.com/paulmach/orb"
 
 	"slipfront/batch"
 	"slipfront/gis"
+	"slipfront/internal/badinput"
 	"slipfront/report"
+	"slipfront/scenarios"
 )
+
+// batchScenario reads the base scenario of the batch folder dir from its
+// ScenarioFile, or returns nil when the folder has none (package batch
+// keeps only the scenario's digest in its manifest). A scenario whose
+// digest is not the manifest's is refused.
+func batchScenario(dir string, m *batch.Manifest) (*scenarios.Scenario, error) {
+	if !exists(dir, ScenarioFile) {
+		return nil, nil
+	}
+	s, err := readScenario(filepath.Join(dir, ScenarioFile))
+	if err != nil {
+		return nil, err
+	}
+	if s.Digest != m.Scenario.Digest {
+		return nil, badinput.Errorf("%s: %s is scenario %.12s…, but the batch ran %.12s…: the folder mixes two scenarios",
+			dir, ScenarioFile, s.Digest, m.Scenario.Digest)
+	}
+	return s, nil
+}
 
 // DifferenceLevel is the probability difference whose contours (≥ +level
 // and ≤ −level) carry the sign on a difference map: a quarter of the
@@ -19,10 +41,17 @@ const DifferenceLevel = 0.25
 // batchPictures are the pictures of a complete batch: the comparison of
 // the final areas, every case's fans on shared axes, each case's fan, its
 // probability map and, against its reference case, its difference map,
-// and the distribution of the paired area ratios.
-func batchPictures(m *batch.Manifest, aggs []batch.CaseAggregate) ([]picture, []string, error) {
+// and the distribution of the paired area ratios. The maps show the wells
+// of s, the batch's base scenario, when it is known (see batchScenario).
+func batchPictures(m *batch.Manifest, aggs []batch.CaseAggregate, s *scenarios.Scenario) ([]picture, []string, error) {
 	conv := Convention(m.Realizations)
 	var notes []string
+	var wells []report.Well
+	if s != nil {
+		wells = mapWells(s)
+	} else {
+		notes = append(notes, "The batch folder holds no "+ScenarioFile+": its maps show no wells.")
+	}
 	ps := []picture{{ComparisonPictureFile, "Final stimulated area by case: how much the swept value moves the P10–P90 range.", comparisonChart(m, aggs)}}
 	if len(aggs) <= report.MaxFanPanels {
 		panels := &report.FanPanels{Title: m.Scenario.Name + " — stimulated area over time, every case on shared axes", Convention: conv}
@@ -46,6 +75,7 @@ func batchPictures(m *batch.Manifest, aggs []batch.CaseAggregate) ([]picture, []
 		if err != nil {
 			return nil, nil, err
 		}
+		pm.Wells = wells
 		ps = append(ps, picture{probabilityPictureFile(a.Case.Index), "Probability map, " + caseTitle(a) +
 			": where stimulation is likely (share of realizations), with the 10, 50 and 90 % contours.", pm})
 	}
@@ -58,6 +88,7 @@ func batchPictures(m *batch.Manifest, aggs []batch.CaseAggregate) ([]picture, []
 		if err != nil {
 			return nil, nil, err
 		}
+		dm.Wells = wells
 		ps = append(ps, picture{differencePictureFile(p.Case, p.Reference), fmt.Sprintf("Difference map, %s minus %s: "+
 			"where the swept value makes stimulation more (red, dashed contour) or less (blue, dotted) likely on the same networks.",
 			caseTitle(&aggs[p.Case]), caseTitle(&aggs[p.Reference])), dm})

@@ -3,6 +3,7 @@ package pipeline
 import (
 	"bytes"
 	"context"
+	"errors"
 	"fmt"
 	"image"
 	"image/color"
@@ -12,12 +13,14 @@ import (
 	"os"
 	"path/filepath"
 	"slices"
+	"strings"
 	"sync"
 	"testing"
 
 	"gonum.org/v1/gonum/spatial/r3"
 
 	"slipfront/dfn"
+	"slipfront/internal/badinput"
 	"slipfront/internal/numtest"
 	"slipfront/mechanics"
 	"slipfront/report"
@@ -353,5 +356,66 @@ func TestSections(t *testing.T) {
 	}
 	for i, p := range ring { // Every vertex lies on the fracture's plane.
 		numtest.Abs(t, fmt.Sprintf("vertex %d off the plane, m", i), r3.Dot(r3.Sub(p, f.Centre), f.Normal), 0, 1e-9*f.Size)
+	}
+}
+
+// A batch folder's maps show the wells when the folder holds its base
+// scenario (checked against the manifest's digest), and say that they
+// cannot otherwise; the page then lists the scenario's inputs.
+func TestBatchMapsWells(t *testing.T) {
+	out, m := singleFractureBatch(t)
+	aggs := readAggregates(t, out)
+	wellsOn := func(ps []picture) int {
+		maps := 0
+		for _, p := range ps {
+			switch d := p.draw.(type) {
+			case *report.ProbabilityMap:
+				maps += len(d.Wells)
+			case *report.DifferenceMap:
+				maps += len(d.Wells)
+			}
+		}
+		return maps
+	}
+	ps, notes, err := batchPictures(m, aggs, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if wellsOn(ps) != 0 || !slices.ContainsFunc(notes, func(n string) bool { return strings.Contains(n, "no wells") }) {
+		t.Errorf("without a scenario: %d wells drawn, notes %q", wellsOn(ps), notes)
+	}
+	// The base scenario of singleFractureBatch.
+	s := loadExample(t, "single-fracture", "numerics.element_length=40 m", "schedule.injection_pressure=43 MPa")
+	if err := writeFiles(out, scenarioWriter(s)); err != nil {
+		t.Fatal(err)
+	}
+	got, err := batchScenario(out, m)
+	if err != nil || got == nil {
+		t.Fatalf("batch scenario %v, error %v", got, err)
+	}
+	ps, _, err = batchPictures(m, aggs, got)
+	if err != nil {
+		t.Fatal(err)
+	}
+	// Two probability maps and one difference map, each with the wells.
+	if want := 3 * len(s.Wells); len(s.Wells) == 0 || wellsOn(ps) != want {
+		t.Errorf("%d wells drawn on the maps, want %d", wellsOn(ps), want)
+	}
+	rep := t.TempDir()
+	if err := WriteReport(context.Background(), out, Folder{Dir: rep}); err != nil {
+		t.Fatal(err)
+	}
+	page, err := os.ReadFile(filepath.Join(rep, ReportPageFile))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !strings.Contains(string(page), "Resolved scenario") || !strings.Contains(string(page), "<td>schedule.injection_pressure</td><td>43 MPa</td>") {
+		t.Error("the batch page does not list the scenario's inputs")
+	}
+	if err := writeFiles(out, scenarioWriter(loadExample(t, "demo"))); err != nil {
+		t.Fatal(err)
+	}
+	if _, err := batchScenario(out, m); !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), "mixes two scenarios") {
+		t.Errorf("another scenario in the batch folder: %v", err)
 	}
 }

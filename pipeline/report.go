@@ -148,7 +148,11 @@ func writeBatchReport(ctx context.Context, dir, out string) error {
 	if err != nil {
 		return err
 	}
-	ps, notes, err := batchPictures(m, aggs)
+	s, err := batchScenario(dir, m)
+	if err != nil {
+		return err
+	}
+	ps, notes, err := batchPictures(m, aggs, s)
 	if err != nil {
 		return err
 	}
@@ -159,6 +163,9 @@ func writeBatchReport(ctx context.Context, dir, out string) error {
 			{"batch written by", "slipfront " + m.ProgramVersion}},
 		Notes:  append(WarningLines(batch.TotalWarnings(aggs)), notes...),
 		Inputs: []report.Table{manifestTable(m)},
+	}
+	if s != nil {
+		p.Inputs = append(p.Inputs, InputsTable(s))
 	}
 	t := report.Table{Caption: "Cases", Header: []string{"case", "q10 area m²", "q50 area m²", "q90 area m²", "mean events", "max Mw", "q50 peak BHP MPa", "warnings"}}
 	for i := range aggs {
@@ -180,9 +187,8 @@ func writeBatchReport(ctx context.Context, dir, out string) error {
 	return writePage(out, p, ps)
 }
 
-// manifestTable is what a batch was computed from: its scenario, sweeps
-// and realizations. (The batch folder keeps the scenario's digest, not
-// the scenario itself.)
+// manifestTable is what a batch was computed from: its scenario's name
+// and digest, its sweeps and realizations.
 func manifestTable(m *batch.Manifest) report.Table {
 	t := report.Table{Caption: "Batch manifest (" + batch.ManifestName + ")", Header: []string{"key", "value"},
 		Rows: [][]string{{"scenario", m.Scenario.Name}, {"scenario digest", m.Scenario.Digest},
