@@ -57,9 +57,10 @@
 // are written as no geometry (GeoPackage NULL, GeoJSON null).
 //
 // VTK files (.vtp) are 3-D: x and y are the CRS easting and northing
-// (local East and North plus the Placement's offsets, m) and z is the
-// elevation relative to the depth datum, m, positive up (z = −depth), so
-// that a 3-D viewer shows depth downwards without flipping an axis.
+// (local East and North plus the Placement's offsets, in the CRS's
+// linear unit) and z is the elevation relative to the depth datum,
+// positive up (z = −depth), in the same unit, so that a 3-D viewer shows
+// depth downwards without flipping an axis and without exaggeration.
 // Polygons carry their fields as cell data, points as point data, in
 // binary (base64) little-endian doubles so that values round-trip exactly.
 // The local axes are assumed parallel to the CRS grid, as for the maps.

@@ -78,9 +78,11 @@ type VTKPoints struct {
 }
 
 // WriteVTKPolygons writes p as a VTK XML PolyData file (.vtp) of polygon
-// cells. Coordinates are written in the CRS of pl: x = East + Easting,
-// y = North + Northing, z unchanged (elevation relative to the depth
-// datum, positive up, m). The bytes depend only on the input.
+// cells. Coordinates are written in the CRS of pl and its linear unit u:
+// x = (East + Easting)/u, y = (North + Northing)/u (Placement.ToCRS) and
+// z = Up/u (elevation relative to the depth datum, positive up), so that
+// a 3-D viewer sees one unit on all three axes. The bytes depend only on
+// the input.
 func WriteVTKPolygons(w io.Writer, pl Placement, p VTKPolygons) error {
 	npts := 0
 	for i, r := range p.Rings {
@@ -189,9 +191,10 @@ func writeVTP(w io.Writer, pl Placement, pc vtpPiece) error {
 		fmt.Fprintf(bw, "</%s>\n", dataTag)
 	}
 	xyz := make([]float64, 0, 3*len(pc.points))
+	u := pl.CRS.Unit().Metres
 	for _, p := range pc.points {
 		q := pl.ToCRS([2]float64{p.X, p.Y})
-		xyz = append(xyz, q[0], q[1], p.Z)
+		xyz = append(xyz, q[0], q[1], p.Z/u)
 	}
 	bw.WriteString("<Points>\n")
 	writeDataArray(bw, "Float64", "Points", 3, float64Bytes(xyz))
@@ -205,8 +208,9 @@ func writeVTP(w io.Writer, pl Placement, pc vtpPiece) error {
 // vtkNote is the XML comment of a .vtp file: where its coordinates are
 // and the caution that the data are simulated.
 func vtkNote(pl Placement) string {
-	return fmt.Sprintf("slipfront: coordinates in %s (m), local origin at E %s m, N %s m; z = elevation relative to the depth datum (m, up). Simulated data for screening and comparison only.",
-		pl.CRS.Name(), strconv.FormatFloat(pl.Easting, 'f', -1, 64), strconv.FormatFloat(pl.Northing, 'f', -1, 64))
+	u := pl.CRS.Unit()
+	return fmt.Sprintf("slipfront: coordinates in %s (%s), local origin at E %s m, N %s m; z = elevation relative to the depth datum (%s, up). Simulated data for screening and comparison only.",
+		pl.CRS.Name(), u.Name, strconv.FormatFloat(pl.Easting, 'f', -1, 64), strconv.FormatFloat(pl.Northing, 'f', -1, 64), u.Name)
 }
 
 // writeDataArray writes one binary DataArray: base64 of the UInt64 byte

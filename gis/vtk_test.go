@@ -526,3 +526,33 @@ func benchVTKPolygons(b *testing.B, n int) {
 
 func BenchmarkWriteVTKPolygons1e3(b *testing.B) { benchVTKPolygons(b, 1000) }
 func BenchmarkWriteVTKPolygons1e4(b *testing.B) { benchVTKPolygons(b, 10000) }
+
+// In a CRS in US survey feet all three coordinates are in feet: x and y
+// through Placement.ToCRS, z = elevation / (1200/3937 m) (NIST SP 811
+// B.8: foot (U.S. survey) = 1200/3937 m, the ratio from memory), so a
+// 3-D viewer is not stretched vertically.
+func TestVTKFootCRS(t *testing.T) {
+	pl := Placement{CRS: CRS{EPSG: 2277}, Easting: 701000, Northing: 2120000} // NAD83 / Texas Central (ftUS), origin in m
+	var buf bytes.Buffer
+	pts := VTKPoints{Points: []r3.Vec{{X: 100, Y: -50, Z: -2600}}}
+	if err := WriteVTKPoints(&buf, pl, pts); err != nil {
+		t.Fatal(err)
+	}
+	var f vtkFile
+	if err := xml.Unmarshal(buf.Bytes(), &f); err != nil {
+		t.Fatal(err)
+	}
+	xyz := float64s(decodeBlock(t, f.Piece.PointsArr.Arrays[0].Text))
+	const ftUS = 1200.0 / 3937
+	want := [3]float64{(100 + 701000) / ftUS, (-50 + 2120000) / ftUS, -2600 / ftUS}
+	// The table's unit length and one division each: a few ulps.
+	const tol = 4 * 0x1p-52
+	for c := range 3 {
+		if math.Abs(xyz[c]-want[c]) > tol*math.Abs(want[c]) {
+			t.Errorf("component %d = %v ftUS, want %v", c, xyz[c], want[c])
+		}
+	}
+	if !bytes.Contains(buf.Bytes(), []byte("z = elevation relative to the depth datum (US survey foot, up)")) {
+		t.Errorf("the note does not name the unit of z:\n%.400s", buf.Bytes())
+	}
+}

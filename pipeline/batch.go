@@ -12,7 +12,6 @@ import (
 	"slipfront/gis"
 	"slipfront/internal/badinput"
 	"slipfront/internal/outdir"
-	"slipfront/report"
 )
 
 // Convention is the percentile convention printed on batch charts; the
@@ -99,9 +98,10 @@ func ProbabilityLayers(aggs []batch.CaseAggregate) ([]gis.Layer, gis.Placement, 
 // WriteBatchMaps writes into a complete batch folder: maps.gpkg with the
 // probability contours, one probability GeoTIFF per case, one probability
 // difference GeoTIFF per pairing of a case with its reference case
-// (batch.Manifest.Pairings; none where a sweep changes the map grid), one
-// fan chart per case and a comparison
-// chart of the final stimulated area across cases.
+// (batch.Manifest.Pairings; none where a sweep changes the map grid), and
+// the pictures of batchPictures: the comparison chart, the fans on shared
+// axes, one fan chart, probability map and difference map per case and
+// pairing, and the paired ratios.
 func WriteBatchMaps(ctx context.Context, dir string) error {
 	m, aggs, err := batch.ReadAggregates(ctx, dir)
 	if err != nil {
@@ -140,29 +140,15 @@ func WriteBatchMaps(ctx context.Context, dir string) error {
 			return err
 		}
 	}
-	return writeBatchCharts(dir, m, aggs)
-}
-
-// writeBatchCharts writes one fan chart per case (fan_NNNN.png) and the
-// comparison of the final stimulated area across cases (comparison.png).
-func writeBatchCharts(dir string, m *batch.Manifest, aggs []batch.CaseAggregate) error {
-	conv := Convention(m.Realizations)
-	cmp := &report.Comparison{Title: m.Scenario.Name + " — final stimulated area by case", Convention: conv,
-		Sweep: sweepLabel(m)}
-	for i := range aggs {
-		a := &aggs[i]
-		fan := &report.Fan{Title: fmt.Sprintf("%s — stimulated area, %s", m.Scenario.Name, caseTitle(a)), Convention: conv, Time: a.Times}
-		for _, s := range a.Area {
-			fan.P10, fan.P50, fan.P90, fan.Mean = append(fan.P10, s.P10), append(fan.P50, s.P50), append(fan.P90, s.P90), append(fan.Mean, s.Mean)
-		}
-		if err := outdir.WriteFile(dir, fanPictureFile(a.Case.Index), func(w io.Writer) error { return fan.WritePNG(w, report.Size{}) }); err != nil {
-			return err
-		}
-		cmp.Categories = append(cmp.Categories, caseTitle(a))
-		cmp.P10, cmp.P50, cmp.P90 = append(cmp.P10, a.Final.P10), append(cmp.P50, a.Final.P50), append(cmp.P90, a.Final.P90)
-		cmp.Mean = append(cmp.Mean, a.Final.Mean)
+	s, err := batchScenario(dir, m)
+	if err != nil {
+		return err
 	}
-	return outdir.WriteFile(dir, ComparisonPictureFile, func(w io.Writer) error { return cmp.WritePNG(w, report.Size{}) })
+	ps, _, err := batchPictures(m, aggs, s)
+	if err != nil {
+		return err
+	}
+	return writePictures(dir, ps)
 }
 
 // caseTitle is the case's sweep values, or "all realizations".

@@ -12,16 +12,25 @@
 //
 // # Folders
 //
-//	generate  fractures.csv, traces.csv, network.json, csv-metadata.json
-//	screen    screen.csv, screen.json, slip-vs-dp.csv, csv-metadata.json
+//	generate  scenario.json, fractures.csv, traces.csv, network.json,
+//	          csv-metadata.json
+//	screen    scenario.json, screen.csv, screen.json, slip-vs-dp.csv,
+//	          csv-metadata.json, stereonet-slip-tendency.png,
+//	          stereonet-critical-pressure.png, mohr.png, slip-shares.png,
+//	          map-critical-pressure.png
 //	run       scenario.json (written first), run.snap (frame by frame),
 //	          summary.json, timeline.csv, events.csv, fractures.csv,
-//	          csv-metadata.json, maps.gpkg, map.png, growth.png
+//	          csv-metadata.json, maps.gpkg, map.png, growth.png,
+//	          distance-time.png and magnitude-frequency.png (with
+//	          events), section_NNNN.png (per well)
 //	batch     the files of package batch, and for a complete batch
-//	          maps.gpkg, probability_NNNN.tif,
-//	          probability_difference_NNNN_vs_RRRR.tif, fan_NNNN.png,
-//	          comparison.png
-//	report    the pictures of the folder reported on and index.html
+//	          maps.gpkg, probability_NNNN.tif and .png,
+//	          probability_difference_NNNN_vs_RRRR.tif and .png,
+//	          fan_NNNN.png, fans.png, comparison.png, paired-ratios.png
+//	report    the pictures of the folder reported on (a generate
+//	          folder's: network-map.png, stereonet-poles.png) and
+//	          index.html, which embeds them
+//	vtk       run.pvd, fractures_NNNN.vtp, events_NNNN.vtp (export)
 //
 // Every file but run.snap is written under a temporary name and renamed
 // when complete (package internal/outdir). csv-metadata.json describes
@@ -64,6 +73,38 @@
 // # Errors
 //
 // Requests a folder cannot satisfy (a time beyond the run, an unknown
-// layer, a folder that is neither a run nor a batch, one that mixes two
-// runs) match badinput.Err.
+// layer, a folder of no known kind, one that mixes two runs or
+// scenarios) match badinput.Err.
+//
+// # References
+//
+// Aki, K. (1965), "Maximum likelihood estimate of b in the formula
+// log N = a − bM and its confidence limits", Bulletin of the Earthquake
+// Research Institute 43, 237–239.
+//
+// Shapiro, S.A., Huenges, E. & Borm, G. (1997), Geophysical Journal
+// International 131, F15–F18 (the triggering front r = √(4πDt) of
+// injection-induced seismicity).
+//
+// Shi, Y. & Bolt, B.A. (1982), "The standard error of the
+// magnitude-frequency b value", Bulletin of the Seismological Society of
+// America 72(5), 1677–1687.
+//
+// Wiemer, S. & Wyss, M. (2000), "Minimum magnitude of completeness in
+// earthquake catalogs: examples from Alaska, the western United States,
+// and Japan", Bulletin of the Seismological Society of America
+// 90(4), 859–869.
+//
+// Willis-Richards, J., Watanabe, K. & Takahashi, H. (1996), "Progress
+// toward a stochastic rock mechanics model of engineered geothermal
+// systems", Journal of Geophysical Research 101(B8), 17481–17496.
+//
+// Woessner, J. & Wiemer, S. (2005), "Assessing the quality of earthquake
+// catalogues: estimating the magnitude of completeness and its
+// uncertainty", Bulletin of the Seismological Society of America 95(2),
+// 684–698.
+//
+// The bibliographic details are those of packages mechanics and report;
+// the number of bootstrap resamples (200) is from memory of Woessner &
+// Wiemer's practice.
 package pipeline

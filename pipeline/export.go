@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"io"
 	"math"
+	"os"
 	"path/filepath"
 	"slices"
 	"strings"
@@ -16,12 +17,17 @@ import (
 	"slipfront/internal/outdir"
 )
 
-// Formats accepted by Export.
-var Formats = []string{"gpkg", "geojson", "geotiff", "quakeml"}
+// Formats accepted by Export (in any letter case). "vtk" writes a folder
+// (see exportVTK); the others one file.
+var Formats = []string{"gpkg", "geojson", "geotiff", "quakeml", "vtk"}
+
+// StdoutName as ExportOptions.Out writes a single-file format to
+// ExportOptions.Stdout.
+const StdoutName = "-"
 
 // ExportOptions select what Export writes.
 type ExportOptions struct {
-	// Format is one of Formats.
+	// Format is one of Formats, in any letter case.
 	Format string
 	// Layer names the layer (gpkg: all when empty; geojson: required) or
 	// the raster (geotiff: required for a run, optional for a batch of one
@@ -29,22 +35,39 @@ type ExportOptions struct {
 	Layer string
 	// Time of a run's state, s; NaN for the end.
 	Time float64
-	// Out is the file to write; it is replaced only with Force.
-	Out   string
-	Force bool
+	// Out is the file (vtk: the folder) to write; it is replaced only
+	// with Force. StdoutName writes the file to Stdout instead.
+	Out    string
+	Force  bool
+	Stdout io.Writer
 }
 
 // Export writes one file from a run or batch folder. It returns the notes
 // of a run read back (a stopped run, recovered or damaged frames; see
 // Run.Notes), for the caller to show as warnings.
 func Export(ctx context.Context, dir string, o ExportOptions) ([]string, error) {
+	o.Format = strings.ToLower(o.Format)
 	if !slices.Contains(Formats, o.Format) {
 		return nil, badinput.Errorf("format %q: use one of %s", o.Format, strings.Join(Formats, ", "))
 	}
-	if err := outdir.CheckNewFile(o.Out, o.Force); err != nil {
-		return nil, err
+	switch {
+	case o.Out == StdoutName && o.Format == "vtk":
+		return nil, badinput.Errorf("--out %s: vtk writes a folder (%s and one .vtp file per time and kind); name the folder", StdoutName, VTKCollectionFile)
+	case o.Out == StdoutName && o.Stdout == nil:
+		panic("pipeline: Export to standard output without ExportOptions.Stdout")
+	case o.Out == StdoutName:
+	case o.Format == "vtk":
+		if err := (Folder{Dir: o.Out, Force: o.Force}).Check(); err != nil {
+			return nil, err
+		}
+	default:
+		if err := outdir.CheckNewFile(o.Out, o.Force); err != nil {
+			return nil, err
+		}
 	}
 	switch {
+	case IsRunDir(dir) && o.Format == "vtk":
+		return exportVTK(dir, o)
 	case IsRunDir(dir):
 		return exportRun(ctx, dir, o)
 	case isBatchDir(dir):
@@ -53,9 +76,12 @@ func Export(ctx context.Context, dir string, o ExportOptions) ([]string, error) 
 	return nil, badinput.Errorf("%s is neither a run folder (%s, %s) nor a batch folder (%s)", dir, ScenarioFile, SnapshotFile, batch.ManifestName)
 }
 
-// writeOut writes the output file atomically.
-func writeOut(path string, write func(io.Writer) error) error {
-	return outdir.WriteFile(filepath.Dir(path), filepath.Base(path), write)
+// writeOut writes the output file atomically, or to o.Stdout.
+func writeOut(o ExportOptions, write func(io.Writer) error) error {
+	if o.Out == StdoutName {
+		return write(o.Stdout)
+	}
+	return outdir.WriteFile(filepath.Dir(o.Out), filepath.Base(o.Out), write)
 }
 
 func exportRun(ctx context.Context, dir string, o ExportOptions) ([]string, error) {
@@ -90,7 +116,7 @@ func (r *Run) export(ctx context.Context, o ExportOptions) error {
 		if _, err := pl.Geographic(); err != nil {
 			return badinput.Mark(err)
 		}
-		return writeOut(o.Out, func(w io.Writer) error { return gis.WriteGeoJSON(w, pl, l, nil) })
+		return writeOut(o, func(w io.Writer) error { return gis.WriteGeoJSON(w, pl, l, nil) })
 	case "geotiff":
 		if o.Layer == "" {
 			return badinput.Errorf("geotiff writes one raster: choose it with --layer (%s)", strings.Join(RasterNames, ", "))
@@ -99,12 +125,12 @@ func (r *Run) export(ctx context.Context, o ExportOptions) error {
 		if err != nil {
 			return badinput.Mark(err)
 		}
-		return writeOut(o.Out, func(w io.Writer) error { return gis.WriteGeoTIFF(w, pl, rs) })
+		return writeOut(o, func(w io.Writer) error { return gis.WriteGeoTIFF(w, pl, rs) })
 	default: // quakeml
 		if _, err := pl.Geographic(); err != nil {
 			return badinput.Mark(err)
 		}
-		return writeOut(o.Out, func(w io.Writer) error { return gis.WriteQuakeML(w, pl, r.catalog()) })
+		return writeOut(o, func(w io.Writer) error { return gis.WriteQuakeML(w, pl, r.catalog()) })
 	}
 }
 
@@ -128,7 +154,22 @@ func writeLayers(ctx context.Context, o ExportOptions, pl gis.Placement, layers 
 		}
 		layers = []gis.Layer{l}
 	}
-	return writeGeoPackage(ctx, o.Out, pl, layers, stamp) // a new file, renamed over o.Out
+	if o.Out != StdoutName {
+		return writeGeoPackage(ctx, o.Out, pl, layers, stamp) // a new file, renamed over o.Out
+	}
+	tmp, err := os.MkdirTemp("", "slipfront-export-") // SQLite writes a file, not a stream.
+	if err != nil {
+		return err
+	}
+	defer os.RemoveAll(tmp)
+	path := filepath.Join(tmp, "export.gpkg")
+	if err := writeGeoPackage(ctx, path, pl, layers, stamp); err != nil {
+		return err
+	}
+	return readFile(path, func(r io.Reader) error {
+		_, err := io.Copy(o.Stdout, r)
+		return err
+	})
 }
 
 func pick(layers []gis.Layer, name string) (gis.Layer, error) {
@@ -165,7 +206,7 @@ func exportBatch(ctx context.Context, dir string, o ExportOptions) error {
 		if _, err := pl.Geographic(); err != nil {
 			return badinput.Mark(err)
 		}
-		return writeOut(o.Out, func(w io.Writer) error { return gis.WriteGeoJSON(w, pl, l, nil) })
+		return writeOut(o, func(w io.Writer) error { return gis.WriteGeoJSON(w, pl, l, nil) })
 	case "geotiff":
 		l, err := pickDefault(layers, o.Layer)
 		if err != nil {
@@ -177,11 +218,11 @@ func exportBatch(ctx context.Context, dir string, o ExportOptions) error {
 				if err != nil {
 					return err
 				}
-				return writeOut(o.Out, func(w io.Writer) error { return gis.WriteGeoTIFF(w, pl, rs) })
+				return writeOut(o, func(w io.Writer) error { return gis.WriteGeoTIFF(w, pl, rs) })
 			}
 		}
 	}
-	return badinput.Errorf("a batch folder exports gpkg, geojson or geotiff, not %s", o.Format)
+	return badinput.Errorf("a batch folder exports gpkg, geojson or geotiff, not %s (vtk and quakeml export a run's fractures and events)", o.Format)
 }
 
 // pickDefault picks the named layer, or the only one.

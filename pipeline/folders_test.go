@@ -1,6 +1,7 @@
 package pipeline
 
 import (
+	"bytes"
 	"context"
 	"errors"
 	"math"
@@ -57,7 +58,7 @@ func TestGenerateAndScreenFolders(t *testing.T) {
 	if len(net.Fractures) != 1 || st.Fractures != 1 {
 		t.Errorf("single-fracture network has %d fractures (stats %d), want 1", len(net.Fractures), st.Fractures)
 	}
-	if got, want := folderFiles(t, gen), []string{CSVMetadataFile, NetworkFracturesFile, NetworkFile, TracesFile}; !slices.Equal(got, want) {
+	if got, want := folderFiles(t, gen), []string{CSVMetadataFile, NetworkFracturesFile, NetworkFile, ScenarioFile, TracesFile}; !slices.Equal(got, want) {
 		t.Errorf("generate folder holds %v, want %v", got, want)
 	}
 	if _, _, err := Generate(s, Folder{Dir: gen}, Limits{}); !errors.Is(err, outdir.ErrExists) || !errors.Is(err, badinput.Err) {
@@ -75,8 +76,74 @@ func TestGenerateAndScreenFolders(t *testing.T) {
 	if len(sc.Planes) != 1 {
 		t.Errorf("screening of %d planes, want 1", len(sc.Planes))
 	}
-	if got, want := folderFiles(t, scr), []string{CSVMetadataFile, ScreenTableFile, ScreenSummaryFile, SlipCurveFile}; !slices.Equal(got, want) {
+	want := []string{CSVMetadataFile, CriticalMapFile, MohrPictureFile, ScenarioFile, ScreenTableFile, ScreenSummaryFile,
+		SlipSharesPictureFile, SlipCurveFile, CriticalNetFile, SlipTendencyNetFile}
+	slices.Sort(want)
+	if got := folderFiles(t, scr); !slices.Equal(got, want) {
 		t.Errorf("screen folder holds %v, want %v", got, want)
+	}
+	checkFolderReports(t, gen, scr)
+}
+
+// checkFolderReports reports on the generate and screen folders: their
+// pictures and the page, byte-identical twice; then swaps or removes
+// their scenario, which the report refuses.
+func checkFolderReports(t *testing.T, gen, scr string) {
+	t.Helper()
+	for _, c := range []struct {
+		dir  string
+		want []string
+	}{
+		{gen, []string{NetworkMapFile, PolesPictureFile, ReportPageFile}},
+		{scr, []string{CriticalMapFile, MohrPictureFile, SlipSharesPictureFile, CriticalNetFile, SlipTendencyNetFile, ReportPageFile}},
+	} {
+		rep := t.TempDir()
+		if err := WriteReport(context.Background(), c.dir, Folder{Dir: rep}); err != nil {
+			t.Fatal(err)
+		}
+		slices.Sort(c.want)
+		if got := folderFiles(t, rep); !slices.Equal(got, c.want) {
+			t.Errorf("report of %s holds %v, want %v", c.dir, got, c.want)
+		}
+		// The same folder gives the same page: no clock time in it.
+		again := t.TempDir()
+		if err := WriteReport(context.Background(), c.dir, Folder{Dir: again}); err != nil {
+			t.Fatal(err)
+		}
+		a, err := os.ReadFile(filepath.Join(rep, ReportPageFile))
+		if err != nil {
+			t.Fatal(err)
+		}
+		b, err := os.ReadFile(filepath.Join(again, ReportPageFile))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if !bytes.Equal(a, b) {
+			t.Errorf("two reports of %s differ", c.dir)
+		}
+	}
+	// A generate folder whose scenario was swapped is refused.
+	other := loadExample(t, "demo")
+	if err := writeFiles(gen, scenarioWriter(other)); err != nil {
+		t.Fatal(err)
+	}
+	if err := WriteReport(context.Background(), gen, Folder{Dir: t.TempDir()}); !errors.Is(err, badinput.Err) ||
+		!strings.Contains(err.Error(), "mixes two scenarios") {
+		t.Errorf("report of a generate folder with another scenario: %v", err)
+	}
+	if err := writeFiles(scr, scenarioWriter(other)); err != nil {
+		t.Fatal(err)
+	}
+	if err := WriteReport(context.Background(), scr, Folder{Dir: t.TempDir()}); !errors.Is(err, badinput.Err) ||
+		!strings.Contains(err.Error(), "mixes two scenarios") {
+		t.Errorf("report of a screen folder with another scenario: %v", err)
+	}
+	if err := os.Remove(filepath.Join(scr, ScenarioFile)); err != nil {
+		t.Fatal(err)
+	}
+	if err := WriteReport(context.Background(), scr, Folder{Dir: t.TempDir()}); !errors.Is(err, badinput.Err) ||
+		!strings.Contains(err.Error(), "run screen again") {
+		t.Errorf("report of a screen folder without its scenario: %v", err)
 	}
 }
 
@@ -84,7 +151,10 @@ func TestGenerateAndScreenFolders(t *testing.T) {
 // the batch runner gives the same totals as the run for realization 0.
 func TestSimulateFolderAndRealization(t *testing.T) {
 	dir, mem := runFolder(t)
-	want := []string{ContentsFile, CSVMetadataFile, EventsFile, FracturesFile, GrowthPictureFile, MapPictureFile, MapsFile, SnapshotFile, ScenarioFile, SummaryFile, TimelineFile}
+	// The demo's two wells have a section each.
+	pictures := []string{DistanceTimeFile, GrowthPictureFile, MagnitudeFrequencyFile, MapPictureFile, sectionPictureFile(0), sectionPictureFile(1)}
+	want := append([]string{ContentsFile, CSVMetadataFile, EventsFile, FracturesFile, MapsFile, SnapshotFile, ScenarioFile, SummaryFile, TimelineFile},
+		pictures...)
 	slices.Sort(want)
 	if got := folderFiles(t, dir); !slices.Equal(got, want) {
 		t.Errorf("run folder holds %v, want %v", got, want)
@@ -101,7 +171,7 @@ func TestSimulateFolderAndRealization(t *testing.T) {
 	if err := WriteReport(context.Background(), dir, Folder{Dir: rep}); err != nil {
 		t.Fatal(err)
 	}
-	wantReport := []string{GrowthPictureFile, MapPictureFile, ReportPageFile}
+	wantReport := append([]string{ReportPageFile}, pictures...)
 	slices.Sort(wantReport)
 	if got := folderFiles(t, rep); !slices.Equal(got, wantReport) {
 		t.Errorf("report folder holds %v, want %v", got, wantReport)

@@ -10,8 +10,8 @@ import (
 )
 
 // Generate generates realization 0 of the scenario's network and writes
-// the generate folder: NetworkFracturesFile, TracesFile, NetworkFile and
-// CSVMetadataFile. It returns the network and its statistics. A network
+// the generate folder: ScenarioFile (for the report), NetworkFracturesFile,
+// TracesFile, NetworkFile and CSVMetadataFile. It returns the network and its statistics. A network
 // larger than the memory limit is refused before it is drawn.
 func Generate(s *scenarios.Scenario, out Folder, lim Limits) (*dfn.Network, dfn.NetworkStats, error) {
 	if err := lim.CheckNetwork(s); err != nil {
@@ -27,6 +27,7 @@ func Generate(s *scenarios.Scenario, out Folder, lim Limits) (*dfn.Network, dfn.
 	}
 	stats := net.Stats()
 	err = writeFiles(st.Dir,
+		scenarioWriter(s),
 		namedWriter{NetworkFracturesFile, func(w io.Writer) error { return dfn.WriteFractures(w, net) }},
 		namedWriter{TracesFile, func(w io.Writer) error { return dfn.WriteTraces(w, net) }},
 		namedWriter{NetworkFile, func(w io.Writer) error { return dfn.WriteNetworkJSON(w, net, stats) }},
@@ -38,17 +39,19 @@ func Generate(s *scenarios.Scenario, out Folder, lim Limits) (*dfn.Network, dfn.
 	return net, stats, st.Commit()
 }
 
+// scenarioWriter writes the resolved scenario (ScenarioFile).
+func scenarioWriter(s *scenarios.Scenario) namedWriter {
+	return namedWriter{ScenarioFile, func(w io.Writer) error { return scenarios.WriteResolved(w, s) }}
+}
+
 // Screen resolves the in-situ stress on every fracture of realization 0
-// and writes the screen folder: ScreenTableFile, ScreenSummaryFile,
-// SlipCurveFile and CSVMetadataFile. The stress, the friction and the
-// network's size are checked before the folder is touched.
+// and writes the screen folder: ScenarioFile, ScreenTableFile,
+// ScreenSummaryFile, SlipCurveFile, CSVMetadataFile and the pictures
+// (SlipTendencyNetFile, CriticalNetFile, MohrPictureFile,
+// SlipSharesPictureFile, CriticalMapFile). The stress, the friction and
+// the network's size are checked before the folder is touched.
 func Screen(s *scenarios.Scenario, out Folder, lim Limits) (*mechanics.Screening, error) {
-	stress, err := mechanics.StressFromScenario(s.Stress, s.Layer.Depth)
-	if err != nil {
-		return nil, err
-	}
-	crit, err := mechanics.CoulombFromScenario(s.Rock)
-	if err != nil {
+	if _, _, err := screenCriteria(s); err != nil {
 		return nil, err
 	}
 	if err := lim.CheckNetwork(s); err != nil {
@@ -58,15 +61,12 @@ func Screen(s *scenarios.Scenario, out Folder, lim Limits) (*mechanics.Screening
 	if err != nil {
 		return nil, err
 	}
-	net, err := dfn.Generate(s, 0)
-	if err != nil {
-		return nil, errors.Join(err, st.Abandon())
-	}
-	sc, err := mechanics.Screen(screenPlanes(net), stress, crit, mechanics.ScreenOptions{SetNames: setNames(s)})
+	net, sc, err := screen(s)
 	if err != nil {
 		return nil, errors.Join(err, st.Abandon())
 	}
 	err = writeFiles(st.Dir,
+		scenarioWriter(s),
 		namedWriter{ScreenTableFile, sc.WriteCSV},
 		namedWriter{ScreenSummaryFile, sc.WriteJSON},
 		namedWriter{SlipCurveFile, sc.WriteCurveCSV},
@@ -75,7 +75,35 @@ func Screen(s *scenarios.Scenario, out Folder, lim Limits) (*mechanics.Screening
 	if err != nil {
 		return nil, err
 	}
+	if err := writePictures(st.Dir, screenPictures(s, net, sc)); err != nil {
+		return nil, err
+	}
 	return sc, st.Commit()
+}
+
+// screenCriteria returns the scenario's stress at the layer and its slip
+// criterion.
+func screenCriteria(s *scenarios.Scenario) (mechanics.Stress, mechanics.Coulomb, error) {
+	stress, err := mechanics.StressFromScenario(s.Stress, s.Layer.Depth)
+	if err != nil {
+		return stress, mechanics.Coulomb{}, err
+	}
+	crit, err := mechanics.CoulombFromScenario(s.Rock)
+	return stress, crit, err
+}
+
+// screen generates realization 0 and screens every fracture of it.
+func screen(s *scenarios.Scenario) (*dfn.Network, *mechanics.Screening, error) {
+	stress, crit, err := screenCriteria(s)
+	if err != nil {
+		return nil, nil, err
+	}
+	net, err := dfn.Generate(s, 0)
+	if err != nil {
+		return nil, nil, err
+	}
+	sc, err := mechanics.Screen(screenPlanes(net), stress, crit, mechanics.ScreenOptions{SetNames: setNames(s)})
+	return net, sc, err
 }
 
 // screenPlanes lists every fracture with its trace length on the

@@ -2,54 +2,35 @@ package pipeline
 
 import (
 	"fmt"
-	"math"
 
 	"github.com/paulmach/orb"
 
 	"slipfront/gis"
 	"slipfront/report"
+	"slipfront/scenarios"
 	"slipfront/sim"
 )
 
 // MapPicture is the quick-look map of the run: traces coloured by
-// first-slip time, wells, clusters, events sized by magnitude and the final
-// stimulated-area outline.
+// first-slip time, primary conduits, wells, clusters, events sized by
+// magnitude, the final stimulated-area outline and the SHmax direction.
 func (r *Run) MapPicture() (*report.Map, error) {
 	s := r.Scenario
-	m := &report.Map{
-		Title:  fmt.Sprintf("%s — realization %d, t = %.2f h", s.Name, r.Network.Realization, r.Time/3600),
-		Extent: report.Extent{MinEast: s.Domain.XMin, MaxEast: s.Domain.XMax, MinNorth: s.Domain.YMin, MaxNorth: s.Domain.YMax},
-		Colour: report.ColourScale{Label: "First slip time", Unit: "h", NoValue: "Never slipped"},
-	}
-	if pl, err := r.Placement(); err == nil && pl.CRS.Defined() {
-		o, u := pl.ToCRS(orb.Point{0, 0}), pl.CRS.Unit().Abbrev()
-		name := pl.CRS.Name()
-		if pl.CRS.EPSG != 0 {
-			name += fmt.Sprintf(" (EPSG:%d)", pl.CRS.EPSG)
-		}
-		m.CRSNote = fmt.Sprintf("Local frame: origin at E %.0f %s, N %.0f %s of %s", o[0], u, o[1], u, name)
-	}
+	m := baseMap(s, fmt.Sprintf("%s — realization %d, t = %.2f h", s.Name, r.Network.Realization, r.Time/3600))
+	m.Colour = report.ColourScale{Label: "First slip time", Unit: "h", NoValue: "Never slipped"}
 	res := r.Result
 	for i, el := range res.Elements {
-		v := res.FirstSlip[i] / 3600
-		if el.Set == sim.ConduitSet { // conduits: drawn, without a value
-			v = math.NaN()
+		a, b := rp(el.P0.X, el.P0.Y), rp(el.P1.X, el.P1.Y)
+		if el.Set == sim.ConduitSet {
+			m.Conduits = append(m.Conduits, report.Segment{A: a, B: b})
+			continue
 		}
-		m.Traces = append(m.Traces, report.Trace{A: rp(el.P0.X, el.P0.Y), B: rp(el.P1.X, el.P1.Y), Value: v})
+		m.Traces = append(m.Traces, report.Trace{A: a, B: b, Value: res.FirstSlip[i] / 3600})
 	}
-	for _, l := range []gis.Layer{r.wellLayer(), r.clusterLayer()} {
-		for _, f := range l.Features {
-			switch g := f.Geometry.(type) {
-			case orb.LineString:
-				w := report.Well{Name: f.Values[0].(string)}
-				for _, p := range g {
-					w.Path = append(w.Path, rp(p[0], p[1]))
-				}
-				m.Wells = append(m.Wells, w)
-			case orb.Point:
-				m.Clusters = append(m.Clusters, report.Cluster{At: rp(g[0], g[1]), Stage: f.Values[1].(string)})
-			}
-		}
+	m.Wells = mapWells(s)
+	for _, f := range r.clusterLayer().Features {
+		g := f.Geometry.(orb.Point)
+		m.Clusters = append(m.Clusters, report.Cluster{At: rp(g[0], g[1]), Stage: f.Values[1].(string)})
 	}
 	for _, e := range res.Events {
 		if r.shows(e.Time) {
@@ -77,6 +58,52 @@ func (r *Run) MapPicture() (*report.Map, error) {
 }
 
 func rp(x, y float64) report.Point { return report.Point{East: x, North: y} }
+
+// baseMap is a map of the scenario's domain with its CRS note and the
+// SHmax direction.
+func baseMap(s *scenarios.Scenario, title string) *report.Map {
+	az := s.Stress.SHmaxAzimuth
+	return &report.Map{
+		Title:   title,
+		Extent:  domainExtent(s),
+		CRSNote: crsNote(s),
+		SHmax:   &az,
+	}
+}
+
+// domainExtent is the scenario's map area.
+func domainExtent(s *scenarios.Scenario) report.Extent {
+	d := s.Domain
+	return report.Extent{MinEast: d.XMin, MaxEast: d.XMax, MinNorth: d.YMin, MaxNorth: d.YMax}
+}
+
+// crsNote says where the local frame lies, or "" for an undefined frame.
+func crsNote(s *scenarios.Scenario) string {
+	crs, err := gis.ParseCRS(s.Domain.CRSSpec())
+	if err != nil || !crs.Defined() {
+		return ""
+	}
+	pl := gis.Placement{CRS: crs, Easting: s.Domain.OriginEasting, Northing: s.Domain.OriginNorthing}
+	o, u := pl.ToCRS(orb.Point{0, 0}), crs.Unit().Abbrev()
+	name := crs.Name()
+	if crs.EPSG != 0 {
+		name += fmt.Sprintf(" (EPSG:%d)", crs.EPSG)
+	}
+	return fmt.Sprintf("Local frame: origin at E %.0f %s, N %.0f %s of %s", o[0], u, o[1], u, name)
+}
+
+// mapWells are the scenario's well paths in map view.
+func mapWells(s *scenarios.Scenario) []report.Well {
+	var ws []report.Well
+	for _, w := range s.Wells {
+		rw := report.Well{Name: w.Name}
+		for _, p := range w.Path {
+			rw.Path = append(rw.Path, rp(p.X, p.Y))
+		}
+		ws = append(ws, rw)
+	}
+	return ws
+}
 
 // GrowthPicture is the stimulated area over time with the stage starts
 // and the bottom-hole pressure.

@@ -8,6 +8,7 @@ import (
 	"math"
 	"os"
 	"path/filepath"
+	"strings"
 
 	"slipfront/batch"
 	"slipfront/internal/badinput"
@@ -16,10 +17,12 @@ import (
 	"slipfront/sim"
 )
 
-// WriteReport writes the pictures and an index.html of the run or batch
-// folder dir into the folder out (as a whole, like every folder; see
-// Folder). A stopped run's partial folder gets its map, drawn from the
-// recovered frames, and its notes.
+// WriteReport writes the pictures of the generate, screen, run or batch
+// folder dir and an index.html that gathers them into the folder out (as
+// a whole, like every folder; see Folder). The page is self-contained:
+// the pictures, also written beside it, are embedded. A stopped run's
+// partial folder gets its map, drawn from the recovered frames, and its
+// notes.
 func WriteReport(ctx context.Context, dir string, out Folder) error {
 	var write func(string) error
 	switch {
@@ -27,8 +30,13 @@ func WriteReport(ctx context.Context, dir string, out Folder) error {
 		write = func(to string) error { return writeRunReport(dir, to) }
 	case isBatchDir(dir):
 		write = func(to string) error { return writeBatchReport(ctx, dir, to) }
+	case exists(dir, ScreenSummaryFile):
+		write = func(to string) error { return writeScreenReport(dir, to) }
+	case exists(dir, NetworkFile):
+		write = func(to string) error { return writeGenerateReport(dir, to) }
 	default:
-		return badinput.Errorf("%s is neither a run folder (%s, %s) nor a batch folder (%s)", dir, ScenarioFile, SnapshotFile, batch.ManifestName)
+		return badinput.Errorf("%s is not a folder of slipfront: a run folder holds %s and %s, a batch folder %s, "+
+			"a screen folder %s, a generate folder %s", dir, ScenarioFile, SnapshotFile, batch.ManifestName, ScreenSummaryFile, NetworkFile)
 	}
 	st, err := out.begin()
 	if err != nil {
@@ -38,6 +46,23 @@ func WriteReport(ctx context.Context, dir string, out Folder) error {
 		return errors.Join(err, st.Abandon())
 	}
 	return st.Commit()
+}
+
+// writePage writes the pictures into dir and the page with them embedded
+// as ReportPageFile.
+func writePage(dir string, p *report.Page, ps []picture) error {
+	if err := writePictures(dir, ps); err != nil {
+		return err
+	}
+	p.Images = images(ps)
+	for i := range p.Images {
+		b, err := os.ReadFile(filepath.Join(dir, p.Images[i].File))
+		if err != nil {
+			return err
+		}
+		p.Images[i].Data = b
+	}
+	return outdir.WriteFile(dir, ReportPageFile, p.WriteHTML)
 }
 
 func writeRunReport(dir, out string) error {
@@ -65,11 +90,11 @@ func writeRunReport(dir, out string) error {
 		}
 		warnings = append(warnings, warningNotes(runWarnings)...)
 	}
-	if err := writeRunPictures(out, r); err != nil {
+	ps, notes, err := r.runPictures()
+	if err != nil {
 		return err
 	}
-	page := r.page(warnings)
-	return outdir.WriteFile(out, ReportPageFile, page.WriteHTML)
+	return writePage(out, r.page(append(warnings, notes...)), ps)
 }
 
 func readFile(path string, read func(io.Reader) error) error {
@@ -89,21 +114,15 @@ func (r *Run) page(warnings []string) *report.Page {
 		last = res.Timeline[n-1]
 	}
 	maxMw := sim.MaxMagnitude(res.Events)
-	p := &report.Page{
-		Title: s.Name + " — run",
-		Facts: [][2]string{
-			{"scenario digest", s.Digest}, {"seed, realization", fmt.Sprintf("%d, %d", s.Seed, r.Network.Realization)},
-			{"duration", fmt.Sprintf("%.2f h", r.Time/3600)}, {"injected", fmt.Sprintf("%.1f m³", last.Injected)},
-			{"stimulated map area", fmt.Sprintf("%.0f m²", last.StimulatedArea)},
-			{"stimulated fracture area", fmt.Sprintf("%.0f m²", last.FractureArea)},
-			{"events", fmt.Sprintf("%d (largest Mw %s)", len(res.Events), optionalMw(maxMw))},
-		},
-		Notes:  warnings,
-		Images: []report.Image{{File: MapPictureFile, Caption: "Traces by first-slip time, events, stimulated area"}},
+	p := basePage(s.Name+" — run", s)
+	p.Facts = [][2]string{
+		{"scenario digest", s.Digest}, {"seed, realization", fmt.Sprintf("%d, %d", s.Seed, r.Network.Realization)},
+		{"duration", fmt.Sprintf("%.2f h", r.Time/3600)}, {"injected", fmt.Sprintf("%.1f m³", last.Injected)},
+		{"stimulated map area", fmt.Sprintf("%.0f m²", last.StimulatedArea)},
+		{"stimulated fracture area", fmt.Sprintf("%.0f m²", last.FractureArea)},
+		{"events", fmt.Sprintf("%d (largest Mw %s)", len(res.Events), optionalMw(maxMw))},
 	}
-	if len(res.Timeline) > 0 {
-		p.Images = append(p.Images, report.Image{File: GrowthPictureFile, Caption: "Stimulated area and bottom-hole pressure over time"})
-	}
+	p.Notes = warnings
 	t := report.Table{Caption: "Stages in pumping order", Header: []string{"stage", "injected m³", "peak BHP MPa", "new area m²", "events", "max Mw"}}
 	for _, st := range res.Stages {
 		t.Rows = append(t.Rows, []string{st.Name, fmt.Sprintf("%.1f", st.Injected), fmt.Sprintf("%.2f", st.PeakBHP/1e6),
@@ -122,27 +141,31 @@ func warningNotes(warnings []sim.Warning) []string {
 	return notes
 }
 
-func optionalMw(v float64) string {
-	if math.IsNaN(v) {
-		return "-"
-	}
-	return fmt.Sprintf("%.2f", v)
-}
+func optionalMw(v float64) string { return optional(v, "%.2f") }
 
 func writeBatchReport(ctx context.Context, dir, out string) error {
 	m, aggs, err := batch.ReadAggregates(ctx, dir)
 	if err != nil {
 		return err
 	}
-	if err := writeBatchCharts(out, m, aggs); err != nil {
+	s, err := batchScenario(dir, m)
+	if err != nil {
+		return err
+	}
+	ps, notes, err := batchPictures(m, aggs, s)
+	if err != nil {
 		return err
 	}
 	p := &report.Page{
-		Title: m.Scenario.Name + " — batch",
+		Title: m.Scenario.Name + " — batch", Program: programName, Date: scenarioDate(m.Scenario.Start),
 		Facts: [][2]string{{"scenario digest", m.Scenario.Digest}, {"seed", fmt.Sprint(m.Scenario.Seed)},
-			{"cases × realizations", fmt.Sprintf("%d × %d", len(m.Cases), m.Realizations)}, {"percentiles", batch.PercentileConvention}},
-		Notes:  WarningLines(batch.TotalWarnings(aggs)),
-		Images: []report.Image{{File: ComparisonPictureFile, Caption: "Final stimulated area by case"}},
+			{"cases × realizations", fmt.Sprintf("%d × %d", len(m.Cases), m.Realizations)}, {"percentiles", batch.PercentileConvention},
+			{"batch written by", "slipfront " + m.ProgramVersion}},
+		Notes:  append(WarningLines(batch.TotalWarnings(aggs)), notes...),
+		Inputs: []report.Table{manifestTable(m)},
+	}
+	if s != nil {
+		p.Inputs = append(p.Inputs, InputsTable(s))
 	}
 	t := report.Table{Caption: "Cases", Header: []string{"case", "q10 area m²", "q50 area m²", "q90 area m²", "mean events", "max Mw", "q50 peak BHP MPa", "warnings"}}
 	for i := range aggs {
@@ -151,7 +174,6 @@ func writeBatchReport(ctx context.Context, dir, out string) error {
 		t.Rows = append(t.Rows, []string{caseTitle(a), fmt.Sprintf("%.0f", a.Final.P10), fmt.Sprintf("%.0f", a.Final.P50),
 			fmt.Sprintf("%.0f", a.Final.P90), fmt.Sprintf("%.1f", a.Events.Mean), optionalMw(a.MaxMagnitude),
 			fmt.Sprintf("%.2f", a.PeakPressure.P50/1e6), fmt.Sprint(warnings)})
-		p.Images = append(p.Images, report.Image{File: fanPictureFile(a.Case.Index), Caption: "Stimulated area over time, " + caseTitle(a)})
 	}
 	p.Tables = []report.Table{t}
 	if paired := batch.Paired(m, aggs); len(paired) > 0 {
@@ -162,7 +184,20 @@ func writeBatchReport(ctx context.Context, dir, out string) error {
 		}
 		p.Tables = append(p.Tables, pt)
 	}
-	return outdir.WriteFile(out, ReportPageFile, p.WriteHTML)
+	return writePage(out, p, ps)
+}
+
+// manifestTable is what a batch was computed from: its scenario's name
+// and digest, its sweeps and realizations.
+func manifestTable(m *batch.Manifest) report.Table {
+	t := report.Table{Caption: "Batch manifest (" + batch.ManifestName + ")", Header: []string{"key", "value"},
+		Rows: [][]string{{"scenario", m.Scenario.Name}, {"scenario digest", m.Scenario.Digest},
+			{"seed", fmt.Sprint(m.Scenario.Seed)}, {"schedule.start", m.Scenario.Start},
+			{"realizations per case", fmt.Sprint(m.Realizations)}}}
+	for _, sw := range m.Sweeps {
+		t.Rows = append(t.Rows, []string{"sweep " + sw.Key, strings.Join(sw.Values, ", ") + " (reference " + sw.Reference + ")"})
+	}
+	return t
 }
 
 // WarningLines describes warning counts for people: one line per kind

@@ -13,7 +13,6 @@ import (
 	"slipfront/dfn"
 	"slipfront/internal/badinput"
 	"slipfront/internal/plural"
-	"slipfront/report"
 	"slipfront/scenarios"
 	"slipfront/sim"
 )
@@ -81,7 +80,7 @@ func Simulate(ctx context.Context, s *scenarios.Scenario, o SimulateOptions) (*s
 // simulateInto generates the network and runs the simulation, writing the
 // resolved scenario and the snapshot into dir.
 func simulateInto(ctx context.Context, dir string, s *scenarios.Scenario, o SimulateOptions, status io.Writer) (*sim.Result, *dfn.Network, error) {
-	if err := writeFiles(dir, namedWriter{ScenarioFile, func(w io.Writer) error { return scenarios.WriteResolved(w, s) }}); err != nil {
+	if err := writeFiles(dir, scenarioWriter(s)); err != nil {
 		return nil, nil, err
 	}
 	net, err := dfn.Generate(s, o.Realization)
@@ -124,8 +123,8 @@ func writeRunFiles(ctx context.Context, out string, s *scenarios.Scenario, net *
 	return writeRunMaps(ctx, out, r)
 }
 
-// writeRunMaps writes MapsFile, MapPictureFile and GrowthPictureFile of a
-// finished run into dir.
+// writeRunMaps writes MapsFile and the pictures of a finished run into
+// dir.
 func writeRunMaps(ctx context.Context, dir string, r *Run) error {
 	pl, err := r.Placement()
 	if err != nil {
@@ -138,22 +137,8 @@ func writeRunMaps(ctx context.Context, dir string, r *Run) error {
 	if err := writeGeoPackage(ctx, filepath.Join(dir, MapsFile), pl, layers, scheduleStart(r.Scenario.Schedule.Start)); err != nil {
 		return err
 	}
-	return writeRunPictures(dir, r)
-}
-
-// writeRunPictures writes MapPictureFile and, when the run has a
-// timeline (a stopped run read back has none), GrowthPictureFile into dir.
-func writeRunPictures(dir string, r *Run) error {
-	m, err := r.MapPicture()
-	if err != nil {
-		return err
-	}
-	files := []namedWriter{{MapPictureFile, func(w io.Writer) error { return m.WritePNG(w, report.Size{}) }}}
-	if len(r.Result.Timeline) > 0 {
-		g := r.GrowthPicture()
-		files = append(files, namedWriter{GrowthPictureFile, func(w io.Writer) error { return g.WritePNG(w, report.Size{}) }})
-	}
-	return writeFiles(dir, files...)
+	_, _, err = writeRunPictures(dir, r)
+	return err
 }
 
 // Realization is the batch runner (a batch.RunFunc): it generates

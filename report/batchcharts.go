@@ -45,13 +45,13 @@ func (f *FanPanels) WritePNG(w io.Writer, s Size) error {
 	return pg.writePNG(w)
 }
 
-// maxFanPanels is the most cases FanPanels draws on one page.
-const maxFanPanels = 12
+// MaxFanPanels is the most cases FanPanels draws on one page.
+const MaxFanPanels = 12
 
 // validate checks each case as a Fan.
 func (f *FanPanels) validate() error {
-	if n := len(f.Cases); n == 0 || n > maxFanPanels {
-		return fmt.Errorf("report: fan panels have %d cases: need 1 to %d", n, maxFanPanels)
+	if n := len(f.Cases); n == 0 || n > MaxFanPanels {
+		return fmt.Errorf("report: fan panels have %d cases: need 1 to %d", n, MaxFanPanels)
 	}
 	for i, c := range f.Cases {
 		fan := Fan{Convention: f.Convention, Time: c.Time, P10: c.P10, P50: c.P50, P90: c.P90}

@@ -393,7 +393,7 @@ func TestExportRun(t *testing.T) {
 		t.Fatalf("report: exit %d: %s", code, stderr)
 	}
 	page, _ := os.ReadFile(filepath.Join(rep, "index.html"))
-	for _, want := range []string{`src="map.png"`, `src="growth.png"`, "W2:3", "screening and comparison tool"} {
+	for _, want := range []string{"<code>map.png</code>", "<code>growth.png</code>", "W2:3", "screening and comparison tool"} {
 		if !strings.Contains(string(page), want) {
 			t.Errorf("index.html lacks %q", want)
 		}

@@ -13,9 +13,14 @@ import (
 func newReportCmd(g *globalOptions, stderr io.Writer) *cobra.Command {
 	var o folderOptions
 	cmd := &cobra.Command{
-		Use:   "report RUN_OR_BATCH_DIR --out DIR",
-		Short: "Draw the pictures of a run or batch folder and gather them in an HTML page",
+		Use:   "report FOLDER --out DIR",
+		Short: "Draw the pictures of a generate, screen, run or batch folder and gather them in one HTML page",
+		Long: "report reads a folder written by generate, screen, run (or demo) or batch (or merge), draws its\n" +
+			"pictures into DIR and writes DIR/" + pipeline.ReportPageFile + ": one self-contained page (pictures embedded, no\n" +
+			"link outside it) with the inputs, the program version, the scenario's date, the caution, the\n" +
+			"tables and every picture with a caption that says what to read from it.\n\n" + caution,
 		Example: "  slipfront report slipfront-demo --out demo-report\n" +
+			"  slipfront report screen --out screen-report\n" +
 			"  slipfront report visc --out visc-report",
 		Args: cobra.ExactArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
