@@ -420,10 +420,12 @@ func (s *System) balance(cur *State, p, e []float64, injected float64, leak []fl
 
 // massTolerance is the largest acceptable mass error of a step, m³: rel
 // times the volume moved in the step, but not below the round-off of
-// summing the contents (256 ε Σ m), which governs during shut-in.
+// summing the n contents, max(n, 256)·ε·Σ m (the bound of recursive summation;
+// Higham 2002, Accuracy and Stability of Numerical Algorithms, §4.2),
+// which governs during shut-in.
 func (s *System) massTolerance(rel, injected float64, leak []float64, stored float64, content []float64) float64 {
 	moved := math.Max(math.Max(math.Abs(injected), math.Abs(total(leak))), math.Abs(stored))
-	return math.Max(rel*moved, 256*epsilon*total(content))
+	return math.Max(rel*moved, float64(max(len(content), 256))*epsilon*total(content))
 }
 
 // epsilon is the float64 machine epsilon.

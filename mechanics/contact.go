@@ -40,6 +40,30 @@ type ContactSettings struct {
 	Tolerance float64
 	// MaxIterations of the block Gauss–Seidel sweeps (default 200).
 	MaxIterations int
+	// DetachRadius, m: elements of different groups whose centres are
+	// closer than this do not load each other. Where two traces cross, the
+	// constant-element collocation puts one element's centre at the other
+	// element's end or on its face, where the influence is singular and
+	// meaningless; such pairs are left out (0 keeps every pair).
+	DetachRadius float64
+	// FarRefresh, m: the stress that slip and opening transfer beyond
+	// NearRadius is added to the committed tractions once some element's
+	// slip or opening has changed by more than this since the last such
+	// refresh (the near field at every Commit). 0 refreshes at every
+	// Commit. A refresh is a product with the whole operator, the costly
+	// part of a step on a large network; the lag it saves is bounded by
+	// the stress of FarRefresh of slip seen from beyond NearRadius.
+	FarRefresh float64
+	// NoDerivatives skips the pressure derivatives of slip and opening
+	// (Aperture then returns 0 for them), for callers that couple flow and
+	// slip sequentially and do not use them.
+	NoDerivatives bool
+	// ShearOnly keeps every element closed: an element whose effective
+	// normal stress falls below zero slides at its cohesion instead of
+	// opening. The caller then models opening itself (as the simulator
+	// does with the crack compliance of each fracture and conduit) and
+	// passes its stress changes on through ContactState.
+	ShearOnly bool
 }
 
 // ErrContactNotConverged is returned (wrapped) when the contact iterations
@@ -102,7 +126,11 @@ type Contact struct {
 	self      []elastic.Block
 	near      [][]int32
 	nearBlock [][]elastic.Block
-	groups    [][]int
+	// detached[j] are the receivers that source j does not load, and
+	// detachedBlock their influence, subtracted from the full operator's.
+	detached      [][]int32
+	detachedBlock [][]elastic.Block
+	groups        [][]int
 
 	// The committed state of the step and its tractions.
 	base *ContactState
@@ -110,8 +138,11 @@ type Contact struct {
 	trial trial
 	// caches keeps each group's influence matrix and factorization.
 	caches map[int]*groupCache
-	// Work arrays of the product of a commit.
-	dsAll, dwAll, tsAll, tnAll []float64
+	// The slip and opening not yet transferred to the far field, m, and
+	// their largest magnitude; work arrays of the far-field product.
+	pendS, pendW []float64
+	pendMax      float64
+	tsAll, tnAll []float64
 }
 
 // ContactState is the committed mechanical state of every element.
@@ -135,6 +166,9 @@ func NewContact(op elastic.Operator, elems []ContactElement, s ContactSettings) 
 	}
 	if !(s.NearRadius > 0) || math.IsInf(s.NearRadius, 0) {
 		return nil, &InputError{Name: "near radius", Value: s.NearRadius, Want: "must be finite and > 0"}
+	}
+	if !(s.DetachRadius >= 0 && s.DetachRadius <= s.NearRadius) {
+		return nil, &InputError{Name: "detach radius", Value: s.DetachRadius, Want: fmt.Sprintf("must be in [0, %g] (the near radius)", s.NearRadius)}
 	}
 	if s.Tolerance <= 0 {
 		s.Tolerance = 1e-6
@@ -162,7 +196,7 @@ func NewContact(op elastic.Operator, elems []ContactElement, s ContactSettings) 
 	c.findNear()
 	c.trial = newTrial(n)
 	c.caches = map[int]*groupCache{}
-	c.dsAll, c.dwAll, c.tsAll, c.tnAll = make([]float64, n), make([]float64, n), make([]float64, n), make([]float64, n)
+	c.pendS, c.pendW, c.tsAll, c.tnAll = make([]float64, n), make([]float64, n), make([]float64, n), make([]float64, n)
 	return c, nil
 }
 
@@ -177,13 +211,21 @@ func (c *Contact) findNear() {
 	g := newCentreGrid(centres, c.set.NearRadius)
 	c.near = make([][]int32, n)
 	c.nearBlock = make([][]elastic.Block, n)
+	c.detached = make([][]int32, n)
+	c.detachedBlock = make([][]elastic.Block, n)
 	r2max := c.set.NearRadius * c.set.NearRadius
+	d2max := c.set.DetachRadius * c.set.DetachRadius
 	for j := range n { // source j
 		g.visit(centres[j], func(i int) {
 			if i == j {
 				return
 			}
 			d := r2.Sub(centres[i], centres[j])
+			if c.elems[i].Group != c.elems[j].Group && r2.Dot(d, d) <= d2max {
+				c.detached[j] = append(c.detached[j], int32(i))
+				c.detachedBlock[j] = append(c.detachedBlock[j], c.op.At(i, j))
+				return
+			}
 			if r2.Dot(d, d) <= r2max {
 				c.near[j] = append(c.near[j], int32(i))
 				c.nearBlock[j] = append(c.nearBlock[j], c.op.At(i, j))
@@ -338,18 +380,16 @@ type StepSlip struct {
 }
 
 // Commit accepts the trial into the committed state given to Begin: the
-// slip, travel, opening and rupture flags, and the tractions, brought up
-// to date by the full operator on the step's increments. The shear
+// slip, travel, opening and rupture flags, and the tractions: at once
+// those of the near field, and those of the far field when
+// ContactSettings.FarRefresh says so. opening, when not nil, holds
+// opening increments, m, that the caller models itself (see
+// ContactSettings.ShearOnly), to be transferred with the slip. The shear
 // modulus g, Pa, gives the moments M0 = G·Σ A·|Δs| (Aki 1966).
-func (c *Contact) Commit(g float64) StepSlip {
+func (c *Contact) Commit(g float64, opening []float64) StepSlip {
 	t, st := &c.trial, c.base
-	clear(c.dsAll)
-	clear(c.dwAll)
 	var out StepSlip
-	any := false
 	for _, i := range t.work {
-		c.dsAll[i], c.dwAll[i] = t.ds[i], t.dw[i]
-		any = any || t.ds[i] != 0 || t.dw[i] != 0
 		m0 := g * c.weight[i] * math.Abs(t.ds[i])
 		if t.ruptured[i] && !st.Ruptured[i] {
 			out.SeismicMoment += m0
@@ -363,14 +403,79 @@ func (c *Contact) Commit(g float64) StepSlip {
 		st.Travel[i] += math.Abs(t.ds[i])
 		st.Opening[i] = math.Max(st.Opening[i]+t.dw[i], 0)
 		st.Ruptured[i] = st.Ruptured[i] || t.ruptured[i]
+		c.pend(i, t.ds[i], t.dw[i])
 	}
-	if any {
-		c.op.MulVecTo(c.tsAll, c.tnAll, c.dsAll, c.dwAll)
-		for i := range st.Shear {
-			st.Shear[i] += c.tsAll[i]
-			st.Normal[i] += c.tnAll[i]
+	// The group solves brought the near field up to date in t.dt, t.dn.
+	for i := range st.Shear {
+		st.Shear[i] += t.dt[i]
+		st.Normal[i] += t.dn[i]
+	}
+	for j, w := range opening {
+		if w != 0 {
+			c.loadNear(st.Shear, st.Normal, j, 0, w)
+			c.pend(j, 0, w)
 		}
+	}
+	if c.pendMax > c.set.FarRefresh {
+		c.refreshFar(st)
 	}
 	c.base = nil
 	return out
+}
+
+// pend adds slip ds and opening dw of element i to what the far field has
+// not yet seen.
+func (c *Contact) pend(i int, ds, dw float64) {
+	c.pendS[i] += ds
+	c.pendW[i] += dw
+	c.pendMax = math.Max(c.pendMax, math.Max(math.Abs(c.pendS[i]), math.Abs(c.pendW[i])))
+}
+
+// loadNear adds to the tractions ts, tn what slip ds and opening dw of
+// element j cause on itself and on the elements within NearRadius.
+func (c *Contact) loadNear(ts, tn []float64, j int, ds, dw float64) {
+	b := c.self[j]
+	ts[j] += b.ShearSlip*ds + b.ShearOpening*dw
+	tn[j] += b.NormalSlip*ds + b.NormalOpening*dw
+	for q, i := range c.near[j] {
+		b := &c.nearBlock[j][q]
+		ts[i] += b.ShearSlip*ds + b.ShearOpening*dw
+		tn[i] += b.NormalSlip*ds + b.NormalOpening*dw
+	}
+}
+
+// refreshFar adds to st the tractions of the pending slip and opening
+// beyond the near field (the whole operator's, less the near field's,
+// which Commit has already added) and clears them.
+func (c *Contact) refreshFar(st *ContactState) {
+	c.Influence(c.tsAll, c.tnAll, c.pendS, c.pendW)
+	for j := range c.pendS {
+		if ds, dw := c.pendS[j], c.pendW[j]; ds != 0 || dw != 0 {
+			c.loadNear(c.tsAll, c.tnAll, j, -ds, -dw)
+		}
+	}
+	for i := range st.Shear {
+		st.Shear[i] += c.tsAll[i]
+		st.Normal[i] += c.tnAll[i]
+	}
+	clear(c.pendS)
+	clear(c.pendW)
+	c.pendMax = 0
+}
+
+// Influence overwrites ts and tn with the shear and normal traction
+// changes, Pa, that slip ds and opening dw, m, of the elements cause: the
+// operator's product without the detached pairs (see DetachRadius).
+func (c *Contact) Influence(ts, tn, ds, dw []float64) {
+	c.op.MulVecTo(ts, tn, ds, dw)
+	for j, list := range c.detached {
+		if ds[j] == 0 && dw[j] == 0 {
+			continue
+		}
+		for q, i := range list {
+			b := &c.detachedBlock[j][q]
+			ts[i] -= b.ShearSlip*ds[j] + b.ShearOpening*dw[j]
+			tn[i] -= b.NormalSlip*ds[j] + b.NormalOpening*dw[j]
+		}
+	}
 }

@@ -19,7 +19,7 @@ type groupCache struct {
 	a     []float64 // 2m × 2m, row-major
 	// The factorization of the reduced Jacobian, valid while key holds.
 	key []byte
-	lu  mat.LU
+	lu  denseLU
 	ok  bool
 }
 
@@ -67,7 +67,9 @@ func (c *Contact) solveGroup(g int) (float64, error) {
 	if err != nil {
 		return 0, err
 	}
-	s.derivatives()
+	if !c.set.NoDerivatives {
+		s.derivatives()
+	}
 	return s.apply(), nil
 }
 
@@ -211,23 +213,18 @@ func (s *groupSystem) newton() error {
 		s.residual()
 		key := s.key()
 		if refresh || !s.cache.ok || string(key) != string(s.cache.key) {
-			s.cache.lu.Factorize(mat.NewDense(nf, nf, slices.Clone(s.jac)))
-			s.cache.key, s.cache.ok = key, true
-			if s.cache.lu.Det() == 0 {
-				s.cache.ok = false
+			s.cache.key, s.cache.ok = key, s.cache.lu.factorize(slices.Clone(s.jac), nf)
+			if !s.cache.ok {
 				return fmt.Errorf("%w: singular system in group %d", ErrContactNotConverged, s.group)
 			}
 			refresh = false
 		}
-		d := mat.NewVecDense(nf, nil)
-		if err := s.cache.lu.SolveVecTo(d, false, mat.NewVecDense(nf, s.res)); err != nil {
-			s.cache.ok = false
-			return fmt.Errorf("%w: group %d: %v", ErrContactNotConverged, s.group, err)
-		}
+		d := slices.Clone(s.res)
+		s.cache.lu.solve(d)
 		var step, zmax float64
 		for q, pos := range s.free {
-			s.z[pos] -= d.AtVec(q)
-			step = math.Max(step, math.Abs(d.AtVec(q)))
+			s.z[pos] -= d[q]
+			step = math.Max(step, math.Abs(d[q]))
 			zmax = math.Max(zmax, math.Abs(s.z[pos]))
 		}
 		if step <= 1e-13*(zmax+absScale) {
@@ -328,11 +325,12 @@ func (s *groupSystem) updateStatus() bool {
 		tau, sigma := s.tractions(k)
 		eff := sigma - t.p[i]
 		tol := failTolerance * (math.Abs(tau) + math.Abs(sigma) + 1)
+		opens := eff < -tol && !c.set.ShearOnly
 		switch t.status[i] {
 		case stuck:
 			str, _ := c.strength(i, c.base.Travel[i], eff, t.ruptured[i])
 			switch {
-			case eff < -tol:
+			case opens:
 				t.status[i], changed = open, true
 			case math.Abs(tau) > str+tol:
 				t.status[i], t.sign[i], changed = sliding, int8(sign(tau)), true
@@ -342,7 +340,7 @@ func (s *groupSystem) updateStatus() bool {
 			}
 		case sliding:
 			switch {
-			case eff < -tol:
+			case opens:
 				t.status[i], changed = open, true
 			case float64(t.sign[i])*s.z[k] < -absScale*1e-3:
 				t.status[i], changed = stuck, true
@@ -467,9 +465,8 @@ func (s *groupSystem) derivatives() {
 	}
 	s.fix()
 	s.residual()
-	var lu mat.LU
-	lu.Factorize(mat.NewDense(nf, nf, slices.Clone(s.jac)))
-	if lu.Det() == 0 {
+	var lu denseLU
+	if !lu.factorize(slices.Clone(s.jac), nf) {
 		return
 	}
 	rhs := make([]float64, nf)
@@ -484,16 +481,14 @@ func (s *groupSystem) derivatives() {
 			rhs[s.rowOf(m+k)] = 1
 		}
 	}
-	y := mat.NewVecDense(nf, nil)
-	if lu.SolveVecTo(y, false, mat.NewVecDense(nf, rhs)) != nil {
-		return
-	}
+	y := rhs
+	lu.solve(y)
 	for k, i := range s.elems {
 		switch t.status[i] {
 		case sliding:
-			t.dTravelDp[i] = math.Max(float64(t.sign[i])*y.AtVec(s.rowOf(k)), 0)
+			t.dTravelDp[i] = math.Max(float64(t.sign[i])*y[s.rowOf(k)], 0)
 		case open:
-			t.dOpeningDp[i] = math.Max(y.AtVec(s.rowOf(m+k)), 0)
+			t.dOpeningDp[i] = math.Max(y[s.rowOf(m+k)], 0)
 		}
 	}
 }
@@ -512,14 +507,7 @@ func (s *groupSystem) apply() float64 {
 		}
 		change = math.Max(change, math.Max(math.Abs(ds), math.Abs(dw)))
 		t.ds[j], t.dw[j] = s.z[k], s.z[m+k]
-		b := c.self[j]
-		t.dt[j] += b.ShearSlip*ds + b.ShearOpening*dw
-		t.dn[j] += b.NormalSlip*ds + b.NormalOpening*dw
-		for q, i := range c.near[j] {
-			b := &c.nearBlock[j][q]
-			t.dt[i] += b.ShearSlip*ds + b.ShearOpening*dw
-			t.dn[i] += b.NormalSlip*ds + b.NormalOpening*dw
-		}
+		c.loadNear(t.dt, t.dn, j, ds, dw)
 	}
 	return change
 }

@@ -81,9 +81,36 @@ func TestContactPressurisedCrack(t *testing.T) {
 	// 5.0613428129e−5 m at Δp = 1 MPa (the same formulation: to 1e−8).
 	_, _, w, _, _ := c.Aperture(n / 2)
 	numtest.Rel(t, "opening at x = c/N", w, 5.0613428129e-5, 1e-8)
-	c.Commit(testRock.ShearModulus)
+	c.Commit(testRock.ShearModulus, nil)
 	if st.Opening[n/2] != w || st.Normal[n/2] > sigma+dp+1 || st.Normal[n/2] < sigma+dp-1 {
 		t.Errorf("committed opening %g m, normal stress %g Pa; want %g m and the fluid pressure", st.Opening[n/2], st.Normal[n/2], w)
+	}
+}
+
+// With ShearOnly, a crack whose fluid pressure exceeds its normal stress
+// stays closed and loses all its shear strength (no cohesion): it slips by
+// the elliptical profile of a stress drop equal to the whole in-situ shear
+// traction (Pollard & Segall 1987, as in TestContactStressDrop).
+func TestContactShearOnly(t *testing.T) {
+	const n, c0, sigma, tau = 40, 1.0, 20e6, 2e6
+	f := SlipWeakening{Static: 0.6, Residual: 0.6, CriticalSlip: 1e-3}
+	c, elems := straightFault(t, n, c0, tau, sigma, f)
+	c.set.ShearOnly = true
+	st := c.NewState()
+	c.Begin(st, uniform(n, 0))
+	if _, err := c.Solve(uniform(n, sigma+1e6)); err != nil {
+		t.Fatal(err)
+	}
+	for i, e := range elems {
+		_, _, w, _, _ := c.Aperture(i)
+		if w != 0 {
+			t.Fatalf("element %d opened by %g m with ShearOnly", i, w)
+		}
+		x := e.Centre().X
+		want := 2 * (1 - testRock.PoissonRatio) * tau / testRock.ShearModulus * math.Sqrt(c0*c0-x*x)
+		if got := c.trial.ds[i]; i >= 2 && i < n-2 && math.Abs(got/want-1) > 0.11 {
+			t.Errorf("element %d slip %.6g m, elliptical profile %.6g m", i, got, want)
+		}
 	}
 }
 
@@ -122,7 +149,7 @@ func TestContactStressDrop(t *testing.T) {
 				t.Errorf("%s: element %d slip %.6g m, elliptical profile %.6g m", tc.name, i, got, want)
 			}
 		}
-		slip := c.Commit(testRock.ShearModulus)
+		slip := c.Commit(testRock.ShearModulus, nil)
 		if len(slip.Ruptures) != 0 || slip.SeismicMoment != 0 || !(slip.AseismicMoment > 0) {
 			t.Errorf("%s: constant friction gave %d ruptures, seismic %g, aseismic %g N·m; want stable slip only",
 				tc.name, len(slip.Ruptures), slip.SeismicMoment, slip.AseismicMoment)
@@ -173,7 +200,7 @@ func TestContactNucleation(t *testing.T) {
 				lo, hi = math.Min(lo, e.P0.X), math.Max(hi, e.P1.X)
 			}
 		}
-		slip := c.Commit(testRock.ShearModulus)
+		slip := c.Commit(testRock.ShearModulus, nil)
 		if len(slip.Ruptures) > 0 {
 			if stable == 0 {
 				t.Fatalf("ruptured at step %d before any stable slip", step)
@@ -274,4 +301,83 @@ func TestContactErrors(t *testing.T) {
 			t.Errorf("%s: error %v, want *InputError", tc.name, err)
 		}
 	}
+}
+
+// A fault of constant friction under the pressure of a line source held
+// at Δp over p0 since t = 0, p = p0 + Δp·erfc(|x|/ℓ) with ℓ = √(4αt),
+// slips over |x| < a where the stress intensity at the front vanishes,
+//
+//	T = (μσn′ − τ0)/(μΔp) = (2/π) ∫₀^{π/2} erfc(λ sin θ) dθ,  a = λℓ,
+//
+// the criterion of Bhattacharya & Viesca (2019) and Viesca (2021, eq. 2.9
+// with K = 0) for a plane-strain fault. The slip front then runs ahead of
+// the Coulomb front x_c = ℓ·erfc⁻¹(T), the more so the smaller T. The
+// elastic solution must find a within an element or two.
+func TestContactSlipFrontCriterion(t *testing.T) {
+	const sigma, p0, dp, mu = 50e6, 20e6, 10e6, 0.6
+	const n, half = 400, 4.0 // elements over |x| < 4ℓ, ℓ = 1 m
+	for _, T := range []float64{0.2, 0.5, 0.8} {
+		tau := mu*(sigma-p0) - T*mu*dp
+		f := SlipWeakening{Static: mu, Residual: mu, CriticalSlip: 1}
+		c, elems := straightFault(t, n, half, tau, sigma, f)
+		p := make([]float64, n)
+		for i, e := range elems {
+			p[i] = p0 + dp*math.Erfc(math.Abs(e.Centre().X))
+		}
+		st := c.NewState()
+		c.Begin(st, uniform(n, p0))
+		if _, err := c.Solve(p); err != nil {
+			t.Fatal(err)
+		}
+		var front float64
+		for i, e := range elems {
+			if c.trial.ds[i] != 0 {
+				front = math.Max(front, math.Abs(e.Centre().X))
+			}
+		}
+		lambda := frontCriterion(T)
+		dx := 2 * half / n
+		t.Logf("T = %.1f: slip front %.3f m, criterion λℓ = %.3f m, Coulomb front %.3f m", T, front, lambda, erfcInv(T))
+		if math.Abs(front-lambda) > 2*dx {
+			t.Errorf("T = %.1f: slip front %.4f m, criterion %.4f m (element %.3f m)", T, front, lambda, dx)
+		}
+	}
+}
+
+// frontCriterion solves T = (2/π) ∫₀^{π/2} erfc(λ sin θ) dθ for λ by
+// bisection (the right side falls from 1 at λ = 0 to 0), with the
+// integral by the midpoint rule on 2000 intervals.
+func frontCriterion(T float64) float64 {
+	g := func(l float64) float64 {
+		const m = 2000
+		var s float64
+		for k := range m {
+			s += math.Erfc(l * math.Sin((float64(k)+0.5)*math.Pi/2/m))
+		}
+		return s / m
+	}
+	lo, hi := 0.0, 100.0
+	for range 100 {
+		mid := (lo + hi) / 2
+		if g(mid) > T {
+			lo = mid
+		} else {
+			hi = mid
+		}
+	}
+	return (lo + hi) / 2
+}
+
+// erfcInv returns x with erfc(x) = y, for the log (bisection).
+func erfcInv(y float64) float64 {
+	lo, hi := 0.0, 10.0
+	for range 100 {
+		mid := (lo + hi) / 2
+		if math.Erfc(mid) > y {
+			lo = mid
+		} else {
+			hi = mid
+		}
+	}
+	return (lo + hi) / 2
 }

@@ -104,7 +104,8 @@ func (t *trial) enlist(c *Contact) bool {
 		eff := b.Normal[i] + t.dn[i] - t.p[i]
 		s, _ := c.strength(i, b.Travel[i], eff, t.ruptured[i])
 		scale := failTolerance * (math.Abs(tau) + math.Abs(b.Normal[i]) + 1)
-		if eff < -scale || math.Abs(tau) > s+scale || b.Opening[i] > 0 {
+		opens := eff < -scale && !c.set.ShearOnly
+		if opens || math.Abs(tau) > s+scale || b.Opening[i] > 0 {
 			t.inWork[i] = true
 			t.work = append(t.work, i)
 			added = true

@@ -112,6 +112,9 @@ type Rock struct {
 	DilationAngle float64 `toml:"dilation_angle" unit:"angle" range:"[0,90)" default:"2.5 deg" doc:"shear dilation angle"`
 	// DilationSlipLimit D_max: slip beyond it adds no dilation, m.
 	DilationSlipLimit float64 `toml:"dilation_slip_limit" unit:"length" range:"[0,1]" default:"5 mm" doc:"slip beyond which shear dilation stops growing"`
+	// SlipWeakeningDistance Dc: slip over which friction falls from
+	// friction_static to friction_residual, m.
+	SlipWeakeningDistance float64 `toml:"slip_weakening_distance" unit:"length" range:"[1e-6,1]" default:"1 mm" doc:"slip over which friction falls from static to residual (slip-weakening distance Dc)"`
 }
 
 // FractureSet is the statistical description of one natural fracture set.
@@ -290,4 +293,11 @@ type Numerics struct {
 	// MaxSteps bounds the accepted time steps of a run.
 	MaxSteps     int `toml:"max_steps" range:"[1,1e9]" default:"1000000" doc:"refuse schedules that need more time steps than this, and stop a run that takes more"`
 	MaxFractures int `toml:"max_fractures" range:"[1,1e8]" default:"2000000" doc:"refuse scenarios that would generate more fractures than this"`
+	// Interaction is "on" (every element loads every other through the
+	// boundary-element operator) or "off" (each element feels only its own
+	// slip: isolated elements, for comparison).
+	Interaction string `toml:"interaction" default:"on" range:"on|off" doc:"elastic interaction between fracture elements: on (stress shadows), or off (each element alone, for comparison)"`
+	// InteractionTolerance is the relative accuracy of the compressed
+	// far-field blocks of the interaction operator.
+	InteractionTolerance float64 `toml:"interaction_tolerance" range:"[1e-7,0.1]" default:"1e-6" doc:"relative accuracy of the compressed far-field blocks of the interaction operator"`
 }

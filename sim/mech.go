@@ -1,202 +1,326 @@
 package sim
 
 import (
+	"fmt"
 	"math"
 
 	"gonum.org/v1/gonum/spatial/r2"
 
+	"slipfront/elastic"
 	"slipfront/mechanics"
 )
 
-// mechState is the mechanical state of every element: the values at the
-// end of the last accepted step (slip, tau), and the trial of the step
-// being iterated.
+// mechState is the mechanical state of every element: the friction-contact
+// problem of all elements, which interact through the elastic operator
+// (mechanics.Contact), its committed state, and the opening of every
+// element as the flow model sees it.
+//
+// Within a time step, flow and slip are coupled sequentially: the flow
+// step sees the slip and the stresses of the last accepted step (its
+// apertures then depend on the element's own pressure only, smoothly), and
+// the contact problem is then solved at the step's end pressures and
+// committed. The slip a step adds is bounded by numerics.slip_max, so the
+// lag of dilation and stress shadows behind the pressure is one short step
+// and vanishes as the step shrinks (the time-step refinement of the
+// README's convergence table shows it).
 type mechState struct {
-	m *model
-	// Accumulated slip, m, and current shear stress, Pa.
-	slip, tau []float64
-	// The trial of the current step, and whether an element slipped in any
-	// iteration of it.
-	trialSlip, trialTau []float64
-	// dslip is ∂D/∂p of each element's own pressure on its patch's trial
-	// slip, m/Pa (0 outside patches).
-	dslip   []float64
-	latched []bool
-	patches []patch
-	// Propped aperture, m, and opening stiffness, Pa/m, of conduit elements
-	// (0 for natural elements).
-	conduitAperture0, conduitStiffness []float64
+	m       *model
+	op      elastic.Operator
+	contact *mechanics.Contact
+	state   *mechanics.ContactState
+	// crackNormal is the normal stress of each element's aperture law,
+	// Pa (see averageNormal).
+	crackNormal []float64
+	// crackStiffness is the opening stiffness of each element's crack
+	// (its trace, or its whole conduit), Pa/m, and opening the elastic
+	// opening of each element at the last accepted step, m: its changes
+	// load the other elements.
+	crackStiffness, opening []float64
+	// conduitAperture0 is the propped aperture of conduit elements, m.
+	conduitAperture0 []float64
+	// groups lists the elements of every group: the opening of an element
+	// loads the other groups only (its own crack's opening is already in
+	// its compliance).
+	groups [][]int
+	// slipping marks the elements that slipped in the last accepted step.
+	slipping []bool
 	// First slip time, s (NaN if never), and the stage index it happened in.
 	firstSlip  []float64
 	firstStage []int
+	// SeismicMoment and AseismicMoment released so far, N·m.
+	seismicMoment, aseismicMoment float64
+	// Work arrays: the travel before a commit, m, and the opening change
+	// of a step, m.
+	travel0, dw []float64
+	// The pressures, Pa, and apertures, m, of the last iteration of the
+	// step, if iterated.
+	lastP, lastE []float64
+	iterated     bool
 }
 
-// patch is a run of contiguous slipping elements of one trace in a step.
-type patch struct {
-	trace, first, end int
-	slip, area        float64
-}
+// contactNearRadius is the reach, in element lengths, within which
+// elements of different traces load each other implicitly in a step;
+// farther ones act through the committed stresses (see mechanics.Contact).
+const contactNearRadius = 3
 
-func newMechState(m *model) *mechState {
+// farRefresh is the slip or opening, as a fraction of numerics.slip_max,
+// that some element may gather before the stress it transfers beyond the
+// near radius is brought up to date (mechanics.ContactSettings.FarRefresh):
+// like the step's slip, it shrinks with slip_max.
+const farRefresh = 0.1
+
+func newMechState(m *model) (*mechState, error) {
 	n := len(m.elements)
 	ms := &mechState{m: m,
-		slip: make([]float64, n), tau: append([]float64(nil), m.tau0...),
-		trialSlip: make([]float64, n), trialTau: make([]float64, n), dslip: make([]float64, n),
-		latched: make([]bool, n), conduitAperture0: make([]float64, n), conduitStiffness: make([]float64, n),
-		firstSlip: make([]float64, n), firstStage: make([]int, n),
+		crackStiffness: make([]float64, n), crackNormal: make([]float64, n), opening: make([]float64, n), conduitAperture0: make([]float64, n),
+		slipping: make([]bool, n), firstSlip: make([]float64, n), firstStage: make([]int, n),
+		travel0: make([]float64, n), dw: make([]float64, n), lastP: make([]float64, n), lastE: make([]float64, n),
 	}
 	nt := len(m.net.Traces)
 	crack := mechanics.PlaneStrainCrack{ShearModulus: m.s.Rock.ShearModulus, PoissonRatio: m.s.Rock.PoissonRatio}
-	for i, el := range m.mesh.Elements {
-		if el.Path >= nt {
-			c := m.conduits[el.Path-nt]
-			ms.conduitAperture0[i] = c.Aperture
-			ms.conduitStiffness[i] = crack.OpeningStiffness(mechanics.Patch{Length: r2.Norm(r2.Sub(c.P1, c.P0)), Height: c.Height})
+	elems := make([]elastic.Element, n)
+	ce := make([]mechanics.ContactElement, n)
+	ms.groups = make([][]int, nt+len(m.conduits))
+	for i, el := range m.elements {
+		elems[i] = elastic.Element{P0: el.P0, P1: el.P1, Height: el.Height}
+		ce[i] = mechanics.ContactElement{Element: elems[i], Group: m.group[i],
+			Shear: m.tau0[i], Normal: m.sigmaN[i], Friction: m.friction}
+		ms.crackStiffness[i] = crack.OpeningStiffness(m.openPatch[i])
+		if m.conduitEl[i] {
+			ms.conduitAperture0[i] = m.conduits[m.group[i]-nt].Aperture
 		}
+		ms.groups[m.group[i]] = append(ms.groups[m.group[i]], i)
 		ms.firstSlip[i] = math.NaN()
 		ms.firstStage[i] = -1
 	}
-	return ms
+	op, err := m.operator(elems)
+	if err != nil {
+		return nil, err
+	}
+	ms.op = op
+	ms.contact, err = mechanics.NewContact(op, ce, mechanics.ContactSettings{
+		NearRadius: contactNearRadius * m.s.Numerics.ElementLength, DetachRadius: m.s.Numerics.ElementLength,
+		FarRefresh: farRefresh * m.s.Numerics.SlipMax, ShearOnly: true, NoDerivatives: true})
+	if err != nil {
+		return nil, err
+	}
+	ms.state = ms.contact.NewState()
+	ms.averageNormal()
+	return ms, nil
 }
 
-// beginStep forgets the latches of the previous step or of a discarded
-// attempt at this one.
-func (ms *mechState) beginStep() { clear(ms.latched) }
+// operator builds the elastic operator of the elements: every element on
+// every other (numerics.interaction = on), or each on itself alone.
+func (m *model) operator(elems []elastic.Element) (elastic.Operator, error) {
+	mat := elastic.Material{ShearModulus: m.s.Rock.ShearModulus, PoissonRatio: m.s.Rock.PoissonRatio}
+	if m.s.Numerics.Interaction == "off" {
+		return newIsolated(elems, mat)
+	}
+	op, err := elastic.New(elems, mat, elastic.Settings{Tolerance: m.s.Numerics.InteractionTolerance})
+	if err != nil {
+		return nil, fmt.Errorf("elastic interaction of %d elements: %w", len(elems), err)
+	}
+	return op, nil
+}
 
-// apertures is the flow.ApertureFunc of the coupled step: slip at the
-// pressures p, then apertures from the effective normal stress and the
-// trial slip. The derivative includes, besides the fracture's normal
-// compliance, how an element's own pressure changes its patch's slip and
-// so its dilation (∂e/∂D · ∂D/∂p): the storage of the linearised step then
-// sees the pore volume that slip opens, which keeps the iterations from
-// swinging where dilation is strong. (The coupling through the other
-// elements of a patch is left out: it would fill the matrix.)
+// isolated is the operator without interaction: each element's
+// self-influence only.
+type isolated struct{ self []elastic.Block }
+
+func newIsolated(elems []elastic.Element, mat elastic.Material) (isolated, error) {
+	o := isolated{self: make([]elastic.Block, len(elems))}
+	for i, e := range elems {
+		d, err := elastic.NewDense([]elastic.Element{e}, mat, elastic.Settings{})
+		if err != nil {
+			return isolated{}, fmt.Errorf("element %d: %w", i, err)
+		}
+		o.self[i] = d.At(0, 0)
+	}
+	return o, nil
+}
+
+func (o isolated) Len() int { return len(o.self) }
+
+func (o isolated) At(i, j int) elastic.Block {
+	if i != j {
+		return elastic.Block{}
+	}
+	return o.self[i]
+}
+
+func (o isolated) MulVecTo(dstShear, dstNormal, slip, opening []float64) {
+	for i, b := range o.self {
+		dstShear[i] = b.ShearSlip*slip[i] + b.ShearOpening*opening[i]
+		dstNormal[i] = b.NormalSlip*slip[i] + b.NormalOpening*opening[i]
+	}
+}
+
+// apertures is the flow.ApertureFunc of a step: each element's aperture at
+// its pressure under the normal stress (in-situ plus the stress shadows)
+// and the slip of the last accepted step. Natural elements follow the
+// closure and dilation law and open above their normal stress as their
+// trace's crack (mechanics.ApertureModel); a conduit keeps its propped
+// aperture while p ≤ σn and opens above it as a crack of its own size
+// (Sneddon 1946).
+//
+// The aperture has a kink where an element opens (p = σn): its slope jumps
+// from the closure law's compliance to the crack's. Where an element has
+// crossed the kink since the previous iteration of the step, the slope
+// returned is the chord between the two iterates, so that the iterations
+// close in on the kink as a secant method does instead of jumping over it
+// and back.
 func (ms *mechState) apertures(p, e, dedp []float64) {
-	ms.trialSlipAt(p)
-	ap := ms.m.aperture
+	st := ms.state
 	for i := range p {
+		sn := ms.crackNormal[i]
 		if ms.m.conduitEl[i] {
-			e[i], dedp[i] = ms.conduitAperture(i, p[i])
-			continue
+			e[i], dedp[i] = ms.conduitAperture0[i], 0
+			if net := p[i] - sn; net > 0 {
+				k := ms.crackStiffness[i]
+				e[i], dedp[i] = e[i]+net/k, 1/k
+			}
+		} else {
+			e[i], dedp[i] = ms.m.aperture.Evaluate(sn, p[i], st.Travel[i], ms.m.openPatch[i])
 		}
-		sn := ms.m.sigmaN[i]
-		e[i], dedp[i] = ap.Evaluate(sn, p[i], ms.trialSlip[i], ms.m.openPatch[i])
-		if ms.dslip[i] != 0 {
-			dedp[i] += ap.SlipDerivative(sn, p[i], ms.trialSlip[i]) * ms.dslip[i]
+		if ms.iterated && (p[i] > sn) != (ms.lastP[i] > sn) && p[i] != ms.lastP[i] {
+			dedp[i] = (e[i] - ms.lastE[i]) / (p[i] - ms.lastP[i])
 		}
 	}
+	copy(ms.lastP, p)
+	copy(ms.lastE, e)
+	ms.iterated = true
 }
 
-// conduitAperture returns the aperture of conduit element i at pressure p
-// and its derivative: a primary conduit is a propped vertical fracture
-// striking along SHmax, so its normal stress is Shmin; it keeps its propped
-// aperture while p ≤ Shmin and opens above it as a 2-D crack of half-size
-// min(length, height)/2 under the net pressure p − Shmin (Sneddon 1946).
-func (ms *mechState) conduitAperture(i int, p float64) (e, dedp float64) {
-	net := p - ms.m.shmin
-	if net <= 0 {
-		return ms.conduitAperture0[i], 0
+// restart forgets the iterates of a step (flow.StepSettings.Restart).
+func (ms *mechState) restart() { ms.iterated = false }
+
+// solve finds the slip of every element at the pressures p at the end of
+// a step that started at pStart (the trial; solve again to repeat the step
+// shorter). It returns the largest slip increment outside ruptures, m.
+func (ms *mechState) solve(pStart, p []float64) (float64, error) {
+	ms.contact.Begin(ms.state, pStart)
+	res, err := ms.contact.Solve(p)
+	if err != nil {
+		return 0, err
 	}
-	k := ms.conduitStiffness[i]
-	return ms.conduitAperture0[i] + net/k, 1 / k
+	return res.MaxSlip, nil
 }
 
-// trialSlipAt finds the slipping patches at pressures p and their slip.
-func (ms *mechState) trialSlipAt(p []float64) {
-	m := ms.m
-	sm := m.slip
-	copy(ms.trialSlip, ms.slip)
-	copy(ms.trialTau, ms.tau)
-	clear(ms.dslip)
-	ms.patches = ms.patches[:0]
-	slips := func(i int) bool {
-		return ms.latched[i] || sm.Criterion.Slips(m.sigmaN[i], ms.tau[i], p[i])
-	}
-	for trace, run := range m.runs {
-		for i := run[0]; i >= 0 && i < run[1]; {
-			if !slips(i) {
-				i++
-				continue
-			}
-			var drop, length float64
-			j := i
-			for ; j < run[1] && slips(j); j++ {
-				ms.latched[j] = true
-				residual := sm.ResidualFriction * math.Max(m.sigmaN[j]-p[j], 0)
-				drop += math.Max(ms.tau[j]-residual, 0) * m.elements[j].Length
-				length += m.elements[j].Length
-				ms.trialTau[j] = math.Min(ms.tau[j], residual)
-			}
-			h := m.elements[i].Height
-			k := sm.Stiffness.ShearStiffness(mechanics.Patch{Length: length, Height: h})
-			d := drop / length / k
-			for q := i; q < j; q++ {
-				ms.trialSlip[q] += d
-				// drop_q = τ_q − μd (σn_q − p_q) grows with p_q while the
-				// element is closed and above its residual strength.
-				if m.sigmaN[q] > p[q] && ms.tau[q] > sm.ResidualFriction*(m.sigmaN[q]-p[q]) {
-					ms.dslip[q] = sm.ResidualFriction * m.elements[q].Length / (length * k)
-				}
-			}
-			ms.patches = append(ms.patches, patch{trace: trace, first: i, end: j, slip: d, area: length * h})
-			i = j
+// commit accepts the trial of a step from t0 to t0 + dt of stage k at the
+// pressures p: it records the slip, turns the step's ruptures into events,
+// and loads every element with the stress change of the new slip and of
+// the change of opening. It returns dst with the events appended.
+func (ms *mechState) commit(t0, dt float64, k int, p []float64, dst []Event) []Event {
+	m, st := ms.m, ms.state
+	copy(ms.travel0, st.Travel)
+	ms.openingChange(p)
+	step := ms.contact.Commit(m.s.Rock.ShearModulus, ms.dw)
+	ms.unloadOwnOpening()
+	ms.averageNormal()
+	ms.seismicMoment += step.SeismicMoment
+	ms.aseismicMoment += step.AseismicMoment
+	for i, d := range st.Travel {
+		ms.slipping[i] = d > ms.travel0[i]
+		if ms.slipping[i] && math.IsNaN(ms.firstSlip[i]) {
+			ms.firstSlip[i], ms.firstStage[i] = t0+dt, k
 		}
 	}
-}
-
-// maxNewSlip returns the largest slip of a trial patch, m.
-func (ms *mechState) maxNewSlip() float64 {
-	var d float64
-	for _, pt := range ms.patches {
-		d = math.Max(d, pt.slip)
-	}
-	return d
-}
-
-// commit accepts the trial at time t of stage k and returns the events:
-// one per patch that slipped.
-func (ms *mechState) commit(t float64, k int, dst []Event) []Event {
-	m := ms.m
-	for _, pt := range ms.patches {
-		if !(pt.slip > 0) {
-			continue
+	for _, rp := range step.Ruptures {
+		if ev := ms.event(rp, t0+rp.Fraction*dt, k); ev.Moment > 0 {
+			dst = append(dst, ev)
 		}
-		var c r2.Vec
-		var length float64
-		for i := pt.first; i < pt.end; i++ {
-			el := &m.elements[i]
-			c = r2.Add(c, r2.Scale(el.Length, r2.Scale(0.5, r2.Add(el.P0, el.P1))))
-			length += el.Length
-			if math.IsNaN(ms.firstSlip[i]) {
-				ms.firstSlip[i], ms.firstStage[i] = t, k
-			}
-		}
-		c = r2.Scale(1/length, c)
-		m0 := mechanics.Moment(m.s.Rock.ShearModulus, pt.area, pt.slip)
-		dst = append(dst, Event{
-			Time: t, X: c.X, Y: c.Y, Depth: m.s.Layer.Depth,
-			Fracture: m.net.Traces[pt.trace].Fracture, Trace: pt.trace, Stage: k,
-			Slip: pt.slip, Area: pt.area, Moment: m0, Magnitude: mechanics.MomentMagnitude(m0),
-		})
 	}
-	copy(ms.slip, ms.trialSlip)
-	copy(ms.tau, ms.trialTau)
 	return dst
 }
 
-// Event is one synthetic microseismic event: a patch that slipped in one
-// step.
+// event is the synthetic microseismic event of a rupture: its centre is
+// the nucleation element, its slip the area-weighted mean slip of the
+// rupture, its moment M0 = G·Σ A·|Δs| (Aki 1966).
+func (ms *mechState) event(rp mechanics.Rupture, t float64, k int) Event {
+	m, st := ms.m, ms.state
+	var area, m0 float64
+	for _, i := range rp.Elements {
+		a := m.elements[i].Length * m.elements[i].Height
+		area += a
+		m0 += m.s.Rock.ShearModulus * a * (st.Travel[i] - ms.travel0[i])
+	}
+	el := m.elements[rp.Nucleation]
+	c := r2.Scale(0.5, r2.Add(el.P0, el.P1))
+	return Event{Time: t, X: c.X, Y: c.Y, Depth: m.s.Layer.Depth,
+		Fracture: el.Fracture, Trace: el.Trace, Stage: k,
+		Slip: m0 / (m.s.Rock.ShearModulus * area), Area: area, Moment: m0, Magnitude: mechanics.MomentMagnitude(m0)}
+}
+
+// openingChange sets every element's opening at the pressures p (the
+// crack opening above its normal stress, as apertures computes it) and
+// its change since the last step in ms.dw.
+func (ms *mechState) openingChange(p []float64) {
+	for i := range p {
+		w := math.Max(p[i]-ms.crackNormal[i], 0) / ms.crackStiffness[i]
+		ms.dw[i] = w - ms.opening[i]
+		ms.opening[i] = w
+	}
+}
+
+// averageNormal sets the normal stress of every element's aperture law:
+// the mean, weighted by length, of the normal stress along its trace or
+// conduit. The aperture law is a whole crack's (closure under the
+// effective stress, and above it Sneddon's opening under a uniform net
+// pressure with the whole crack's compliance), so it takes the crack's
+// mean load: the stress shadow of a neighbour, which varies slowly along
+// the crack, passes on, while the concentration at the tip of a slip
+// patch, which a constant element resolves poorly and which would open a
+// whole crack with its compliance, is spread over the crack.
+func (ms *mechState) averageNormal() {
+	st := ms.state
+	for _, g := range ms.groups {
+		var sum, length float64
+		for _, i := range g {
+			l := ms.m.elements[i].Length
+			sum += l * st.Normal[i]
+			length += l
+		}
+		for _, i := range g {
+			ms.crackNormal[i] = sum / length
+		}
+	}
+}
+
+// unloadOwnOpening takes back the stress that the opening change ms.dw
+// caused on its own trace or conduit: that crack's compliance already
+// holds it, and the contact problem transfers it to every element.
+func (ms *mechState) unloadOwnOpening() {
+	st := ms.state
+	for _, g := range ms.groups {
+		for _, j := range g {
+			if ms.dw[j] == 0 {
+				continue
+			}
+			for _, i := range g {
+				b := ms.op.At(i, j)
+				st.Shear[i] -= b.ShearOpening * ms.dw[j]
+				st.Normal[i] -= b.NormalOpening * ms.dw[j]
+			}
+		}
+	}
+}
+
+// Event is one synthetic microseismic event: a rupture of one trace in one
+// step (a sliding patch that became unstable; see mechanics.Contact).
 type Event struct {
-	// Time since the start of pumping, s.
+	// Time since the start of pumping, s: where in its step the patch
+	// became unstable.
 	Time float64
-	// X, Y: length-weighted centre of the patch, local metres; Depth TVD, m.
+	// X, Y: centre of the element where the rupture nucleated, local
+	// metres; Depth TVD, m.
 	X, Y, Depth float64
-	// Fracture and Trace indices in the network.
+	// Fracture and Trace indices in the network (−1 for a conduit).
 	Fracture, Trace int
 	// Stage index in the pumping order.
 	Stage int
-	// Slip, m; Area, m²; Moment M0 = G·A·D, N·m (Aki 1966); Magnitude Mw
-	// (Hanks & Kanamori 1979, IASPEI 2013 form).
+	// Slip, m (mean over the rupture); Area, m²; Moment M0 = G·Σ A·Δs,
+	// N·m (Aki 1966); Magnitude Mw (Hanks & Kanamori 1979, IASPEI 2013
+	// form).
 	Slip, Area, Moment, Magnitude float64
 }
 

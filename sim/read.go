@@ -86,8 +86,8 @@ func parseEvent(rec []string, stages map[string]int) (Event, error) {
 	if !ok {
 		return Event{}, fmt.Errorf("stage %q is not in the scenario's schedule", rec[5])
 	}
-	if v[4] != math.Trunc(v[4]) || v[4] < 0 {
-		return Event{}, fmt.Errorf("fracture_id %q: want a whole number ≥ 0", rec[4])
+	if v[4] != math.Trunc(v[4]) || v[4] < -1 {
+		return Event{}, fmt.Errorf("fracture_id %q: want a whole number ≥ 0, or −1 for a primary conduit", rec[4])
 	}
 	return Event{Time: v[0], X: v[1], Y: v[2], Depth: v[3], Fracture: int(v[4]), Trace: -1, Stage: stage,
 		Slip: v[5] * 1e-3, Area: v[6], Moment: v[7], Magnitude: v[8]}, nil

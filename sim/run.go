@@ -8,6 +8,7 @@ import (
 
 	"slipfront/dfn"
 	"slipfront/flow"
+	"slipfront/mechanics"
 	"slipfront/scenarios"
 	"slipfront/snapshot"
 )
@@ -94,6 +95,13 @@ type Result struct {
 	Injected, Leaked, MassBalanceError float64
 	// PeakBHP, Pa; StimulatedArea, FractureArea, m²; StimulatedVolume, m³.
 	PeakBHP, StimulatedArea, FractureArea, StimulatedVolume float64
+	// NormalStress is the total normal stress of each element's aperture
+	// law in the last step, Pa: the in-situ stress plus the stress shadows
+	// of all slip and opening, averaged along its trace or conduit.
+	NormalStress []float64
+	// SeismicMoment is the moment released by ruptures (the events) and
+	// AseismicMoment that of stable slip, N·m (M0 = G·Σ A·|Δs|).
+	SeismicMoment, AseismicMoment float64
 	// Duration of the run, s; Steps accepted and CutSteps repeated.
 	Duration        float64
 	Steps, CutSteps int
@@ -110,7 +118,10 @@ func Run(ctx context.Context, s *scenarios.Scenario, net *dfn.Network, opt Optio
 	if err != nil {
 		return nil, err
 	}
-	r := newRunner(m, opt)
+	r, err := newRunner(m, opt)
+	if err != nil {
+		return nil, err
+	}
 	if opt.Begin != nil {
 		if err := opt.Begin(m.elements); err != nil {
 			return nil, err
@@ -142,15 +153,23 @@ type runner struct {
 	// the larger of |injected| and |stored| per step, m³.
 	massError, moved float64
 	flags            []byte
+	// normal is the normal stress of each element's aperture law in the
+	// last accepted step, Pa.
+	normal []float64
 }
 
-func newRunner(m *model, opt Options) *runner {
-	r := &runner{m: m, opt: opt, ms: newMechState(m), stage: -1,
+func newRunner(m *model, opt Options) (*runner, error) {
+	ms, err := newMechState(m)
+	if err != nil {
+		return nil, err
+	}
+	r := &runner{m: m, opt: opt, ms: ms, stage: -1,
 		stim: newStimulation(m.grid, m.s.Numerics.StimulatedSlip, len(m.elements))}
 	r.end = m.s.ScheduleLength()
 	r.lastFrame = math.NaN()
 	r.flags = make([]byte, len(m.elements))
-	return r
+	r.normal = append([]float64(nil), ms.crackNormal...)
+	return r, nil
 }
 
 // run is the driver: initialise, then every stage's pumping and shut-in.
@@ -320,7 +339,7 @@ func (r *runner) runPhase(ctx context.Context, sys *flow.System, p *phase, sum *
 	n := r.m.s.Numerics
 	z := flow.StepSize{Dt: n.TimeStepInitial, Min: n.TimeStepMin, Max: n.TimeStepMax, MaxChange: n.PressureChangeMax}
 	settings := flow.StepSettings{ApertureTol: n.CouplingTolerance, MaxIterations: n.CouplingMaxIterations,
-		MaxIterationChange: n.PressureChangeMax, Restart: r.ms.beginStep}
+		MaxIterationChange: n.PressureChangeMax, Restart: r.ms.restart}
 	for !p.done(r.t) {
 		if err := ctx.Err(); err != nil {
 			return err
@@ -365,18 +384,26 @@ func (r *runner) step(sys *flow.System, p *phase, sum *StageSummary, end float64
 	if err != nil {
 		return err
 	}
-	if r.ms.maxNewSlip() > n.SlipMax && dt > 16*n.TimeStepMin {
+	maxSlip, err := r.ms.solve(r.cur.Pressure, r.next.Pressure)
+	if errors.Is(err, mechanics.ErrContactNotConverged) && dt > 16*n.TimeStepMin {
+		return fmt.Errorf("%w: %w", errCut, err)
+	}
+	if err != nil {
+		return err
+	}
+	if maxSlip > n.SlipMax && dt > 16*n.TimeStepMin {
 		return errCut
 	}
 	if r.res.Steps >= n.MaxSteps {
 		return fmt.Errorf("%w: the run reached numerics.max_steps = %d accepted steps at t = %.6g s", ErrTooManySteps, n.MaxSteps, r.t)
 	}
 	// Accept.
+	copy(r.normal, r.ms.crackNormal)
+	r.res.Events = r.ms.commit(r.t, dt, r.stage, r.next.Pressure, r.res.Events)
 	r.t = end
 	r.next.Time = end
 	r.cur, r.next = r.next, r.cur
-	r.res.Events = r.ms.commit(r.t, r.stage, r.res.Events)
-	r.stim.update(r.m.elements, r.ms.slip, r.t)
+	r.stim.update(r.m.elements, r.ms.state.Travel, r.t)
 	p.injected += res.Injected
 	if res.Injected > 0 {
 		p.lastRate = res.Rate
@@ -442,13 +469,13 @@ func (r *runner) record(final bool) error {
 	}
 	for i := range r.flags {
 		var f byte
-		if r.ms.latched[i] {
+		if r.ms.slipping[i] {
 			f |= snapshot.FlagSlipping
 		}
-		if r.ms.slip[i] > 0 {
+		if r.ms.state.Travel[i] > 0 {
 			f |= snapshot.FlagSlipped
 		}
-		if !r.m.conduitEl[i] && r.cur.Pressure[i] > r.m.sigmaN[i] {
+		if !r.m.conduitEl[i] && r.cur.Pressure[i] > r.ms.crackNormal[i] {
 			f |= snapshot.FlagOpen
 		}
 		if r.stim.element[i] {
@@ -457,14 +484,14 @@ func (r *runner) record(final bool) error {
 		r.flags[i] = f
 	}
 	return r.opt.Frame(&Frame{Time: r.t, Stage: max(r.stage, 0), Pressure: r.cur.Pressure,
-		Aperture: r.cur.Aperture, Slip: r.ms.slip, Flags: r.flags})
+		Aperture: r.cur.Aperture, Slip: r.ms.state.Travel, Flags: r.flags})
 }
 
 // sample is the timeline row of the current state.
 func (r *runner) sample() Sample {
 	s := Sample{Time: r.t, Stage: r.stage, Rate: r.lastRate, Injected: r.res.Injected, BHP: r.lastBHP,
 		StimulatedArea: r.stim.area(), FractureArea: r.stim.fracArea, Events: len(r.res.Events)}
-	for i, d := range r.ms.slip {
+	for i, d := range r.ms.state.Travel {
 		if d > 0 {
 			s.SlippedElements++
 		}
@@ -482,7 +509,9 @@ func (r *runner) result() *Result {
 		res.Pressure, res.Aperture = r.cur.Pressure, r.cur.Aperture
 	}
 	res.InitialAperture = r.eInit
-	res.Slip, res.FirstSlip, res.FirstSlipStage = r.ms.slip, r.ms.firstSlip, r.ms.firstStage
+	res.Slip, res.FirstSlip, res.FirstSlipStage = r.ms.state.Travel, r.ms.firstSlip, r.ms.firstStage
+	res.SeismicMoment, res.AseismicMoment = r.ms.seismicMoment, r.ms.aseismicMoment
+	res.NormalStress = r.normal
 	res.Stimulated, res.StimulatedAt, res.Cells = r.stim.element, r.stim.at, r.stim.cellList()
 	res.StimulatedArea, res.FractureArea = r.stim.area(), r.stim.fracArea
 	res.StimulatedVolume = res.StimulatedArea * m.s.Layer.Thickness

@@ -49,19 +49,20 @@ type model struct {
 	order    []scenarios.PlannedStage
 	// wellNodes[k] are the mesh nodes fed by stage k's clusters.
 	wellNodes [][]int
-	// Per element: total normal stress σn and initial shear stress τ on the
-	// element's fracture plane, Pa; the patch used for crack opening.
+	// Per element: the in-situ total normal stress σn, compression-positive,
+	// and shear traction τ, signed as package elastic's Δτ (positive drives
+	// right-lateral slip), Pa; the crack that opens it (its trace, or the
+	// whole conduit); and its group (trace, or conduit after the traces).
 	sigmaN, tau0 []float64
 	openPatch    []mechanics.Patch
-	// runs[k] = [first, end) elements of natural trace k (a fracture's
-	// elements are contiguous along its trace).
-	runs      [][2]int
-	slip      mechanics.SlipModel
-	aperture  mechanics.ApertureModel
-	shmin     float64 // Pa, for the tensile-regime warning
-	p0        float64 // initial pore pressure, Pa
-	grid      scenarios.Grid
-	conduitEl []bool
+	group        []int
+	friction     mechanics.SlipWeakening
+	aperture     mechanics.ApertureModel
+	stress       mechanics.Stress
+	shmin        float64 // Pa, for the tensile-regime warning
+	p0           float64 // initial pore pressure, Pa
+	grid         scenarios.Grid
+	conduitEl    []bool
 }
 
 // newModel builds the mesh (traces, conduits, junctions, well cuts), the
@@ -71,15 +72,16 @@ func newModel(s *scenarios.Scenario, net *dfn.Network) (*model, error) {
 	if err != nil {
 		return nil, badinput.Mark(err)
 	}
-	slip, err := mechanics.SlipModelFromScenario(s.Rock)
-	if err != nil {
+	friction := mechanics.SlipWeakening{Static: s.Rock.FrictionStatic, Residual: s.Rock.FrictionResidual,
+		CriticalSlip: s.Rock.SlipWeakeningDistance, Cohesion: s.Rock.Cohesion}
+	if err := friction.Validate(); err != nil {
 		return nil, badinput.Mark(err)
 	}
 	ap, err := mechanics.ApertureFromScenario(s.Rock)
 	if err != nil {
 		return nil, badinput.Mark(err)
 	}
-	m := &model{s: s, net: net, order: s.PumpingOrder(), slip: slip, aperture: ap,
+	m := &model{s: s, net: net, order: s.PumpingOrder(), friction: friction, aperture: ap, stress: stress,
 		p0: stress.PorePressure(), grid: s.MapGrid()}
 	for _, p := range stress.Principal() {
 		if p.Name == "Shmin" {
@@ -215,21 +217,24 @@ func (m *model) clusterCuts(paths []flow.Path) ([][]feed, error) {
 }
 
 // elementStresses fills the per-element view and resolves the in-situ
-// stress on each element's fracture.
+// stress on each element: natural elements carry the normal and shear
+// stress resolved on their fracture's plane (dipping or not), the shear
+// signed by its component along the trace, which is the direction the map
+// plane lets it slip; conduits, vertical, carry the horizontal stress on
+// their plane.
 func (m *model) elementStresses(stress mechanics.Stress) {
 	nt := len(m.net.Traces)
 	n := len(m.mesh.Elements)
 	m.elements = make([]Element, n)
 	m.sigmaN, m.tau0 = make([]float64, n), make([]float64, n)
 	m.openPatch = make([]mechanics.Patch, n)
+	m.group = make([]int, n)
 	m.conduitEl = make([]bool, n)
-	m.runs = make([][2]int, nt)
-	for i := range m.runs {
-		m.runs[i] = [2]int{-1, -1}
-	}
 	resolved := map[int]mechanics.PlaneStress{}
 	for i, el := range m.mesh.Elements {
 		e := Element{Trace: -1, Fracture: -1, Set: ConduitSet, P0: el.P0, P1: el.P1, Length: el.Length, Height: el.Height}
+		m.group[i] = el.Path
+		strikeShear, horizontalNormal := horizontalTractions(stress, el.P0, el.P1)
 		if el.Path < nt {
 			t := m.net.Traces[el.Path]
 			e.Trace, e.Fracture, e.Set = el.Path, t.Fracture, t.Set
@@ -238,17 +243,29 @@ func (m *model) elementStresses(stress mechanics.Stress) {
 				ps = stress.Resolve(m.net.Fractures[t.Fracture].Normal)
 				resolved[t.Fracture] = ps
 			}
-			m.sigmaN[i], m.tau0[i] = ps.SigmaN, ps.Tau
+			m.sigmaN[i], m.tau0[i] = ps.SigmaN, math.Copysign(ps.Tau, strikeShear)
 			m.openPatch[i] = mechanics.Patch{Length: t.Length, Height: t.Height}
-			if m.runs[el.Path][0] < 0 {
-				m.runs[el.Path][0] = i
-			}
-			m.runs[el.Path][1] = i + 1
 		} else {
+			c := m.conduits[el.Path-nt]
 			m.conduitEl[i] = true
+			m.sigmaN[i], m.tau0[i] = horizontalNormal, strikeShear
+			m.openPatch[i] = mechanics.Patch{Length: r2.Norm(r2.Sub(c.P1, c.P0)), Height: c.Height}
 		}
 		m.elements[i] = e
 	}
+}
+
+// horizontalTractions returns the in-situ shear traction along the
+// segment p0→p1 of a vertical plane, signed as package elastic's Δτ
+// (−t·S·n with t the unit tangent and n = (−t_y, t_x): positive drives
+// right-lateral slip), and the normal stress n·S·n, Pa, from the
+// horizontal block of the East-North-Up stress tensor.
+func horizontalTractions(stress mechanics.Stress, p0, p1 r2.Vec) (shear, normal float64) {
+	s := stress.Tensor()
+	t := r2.Unit(r2.Sub(p1, p0))
+	n := r2.Vec{X: -t.Y, Y: t.X}
+	sn := r2.Vec{X: s[0][0]*n.X + s[0][1]*n.Y, Y: s[1][0]*n.X + s[1][1]*n.Y}
+	return -r2.Dot(t, sn), r2.Dot(n, sn)
 }
 
 // PointAlong returns the point at distance d along a polyline.

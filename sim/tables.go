@@ -37,7 +37,7 @@ var (
 			{Title: "x_m", Datatype: csvw.Double, Unit: "m", Description: "local east of the scenario origin: length-weighted centre of the slipped patch"},
 			{Title: "y_m", Datatype: csvw.Double, Unit: "m", Description: "local north of the scenario origin"},
 			{Title: "depth_m", Datatype: csvw.Double, Unit: "m", Description: "true vertical depth, positive down"},
-			{Title: "fracture_id", Datatype: csvw.Integer, Description: "index of the fracture in the realization's network (fracture_id of fractures.csv)"},
+			{Title: "fracture_id", Datatype: csvw.Integer, Description: "index of the fracture in the realization's network (fracture_id of fractures.csv); -1 for a primary conduit"},
 			{Title: "stage", Datatype: csvw.String, Description: "name of the stage (well:stage)"},
 			{Title: "slip_mm", Datatype: csvw.Double, Unit: "mm", Description: "slip D of the rupture"},
 			{Title: "rupture_area_m2", Datatype: csvw.Double, Unit: "m2", Description: "area A of the slipped patch"},
