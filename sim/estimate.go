@@ -18,12 +18,13 @@ type RunEstimate struct {
 }
 
 // bytesPerElement is the memory a run takes per flow element: the mesh,
-// the flow system with its Cholesky factor, the mechanical state and the
-// snapshot frames in flight. Measured with the maximum resident set size of
-// the demo at element lengths 10 m and 2.5 m (11 067 and about 44 000
-// elements: 54 MB and 111 MB, 1.3 kB per element beyond the program
-// itself), rounded up.
-const bytesPerElement = 2 << 10
+// the flow system with its Cholesky factor, the elastic operator (dense
+// or hierarchical) with the near-field blocks of the contact problem, the
+// mechanical state and the snapshot frames in flight. Measured with the
+// maximum resident set size of the demo at element lengths 10 m and 5 m
+// (10 751 and 19 688 elements: 260 MB and 415 MB, 17 kB per element
+// beyond the program itself), rounded up.
+const bytesPerElement = 20 << 10
 
 // Estimate returns the size of a run of the scenario: elements from the
 // estimated trace length split at element_length, plus one more element

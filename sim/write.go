@@ -11,6 +11,7 @@ import (
 	"slipfront/dfn"
 	"slipfront/internal/caution"
 	"slipfront/internal/csvw"
+	"slipfront/internal/plural"
 	"slipfront/internal/version"
 	"slipfront/mechanics"
 	"slipfront/scenarios"
@@ -180,6 +181,8 @@ type totalsJSON struct {
 	StimulatedVolumeM3 float64  `json:"stimulated_volume_m3"`
 	Events             int      `json:"events"`
 	MaxMagnitude       *float64 `json:"max_magnitude_Mw"`
+	SeismicMomentNm    float64  `json:"seismic_moment_Nm"`
+	AseismicMomentNm   float64  `json:"aseismic_moment_Nm"`
 	PeakBHPMPa         float64  `json:"peak_bhp_MPa"`
 	MassBalanceError   float64  `json:"mass_balance_relative_error"`
 }
@@ -232,6 +235,7 @@ func WriteSummary(w io.Writer, s *scenarios.Scenario, net *dfn.Network, res *Res
 			DurationS: res.Duration, InjectedM3: res.Injected, LeakedM3: res.Leaked,
 			StimulatedAreaM2: res.StimulatedArea, FractureAreaM2: res.FractureArea, StimulatedVolumeM3: res.StimulatedVolume,
 			Events: len(res.Events), MaxMagnitude: optional(maxMw), PeakBHPMPa: res.PeakBHP / 1e6,
+			SeismicMomentNm: res.SeismicMoment, AseismicMomentNm: res.AseismicMoment,
 			MassBalanceError: res.MassBalanceError,
 		},
 		Warnings: []warningJSON{},
@@ -269,8 +273,9 @@ func WriteStageTable(w io.Writer, res *Result) error {
 		}
 		fmt.Fprintf(&b, "%-10s %12.4g %14.2f %16.0f %8d %9s\n", st.Name, st.Injected, st.PeakBHP/1e6, st.NewArea, st.Events, mw)
 	}
-	fmt.Fprintf(&b, "total: %.4g m3 injected, stimulated area %.0f m2 (fracture surface %.0f m2), %d events, peak BHP %.2f MPa\n",
-		res.Injected, res.StimulatedArea, res.FractureArea, len(res.Events), res.PeakBHP/1e6)
+	fmt.Fprintf(&b, "total: %.4g m3 injected, stimulated area %.0f m2 (fracture surface %.0f m2), %s, peak BHP %.2f MPa\n",
+		res.Injected, res.StimulatedArea, res.FractureArea, plural.S(len(res.Events), "event"), res.PeakBHP/1e6)
+	fmt.Fprintf(&b, "slip moment: %.3g N·m seismic (the events), %.3g N·m aseismic\n", res.SeismicMoment, res.AseismicMoment)
 	_, err := io.WriteString(w, b.String())
 	return err
 }
