@@ -138,6 +138,9 @@ type Contact struct {
 	trial trial
 	// caches keeps each group's influence matrix and factorization.
 	caches map[int]*groupCache
+	// relaxation is the fraction of a group solve's change that the
+	// sweep applies (1 at first, less if the sweeps do not settle).
+	relaxation float64
 	// The slip and opening not yet transferred to the far field, m, and
 	// their largest magnitude; work arrays of the far-field product.
 	pendS, pendW []float64
@@ -318,7 +321,15 @@ func (c *Contact) Solve(p []float64) (SolveResult, error) {
 // the increments settle.
 func (c *Contact) sweep(round int) (int, error) {
 	t := &c.trial
+	c.relaxation = 1
 	for k := 1; k <= c.set.MaxIterations; k++ {
+		if k > c.set.MaxIterations/4 {
+			// Groups that load each other strongly (through the coupling
+			// of slip and normal stress of crossing traces) can make
+			// plain block Gauss–Seidel cycle; under-relaxed updates
+			// keep its fixed points and damp the cycle.
+			c.relaxation = 0.5
+		}
 		var change, scale float64
 		for _, g := range c.workGroups() {
 			dc, err := c.solveGroup(g)

@@ -500,8 +500,10 @@ func (s *groupSystem) apply() float64 {
 	c, t := s.c, &s.c.trial
 	m := s.m
 	var change float64
+	w := c.relaxation
 	for k, j := range s.elems {
-		ds, dw := s.z[k]-s.z0[k], s.z[m+k]-s.z0[m+k]
+		ds, dw := w*(s.z[k]-s.z0[k]), w*(s.z[m+k]-s.z0[m+k])
+		s.z[k], s.z[m+k] = s.z0[k]+ds, s.z0[m+k]+dw
 		if ds == 0 && dw == 0 {
 			continue
 		}

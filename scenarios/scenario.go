@@ -297,6 +297,10 @@ type Numerics struct {
 	// boundary-element operator) or "off" (each element feels only its own
 	// slip: isolated elements, for comparison).
 	Interaction string `toml:"interaction" default:"on" range:"on|off" doc:"elastic interaction between fracture elements: on (stress shadows), or off (each element alone, for comparison)"`
+	// HeightCorrection is "on" (Olson's finite-height factor on every
+	// interaction, so fractures of the layer's height behave as 3-D ones)
+	// or "off" (plane strain: infinitely tall fractures).
+	HeightCorrection string `toml:"height_correction" when:"interaction=on" default:"on" range:"on|off" doc:"finite-height correction of the elastic interaction (Olson 2004): on, or off for plane strain"`
 	// InteractionTolerance is the relative accuracy of the compressed
 	// far-field blocks of the interaction operator.
 	InteractionTolerance float64 `toml:"interaction_tolerance" range:"[1e-7,0.1]" default:"1e-6" doc:"relative accuracy of the compressed far-field blocks of the interaction operator"`

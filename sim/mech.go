@@ -116,7 +116,8 @@ func (m *model) operator(elems []elastic.Element) (elastic.Operator, error) {
 	if m.s.Numerics.Interaction == "off" {
 		return newIsolated(elems, mat)
 	}
-	op, err := elastic.New(elems, mat, elastic.Settings{Tolerance: m.s.Numerics.InteractionTolerance})
+	op, err := elastic.New(elems, mat, elastic.Settings{Tolerance: m.s.Numerics.InteractionTolerance,
+		PlaneStrain: m.s.Numerics.HeightCorrection == "off"})
 	if err != nil {
 		return nil, fmt.Errorf("elastic interaction of %d elements: %w", len(elems), err)
 	}
