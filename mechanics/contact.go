@@ -40,11 +40,13 @@ type ContactSettings struct {
 	Tolerance float64
 	// MaxIterations of the block Gauss–Seidel sweeps (default 200).
 	MaxIterations int
-	// DetachRadius, m: elements of different groups whose centres are
-	// closer than this do not load each other. Where two traces cross, the
-	// constant-element collocation puts one element's centre at the other
-	// element's end or on its face, where the influence is singular and
-	// meaningless; such pairs are left out (0 keeps every pair).
+	// DetachRadius, m: elements of different groups do not load each
+	// other when the centre of either is closer than this to the other
+	// element (any point of it). Where two traces cross or one ends on
+	// another, the constant-element collocation puts one element's centre
+	// next to the other's end or on its face, where the influence is
+	// singular and meaningless; such pairs are left out (0 keeps every
+	// pair). It must not exceed NearRadius less half the longest element.
 	DetachRadius float64
 	// FarRefresh, m: the stress that slip and opening transfer beyond
 	// NearRadius is added to the committed tractions once some element's
@@ -170,8 +172,13 @@ func NewContact(op elastic.Operator, elems []ContactElement, s ContactSettings) 
 	if !(s.NearRadius > 0) || math.IsInf(s.NearRadius, 0) {
 		return nil, &InputError{Name: "near radius", Value: s.NearRadius, Want: "must be finite and > 0"}
 	}
-	if !(s.DetachRadius >= 0 && s.DetachRadius <= s.NearRadius) {
-		return nil, &InputError{Name: "detach radius", Value: s.DetachRadius, Want: fmt.Sprintf("must be in [0, %g] (the near radius)", s.NearRadius)}
+	longest := 0.0
+	for _, e := range elems {
+		longest = math.Max(longest, e.Element.Length())
+	}
+	if reach := s.NearRadius - longest/2; !(s.DetachRadius >= 0 && s.DetachRadius <= reach) {
+		return nil, &InputError{Name: "detach radius", Value: s.DetachRadius,
+			Want: fmt.Sprintf("must be in [0, %g] (the near radius less half the longest element)", reach)}
 	}
 	if s.Tolerance <= 0 {
 		s.Tolerance = 1e-6
@@ -217,14 +224,13 @@ func (c *Contact) findNear() {
 	c.detached = make([][]int32, n)
 	c.detachedBlock = make([][]elastic.Block, n)
 	r2max := c.set.NearRadius * c.set.NearRadius
-	d2max := c.set.DetachRadius * c.set.DetachRadius
 	for j := range n { // source j
 		g.visit(centres[j], func(i int) {
 			if i == j {
 				return
 			}
 			d := r2.Sub(centres[i], centres[j])
-			if c.elems[i].Group != c.elems[j].Group && r2.Dot(d, d) <= d2max {
+			if c.elems[i].Group != c.elems[j].Group && c.touching(i, j) {
 				c.detached[j] = append(c.detached[j], int32(i))
 				c.detachedBlock[j] = append(c.detachedBlock[j], c.op.At(i, j))
 				return
@@ -489,4 +495,22 @@ func (c *Contact) Influence(ts, tn, ds, dw []float64) {
 			tn[i] -= b.NormalSlip*ds[j] + b.NormalOpening*dw[j]
 		}
 	}
+}
+
+// touching reports whether elements i and j are closer than DetachRadius:
+// the centre of either to the other element.
+func (c *Contact) touching(i, j int) bool {
+	r := c.set.DetachRadius
+	a, b := c.elems[i].Element, c.elems[j].Element
+	return pointSegmentDistance(a.Centre(), b.P0, b.P1) < r || pointSegmentDistance(b.Centre(), a.P0, a.P1) < r
+}
+
+// pointSegmentDistance returns the distance from p to the segment a–b.
+func pointSegmentDistance(p, a, b r2.Vec) float64 {
+	ab := r2.Sub(b, a)
+	t := 0.0
+	if l2 := r2.Dot(ab, ab); l2 > 0 {
+		t = math.Max(0, math.Min(1, r2.Dot(r2.Sub(p, a), ab)/l2))
+	}
+	return r2.Norm(r2.Sub(p, r2.Add(a, r2.Scale(t, ab))))
 }

@@ -28,6 +28,9 @@ type mechState struct {
 	op      elastic.Operator
 	contact *mechanics.Contact
 	state   *mechanics.ContactState
+	// openingShape is each element's opening relative to its crack's mean
+	// (see setOpeningShape).
+	openingShape []float64
 	// crackNormal is the normal stress of each element's aperture law,
 	// Pa (see averageNormal).
 	crackNormal []float64
@@ -58,10 +61,22 @@ type mechState struct {
 	iterated     bool
 }
 
-// contactNearRadius is the reach, in element lengths, within which
-// elements of different traces load each other implicitly in a step;
-// farther ones act through the committed stresses (see mechanics.Contact).
+// contactNearRadius is the reach, in element lengths or layer
+// thicknesses (the larger), within which elements load each other
+// implicitly in a step; farther ones act through the committed stresses
+// (see mechanics.Contact). Beyond a few fracture heights the height
+// correction makes the interaction weak, so the lag of the far field cannot
+// feed back on itself; within, two fractures that load each other strongly
+// must be solved together or their slip would grow step after step.
 const contactNearRadius = 3
+
+// detachRadius, in element lengths, is how close an element of another
+// trace may come to an element before the two stop loading each other
+// (mechanics.ContactSettings.DetachRadius): at crossings and where traces
+// run within an element or two of each other, constant elements give
+// influences far too large (the stress next to an element's end is
+// singular), and the slip they drive grows without bound.
+const detachRadius = 2
 
 // farRefresh is the slip or opening, as a fraction of numerics.slip_max,
 // that some element may gather before the stress it transfers beyond the
@@ -72,7 +87,7 @@ const farRefresh = 0.1
 func newMechState(m *model) (*mechState, error) {
 	n := len(m.elements)
 	ms := &mechState{m: m,
-		crackStiffness: make([]float64, n), crackNormal: make([]float64, n), opening: make([]float64, n), conduitAperture0: make([]float64, n),
+		crackStiffness: make([]float64, n), crackNormal: make([]float64, n), openingShape: make([]float64, n), opening: make([]float64, n), conduitAperture0: make([]float64, n),
 		slipping: make([]bool, n), firstSlip: make([]float64, n), firstStage: make([]int, n),
 		travel0: make([]float64, n), dw: make([]float64, n), lastP: make([]float64, n), lastE: make([]float64, n),
 	}
@@ -99,13 +114,14 @@ func newMechState(m *model) (*mechState, error) {
 	}
 	ms.op = op
 	ms.contact, err = mechanics.NewContact(op, ce, mechanics.ContactSettings{
-		NearRadius: contactNearRadius * m.s.Numerics.ElementLength, DetachRadius: m.s.Numerics.ElementLength,
+		NearRadius: contactNearRadius * math.Max(m.s.Numerics.ElementLength, m.s.Layer.Thickness), DetachRadius: detachRadius * m.s.Numerics.ElementLength,
 		FarRefresh: farRefresh * m.s.Numerics.SlipMax, ShearOnly: true, NoDerivatives: true})
 	if err != nil {
 		return nil, err
 	}
 	ms.state = ms.contact.NewState()
 	ms.averageNormal()
+	ms.setOpeningShape()
 	return ms, nil
 }
 
@@ -252,14 +268,37 @@ func (ms *mechState) event(rp mechanics.Rupture, t float64, k int) Event {
 		Slip: m0 / (m.s.Rock.ShearModulus * area), Area: area, Moment: m0, Magnitude: mechanics.MomentMagnitude(m0)}
 }
 
-// openingChange sets every element's opening at the pressures p (the
-// crack opening above its normal stress, as apertures computes it) and
-// its change since the last step in ms.dw.
+// openingChange sets every element's opening at the pressures p and its
+// change since the last step in ms.dw: the crack's mean opening above its
+// normal stress, as apertures computes it, shaped along the crack as a
+// pressurised crack opens (see openingShape), so that its ends close as a
+// crack's do instead of ending in a step that would load the neighbours
+// with a spurious concentration.
 func (ms *mechState) openingChange(p []float64) {
 	for i := range p {
-		w := math.Max(p[i]-ms.crackNormal[i], 0) / ms.crackStiffness[i]
+		w := ms.openingShape[i] * math.Max(p[i]-ms.crackNormal[i], 0) / ms.crackStiffness[i]
 		ms.dw[i] = w - ms.opening[i]
 		ms.opening[i] = w
+	}
+}
+
+// setOpeningShape sets the shape of every crack's opening: Sneddon's
+// (1946) elliptical profile of a uniformly pressurised crack,
+// w(x)/w̄ = (4/π)·√(1 − (x/c)²), at each element's centre x along its
+// trace or conduit of half-length c (its mean over the crack is 1).
+func (ms *mechState) setOpeningShape() {
+	for _, g := range ms.groups {
+		var length float64
+		for _, i := range g {
+			length += ms.m.elements[i].Length
+		}
+		var s float64
+		for _, i := range g {
+			l := ms.m.elements[i].Length
+			xi := (s + l/2 - length/2) / (length / 2)
+			ms.openingShape[i] = 4 / math.Pi * math.Sqrt(math.Max(1-xi*xi, 0))
+			s += l
+		}
 	}
 }
 

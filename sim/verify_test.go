@@ -1,0 +1,111 @@
+package sim
+
+import (
+	"context"
+	"encoding/json"
+	"math"
+	"os"
+	"path/filepath"
+	"testing"
+
+	"slipfront/dfn"
+	"slipfront/scenarios"
+)
+
+// TestVerificationCases runs every end-to-end case of the top-level
+// testdata folder (a scenario, its published reference values and their
+// source in reference.json) and compares the run with the reference.
+func TestVerificationCases(t *testing.T) {
+	dirs, err := filepath.Glob(filepath.Join("..", "testdata", "*", "reference.json"))
+	if err != nil || len(dirs) == 0 {
+		t.Fatalf("no verification cases in ../testdata (%v)", err)
+	}
+	for _, ref := range dirs {
+		dir := filepath.Dir(ref)
+		t.Run(filepath.Base(dir), func(t *testing.T) {
+			var want struct {
+				Source                  string
+				SlipFront, CoulombFront float64
+				Lambda, T               float64
+			}
+			raw, err := os.ReadFile(ref)
+			if err != nil {
+				t.Fatal(err)
+			}
+			var fields map[string]any
+			if err := json.Unmarshal(raw, &fields); err != nil {
+				t.Fatal(err)
+			}
+			want.Source, _ = fields["source"].(string)
+			want.SlipFront, _ = fields["slip_front_m"].(float64)
+			want.CoulombFront, _ = fields["coulomb_front_m"].(float64)
+			want.Lambda, _ = fields["lambda"].(float64)
+			want.T, _ = fields["T"].(float64)
+			if want.Source == "" || !(want.SlipFront > 0) {
+				t.Fatalf("%s: needs a source and slip_front_m", ref)
+			}
+			s, err := scenarios.Load(filepath.Join(dir, "scenario.toml"))
+			if err != nil {
+				t.Fatal(err)
+			}
+			// The reference's own λ solves its T (the criterion, computed
+			// here independently of the value stored).
+			if got := frontCriterionLambda(want.T); math.Abs(got-want.Lambda) > 1e-6 {
+				t.Errorf("λ(T = %g) = %.8f here, %.8f in reference.json", want.T, got, want.Lambda)
+			}
+			net, err := dfn.Generate(s, 0)
+			if err != nil {
+				t.Fatal(err)
+			}
+			res, err := Run(context.Background(), s, net, Options{})
+			if err != nil {
+				t.Fatal(err)
+			}
+			west, east := slipExtent(res, 0.5)
+			dx := s.Numerics.ElementLength
+			t.Logf("slip front %.1f m west, %.1f m east; reference %.1f m (%s); Coulomb front %.1f m",
+				west, east, want.SlipFront, want.Source, want.CoulombFront)
+			for _, front := range []float64{west, east} {
+				if math.Abs(front-want.SlipFront) > 2*dx {
+					t.Errorf("slip front %.1f m, reference %.1f m ± %.0f m", front, want.SlipFront, 2*dx)
+				}
+			}
+		})
+	}
+}
+
+// slipExtent returns how far west and east of x0 the slipped elements of
+// an east-west fracture reach, to their centres, m.
+func slipExtent(res *Result, x0 float64) (west, east float64) {
+	for i, el := range res.Elements {
+		if res.Slip[i] <= 0 {
+			continue
+		}
+		x := 0.5*(el.P0.X+el.P1.X) - x0
+		west, east = math.Max(west, -x), math.Max(east, x)
+	}
+	return west, east
+}
+
+// frontCriterionLambda solves T = (2/π) ∫₀^{π/2} erfc(λ sin θ) dθ for λ
+// (Bhattacharya & Viesca 2019; docs/references.md §15) by bisection, the
+// integral by the midpoint rule on 4000 intervals.
+func frontCriterionLambda(T float64) float64 {
+	g := func(l float64) float64 {
+		const m = 4000
+		var s float64
+		for k := range m {
+			s += math.Erfc(l * math.Sin((float64(k)+0.5)*math.Pi/2/m))
+		}
+		return s / m
+	}
+	lo, hi := 0.0, 100.0
+	for range 100 {
+		if mid := (lo + hi) / 2; g(mid) > T {
+			lo = mid
+		} else {
+			hi = mid
+		}
+	}
+	return (lo + hi) / 2
+}
