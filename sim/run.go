@@ -166,6 +166,7 @@ func newRunner(m *model, opt Options) (*runner, error) {
 	r := &runner{m: m, opt: opt, ms: ms, stage: -1,
 		stim: newStimulation(m.grid, m.s.Numerics.StimulatedSlip, len(m.elements))}
 	r.end = m.s.ScheduleLength()
+	r.res.Warnings = append(r.res.Warnings, m.resolutionWarnings()...)
 	r.lastFrame = math.NaN()
 	r.flags = make([]byte, len(m.elements))
 	r.normal = append([]float64(nil), ms.crackNormal...)

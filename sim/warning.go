@@ -9,6 +9,10 @@ const (
 	// WarnVolumeNotReached: a stage pumped to a volume was ended before
 	// the volume was in, after a set multiple of its nominal length.
 	WarnVolumeNotReached = "volume_not_reached"
+	// WarnNucleationUnresolved: elements are longer than the nucleation
+	// half-length of slip-weakening friction on some fracture, so the
+	// size and number of ruptures (events) depend on element_length.
+	WarnNucleationUnresolved = "nucleation_unresolved"
 )
 
 // Warning is a condition of a run that its result should be read with.

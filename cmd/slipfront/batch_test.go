@@ -56,8 +56,10 @@ func TestBatchWarnings(t *testing.T) {
 		t.Skip("runs two realizations of the demo")
 	}
 	dir := filepath.Join(t.TempDir(), "b")
+	// Dc = 10 mm gives a nucleation half-length of 55 m, which 30 m
+	// elements resolve: the runs give the Shmin warnings only.
 	code, out, stderr := runCLI(t, "batch", "demo", "-n", "2", "--set", "schedule.volume=10 bbl", "--set", "schedule.shut_in=2 min",
-		"--set", "numerics.element_length=30 m", "--out", dir)
+		"--set", "numerics.element_length=30 m", "--set", "rock.slip_weakening_distance=10 mm", "--out", dir)
 	if code != exitOK {
 		t.Fatalf("batch: exit %d: %s", code, stderr)
 	}
