@@ -5,8 +5,10 @@
 // It holds the stress state at the layer depth ([Stress], from gradients by
 // [StressAtDepth]), its resolution on a plane ([Stress.Resolve]), the
 // Coulomb criterion with slip and dilation tendency and the critical
-// pore-pressure increase ([Coulomb]), the slip of a patch from its stress
-// drop and stiffness ([SlipModel], [Stiffness]), the mechanical aperture
+// pore-pressure increase ([Coulomb]), slip-weakening friction
+// ([SlipWeakening]) and the quasi-static friction contact of elastically
+// interacting fracture elements ([Contact]), crack stiffnesses
+// ([Stiffness]), the mechanical aperture
 // with closure, dilation and opening ([ApertureModel]), moment and moment
 // magnitude ([Moment], [MomentMagnitude]) and the pre-injection screening
 // of a fracture population with its writers ([Screen], [Screening]).

@@ -61,24 +61,6 @@ func ExampleGradients_Validate() {
 	// mechanics: shmax_gradient = 18000: must be ≥ shmin_gradient (19000 Pa/m)
 }
 
-func ExampleSlipModel_Slip() {
-	k, _ := mechanics.NewPlaneStrainCrack(30e9, 0.25)
-	m, err := mechanics.NewSlipModel(mechanics.Coulomb{Friction: 0.6}, 0.5, k)
-	if err != nil {
-		fmt.Println(err)
-		return
-	}
-	// σn = 64 MPa, τ = 15 MPa, pore pressure raised to 45 MPa, on a patch
-	// 20 m long and 40 m high (a 2-D crack of half-size 10 m).
-	r := m.Slip(64e6, 15e6, 45e6, mechanics.Patch{Length: 20, Height: 40})
-	fmt.Printf("slips %v, stress drop %.1f MPa, slip %.3f mm\n", r.Slips, r.StressDrop/1e6, r.Slip*1e3)
-	m0 := mechanics.Moment(30e9, 20*40, r.Slip)
-	fmt.Printf("M0 = %.3e N·m, Mw = %.2f\n", m0, mechanics.MomentMagnitude(m0))
-	// Output:
-	// slips true, stress drop 5.5 MPa, slip 2.160 mm
-	// M0 = 5.184e+10 N·m, Mw = 1.08
-}
-
 func ExampleApertureModel_Evaluate() {
 	m := mechanics.ApertureModel{ZeroStress: 1e-4, ClosureStress: 40e6, DilationAngle: 2.5 * deg,
 		DilationSlipLimit: 5e-3, ShearModulus: 30e9, PoissonRatio: 0.25}

@@ -23,7 +23,7 @@ import (
 // with the peak strength τp = c + μs·σn′ and the residual strength
 // τr = c + μd·σn′ (Palmer & Rice 1973). The cohesion c does not weaken.
 // A fracture held open (σn′ < 0) has no frictional strength: σn′ is
-// clamped at 0, as in [SlipModel], so τs = c and W = 0 there.
+// clamped at 0, so τs = c and W = 0 there.
 type SlipWeakening struct {
 	Static       float64 // μs, static friction coefficient, > 0
 	Residual     float64 // μd, residual friction coefficient, 0 < μd ≤ μs

@@ -24,18 +24,15 @@ func CoulombFromScenario(r scenarios.Rock) (Coulomb, error) {
 	return c, nil
 }
 
-// SlipModelFromScenario returns the slip model of a scenario's rock with
-// the plane-strain crack stiffness.
-func SlipModelFromScenario(r scenarios.Rock) (SlipModel, error) {
-	c, err := CoulombFromScenario(r)
-	if err != nil {
-		return SlipModel{}, err
+// FrictionFromScenario returns the slip-weakening friction of a
+// scenario's rock: μs, μd, Dc and cohesion.
+func FrictionFromScenario(r scenarios.Rock) (SlipWeakening, error) {
+	f := SlipWeakening{Static: r.FrictionStatic, Residual: r.FrictionResidual,
+		CriticalSlip: r.SlipWeakeningDistance, Cohesion: r.Cohesion}
+	if err := f.Validate(); err != nil {
+		return SlipWeakening{}, err
 	}
-	k, err := NewPlaneStrainCrack(r.ShearModulus, r.PoissonRatio)
-	if err != nil {
-		return SlipModel{}, err
-	}
-	return NewSlipModel(c, r.FrictionResidual, k)
+	return f, nil
 }
 
 // ApertureFromScenario returns the aperture model of a scenario's rock.

@@ -1,8 +1,6 @@
 package mechanics
 
 import (
-	"errors"
-	"fmt"
 	"math"
 )
 
@@ -111,52 +109,4 @@ func NewCircularCrack(g float64) (CircularCrack, error) {
 // ShearStiffness returns 7πG/(16a), Pa/m, with a = p.EquivalentRadius().
 func (c CircularCrack) ShearStiffness(p Patch) float64 {
 	return 7 * math.Pi * c.ShearModulus / (16 * p.EquivalentRadius())
-}
-
-// SlipModel is the slip of a patch under Mohr–Coulomb friction with a
-// static-to-residual drop: the patch slips when τ ≥ c + μs·σn′, its shear
-// stress then drops to the residual μd·σn′ (cohesion lost, σn′ clamped at
-// 0 for an open fracture), and it slips by D̄ = (τ − μd·σn′)/k with k the
-// patch stiffness.
-type SlipModel struct {
-	Criterion        Coulomb   // slip onset: static friction μs and cohesion c
-	ResidualFriction float64   // μd, 0 < μd ≤ μs
-	Stiffness        Stiffness // patch stiffness
-}
-
-// NewSlipModel returns the slip model; an error for an invalid criterion,
-// a residual friction outside (0, μs], or a nil stiffness.
-func NewSlipModel(c Coulomb, residualFriction float64, k Stiffness) (SlipModel, error) {
-	if err := firstError(c.Validate(), positive("friction_residual", residualFriction)); err != nil {
-		return SlipModel{}, err
-	}
-	if residualFriction > c.Friction {
-		return SlipModel{}, &InputError{Name: "friction_residual", Value: residualFriction,
-			Want: fmt.Sprintf("must be ≤ friction_static (%g)", c.Friction)}
-	}
-	if k == nil {
-		return SlipModel{}, errors.New("mechanics: slip model needs a stiffness")
-	}
-	return SlipModel{Criterion: c, ResidualFriction: residualFriction, Stiffness: k}, nil
-}
-
-// SlipResult is the outcome of one slip check.
-type SlipResult struct {
-	Slips         bool    // the criterion is met
-	ResidualShear float64 // μd·max(σn′, 0), Pa, the shear stress after slip
-	StressDrop    float64 // τ − ResidualShear, Pa; 0 when the patch does not slip
-	Slip          float64 // average slip StressDrop/k, m; 0 when the patch does not slip
-}
-
-// Slip checks the patch with total normal stress sigmaN and shear stress
-// tau at pore pressure p, Pa, and returns its stress drop and slip.
-func (m SlipModel) Slip(sigmaN, tau, p float64, patch Patch) SlipResult {
-	r := SlipResult{ResidualShear: m.ResidualFriction * math.Max(sigmaN-p, 0)}
-	if !m.Criterion.Slips(sigmaN, tau, p) {
-		return r
-	}
-	r.Slips = true
-	r.StressDrop = math.Max(tau-r.ResidualShear, 0)
-	r.Slip = r.StressDrop / m.Stiffness.ShearStiffness(patch)
-	return r
 }

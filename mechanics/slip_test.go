@@ -61,61 +61,6 @@ func TestCircularCrack(t *testing.T) {
 	}
 }
 
-func TestSlipModel(t *testing.T) {
-	k, err := NewPlaneStrainCrack(30e9, 0.25)
-	if err != nil {
-		t.Fatal(err)
-	}
-	m, err := NewSlipModel(Coulomb{Friction: 0.6, Cohesion: 1e6}, 0.5, k)
-	if err != nil {
-		t.Fatal(err)
-	}
-	patch := Patch{Length: 20, Height: 40}
-	const sn, tau = 64e6, 15e6
-	// Below the criterion: τ = 15 < 1 + 0.6·(64 − 30) = 21.4 MPa.
-	if r := m.Slip(sn, tau, 30e6, patch); r.Slips || r.Slip != 0 || r.StressDrop != 0 {
-		t.Errorf("slipped below the criterion: %+v", r)
-	}
-	// At p = 45 MPa: 1 + 0.6·19 = 12.4 ≤ 15, slips; the residual is
-	// 0.5·19 = 9.5 MPa, the drop 5.5 MPa, the slip 5.5 MPa/k.
-	r := m.Slip(sn, tau, 45e6, patch)
-	if !r.Slips {
-		t.Fatal("did not slip above the criterion")
-	}
-	numtest.Rel(t, "residual shear", r.ResidualShear, 9.5e6, roundOff)
-	numtest.Rel(t, "stress drop", r.StressDrop, 5.5e6, roundOff)
-	// Pollard & Segall (1987), docs/references.md §8.3: 1 MPa on a = 10 m gives
-	// 3.926991e−4 m; the slip is linear in the drop.
-	numtest.Rel(t, "slip", r.Slip, 5.5*3.926991e-4, 1e-6)
-	// Open fracture (p > σn): no friction is left, the whole τ drops.
-	r = m.Slip(sn, tau, 70e6, patch)
-	if !r.Slips || r.ResidualShear != 0 {
-		t.Errorf("open fracture: %+v", r)
-	}
-	numtest.Rel(t, "open stress drop", r.StressDrop, tau, roundOff)
-}
-
-func TestSlipModelErrors(t *testing.T) {
-	k := PlaneStrainCrack{ShearModulus: 30e9, PoissonRatio: 0.25}
-	tests := []struct {
-		name     string
-		c        Coulomb
-		residual float64
-		k        Stiffness
-	}{
-		{"friction 0", Coulomb{Friction: 0}, 0.5, k},
-		{"negative cohesion", Coulomb{Friction: 0.6, Cohesion: -1}, 0.5, k},
-		{"residual 0", Coulomb{Friction: 0.6}, 0, k},
-		{"residual above static", Coulomb{Friction: 0.6}, 0.7, k},
-		{"no stiffness", Coulomb{Friction: 0.6}, 0.5, nil},
-	}
-	for _, tc := range tests {
-		if _, err := NewSlipModel(tc.c, tc.residual, tc.k); err == nil {
-			t.Errorf("%s: no error", tc.name)
-		}
-	}
-}
-
 // The average opening of a 2-D crack of half-length a = 10 m under a net
 // pressure of 1 MPa is π(1−ν)Δp·a/(2G) = 3.926991e-4 m for G = 30 GPa,
 // ν = 0.25 (Sneddon 1946; docs/references.md §8.3: δ_avg = (π/4)·δ_max).

@@ -63,8 +63,7 @@ func TestBadInput(t *testing.T) {
 		{"negative shear modulus, circular", func() error { _, err := NewCircularCrack(-1); return err }, "shear_modulus"},
 		{"zero patch height", func() error { return Patch{Length: 10, Height: 0}.Validate() }, "patch height"},
 		{"residual friction above static", func() error {
-			_, err := NewSlipModel(Coulomb{Friction: 0.6}, 0.8, CircularCrack{ShearModulus: 1e9})
-			return err
+			return SlipWeakening{Static: 0.6, Residual: 0.8, CriticalSlip: 1e-3}.Validate()
 		}, "friction_residual"},
 	}
 	for _, tc := range tests {
@@ -94,13 +93,14 @@ func TestFromScenario(t *testing.T) {
 		t.Errorf("principal %+v, pore pressure %g", p, s.PorePressure())
 	}
 	rock := scenarios.Rock{ShearModulus: 15e9, PoissonRatio: 0.25, FrictionStatic: 0.6, FrictionResidual: 0.5,
-		ZeroStressAperture: 0.5e-3, ClosureStress: 20e6, DilationAngle: 2.5 * deg, DilationSlipLimit: 5e-3}
-	m, err := SlipModelFromScenario(rock)
+		ZeroStressAperture: 0.5e-3, ClosureStress: 20e6, DilationAngle: 2.5 * deg, DilationSlipLimit: 5e-3,
+		SlipWeakeningDistance: 1e-3}
+	f, err := FrictionFromScenario(rock)
 	if err != nil {
 		t.Fatal(err)
 	}
-	if m.ResidualFriction != 0.5 || m.Criterion.Friction != 0.6 {
-		t.Errorf("slip model %+v", m)
+	if f.Static != 0.6 || f.Residual != 0.5 || f.CriticalSlip != 1e-3 {
+		t.Errorf("friction %+v", f)
 	}
 	a, err := ApertureFromScenario(rock)
 	if err != nil {
@@ -111,9 +111,6 @@ func TestFromScenario(t *testing.T) {
 	}
 	bad := rock
 	bad.PoissonRatio = 0.6
-	if _, err := SlipModelFromScenario(bad); err == nil {
-		t.Error("Poisson's ratio 0.6 accepted by the slip model")
-	}
 	if _, err := ApertureFromScenario(bad); err == nil {
 		t.Error("Poisson's ratio 0.6 accepted by the aperture model")
 	}

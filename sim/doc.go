@@ -1,42 +1,35 @@
 // Package sim runs the coupled stimulation of one fracture network: the
 // pumping schedule drives pressure diffusion along the fractures (package
 // flow), pressure lowers the effective normal stress until fractures slip
-// under Mohr–Coulomb friction (package mechanics), slip dilates the
-// fractures and raises their transmissivity, and the slipped patches are
-// recorded as synthetic microseismic events and as a growing stimulated
+// under slip-weakening friction while every element loads every other
+// through the elastic operator (packages elastic and mechanics), slip
+// dilates the fractures and raises their transmissivity, and ruptures are
+// recorded as synthetic microseismic events while slip grows a stimulated
 // area.
 //
-// Run is a visible sequence: set up the mesh and the mechanical state,
-// then for every stage in pumping order repeat [flow step ⇄ mechanics
-// update → accept or cut the step → record] until the stage's volume or
-// duration is pumped and its shut-in is over.
+// Run is a visible sequence: set up the mesh, the elastic operator and the
+// contact problem, then for every stage in pumping order repeat [flow step
+// → contact solve → accept or cut the step → commit and record] until the
+// stage's volume or duration is pumped and its shut-in is over.
 //
 // # Coupling
 //
-// Each time step is one backward-Euler flow step whose Picard iterations
-// call back into the mechanics: at the current element pressures every
-// natural-fracture element is checked against τ ≥ c + μs·σn′. Contiguous
-// slipping elements of one fracture form a patch; its shear stress drops
-// to the residual μd·σn′ and it slips by the mean stress drop over the
-// patch stiffness (mechanics.SlipModel). The aperture follows from the
-// effective normal stress and the accumulated slip (Willis-Richards et al.
-// 1996), with crack opening where p > σn. An element that slipped in one
-// iteration of a step stays slipping for the rest of that step (slip is
-// irreversible), which keeps the iterations from cycling across the
-// threshold. The aperture's pressure derivative handed to the flow solver
-// includes how an element's own pressure changes its patch's slip and so
-// its dilation, a diagonal Newton-like term that lets the linearised
-// storage see the pore volume slip opens. The step is accepted when pressures, apertures and the mass
-// balance have converged; it is cut when they do not, or when the new slip
-// of an element exceeds numerics.slip_max (down to 16 times the minimum
-// step: a single patch's slip cannot be split). The next step grows or
+// Flow and slip are coupled sequentially within a step (mech.go): the
+// backward-Euler flow step, with its Picard iterations, sees the slip and
+// the stresses of the last accepted step, so every aperture depends on its
+// own pressure only (Willis-Richards et al. 1996, with crack opening where
+// p > σn; a chord slope where an element crosses that kink between
+// iterations). At the step's end pressures the friction-contact problem of
+// all elements (mechanics.Contact) gives the slip; the step is cut when
+// the flow does not converge or when the new slip of an element exceeds
+// numerics.slip_max (down to 16 times the minimum step: a rupture cannot be
+// split). On acceptance the slip is committed, the crack openings of
+// conduits and jacked fractures load the other fractures (stress shadows),
+// and the ruptures become events. The lag of dilation and shadows behind
+// the pressure is one step, bounded by slip_max. The next step grows or
 // shrinks with the largest pressure change against
-// numerics.pressure_change_max.
-//
-// Stresses are resolved once per fracture from the in-situ stress tensor:
-// there is no elastic interaction between slipping patches (a boundary
-// element model can replace the patch stiffness later) and no poroelastic
-// stress change.
+// numerics.pressure_change_max. With numerics.interaction = off each
+// element feels only its own slip.
 //
 // # Stimulated area
 //
@@ -62,6 +55,17 @@
 // Willis-Richards, J., Watanabe, K. & Takahashi, H. (1996), Progress toward
 // a stochastic rock mechanics model of engineered geothermal systems, J.
 // Geophys. Res. 101(B8), 17481–17496.
+//
+// Crouch, S.L. & Starfield, A.M. (1983), Boundary Element Methods in Solid
+// Mechanics, George Allen & Unwin (the elastic operator, package elastic).
+//
+// Sneddon, I.N. (1946), The distribution of stress in the neighbourhood of
+// a crack in an elastic solid, Proc. R. Soc. A 187, 229–260 (the opening
+// of a pressurised crack and its elliptical profile).
+//
+// Uenishi, K. & Rice, J.R. (2003), Universal nucleation length for
+// slip-weakening rupture instability under nonuniform fault loading, J.
+// Geophys. Res. 108(B1), 2042 (the resolution warning).
 //
 // Aki, K. (1966), Generation and propagation of G waves from the Niigata
 // earthquake of June 16, 1964, Bull. Earthq. Res. Inst. 44, 73–88 (M0 = G·A·D).

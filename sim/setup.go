@@ -72,9 +72,8 @@ func newModel(s *scenarios.Scenario, net *dfn.Network) (*model, error) {
 	if err != nil {
 		return nil, badinput.Mark(err)
 	}
-	friction := mechanics.SlipWeakening{Static: s.Rock.FrictionStatic, Residual: s.Rock.FrictionResidual,
-		CriticalSlip: s.Rock.SlipWeakeningDistance, Cohesion: s.Rock.Cohesion}
-	if err := friction.Validate(); err != nil {
+	friction, err := mechanics.FrictionFromScenario(s.Rock)
+	if err != nil {
 		return nil, badinput.Mark(err)
 	}
 	ap, err := mechanics.ApertureFromScenario(s.Rock)
