@@ -128,6 +128,13 @@ func TestCSVFilesReadAndDescribed(t *testing.T) {
 	}
 }
 
+// singleFractureBatchSets are the base scenario's overrides of
+// singleFractureBatch. Constant friction (no slip weakening, so no
+// nucleation length for 40 m elements to miss): the runs give the Shmin
+// warning only.
+var singleFractureBatchSets = []string{"numerics.element_length=40 m", "schedule.injection_pressure=43 MPa",
+	"rock.friction_residual=0.6"}
+
 // singleFractureBatch runs a batch of the single-fracture example into a
 // folder with pipeline.Realization: two viscosities × two realizations, at
 // an injection pressure above Shmin (42 MPa at 2000 m, 21 kPa/m), so every
@@ -135,10 +142,7 @@ func TestCSVFilesReadAndDescribed(t *testing.T) {
 func singleFractureBatch(t *testing.T) (string, *batch.Manifest) {
 	t.Helper()
 	out := filepath.Join(t.TempDir(), "batch")
-	// Constant friction (no slip weakening, so no nucleation length for
-	// 40 m elements to miss): the runs give the Shmin warning only.
-	sets, err := scenarios.ParseOverrides([]string{"numerics.element_length=40 m", "schedule.injection_pressure=43 MPa",
-		"rock.friction_residual=0.6"})
+	sets, err := scenarios.ParseOverrides(singleFractureBatchSets)
 	if err != nil {
 		t.Fatal(err)
 	}

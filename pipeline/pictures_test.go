@@ -385,7 +385,7 @@ func TestBatchMapsWells(t *testing.T) {
 		t.Errorf("without a scenario: %d wells drawn, notes %q", wellsOn(ps), notes)
 	}
 	// The base scenario of singleFractureBatch.
-	s := loadExample(t, "single-fracture", "numerics.element_length=40 m", "schedule.injection_pressure=43 MPa")
+	s := loadExample(t, "single-fracture", singleFractureBatchSets...)
 	if err := writeFiles(out, scenarioWriter(s)); err != nil {
 		t.Fatal(err)
 	}
