@@ -173,7 +173,7 @@ func (r *Run) outlineLayer() (gis.Layer, error) {
 }
 
 func (r *Run) eventLayer() gis.Layer {
-	l := gis.Layer{Name: "events", Description: "synthetic microseismic events (one per slipped patch and step)",
+	l := gis.Layer{Name: "events", Description: "synthetic microseismic events (one per rupture)",
 		Geometry: gis.Point, Fields: []gis.Field{
 			{Name: "time_s", Type: gis.Real}, {Name: "utc_time", Type: gis.DateTime}, {Name: "stage", Type: gis.Text},
 			{Name: "fracture_id", Type: gis.Int32}, {Name: "depth_m", Type: gis.Real}, {Name: "slip_mm", Type: gis.Real},

@@ -1,8 +1,10 @@
 package sim
 
 import (
+	"cmp"
 	"fmt"
 	"math"
+	"slices"
 
 	"gonum.org/v1/gonum/spatial/r2"
 
@@ -267,11 +269,14 @@ func (ms *mechState) commit(t0, dt float64, k int, p []float64, dst []Event) []E
 			ms.firstSlip[i], ms.firstStage[i] = t0+dt, k
 		}
 	}
+	first := len(dst)
 	for _, rp := range step.Ruptures {
 		if ev := ms.event(rp, t0+rp.Fraction*dt, k); ev.Moment > 0 {
 			dst = append(dst, ev)
 		}
 	}
+	// The catalogue is in time order: a step's ruptures come by trace.
+	slices.SortStableFunc(dst[first:], func(a, b Event) int { return cmp.Compare(a.Time, b.Time) })
 	return dst
 }
 

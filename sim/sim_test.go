@@ -2,11 +2,13 @@ package sim
 
 import (
 	"bytes"
+	"cmp"
 	"context"
 	"errors"
 	"fmt"
 	"math"
 	"os"
+	"slices"
 	"strings"
 	"sync"
 	"testing"
@@ -172,6 +174,9 @@ func TestDemoInvariants(t *testing.T) {
 	}
 	for i, el := range res.Elements {
 		slipArea += el.Length * el.Height * res.Slip[i]
+	}
+	if !slices.IsSortedFunc(res.Events, func(a, b Event) int { return cmp.Compare(a.Time, b.Time) }) {
+		t.Error("the event catalogue is not in time order")
 	}
 	numtest.Rel(t, "Σ event moments", m0, res.SeismicMoment, 1e-9)
 	numtest.Rel(t, "seismic + aseismic moment", res.SeismicMoment+res.AseismicMoment, s.Rock.ShearModulus*slipArea, 1e-9)

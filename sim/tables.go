@@ -34,14 +34,14 @@ var (
 		Description: "The synthetic microseismic catalogue (not observed data): one row per rupture, in time order.",
 		Columns: []csvw.Column{
 			{Title: "time_s", Datatype: csvw.Double, Unit: "s", Description: "time since the start of pumping"},
-			{Title: "x_m", Datatype: csvw.Double, Unit: "m", Description: "local east of the scenario origin: length-weighted centre of the slipped patch"},
+			{Title: "x_m", Datatype: csvw.Double, Unit: "m", Description: "local east of the scenario origin: centre of the element where the rupture nucleated"},
 			{Title: "y_m", Datatype: csvw.Double, Unit: "m", Description: "local north of the scenario origin"},
 			{Title: "depth_m", Datatype: csvw.Double, Unit: "m", Description: "true vertical depth, positive down"},
 			{Title: "fracture_id", Datatype: csvw.Integer, Description: "index of the fracture in the realization's network (fracture_id of fractures.csv); -1 for a primary conduit"},
 			{Title: "stage", Datatype: csvw.String, Description: "name of the stage (well:stage)"},
-			{Title: "slip_mm", Datatype: csvw.Double, Unit: "mm", Description: "slip D of the rupture"},
-			{Title: "rupture_area_m2", Datatype: csvw.Double, Unit: "m2", Description: "area A of the slipped patch"},
-			{Title: "moment_Nm", Datatype: csvw.Double, Unit: "N.m", Description: "seismic moment M0 = G·A·D (Aki 1966)"},
+			{Title: "slip_mm", Datatype: csvw.Double, Unit: "mm", Description: "mean slip D of the rupture"},
+			{Title: "rupture_area_m2", Datatype: csvw.Double, Unit: "m2", Description: "area A of the ruptured elements"},
+			{Title: "moment_Nm", Datatype: csvw.Double, Unit: "N.m", Description: "seismic moment M0 = G·A·D (Aki 1966), summed over the ruptured elements"},
 			{Title: "magnitude_Mw", Datatype: csvw.Double, Description: "moment magnitude (Hanks and Kanamori 1979, IASPEI 2013 form)"},
 		},
 	}
