@@ -335,49 +335,30 @@ func TestContactSlipFrontCriterion(t *testing.T) {
 				front = math.Max(front, math.Abs(e.Centre().X))
 			}
 		}
-		lambda := frontCriterion(T)
+		lambda := SlipFrontFactor(T)
 		dx := 2 * half / n
-		t.Logf("T = %.1f: slip front %.3f m, criterion λℓ = %.3f m, Coulomb front %.3f m", T, front, lambda, erfcInv(T))
+		t.Logf("T = %.1f: slip front %.3f m, criterion λℓ = %.3f m", T, front, lambda)
 		if math.Abs(front-lambda) > 2*dx {
 			t.Errorf("T = %.1f: slip front %.4f m, criterion %.4f m (element %.3f m)", T, front, lambda, dx)
 		}
 	}
 }
 
-// frontCriterion solves T = (2/π) ∫₀^{π/2} erfc(λ sin θ) dθ for λ by
-// bisection (the right side falls from 1 at λ = 0 to 0), with the
-// integral by the midpoint rule on 2000 intervals.
-func frontCriterion(T float64) float64 {
-	g := func(l float64) float64 {
-		const m = 2000
-		var s float64
-		for k := range m {
-			s += math.Erfc(l * math.Sin((float64(k)+0.5)*math.Pi/2/m))
-		}
-		return s / m
+// SlipFrontFactor against values computed independently with SciPy
+// (quad and brentq to 1e-12; testdata/slip-front-plane-strain's
+// reference.json): λ(0.67548094716667) = 0.474235516031227; and the
+// limits: no slip at T → 1, a front far ahead as T → 0.
+func TestSlipFrontFactor(t *testing.T) {
+	numtest.Rel(t, "λ(0.6755)", SlipFrontFactor(0.6754809471666666), 0.474235516031227, 1e-6)
+	if l := SlipFrontFactor(0.999); !(l > 0 && l < 0.01) {
+		t.Errorf("λ(0.999) = %g, want a front close to the source", l)
 	}
-	lo, hi := 0.0, 100.0
-	for range 100 {
-		mid := (lo + hi) / 2
-		if g(mid) > T {
-			lo = mid
-		} else {
-			hi = mid
+	if l := SlipFrontFactor(0.01); !(l > 10) {
+		t.Errorf("λ(0.01) = %g, want a front far ahead of the diffusion length", l)
+	}
+	for _, T := range []float64{0, 1, -1, math.NaN()} {
+		if l := SlipFrontFactor(T); !math.IsNaN(l) {
+			t.Errorf("λ(%g) = %g, want NaN", T, l)
 		}
 	}
-	return (lo + hi) / 2
-}
-
-// erfcInv returns x with erfc(x) = y, for the log (bisection).
-func erfcInv(y float64) float64 {
-	lo, hi := 0.0, 10.0
-	for range 100 {
-		mid := (lo + hi) / 2
-		if math.Erfc(mid) > y {
-			lo = mid
-		} else {
-			hi = mid
-		}
-	}
-	return (lo + hi) / 2
 }

@@ -9,6 +9,7 @@ import (
 	"testing"
 
 	"slipfront/dfn"
+	"slipfront/mechanics"
 	"slipfront/scenarios"
 )
 
@@ -50,7 +51,7 @@ func TestVerificationCases(t *testing.T) {
 			}
 			// The reference's own λ solves its T (the criterion, computed
 			// here independently of the value stored).
-			if got := frontCriterionLambda(want.T); math.Abs(got-want.Lambda) > 1e-6 {
+			if got := mechanics.SlipFrontFactor(want.T); math.Abs(got-want.Lambda) > 1e-6 {
 				t.Errorf("λ(T = %g) = %.8f here, %.8f in reference.json", want.T, got, want.Lambda)
 			}
 			net, err := dfn.Generate(s, 0)
@@ -85,27 +86,4 @@ func slipExtent(res *Result, x0 float64) (west, east float64) {
 		west, east = math.Max(west, -x), math.Max(east, x)
 	}
 	return west, east
-}
-
-// frontCriterionLambda solves T = (2/π) ∫₀^{π/2} erfc(λ sin θ) dθ for λ
-// (Bhattacharya & Viesca 2019; docs/references.md §15) by bisection, the
-// integral by the midpoint rule on 4000 intervals.
-func frontCriterionLambda(T float64) float64 {
-	g := func(l float64) float64 {
-		const m = 4000
-		var s float64
-		for k := range m {
-			s += math.Erfc(l * math.Sin((float64(k)+0.5)*math.Pi/2/m))
-		}
-		return s / m
-	}
-	lo, hi := 0.0, 100.0
-	for range 100 {
-		if mid := (lo + hi) / 2; g(mid) > T {
-			lo = mid
-		} else {
-			hi = mid
-		}
-	}
-	return (lo + hi) / 2
 }
