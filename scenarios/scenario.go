@@ -303,5 +303,5 @@ type Numerics struct {
 	HeightCorrection string `toml:"height_correction" when:"interaction=on" default:"on" range:"on|off" doc:"finite-height correction of the elastic interaction (Olson 2004): on, or off for plane strain"`
 	// InteractionTolerance is the relative accuracy of the compressed
 	// far-field blocks of the interaction operator.
-	InteractionTolerance float64 `toml:"interaction_tolerance" range:"[1e-7,0.1]" default:"1e-6" doc:"relative accuracy of the compressed far-field blocks of the interaction operator"`
+	InteractionTolerance float64 `toml:"interaction_tolerance" when:"interaction=on" range:"[1e-7,0.1]" default:"1e-6" doc:"relative accuracy of the compressed far-field blocks of the interaction operator"`
 }

@@ -43,10 +43,15 @@ type mechState struct {
 	crackStiffness, opening []float64
 	// conduitAperture0 is the propped aperture of conduit elements, m.
 	conduitAperture0 []float64
-	// groups lists the elements of every group: the opening of an element
+	// groups lists the elements of every group (trace or conduit, in order
+	// along it) and groupLength its length, m: the opening of an element
 	// loads the other groups only (its own crack's opening is already in
 	// its compliance).
-	groups [][]int
+	groups      [][]int
+	groupLength []float64
+	// ownBlocks[g] is group g's influence on itself (row-major, receiver
+	// by source), built the first time one of its cracks opens.
+	ownBlocks map[int][]elastic.Block
 	// slipping marks the elements that slipped in the last accepted step.
 	slipping []bool
 	// First slip time, s (NaN if never), and the stage index it happened in.
@@ -98,6 +103,8 @@ func newMechState(m *model) (*mechState, error) {
 	elems := make([]elastic.Element, n)
 	ce := make([]mechanics.ContactElement, n)
 	ms.groups = make([][]int, nt+len(m.conduits))
+	ms.groupLength = make([]float64, len(ms.groups))
+	ms.ownBlocks = map[int][]elastic.Block{}
 	for i, el := range m.elements {
 		elems[i] = elastic.Element{P0: el.P0, P1: el.P1, Height: el.Height}
 		ce[i] = mechanics.ContactElement{Element: elems[i], Group: m.group[i],
@@ -107,6 +114,7 @@ func newMechState(m *model) (*mechState, error) {
 			ms.conduitAperture0[i] = m.conduits[m.group[i]-nt].Aperture
 		}
 		ms.groups[m.group[i]] = append(ms.groups[m.group[i]], i)
+		ms.groupLength[m.group[i]] += m.elements[i].Length
 		ms.firstSlip[i] = math.NaN()
 		ms.firstStage[i] = -1
 	}
@@ -285,17 +293,18 @@ func (ms *mechState) commit(t0, dt float64, k int, p []float64, dst []Event) []E
 // rupture, its moment M0 = G·Σ A·|Δs| (Aki 1966).
 func (ms *mechState) event(rp mechanics.Rupture, t float64, k int) Event {
 	m, st := ms.m, ms.state
+	g := m.s.Rock.ShearModulus
 	var area, m0 float64
 	for _, i := range rp.Elements {
 		a := m.elements[i].Length * m.elements[i].Height
 		area += a
-		m0 += m.s.Rock.ShearModulus * a * (st.Travel[i] - ms.travel0[i])
+		m0 += mechanics.Moment(g, a, st.Travel[i]-ms.travel0[i])
 	}
 	el := m.elements[rp.Nucleation]
 	c := r2.Scale(0.5, r2.Add(el.P0, el.P1))
 	return Event{Time: t, X: c.X, Y: c.Y, Depth: m.s.Layer.Depth,
 		Fracture: el.Fracture, Trace: el.Trace, Stage: k,
-		Slip: m0 / (m.s.Rock.ShearModulus * area), Area: area, Moment: m0, Magnitude: mechanics.MomentMagnitude(m0)}
+		Slip: m0 / (g * area), Area: area, Moment: m0, Magnitude: mechanics.MomentMagnitude(m0)}
 }
 
 // openingChange sets every element's opening at the pressures p and its
@@ -317,11 +326,8 @@ func (ms *mechState) openingChange(p []float64) {
 // w(x)/w̄ = (4/π)·√(1 − (x/c)²), at each element's centre x along its
 // trace or conduit of half-length c (its mean over the crack is 1).
 func (ms *mechState) setOpeningShape() {
-	for _, g := range ms.groups {
-		var length float64
-		for _, i := range g {
-			length += ms.m.elements[i].Length
-		}
+	for k, g := range ms.groups {
+		length := ms.groupLength[k]
 		var s float64
 		for _, i := range g {
 			l := ms.m.elements[i].Length
@@ -343,15 +349,13 @@ func (ms *mechState) setOpeningShape() {
 // whole crack with its compliance, is spread over the crack.
 func (ms *mechState) averageNormal() {
 	st := ms.state
-	for _, g := range ms.groups {
-		var sum, length float64
+	for k, g := range ms.groups {
+		var sum float64
 		for _, i := range g {
-			l := ms.m.elements[i].Length
-			sum += l * st.Normal[i]
-			length += l
+			sum += ms.m.elements[i].Length * st.Normal[i]
 		}
 		for _, i := range g {
-			ms.crackNormal[i] = sum / length
+			ms.crackNormal[i] = sum / ms.groupLength[k]
 		}
 	}
 }
@@ -361,18 +365,39 @@ func (ms *mechState) averageNormal() {
 // holds it, and the contact problem transfers it to every element.
 func (ms *mechState) unloadOwnOpening() {
 	st := ms.state
-	for _, g := range ms.groups {
-		for _, j := range g {
+	for k, g := range ms.groups {
+		var blocks []elastic.Block
+		for c, j := range g {
 			if ms.dw[j] == 0 {
 				continue
 			}
-			for _, i := range g {
-				b := ms.op.At(i, j)
+			if blocks == nil {
+				blocks = ms.ownInfluence(k)
+			}
+			for r, i := range g {
+				b := &blocks[r*len(g)+c]
 				st.Shear[i] -= b.ShearOpening * ms.dw[j]
 				st.Normal[i] -= b.NormalOpening * ms.dw[j]
 			}
 		}
 	}
+}
+
+// ownInfluence returns group k's influence on itself, receiver by source,
+// computed once.
+func (ms *mechState) ownInfluence(k int) []elastic.Block {
+	if b, ok := ms.ownBlocks[k]; ok {
+		return b
+	}
+	g := ms.groups[k]
+	b := make([]elastic.Block, len(g)*len(g))
+	for r, i := range g {
+		for c, j := range g {
+			b[r*len(g)+c] = ms.op.At(i, j)
+		}
+	}
+	ms.ownBlocks[k] = b
+	return b
 }
 
 // Event is one synthetic microseismic event: a rupture of one trace in one

@@ -34,6 +34,13 @@ func runExample(t testing.TB, name string, overrides ...string) (*scenarios.Scen
 	if err != nil {
 		t.Fatal(err)
 	}
+	net, res := runScenario(t, s)
+	return s, net, res
+}
+
+// runScenario draws realization 0 of the scenario's network and runs it.
+func runScenario(t testing.TB, s *scenarios.Scenario) (*dfn.Network, *Result) {
+	t.Helper()
 	net, err := dfn.Generate(s, 0)
 	if err != nil {
 		t.Fatal(err)
@@ -42,7 +49,7 @@ func runExample(t testing.TB, name string, overrides ...string) (*scenarios.Scen
 	if err != nil {
 		t.Fatal(err)
 	}
-	return s, net, res
+	return net, res
 }
 
 // slipFront returns the distance from the well (x = 0.5 m) of the centre

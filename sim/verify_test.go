@@ -1,14 +1,12 @@
 package sim
 
 import (
-	"context"
 	"encoding/json"
 	"math"
 	"os"
 	"path/filepath"
 	"testing"
 
-	"slipfront/dfn"
 	"slipfront/mechanics"
 	"slipfront/scenarios"
 )
@@ -25,23 +23,19 @@ func TestVerificationCases(t *testing.T) {
 		dir := filepath.Dir(ref)
 		t.Run(filepath.Base(dir), func(t *testing.T) {
 			var want struct {
-				Source                  string
-				SlipFront, CoulombFront float64
-				Lambda, T               float64
+				Source       string  `json:"source"`
+				SlipFront    float64 `json:"slip_front_m"`
+				CoulombFront float64 `json:"coulomb_front_m"`
+				Lambda       float64 `json:"lambda"`
+				T            float64 `json:"T"`
 			}
 			raw, err := os.ReadFile(ref)
 			if err != nil {
 				t.Fatal(err)
 			}
-			var fields map[string]any
-			if err := json.Unmarshal(raw, &fields); err != nil {
-				t.Fatal(err)
+			if err := json.Unmarshal(raw, &want); err != nil {
+				t.Fatalf("%s: %v", ref, err)
 			}
-			want.Source, _ = fields["source"].(string)
-			want.SlipFront, _ = fields["slip_front_m"].(float64)
-			want.CoulombFront, _ = fields["coulomb_front_m"].(float64)
-			want.Lambda, _ = fields["lambda"].(float64)
-			want.T, _ = fields["T"].(float64)
 			if want.Source == "" || !(want.SlipFront > 0) {
 				t.Fatalf("%s: needs a source and slip_front_m", ref)
 			}
@@ -54,14 +48,7 @@ func TestVerificationCases(t *testing.T) {
 			if got := mechanics.SlipFrontFactor(want.T); math.Abs(got-want.Lambda) > 1e-6 {
 				t.Errorf("λ(T = %g) = %.8f here, %.8f in reference.json", want.T, got, want.Lambda)
 			}
-			net, err := dfn.Generate(s, 0)
-			if err != nil {
-				t.Fatal(err)
-			}
-			res, err := Run(context.Background(), s, net, Options{})
-			if err != nil {
-				t.Fatal(err)
-			}
+			_, res := runScenario(t, s)
 			west, east := slipExtent(res, 0.5)
 			dx := s.Numerics.ElementLength
 			t.Logf("slip front %.1f m west, %.1f m east; reference %.1f m (%s); Coulomb front %.1f m",
