@@ -220,6 +220,9 @@ func (p *wktParser) arg(depth int) (wktArg, error) {
 }
 
 // quoted reads "…" with "" standing for one quote (ISO 19162 §6.3.4).
+// Line breaks and tabs inside the text become spaces, as compactWKT
+// prints them, so that a name reads the same from the file and from the
+// CRS's own text.
 func (p *wktParser) quoted() (string, error) {
 	start := p.pos
 	p.pos++ // opening quote
@@ -236,7 +239,7 @@ func (p *wktParser) quoted() (string, error) {
 			p.pos++
 			continue
 		}
-		return b.String(), nil
+		return strings.Map(textSpace, b.String()), nil
 	}
 	return "", wktErrorAt(p.src, start, "quoted text is not closed")
 }
@@ -257,13 +260,20 @@ func compactWKT(src string) string {
 			if !inText {
 				continue
 			}
-			if c != ' ' {
-				c = ' '
-			}
+			c = byte(textSpace(rune(c)))
 		}
 		b.WriteByte(c)
 	}
 	return strings.TrimSpace(b.String())
+}
+
+// textSpace maps the line breaks and tabs of quoted text to a space.
+func textSpace(r rune) rune {
+	switch r {
+	case '\t', '\n', '\r', '\f', '\v':
+		return ' '
+	}
+	return r
 }
 
 // looksLikeWKT reports whether s starts like a WKT element (a keyword
