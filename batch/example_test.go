@@ -83,7 +83,7 @@ func ExampleRun() {
 		area := 1000 * float64(r+1) / (s.Fluids["slickwater"].Viscosity * 1e3)
 		return &batch.Outcome{
 			NetworkDigest: fmt.Sprintf("net-%d", r), FinalArea: area, FractureArea: 2 * area,
-			MaxMagnitude: math.NaN(), PeakPressure: 40e6, InjectedVolume: 32,
+			MaxMagnitude: math.NaN(), PeakPressure: 40e6, InjectedVolume: 32, RetainedGain: 2,
 			Times: []float64{0, 3600}, Areas: []float64{0, area}, Cells: []int{r},
 		}, nil
 	}

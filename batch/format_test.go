@@ -19,9 +19,10 @@ func sampleResult() *Result {
 	return &Result{
 		Case: 2, Realization: 41, CaseDigest: "abc123", NetworkDigest: "net-9",
 		FinalArea: 12345.5, FractureArea: 6789.25, Events: 3, MaxMagnitude: -1.25,
-		PeakPressure: 41.5e6, InjectedVolume: 31.8, Interval: 300,
-		Area:  []float64{0, 10.5, 200.25, 12345.5},
-		Cells: []int{3, 17, 18, 400},
+		PeakPressure: 41.5e6, InjectedVolume: 31.8, SeismicMoment: 2.5e11, AseismicMoment: 1.25e13, RetainedGain: 2.25,
+		Interval: 300,
+		Area:     []float64{0, 10.5, 200.25, 12345.5},
+		Cells:    []int{3, 17, 18, 400},
 		Warnings: []Warning{{Kind: "bhp_above_shmin", Message: "stage W1:1: bottom-hole pressure exceeded Shmin"},
 			{Kind: "volume_not_reached", Message: "stage W2:1: pumped 10 of 30 m³"}},
 	}
@@ -41,13 +42,16 @@ func sameResult(a, b *Result) bool {
 	if math.IsNaN(x.MaxMagnitude) && math.IsNaN(y.MaxMagnitude) {
 		x.MaxMagnitude, y.MaxMagnitude = 0, 0
 	}
+	if math.IsNaN(x.RetainedGain) && math.IsNaN(y.RetainedGain) {
+		x.RetainedGain, y.RetainedGain = 0, 0
+	}
 	return reflect.DeepEqual(x, y)
 }
 
 func TestResultRoundTrip(t *testing.T) {
 	for _, res := range []*Result{sampleResult(), func() *Result {
 		r := sampleResult()
-		r.Events, r.MaxMagnitude, r.Cells, r.Warnings = 0, math.NaN(), nil, nil
+		r.Events, r.MaxMagnitude, r.Cells, r.Warnings, r.RetainedGain = 0, math.NaN(), nil, nil, math.NaN()
 		return r
 	}()} {
 		got, err := ReadResult(bytes.NewReader(encodeResult(t, res)))
@@ -92,12 +96,15 @@ func TestResultRejectsDamage(t *testing.T) {
 	if _, err := ReadResult(bytes.NewReader(b)); !errors.As(err, &unsupported) || unsupported.Version != ResultVersion+1 {
 		t.Errorf("version %d: err = %v, want UnsupportedError", ResultVersion+1, err)
 	}
-	// Version 1 did not record warnings: refused with a message that says
-	// why and what to do, as a format error (a resumed batch redoes it).
-	binary.LittleEndian.PutUint16(b[8:], 1)
-	var fe *FormatError
-	if _, err := ReadResult(bytes.NewReader(b)); !errors.As(err, &fe) || !strings.Contains(err.Error(), "warnings") || !strings.Contains(err.Error(), "--resume") {
-		t.Errorf("version 1: err = %v, want a FormatError naming the warnings and --resume", err)
+	// Versions 1 and 2 did not record warnings or moments: refused with a
+	// message that says why and what to do, as a format error (a resumed
+	// batch redoes them).
+	for _, v := range []uint16{1, 2} {
+		binary.LittleEndian.PutUint16(b[8:], v)
+		var fe *FormatError
+		if _, err := ReadResult(bytes.NewReader(b)); !errors.As(err, &fe) || !strings.Contains(err.Error(), "earlier slipfront") || !strings.Contains(err.Error(), "--resume") {
+			t.Errorf("version %d: err = %v, want a FormatError naming the earlier program and --resume", v, err)
+		}
 	}
 }
 
@@ -110,6 +117,8 @@ func TestResultRejectsBadValues(t *testing.T) {
 	}{
 		{"negative area", func(r *Result) { r.FinalArea = -1 }},
 		{"infinite pressure", func(r *Result) { r.PeakPressure = math.Inf(1) }},
+		{"negative seismic moment", func(r *Result) { r.SeismicMoment = -1 }},
+		{"zero retained gain", func(r *Result) { r.RetainedGain = 0 }},
 		{"magnitude without events", func(r *Result) { r.Events = 0 }},
 		{"events without magnitude", func(r *Result) { r.MaxMagnitude = math.NaN() }},
 		{"cells out of order", func(r *Result) { r.Cells = []int{5, 3} }},
@@ -128,7 +137,7 @@ func TestResultRejectsBadValues(t *testing.T) {
 		}
 	}
 	// A payload with an unknown key is refused.
-	body := []byte(`{"case":0,"realization":0,"case_digest":"a","network_digest":"","final_area_m2":0,"fracture_area_m2":0,"events":0,"max_magnitude_mw":null,"peak_bhp_pa":0,"injected_volume_m3":0,"interval_s":1,"area_m2":[0],"cells":[],"warnings":[],"extra":1}`)
+	body := []byte(`{"case":0,"realization":0,"case_digest":"a","network_digest":"","final_area_m2":0,"fracture_area_m2":0,"events":0,"max_magnitude_mw":null,"peak_bhp_pa":0,"injected_volume_m3":0,"seismic_moment_nm":0,"aseismic_moment_nm":0,"retained_permeability_gain":null,"interval_s":1,"area_m2":[0],"cells":[],"warnings":[],"extra":1}`)
 	if _, err := decodeResultJSON(body); !errors.Is(err, ErrFormat) {
 		t.Errorf("unknown key: err = %v", err)
 	}
@@ -316,8 +325,8 @@ func TestManifestReadRejects(t *testing.T) {
 // FuzzDecodeResultJSON fuzzes the payload behind the checksum, which
 // FuzzReadResult rarely reaches.
 func FuzzDecodeResultJSON(f *testing.F) {
-	f.Add([]byte(`{"case":0,"realization":3,"case_digest":"a","network_digest":"n","final_area_m2":5,"fracture_area_m2":2,"events":1,"max_magnitude_mw":-1.5,"peak_bhp_pa":3e7,"injected_volume_m3":30,"interval_s":60,"area_m2":[0,5],"cells":[1,4],"warnings":[{"kind":"bhp_above_shmin","message":"stage 1: BHP above Shmin"}]}`))
-	f.Add([]byte(`{"case":0,"realization":0,"case_digest":"a","network_digest":"","final_area_m2":0,"fracture_area_m2":0,"events":0,"max_magnitude_mw":null,"peak_bhp_pa":0,"injected_volume_m3":0,"interval_s":1,"area_m2":[0],"cells":[],"warnings":[]}`))
+	f.Add([]byte(`{"case":0,"realization":3,"case_digest":"a","network_digest":"n","final_area_m2":5,"fracture_area_m2":2,"events":1,"max_magnitude_mw":-1.5,"peak_bhp_pa":3e7,"injected_volume_m3":30,"seismic_moment_nm":2e11,"aseismic_moment_nm":3e12,"retained_permeability_gain":1.5,"interval_s":60,"area_m2":[0,5],"cells":[1,4],"warnings":[{"kind":"bhp_above_shmin","message":"stage 1: BHP above Shmin"}]}`))
+	f.Add([]byte(`{"case":0,"realization":0,"case_digest":"a","network_digest":"","final_area_m2":0,"fracture_area_m2":0,"events":0,"max_magnitude_mw":null,"peak_bhp_pa":0,"injected_volume_m3":0,"seismic_moment_nm":0,"aseismic_moment_nm":0,"retained_permeability_gain":null,"interval_s":1,"area_m2":[0],"cells":[],"warnings":[]}`))
 	f.Add([]byte(`{"case":-1}`))
 	f.Fuzz(func(t *testing.T, body []byte) {
 		res, err := decodeResultJSON(body)

@@ -57,6 +57,7 @@ func fakeOutcome(s *scenarios.Scenario, r int, work int) (*Outcome, error) {
 	}
 	o.PeakPressure = 30e6 + 5e6*rng.Float64() + 1e8*visc
 	o.InjectedVolume = 30 + rng.Float64()
+	o.SeismicMoment, o.AseismicMoment, o.RetainedGain = 1e10*o.InjectedVolume, 4e11*o.InjectedVolume, 1+o.FinalArea/1e4
 	// Warnings: 0 to 2 of one kind, and sometimes one of another.
 	for k := range rng.IntN(3) {
 		o.Warnings = append(o.Warnings, Warning{Kind: "bhp_above_shmin", Message: fmt.Sprintf("stage %d: fake warning of realization %d", k, r)})

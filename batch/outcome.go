@@ -28,7 +28,7 @@ type Outcome struct {
 	// Network.Digest()); equal digests across cases show common random
 	// numbers at work.
 	NetworkDigest string
-	// FinalArea is the stimulated map area at the end of the run, m².
+	// FinalArea is the stimulated area at the end of the run, m².
 	FinalArea float64
 	// FractureArea is the stimulated fracture surface area, m².
 	FractureArea float64
@@ -41,8 +41,14 @@ type Outcome struct {
 	PeakPressure float64
 	// InjectedVolume is the total volume injected, m³.
 	InjectedVolume float64
+	// SeismicMoment (the events) and AseismicMoment (stable slip), N·m.
+	SeismicMoment, AseismicMoment float64
+	// RetainedGain is the permeability gain of the stimulated elements
+	// that stays at the initial pore pressure; NaN when none was
+	// stimulated.
+	RetainedGain float64
 	// Times (s from the start of pumping, non-decreasing) and Areas
-	// (stimulated map area at those times, m²) are the growth curve; at
+	// (stimulated area at those times, m²) are the growth curve; at
 	// least one point. The batch resamples it on the case's TimeGrid.
 	Times, Areas []float64
 	// Cells are the stimulated cells at the end of the run, as indices into
@@ -91,7 +97,8 @@ func (o *Outcome) check(nCells int) error {
 	for _, q := range []struct {
 		name string
 		v    float64
-	}{{"FinalArea", o.FinalArea}, {"FractureArea", o.FractureArea}, {"PeakPressure", o.PeakPressure}, {"InjectedVolume", o.InjectedVolume}} {
+	}{{"FinalArea", o.FinalArea}, {"FractureArea", o.FractureArea}, {"PeakPressure", o.PeakPressure}, {"InjectedVolume", o.InjectedVolume},
+		{"SeismicMoment", o.SeismicMoment}, {"AseismicMoment", o.AseismicMoment}} {
 		if err := nonNeg(q.name, q.v); err != nil {
 			return err
 		}
@@ -103,6 +110,8 @@ func (o *Outcome) check(nCells int) error {
 		return fmt.Errorf("MaxMagnitude = %g with no events: must be NaN", o.MaxMagnitude)
 	case o.Events > 0 && !finite(o.MaxMagnitude):
 		return fmt.Errorf("MaxMagnitude = %g with %d events: must be finite", o.MaxMagnitude, o.Events)
+	case !math.IsNaN(o.RetainedGain) && !(o.RetainedGain > 0 && finite(o.RetainedGain)):
+		return fmt.Errorf("RetainedGain = %g: must be finite and > 0, or NaN when nothing was stimulated", o.RetainedGain)
 	case len(o.Times) == 0 || len(o.Times) != len(o.Areas):
 		return fmt.Errorf("growth curve has %d times and %d areas: want the same number, at least 1", len(o.Times), len(o.Areas))
 	}
@@ -148,6 +157,7 @@ func newResult(c, r int, caseDigest string, g Grid, tg TimeGrid, o *Outcome) (*R
 		FinalArea:     o.FinalArea, FractureArea: o.FractureArea,
 		Events: o.Events, MaxMagnitude: o.MaxMagnitude,
 		PeakPressure: o.PeakPressure, InjectedVolume: o.InjectedVolume,
+		SeismicMoment: o.SeismicMoment, AseismicMoment: o.AseismicMoment, RetainedGain: o.RetainedGain,
 		Interval: tg.Interval,
 		Area:     tg.Resample(nil, o.Times, o.Areas),
 		Cells:    cells,

@@ -29,9 +29,10 @@ import (
 const (
 	resultMagic = "SFBATRES"
 	// ResultVersion is the result-file format version this program writes
-	// and the only one it reads: version 1 did not record warnings, so a
-	// result of version 1 is refused (a resumed batch runs it again).
-	ResultVersion    = 2
+	// and the only one it reads: version 1 did not record warnings and
+	// version 2 not the moments and retained gain, so their results are
+	// refused (a resumed batch runs them again).
+	ResultVersion    = 3
 	resultHeaderSize = 24
 	// maxResultPayload caps the compressed payload and maxResultJSON the
 	// decompressed JSON, bytes.
@@ -60,7 +61,12 @@ type Result struct {
 	PeakPressure float64
 	// InjectedVolume, m³.
 	InjectedVolume float64
-	// Interval of the time grid, s; Area[k] is the stimulated map area at
+	// SeismicMoment and AseismicMoment, N·m.
+	SeismicMoment, AseismicMoment float64
+	// RetainedGain: permeability gain of the stimulated elements retained
+	// at the initial pore pressure (NaN when none was stimulated).
+	RetainedGain float64
+	// Interval of the time grid, s; Area[k] is the stimulated area at
 	// k·Interval, m².
 	Interval float64
 	Area     []float64
@@ -73,7 +79,9 @@ type Result struct {
 // resultJSON is the payload's JSON object. Keys: case, realization,
 // case_digest, network_digest, final_area_m2, fracture_area_m2, events,
 // max_magnitude_mw (null when there are no events), peak_bhp_pa,
-// injected_volume_m3, interval_s, area_m2 (array), cells (array of
+// injected_volume_m3, seismic_moment_nm, aseismic_moment_nm,
+// retained_permeability_gain (null when nothing was stimulated; the three
+// since version 3), interval_s, area_m2 (array), cells (array of
 // integers), warnings (array of objects with kind and message; since
 // version 2). All are required; unknown keys are rejected.
 type resultJSON struct {
@@ -87,6 +95,9 @@ type resultJSON struct {
 	MaxMagnitude   *float64      `json:"max_magnitude_mw"`
 	PeakPressure   float64       `json:"peak_bhp_pa"`
 	InjectedVolume float64       `json:"injected_volume_m3"`
+	SeismicMoment  float64       `json:"seismic_moment_nm"`
+	AseismicMoment float64       `json:"aseismic_moment_nm"`
+	RetainedGain   *float64      `json:"retained_permeability_gain"`
 	Interval       float64       `json:"interval_s"`
 	Area           []float64     `json:"area_m2"`
 	Cells          []int         `json:"cells"`
@@ -131,7 +142,12 @@ func WriteResult(w io.Writer, res *Result) error {
 		Case: res.Case, Realization: res.Realization, CaseDigest: res.CaseDigest,
 		NetworkDigest: res.NetworkDigest, FinalArea: res.FinalArea, FractureArea: res.FractureArea,
 		Events: res.Events, PeakPressure: res.PeakPressure, InjectedVolume: res.InjectedVolume,
+		SeismicMoment: res.SeismicMoment, AseismicMoment: res.AseismicMoment,
 		Interval: res.Interval, Area: res.Area, Cells: res.Cells,
+	}
+	if !math.IsNaN(res.RetainedGain) {
+		g := res.RetainedGain
+		j.RetainedGain = &g
 	}
 	if j.Area == nil {
 		j.Area = []float64{}
@@ -184,8 +200,8 @@ func ReadResult(r io.Reader) (*Result, error) {
 	switch v := binary.LittleEndian.Uint16(head[8:]); {
 	case v > ResultVersion:
 		return nil, &UnsupportedError{What: what, Version: int(v), Max: ResultVersion}
-	case v == 1:
-		return nil, &FormatError{What: what, Offset: 8, Msg: "format version 1, written by an earlier slipfront, does not record the run's warnings and is no longer read: run the realization again (batch --resume does)"}
+	case v == 1 || v == 2:
+		return nil, &FormatError{What: what, Offset: 8, Msg: fmt.Sprintf("format version %d, written by an earlier slipfront, does not record all of the run's results and is no longer read: run the realization again (batch --resume does)", v)}
 	case v != ResultVersion:
 		return nil, &FormatError{What: what, Offset: 8, Msg: fmt.Sprintf("version %d is not valid", v)}
 	}
@@ -236,7 +252,8 @@ func decodeResultJSON(body []byte) (*Result, error) {
 		Case: j.Case, Realization: j.Realization, CaseDigest: j.CaseDigest,
 		NetworkDigest: j.NetworkDigest, FinalArea: j.FinalArea, FractureArea: j.FractureArea,
 		Events: j.Events, MaxMagnitude: math.NaN(), PeakPressure: j.PeakPressure,
-		InjectedVolume: j.InjectedVolume, Interval: j.Interval, Area: j.Area, Cells: j.Cells,
+		InjectedVolume: j.InjectedVolume, SeismicMoment: j.SeismicMoment, AseismicMoment: j.AseismicMoment,
+		RetainedGain: math.NaN(), Interval: j.Interval, Area: j.Area, Cells: j.Cells,
 		Warnings: make([]Warning, len(j.Warnings)),
 	}
 	for i, w := range j.Warnings {
@@ -244,6 +261,9 @@ func decodeResultJSON(body []byte) (*Result, error) {
 	}
 	if j.MaxMagnitude != nil {
 		res.MaxMagnitude = *j.MaxMagnitude
+	}
+	if j.RetainedGain != nil {
+		res.RetainedGain = *j.RetainedGain
 	}
 	if err := res.check(); err != nil {
 		return nil, &FormatError{What: what, Offset: -1, Msg: err.Error()}
@@ -256,6 +276,7 @@ func (res *Result) check() error {
 	o := Outcome{
 		FinalArea: res.FinalArea, FractureArea: res.FractureArea, Events: res.Events,
 		MaxMagnitude: res.MaxMagnitude, PeakPressure: res.PeakPressure, InjectedVolume: res.InjectedVolume,
+		SeismicMoment: res.SeismicMoment, AseismicMoment: res.AseismicMoment, RetainedGain: res.RetainedGain,
 		Times: make([]float64, len(res.Area)), Areas: res.Area, Warnings: res.Warnings,
 	}
 	switch {

@@ -31,7 +31,7 @@ type headline struct {
 
 // headlines are the headline results, in column order.
 var headlines = []headline{
-	{csvw.Column{Title: "stimulated_area_m2", Datatype: csvw.Double, Unit: "m2", Description: "stimulated map area at the end of the run"},
+	{csvw.Column{Title: "stimulated_area_m2", Datatype: csvw.Double, Unit: "m2", Description: "stimulated area at the end of the run"},
 		"stimulated_area_ratio", func(r *Result) float64 { return r.FinalArea }},
 	{csvw.Column{Title: "stimulated_fracture_area_m2", Datatype: csvw.Double, Unit: "m2", Description: "stimulated fracture surface at the end of the run"},
 		"stimulated_fracture_area_ratio", func(r *Result) float64 { return r.FractureArea }},
@@ -43,6 +43,12 @@ var headlines = []headline{
 		"peak_bhp_ratio", func(r *Result) float64 { return r.PeakPressure / 1e6 }},
 	{csvw.Column{Title: "injected_volume_m3", Datatype: csvw.Double, Unit: "m3", Description: "volume injected"},
 		"injected_volume_ratio", func(r *Result) float64 { return r.InjectedVolume }},
+	{csvw.Column{Title: "seismic_moment_Nm", Datatype: csvw.Double, Unit: "N.m", Description: "summed moment of the events (unstable ruptures)"},
+		"seismic_moment_ratio", func(r *Result) float64 { return r.SeismicMoment }},
+	{csvw.Column{Title: "aseismic_moment_Nm", Datatype: csvw.Double, Unit: "N.m", Description: "moment of the stable (aseismic) slip"},
+		"aseismic_moment_ratio", func(r *Result) float64 { return r.AseismicMoment }},
+	{csvw.Column{Title: "retained_permeability_gain", Datatype: csvw.Double, Description: "permeability gain of the stimulated elements retained at the initial pore pressure; empty when nothing was stimulated"},
+		"retained_permeability_gain_ratio", func(r *Result) float64 { return r.RetainedGain }},
 }
 
 // col is a column of a batch table.
@@ -90,18 +96,18 @@ func realizationsTable(m *Manifest) csvw.Table {
 
 func percentilesTable(m *Manifest) csvw.Table {
 	cols := append(caseColumns(m), col("time_s", csvw.Double, "s", "time since the start of pumping, on the case's time grid"))
-	cols = append(cols, quantiles("stimulated_area_m2", csvw.Double, "m2", "the stimulated map area at that time over the realizations")...)
+	cols = append(cols, quantiles("stimulated_area_m2", csvw.Double, "m2", "the stimulated area at that time over the realizations")...)
 	cols = append(cols,
-		col("stimulated_area_m2_mean", csvw.Double, "m2", "mean stimulated map area at that time"),
-		col("stimulated_area_m2_std", csvw.Double, "m2", "sample standard deviation of the stimulated map area at that time; empty for one realization"))
+		col("stimulated_area_m2_mean", csvw.Double, "m2", "mean stimulated area at that time"),
+		col("stimulated_area_m2_std", csvw.Double, "m2", "sample standard deviation of the stimulated area at that time; empty for one realization"))
 	return csvw.Table{URL: PercentilesName, Title: "stimulated area percentiles",
-		Description: "Per case and time: the stimulated map area over the realizations. " + PercentileConvention, Columns: cols}
+		Description: "Per case and time: the stimulated area over the realizations. " + PercentileConvention, Columns: cols}
 }
 
 func comparisonTable(m *Manifest) csvw.Table {
 	cols := append(caseColumns(m), col("realizations", csvw.Integer, "", "realizations of the case"))
-	cols = append(cols, quantiles("stimulated_area_m2", csvw.Double, "m2", "the final stimulated map area")...)
-	cols = append(cols, col("stimulated_area_m2_mean", csvw.Double, "m2", "mean final stimulated map area"))
+	cols = append(cols, quantiles("stimulated_area_m2", csvw.Double, "m2", "the final stimulated area")...)
+	cols = append(cols, col("stimulated_area_m2_mean", csvw.Double, "m2", "mean final stimulated area"))
 	cols = append(cols, quantiles("stimulated_fracture_area_m2", csvw.Double, "m2", "the final stimulated fracture surface")...)
 	cols = append(cols,
 		col("stimulated_fracture_area_m2_mean", csvw.Double, "m2", "mean final stimulated fracture surface"),

@@ -87,6 +87,17 @@ func (m ApertureModel) Evaluate(sigmaN, p, slip float64, patch Patch) (e, dedp f
 	return free - eff/k, 1 / k
 }
 
+// DilationFactor returns (e0 + min(D, Dmax)·tan φ_dil)/e0, the factor by
+// which the accumulated slip D multiplies the closed aperture at any fixed
+// effective normal stress: the closure factor 1/(1 + 9·σn′/σn,ref) is the
+// same with and without slip and cancels. A fracture that slipped while
+// pressurised and then returns to its initial pore pressure and stress
+// keeps the aperture e_init·DilationFactor(D): the dilation stays, the
+// jacking and elastic opening do not.
+func (m ApertureModel) DilationFactor(slip float64) float64 {
+	return 1 + m.dilation(slip)/m.ZeroStress
+}
+
 // SlipDerivative returns ∂e/∂D, the change of aperture with slip at fixed
 // stress and pressure (dimensionless): tan φ_dil / (1 + 9·σn′/σn,ref) when
 // closed, tan φ_dil when open, and 0 once the slip has reached the

@@ -165,3 +165,21 @@ func TestSlipDerivative(t *testing.T) {
 		t.Error("dilation past its limit")
 	}
 }
+
+// The dilation factor is the ratio of the closed aperture with and without
+// slip at any one effective normal stress (the closure law of
+// Willis-Richards, Watanabe & Takahashi 1996 divides both alike), and it
+// stops growing at the dilation limit: back at the initial pressure a
+// slipped fracture keeps e_init·factor.
+func TestDilationFactor(t *testing.T) {
+	m := apertureModel(1e-4, 40e6, 5*math.Pi/180, 5e-3)
+	patch := Patch{Length: 20, Height: 10}
+	for _, c := range []struct{ sigmaN, p, slip float64 }{
+		{50e6, 20e6, 1e-3}, {50e6, 49e6, 1e-3}, {80e6, 20e6, 4e-3}, {50e6, 20e6, 0}, {50e6, 20e6, 9e-3},
+	} {
+		want := m.Aperture(c.sigmaN, c.p, c.slip, patch) / m.Aperture(c.sigmaN, c.p, 0, patch)
+		numtest.Rel(t, "dilation factor", m.DilationFactor(c.slip), want, 1e-14)
+	}
+	// By hand: 1 + min(D, Dmax)·tan 5°/e0 with D past the limit.
+	numtest.Rel(t, "capped factor", m.DilationFactor(9e-3), 1+5e-3*math.Tan(5*math.Pi/180)/1e-4, 1e-14)
+}

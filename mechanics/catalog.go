@@ -207,6 +207,28 @@ func MaxCurvatureCompleteness(mags []float64, o CompletenessOptions) (float64, e
 	return float64(best)*o.BinWidth + o.Correction, nil
 }
 
+// CatalogueBin is the magnitude bin of the catalogue fits, 0.1 as usual
+// for magnitude–frequency analysis (common practice, no source).
+const CatalogueBin = 0.1
+
+// FitCatalogue returns the magnitude of completeness of a catalogue by
+// maximum curvature in bins of CatalogueBin with Woessner & Wiemer's +0.2
+// (MaxCurvatureCompleteness), and the maximum-likelihood b-value of the
+// events at or above it with its standard errors (BValue, magnitudes taken
+// as continuous; Aki 1965; Shi & Bolt 1982). It returns an error when the
+// catalogue is empty or fewer than two events reach Mc.
+func FitCatalogue(mags []float64) (mc float64, b BValueEstimate, err error) {
+	mc, err = MaxCurvatureCompleteness(mags, CompletenessOptions{BinWidth: CatalogueBin, Correction: WoessnerWiemerCorrection})
+	if err != nil {
+		return 0, BValueEstimate{}, err
+	}
+	b, err = BValue(mags, BValueOptions{Completeness: mc})
+	if err != nil {
+		return 0, BValueEstimate{}, fmt.Errorf("%d events in all, Mc = %.2f: %w", len(mags), mc, err)
+	}
+	return mc, b, nil
+}
+
 // checkMagnitudes returns an error naming the first magnitude that is not
 // a finite number.
 func checkMagnitudes(mags []float64) error {

@@ -115,6 +115,33 @@ func TestBValueSyntheticCatalogue(t *testing.T) {
 	}
 }
 
+// FitCatalogue on a continuous Gutenberg–Richter sample of b = 1 above
+// 0.5 (Aki 1965): the fullest 0.1 bin is the first whole one, centred on
+// 0.6 (the 0.5 bin holds only its upper half), so Mc = 0.6 + 0.2
+// (Woessner & Wiemer 2005), and the b-value of the events above it is
+// within two standard errors of 1. Fewer than two events above Mc is an
+// error.
+func TestFitCatalogue(t *testing.T) {
+	const n, b = 4000, 1.0
+	r := rand.New(rand.NewPCG(3, 4))
+	gr := GutenbergRichter{B: b, Min: 0.5, Max: math.Inf(1)}
+	mags := make([]float64, n)
+	for i := range mags {
+		mags[i] = gr.Rand(r)
+	}
+	mc, e, err := FitCatalogue(mags)
+	if err != nil {
+		t.Fatal(err)
+	}
+	numtest.Rel(t, "Mc", mc, 0.8, 1e-12)
+	if d := math.Abs(e.B - b); d > 2*e.AkiError {
+		t.Errorf("b = %.4f, %.2f standard errors from %g", e.B, d/e.AkiError, b)
+	}
+	if _, _, err := FitCatalogue([]float64{0.5, 0.5, 0.5, 1.5}); err == nil {
+		t.Error("one event above Mc gave a b-value")
+	}
+}
+
 // Maximum curvature (Wiemer & Wyss 2000) is the mode of the non-cumulative
 // histogram; Woessner & Wiemer (2005) add 0.2. A hand-made histogram with
 // a tie between 0.7 and 1.0 (12 events each): the lower one wins.

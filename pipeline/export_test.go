@@ -9,6 +9,8 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/paulmach/orb/planar"
+
 	"slipfront/dfn"
 	"slipfront/gis"
 	"slipfront/internal/badinput"
@@ -110,14 +112,17 @@ func TestLoadRunMatchesMemory(t *testing.T) {
 	}
 }
 
-// The stimulated outlines grow with time and their areas are whole cells.
+// The stimulated outlines grow with time, each feature's area is the exact
+// stimulated area at its time, and its polygons are inscribed in that
+// region: their planar area is at most the exact area and short of it by
+// the circular segments its chords cut off (sagitta 1e-3 of the reach;
+// internal/footprint.Outline), well under 1 %.
 func TestOutlinesGrow(t *testing.T) {
 	_, mem := runFolder(t)
 	l, err := mem.outlineLayer()
 	if err != nil {
 		t.Fatal(err)
 	}
-	cell := mem.Scenario.Numerics.CellSize * mem.Scenario.Numerics.CellSize
 	col := slices.IndexFunc(l.Fields, func(f gis.Field) bool { return f.Name == "stimulated_area_m2" })
 	if col < 0 || len(l.Features) == 0 {
 		t.Fatalf("no stimulated_area_m2 field (%v) or no outline (%d)", l.Fields, len(l.Features))
@@ -128,8 +133,9 @@ func TestOutlinesGrow(t *testing.T) {
 		if area < prev {
 			t.Fatalf("outline area fell from %g to %g m²", prev, area)
 		}
-		if r := area / cell; r != math.Trunc(r) {
-			t.Fatalf("area %g m² is not a whole number of cells", area)
+		poly := planar.Area(f.Geometry)
+		if !(poly <= area*(1+1e-9) && poly >= area*(1-1e-2)) {
+			t.Fatalf("outline polygons cover %g m², the feature says %g m²", poly, area)
 		}
 		prev = area
 	}

@@ -211,13 +211,13 @@ func TestMagnitudeFrequencyShowsCatalogue(t *testing.T) {
 	var counts []float64
 	k0, k1 := math.Inf(1), math.Inf(-1)
 	for _, e := range r.Result.Events {
-		k := math.Floor(e.Magnitude/magnitudeBin + 1e-9)
+		k := math.Floor(e.Magnitude/mechanics.CatalogueBin + 1e-9)
 		k0, k1 = math.Min(k0, k), math.Max(k1, k)
 	}
 	for k := k0; k <= k1; k++ {
 		n := 0
 		for _, e := range r.Result.Events {
-			if math.Floor(e.Magnitude/magnitudeBin+1e-9) >= k {
+			if math.Floor(e.Magnitude/mechanics.CatalogueBin+1e-9) >= k {
 				n++
 			}
 		}

@@ -118,7 +118,7 @@ func (r *Run) page(warnings []string) *report.Page {
 	p.Facts = [][2]string{
 		{"scenario digest", s.Digest}, {"seed, realization", fmt.Sprintf("%d, %d", s.Seed, r.Network.Realization)},
 		{"duration", fmt.Sprintf("%.2f h", r.Time/3600)}, {"injected", fmt.Sprintf("%.1f m³", last.Injected)},
-		{"stimulated map area", fmt.Sprintf("%.0f m²", last.StimulatedArea)},
+		{"stimulated area", fmt.Sprintf("%.0f m²", last.StimulatedArea)},
 		{"stimulated fracture area", fmt.Sprintf("%.0f m²", last.FractureArea)},
 		{"events", fmt.Sprintf("%d (largest Mw %s)", len(res.Events), optionalMw(maxMw))},
 	}

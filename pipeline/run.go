@@ -57,7 +57,11 @@ func (r *Run) Layers() ([]gis.Layer, error) {
 	if err != nil {
 		return nil, err
 	}
-	return withCaution([]gis.Layer{r.fractureLayer(), r.conduitLayer(), outlines, r.eventLayer(), r.wellLayer(), r.clusterLayer()}), nil
+	fractures, err := r.fractureLayer()
+	if err != nil {
+		return nil, err
+	}
+	return withCaution([]gis.Layer{fractures, r.conduitLayer(), outlines, r.eventLayer(), r.wellLayer(), r.clusterLayer()}), nil
 }
 
 // withCaution adds the caution to every layer's description, so it travels
@@ -103,18 +107,19 @@ func (r *Run) stageName(k int) any {
 	return nil
 }
 
-func (r *Run) fractureLayer() gis.Layer {
+func (r *Run) fractureLayer() (gis.Layer, error) {
 	l := gis.Layer{Name: "fractures", Description: "natural fracture traces on the layer mid-plane with their final state",
 		Geometry: gis.LineString, Fields: []gis.Field{
 			{Name: "fracture_id", Type: gis.Int32}, {Name: "set_name", Type: gis.Text}, {Name: "network_cluster", Type: gis.Int32},
 			{Name: "dip_deg", Type: gis.Real}, {Name: "dip_direction_deg", Type: gis.Real}, {Name: "trace_length_m", Type: gis.Real},
 			{Name: "max_slip_mm", Type: gis.Real}, {Name: "mean_aperture_mm", Type: gis.Real},
-			{Name: "permeability_gain", Type: gis.Real}, {Name: "first_slip_time_s", Type: gis.Real},
+			{Name: "permeability_gain", Type: gis.Real}, {Name: "retained_permeability_gain", Type: gis.Real},
+			{Name: "first_slip_time_s", Type: gis.Real},
 			{Name: "first_slip_stage", Type: gis.Text}, {Name: "stimulated", Type: gis.Boolean},
 		}}
-	byFracture := map[int]sim.FractureResult{}
-	for _, f := range sim.Fractures(r.Network, r.Result) {
-		byFracture[f.Fracture] = f
+	byFracture, err := r.fracturesByID(r.Result)
+	if err != nil {
+		return l, err
 	}
 	for _, t := range r.Network.Traces {
 		f, ok := byFracture[t.Fracture]
@@ -125,10 +130,24 @@ func (r *Run) fractureLayer() gis.Layer {
 			Geometry: line(pt(t.P0.X, t.P0.Y), pt(t.P1.X, t.P1.Y)),
 			Values: []any{t.Fracture, f.SetName, t.Cluster, f.Dip * 180 / math.Pi, f.DipDirection * 180 / math.Pi, t.Length,
 				f.MaxSlip * 1e3, f.MeanAperture * 1e3,
-				nullable(f.PermeabilityGain), nullable(f.FirstSlip), r.stageName(f.FirstSlipStage), f.StimulatedLength > 0},
+				nullable(f.PermeabilityGain), nullable(f.RetainedPermeabilityGain), nullable(f.FirstSlip),
+				r.stageName(f.FirstSlipStage), f.StimulatedLength > 0},
 		})
 	}
-	return l
+	return l, nil
+}
+
+// fracturesByID returns sim.Fractures of res by fracture index.
+func (r *Run) fracturesByID(res *sim.Result) (map[int]sim.FractureResult, error) {
+	fractures, err := sim.Fractures(r.Scenario, r.Network, res)
+	if err != nil {
+		return nil, err
+	}
+	byID := make(map[int]sim.FractureResult, len(fractures))
+	for _, f := range fractures {
+		byID[f.Fracture] = f
+	}
+	return byID, nil
 }
 
 func (r *Run) conduitLayer() gis.Layer {
@@ -144,30 +163,26 @@ func (r *Run) conduitLayer() gis.Layer {
 	return l
 }
 
-// outlineLayer outlines the stimulated cells at every outline time.
+// outlineLayer outlines the stimulated area at every outline time: the
+// region within numerics.stimulated_reach of the elements stimulated by
+// then, whose exact area the feature carries.
 func (r *Run) outlineLayer() (gis.Layer, error) {
-	l := gis.Layer{Name: "stimulated_area", Description: "outline of the stimulated map cells at each snapshot time",
+	l := gis.Layer{Name: "stimulated_area", Description: "stimulated area at each snapshot time: the region within numerics.stimulated_reach of the stimulated fracture elements",
 		Geometry: gis.MultiPolygon, Fields: []gis.Field{{Name: "time_s", Type: gis.Real}, {Name: "utc_time", Type: gis.DateTime},
 			{Name: "stimulated_area_m2", Type: gis.Real}}}
-	g, sg := r.Grid(), r.Scenario.MapGrid()
 	res := r.Result
+	reach := r.Scenario.Numerics.StimulatedReach
 	start := scheduleStart(r.Scenario.Schedule.Start)
 	for _, t := range r.OutlineTimes {
-		mask := sim.StimulatedCells(sg, res.Elements, func(i int) bool { return res.StimulatedAt[i] <= t })
-		mp, err := gis.Outline(g, mask)
+		stimulated := func(i int) bool { return res.StimulatedAt[i] <= t }
+		mp, err := sim.StimulatedOutline(res.Elements, stimulated, reach, 0)
 		if err != nil {
 			return l, err
 		}
-		var cells int
-		for _, on := range mask {
-			if on {
-				cells++
-			}
-		}
-		if cells == 0 {
+		if len(mp) == 0 {
 			continue
 		}
-		l.Features = append(l.Features, gis.Feature{Geometry: mp, Values: []any{t, utc(start, t), float64(cells) * g.CellArea()}})
+		l.Features = append(l.Features, gis.Feature{Geometry: mp, Values: []any{t, utc(start, t), sim.StimulatedArea(res.Elements, stimulated, reach)}})
 	}
 	return l, nil
 }

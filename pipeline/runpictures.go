@@ -69,7 +69,7 @@ func (r *Run) runPictures() (ps []picture, notes []string, err error) {
 	ps = append(ps, picture{MapPictureFile, "Map: where and when the natural fractures slipped (colour: first-slip time; grey: never), " +
 		"primary conduits dashed, events as rings sized by magnitude, the stimulated-area outline and the SHmax direction.", m})
 	if len(r.Result.Timeline) > 0 {
-		ps = append(ps, picture{GrowthPictureFile, "Growth: how fast the stimulated map area grows in each stage, against the bottom-hole pressure.",
+		ps = append(ps, picture{GrowthPictureFile, "Growth: how fast the stimulated area grows in each stage, against the bottom-hole pressure.",
 			r.GrowthPicture()})
 	}
 	if len(r.Result.Events) == 0 {
@@ -222,16 +222,11 @@ func median(v []float64) float64 {
 // errFewEvents marks a catalogue too small for a b-value.
 var errFewEvents = errors.New("too few events")
 
-// Magnitude–frequency settings: magnitudes binned at 0.1 for the
-// maximum-curvature Mc with the Woessner & Wiemer (2005) correction of
-// +0.2, and bootstrap resamples of the catalogue for the uncertainty of
-// Mc and b (Woessner & Wiemer 2005, Bulletin of the Seismological Society
+// bootstrapResamples of the catalogue give the uncertainty of Mc and b
+// (mechanics.FitCatalogue) (Woessner & Wiemer 2005, Bulletin of the Seismological Society
 // of America 95(2), 684–698: the bootstrap of the catalogue; 200
 // resamples is their order of magnitude, from memory).
-const (
-	magnitudeBin       = 0.1
-	bootstrapResamples = 200
-)
+const bootstrapResamples = 200
 
 // MagnitudeFrequencyPicture is the magnitude–frequency chart of the run's
 // catalogue with Mc by maximum curvature (Wiemer & Wyss 2000, +0.2 of
@@ -265,21 +260,16 @@ func (r *Run) MagnitudeFrequencyPicture() (*report.MagnitudeFrequency, error) {
 		Note: fmt.Sprintf("b by maximum likelihood (Aki 1965) of the %d events at or above Mc, ± Shi & Bolt (1982); Mc by maximum curvature + 0.2. "+
 			"Bootstrap (%d of %d resamples fit): σ(Mc) = %.2f, σ(b) = %.2f.",
 			b.Events, len(mcs), bootstrapResamples, stdDev(mcs), stdDev(bs)),
-		Magnitudes: mags, BinWidth: magnitudeBin, BValue: b.B, BError: b.ShiBoltError, Completeness: mc,
+		Magnitudes: mags, BinWidth: mechanics.CatalogueBin, BValue: b.B, BError: b.ShiBoltError, Completeness: mc,
 	}, nil
 }
 
-// catalogueFit returns Mc and the b-value of the magnitudes, or an error
-// matching errFewEvents.
+// catalogueFit is mechanics.FitCatalogue with its error matching
+// errFewEvents.
 func catalogueFit(mags []float64) (float64, mechanics.BValueEstimate, error) {
-	mc, err := mechanics.MaxCurvatureCompleteness(mags, mechanics.CompletenessOptions{BinWidth: magnitudeBin,
-		Correction: mechanics.WoessnerWiemerCorrection})
+	mc, b, err := mechanics.FitCatalogue(mags)
 	if err != nil {
-		return 0, mechanics.BValueEstimate{}, fmt.Errorf("%w: %v", errFewEvents, err)
-	}
-	b, err := mechanics.BValue(mags, mechanics.BValueOptions{Completeness: mc})
-	if err != nil {
-		return 0, mechanics.BValueEstimate{}, fmt.Errorf("%w for a b-value (%d events in all, Mc = %.2f): %v", errFewEvents, len(mags), mc, err)
+		return 0, b, fmt.Errorf("%w for a b-value: %v", errFewEvents, err)
 	}
 	return mc, b, nil
 }
@@ -311,16 +301,17 @@ const sectionHalfWidth = 100
 // time, the events and the layer.
 func (r *Run) SectionPictures() ([]*report.CrossSection, error) {
 	s := r.Scenario
-	byFracture := map[int]float64{}
-	for _, f := range sim.Fractures(r.Network, r.Result) {
-		byFracture[f.Fracture] = f.FirstSlip / 3600
+	byFracture, err := r.fracturesByID(r.Result)
+	if err != nil {
+		return nil, err
 	}
 	var fractures []report.SectionFracture
 	for _, t := range r.Network.Traces {
-		v, ok := byFracture[t.Fracture]
+		f, ok := byFracture[t.Fracture]
 		if !ok {
 			continue
 		}
+		v := f.FirstSlip / 3600
 		var outline []report.Point3
 		for _, p := range fractureRing(&r.Network.Fractures[t.Fracture]) {
 			outline = append(outline, report.Point3{East: p.X, North: p.Y, Depth: -p.Z})

@@ -153,9 +153,14 @@ func Realization(ctx context.Context, s *scenarios.Scenario, r int) (*batch.Outc
 	if err != nil {
 		return nil, fmt.Errorf("realization %d: %w", r, err)
 	}
+	_, retained, err := sim.StimulatedGains(s, res)
+	if err != nil {
+		return nil, err
+	}
 	out := &batch.Outcome{NetworkDigest: net.Digest(), FinalArea: res.StimulatedArea, FractureArea: res.FractureArea,
 		Events: len(res.Events), MaxMagnitude: sim.MaxMagnitude(res.Events), PeakPressure: res.PeakBHP,
-		InjectedVolume: res.Injected, Cells: res.Cells}
+		InjectedVolume: res.Injected, SeismicMoment: res.SeismicMoment, AseismicMoment: res.AseismicMoment,
+		RetainedGain: retained, Cells: res.Cells}
 	for _, w := range res.Warnings {
 		out.Warnings = append(out.Warnings, batch.Warning{Kind: w.Kind, Message: w.Message})
 	}

@@ -16,7 +16,7 @@ import (
 // Fields of the VTK files: per fracture polygon (cell data) and per event
 // point (point data). NaN is a missing value (never slipped; no gain).
 var (
-	VTKFractureFields = []string{"fracture_id", "set", "max_slip_mm", "first_slip_time_s", "critical_dp_MPa", "permeability_gain"}
+	VTKFractureFields = []string{"fracture_id", "set", "max_slip_mm", "first_slip_time_s", "critical_dp_MPa", "permeability_gain", "retained_permeability_gain"}
 	VTKEventFields    = []string{"time_s", "magnitude_Mw", "moment_Nm", "slip_mm", "stage", "fracture_id"}
 )
 
@@ -70,7 +70,10 @@ func (r *Run) writeVTKSeries(snap, dir string, pl gis.Placement, fractures vtkFr
 		if err != nil {
 			return err
 		}
-		polys := fractures.at(r, res)
+		polys, err := fractures.at(r, res)
+		if err != nil {
+			return err
+		}
 		pts := r.vtkEvents(t)
 		fname, ename := vtkFracturesFile(k), vtkEventsFile(k)
 		if err := writeFiles(dir,
@@ -119,26 +122,27 @@ func (r *Run) vtkPolygons() (vtkFractures, error) {
 // at returns the polygons with the state of res: largest slip, mm, first
 // slip time, s, and permeability gain (sim.Fractures); NaN for fractures
 // without elements.
-func (v vtkFractures) at(r *Run, res *sim.Result) gis.VTKPolygons {
+func (v vtkFractures) at(r *Run, res *sim.Result) (gis.VTKPolygons, error) {
 	n := len(v.ids)
-	slip, first, gain := nans(n), nans(n), nans(n)
-	byFracture := map[int]sim.FractureResult{}
-	for _, f := range sim.Fractures(r.Network, res) {
-		byFracture[f.Fracture] = f
+	slip, first, gain, retained := nans(n), nans(n), nans(n), nans(n)
+	byFracture, err := r.fracturesByID(res)
+	if err != nil {
+		return gis.VTKPolygons{}, err
 	}
 	ids := make([]float64, n)
 	for i, id := range v.ids {
 		ids[i] = float64(id)
 		if f, ok := byFracture[id]; ok {
 			slip[i], first[i], gain[i] = f.MaxSlip*1e3, f.FirstSlip, finiteOrNaN(f.PermeabilityGain)
+			retained[i] = finiteOrNaN(f.RetainedPermeabilityGain)
 		}
 	}
-	values := [][]float64{ids, v.set, slip, first, v.dpc, gain}
+	values := [][]float64{ids, v.set, slip, first, v.dpc, gain, retained}
 	p := gis.VTKPolygons{Rings: v.rings}
 	for k, name := range VTKFractureFields {
 		p.Fields = append(p.Fields, gis.VTKField{Name: name, Values: values[k]})
 	}
-	return p
+	return p, nil
 }
 
 // vtkEvents are the run's events up to time t, s.

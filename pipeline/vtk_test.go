@@ -166,7 +166,10 @@ func TestVTKReadByVTK(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	polys := fr.at(r, res)
+	polys, err := fr.at(r, res)
+	if err != nil {
+		t.Fatal(err)
+	}
 	pl, err := r.Placement()
 	if err != nil {
 		t.Fatal(err)

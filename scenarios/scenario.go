@@ -275,20 +275,25 @@ type Numerics struct {
 	PressureChangeMax float64 `toml:"pressure_change_max" unit:"pressure" range:"[1e3,1e9]" default:"2 MPa" doc:"largest pressure change of any element in one step"`
 	// SlipMax per step, m.
 	SlipMax float64 `toml:"slip_max" unit:"length" range:"[1e-7,1]" default:"2 mm" doc:"largest new slip of any element in one step"`
-	// CouplingTolerance is the relative aperture change that ends the
-	// flow–mechanics iterations.
-	CouplingTolerance     float64 `toml:"coupling_tolerance" range:"(0,1)" default:"1e-4" doc:"relative aperture change that ends the flow-mechanics iterations"`
+	// CouplingTolerance τ ends the flow–mechanics iterations of a step:
+	// relative aperture change ≤ τ, pressure change ≤ τ·10 kPa and
+	// mass-balance error ≤ 1e-6·τ of the fluid moved.
+	CouplingTolerance     float64 `toml:"coupling_tolerance" range:"(0,1)" default:"1e-4" doc:"tolerance of the flow-mechanics iterations: relative aperture change, pressure change (times 10 kPa) and mass-balance error (times 1e-6) that end them"`
 	CouplingMaxIterations int     `toml:"coupling_max_iterations" range:"[2,1000]" default:"30" doc:"flow-mechanics iterations before the step is cut"`
 	LinearTolerance       float64 `toml:"linear_tolerance" range:"(0,1)" default:"1e-10" doc:"relative residual of the iterative linear solver"`
 	// Solver is "auto", "cholesky", "pcg-jacobi" or "pcg-ic0".
 	Solver string `toml:"solver" default:"auto" range:"auto|cholesky|pcg-jacobi|pcg-ic0" doc:"linear solver: auto picks sparse Cholesky unless the system is too large to factor"`
 	// OutputInterval between snapshot frames and timeline rows, s.
 	OutputInterval float64 `toml:"output_interval" unit:"time" range:"[0.001,1e8]" default:"5 min" doc:"time between snapshot frames and timeline rows"`
-	// CellSize of the stimulated-area map, m.
-	CellSize float64 `toml:"cell_size" unit:"length" range:"[0.01,1e4]" default:"10 m" doc:"map cell size for the stimulated area"`
+	// CellSize of the map grid of pictures, rasters and probability maps,
+	// m. No headline number depends on it.
+	CellSize float64 `toml:"cell_size" unit:"length" range:"[0.01,1e4]" default:"10 m" doc:"map cell size of the pictures, rasters and probability maps"`
 	// StimulatedSlip is the cumulative slip above which an element counts
 	// as stimulated, m.
 	StimulatedSlip float64 `toml:"stimulated_slip" unit:"length" range:"[1e-9,1]" default:"0.1 mm" doc:"cumulative slip above which an element counts as stimulated"`
+	// StimulatedReach is the map distance around stimulated fracture
+	// elements that counts as stimulated area, m.
+	StimulatedReach float64 `toml:"stimulated_reach" unit:"length" range:"[0.1,1e4]" default:"5 m" doc:"map distance around stimulated fracture elements counted as stimulated area (the area is exact; cell_size does not enter it)"`
 	// MaxFractures caps the generated fractures per realization.
 	// MaxSteps bounds the accepted time steps of a run.
 	MaxSteps     int `toml:"max_steps" range:"[1,1e9]" default:"1000000" doc:"refuse schedules that need more time steps than this, and stop a run that takes more"`

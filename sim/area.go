@@ -1,10 +1,15 @@
 package sim
 
 import (
+	"fmt"
 	"math"
+
+	"github.com/paulmach/orb"
 
 	"gonum.org/v1/gonum/spatial/r2"
 
+	"slipfront/dfn"
+	"slipfront/internal/footprint"
 	"slipfront/scenarios"
 )
 
@@ -55,20 +60,29 @@ func abs(n int) int {
 	return n
 }
 
-// stimulation tracks the stimulated elements and map cells.
+// stimulation tracks the stimulated elements, the map cells they pass
+// through (for pictures, rasters and probability maps) and the stimulated
+// area (the exact area within reach of them; no grid).
 type stimulation struct {
 	grid      scenarios.Grid
 	threshold float64 // m of slip
+	reach     float64 // m
+	elements  []Element
 	element   []bool
 	at        []float64 // time each element was stimulated, s (NaN: never)
 	cell      []bool
-	cells     int     // number of stimulated cells
 	fracArea  float64 // Σ L·h of stimulated elements, m²
 	scratch   []int
+	// mapArea is the stimulated area of the elements marked so far, valid
+	// unless stale.
+	mapArea float64
+	stale   bool
 }
 
-func newStimulation(g scenarios.Grid, threshold float64, n int) *stimulation {
-	st := &stimulation{grid: g, threshold: threshold, element: make([]bool, n), at: make([]float64, n), cell: make([]bool, g.Cells())}
+func newStimulation(g scenarios.Grid, threshold, reach float64, elements []Element) *stimulation {
+	n := len(elements)
+	st := &stimulation{grid: g, threshold: threshold, reach: reach, elements: elements,
+		element: make([]bool, n), at: make([]float64, n), cell: make([]bool, g.Cells())}
 	for i := range st.at {
 		st.at[i] = math.NaN()
 	}
@@ -77,46 +91,62 @@ func newStimulation(g scenarios.Grid, threshold float64, n int) *stimulation {
 
 // update marks elements whose slip reached the threshold by time t and
 // the cells they pass through.
-func (st *stimulation) update(elements []Element, slip []float64, t float64) {
+func (st *stimulation) update(slip []float64, t float64) {
 	for i, d := range slip {
 		if st.element[i] || d < st.threshold {
 			continue
 		}
-		st.element[i], st.at[i] = true, t
-		el := &elements[i]
+		st.element[i], st.at[i], st.stale = true, t, true
+		el := &st.elements[i]
 		st.fracArea += el.Length * el.Height
 		st.scratch = CellsAlong(st.scratch[:0], st.grid, el.P0, el.P1)
 		for _, c := range st.scratch {
-			if !st.cell[c] {
-				st.cell[c] = true
-				st.cells++
-			}
+			st.cell[c] = true
 		}
 	}
 }
 
-// StimulatedCells returns the cells of g passed through by the elements
-// for which stimulated(i) holds, as a mask in grid order: the stimulated
-// area at any time, from the per-element state of a snapshot frame or from
-// Result.StimulatedAt.
-func StimulatedCells(g scenarios.Grid, elements []Element, stimulated func(i int) bool) []bool {
-	mask := make([]bool, g.Cells())
-	var scratch []int
-	for i := range elements {
-		if !stimulated(i) {
-			continue
-		}
-		scratch = CellsAlong(scratch[:0], g, elements[i].P0, elements[i].P1)
-		for _, c := range scratch {
-			mask[c] = true
-		}
-	}
-	return mask
-}
-
-// area returns the stimulated map area, m².
+// area returns the stimulated area, m² (see StimulatedArea).
 func (st *stimulation) area() float64 {
-	return float64(st.cells) * st.grid.CellSize * st.grid.CellSize
+	if st.stale {
+		st.mapArea = StimulatedArea(st.elements, func(i int) bool { return st.element[i] }, st.reach)
+		st.stale = false
+	}
+	return st.mapArea
+}
+
+// StimulatedArea returns the stimulated area, m²: the exact map area of
+// the region within reach (m, numerics.stimulated_reach) of the elements
+// for which stimulated(i) holds, each overlap counted once (the union of
+// the elements' stadiums, internal/footprint). No display grid enters it.
+// It panics if the geometry is outside what footprint.Area accepts, which
+// validated scenarios cannot produce (domain within ±1e7 m, reach ≥
+// 0.1 m, so reach ≥ footprint.MinRadiusRatio × every coordinate).
+func StimulatedArea(elements []Element, stimulated func(i int) bool, reach float64) float64 {
+	a, err := footprint.Area(stimulatedSegments(elements, stimulated), reach)
+	if err != nil {
+		panic(fmt.Sprintf("sim: stimulated area: %v", err))
+	}
+	return a
+}
+
+// StimulatedOutline returns the outline of the region whose area
+// StimulatedArea returns, as polygons in the elements' local metres, arcs
+// as chords of sagitta at most sagitta (m).
+func StimulatedOutline(elements []Element, stimulated func(i int) bool, reach, sagitta float64) (orb.MultiPolygon, error) {
+	return footprint.Outline(stimulatedSegments(elements, stimulated), reach, footprint.OutlineOptions{Sagitta: sagitta})
+}
+
+// stimulatedSegments lists the stimulated elements in element order, so
+// the elements of one trace come in runs that footprint merges.
+func stimulatedSegments(elements []Element, stimulated func(i int) bool) []dfn.Segment {
+	var segs []dfn.Segment
+	for i := range elements {
+		if stimulated(i) {
+			segs = append(segs, dfn.Segment{P0: elements[i].P0, P1: elements[i].P1})
+		}
+	}
+	return segs
 }
 
 // cellList returns the stimulated cell indices in increasing order.

@@ -34,11 +34,15 @@
 // # Stimulated area
 //
 // An element counts as stimulated once its accumulated slip reaches
-// numerics.stimulated_slip. The stimulated map area is the number of map
-// cells (numerics.cell_size) that stimulated elements pass through, times
-// the cell area; the stimulated fracture area is the sum of length × height
-// of stimulated elements; the stimulated volume is the map area times the
-// layer thickness. None of them ever decreases.
+// numerics.stimulated_slip. The stimulated area is the exact map area of
+// the region within numerics.stimulated_reach of a stimulated element (the
+// union of the elements' stadiums, overlaps counted once; package
+// internal/footprint); no grid enters it. The stimulated fracture area is
+// the sum of length × height of stimulated elements; the stimulated volume
+// is the stimulated area times the layer thickness. None of them ever
+// decreases. The map cells that stimulated elements pass through
+// (numerics.cell_size) are kept for pictures, rasters and probability
+// maps only.
 //
 // # Units
 //

@@ -190,7 +190,23 @@ func TestDemoInvariants(t *testing.T) {
 	if !(res.AseismicMoment > 0) {
 		t.Errorf("aseismic moment %g N·m: the demo's fractures slip stably before they rupture", res.AseismicMoment)
 	}
+	checkMcGarr(t, s, res)
 	checkGainOnlyWhereSlipped(t, s, res)
+}
+
+// checkMcGarr: the largest event's moment stays below G·ΔV, McGarr's
+// (2014) bound on the largest event induced by injecting ΔV
+// (mechanics.MaxInducedMoment). It returns the largest moment, N·m.
+func checkMcGarr(t *testing.T, s *scenarios.Scenario, res *Result) float64 {
+	t.Helper()
+	var largest float64
+	for _, e := range res.Events {
+		largest = math.Max(largest, e.Moment)
+	}
+	if bound := mechanics.MaxInducedMoment(s.Rock.ShearModulus, res.Injected); !(largest <= bound) {
+		t.Errorf("largest event M0 = %.3g N·m exceeds McGarr's bound G·ΔV = %.3g N·m", largest, bound)
+	}
+	return largest
 }
 
 // Every stage whose bottom-hole pressure exceeded Shmin is named by one
@@ -282,6 +298,57 @@ func checkGainOnlyWhereSlipped(t *testing.T, s *scenarios.Scenario, res *Result)
 	}
 }
 
+// The retained aperture of a fracture is what the closure and dilation law
+// (Willis-Richards, Watanabe & Takahashi 1996) gives its elements back at
+// the initial pore pressure and in-situ normal stress with their final
+// slip, relative to the same without slip: no gain without slip, more
+// with it.
+func TestRetainedPermeabilityGain(t *testing.T) {
+	s, res := runSmallDemo(t)
+	net, err := dfn.Generate(s, 0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	fractures, err := Fractures(s, net, res)
+	if err != nil {
+		t.Fatal(err)
+	}
+	model, err := mechanics.ApertureFromScenario(s.Rock)
+	if err != nil {
+		t.Fatal(err)
+	}
+	stress, err := mechanics.StressFromScenario(s.Stress, s.Layer.Depth)
+	if err != nil {
+		t.Fatal(err)
+	}
+	p0 := stress.PorePressure()
+	retained := map[int]float64{}
+	for i, el := range res.Elements {
+		if el.Fracture < 0 {
+			continue
+		}
+		sn := stress.Resolve(net.Fractures[el.Fracture].Normal).SigmaN
+		patch := mechanics.Patch{Length: net.Traces[el.Trace].Length, Height: el.Height}
+		ratio := model.Aperture(sn, p0, res.Slip[i], patch) / model.Aperture(sn, p0, 0, patch)
+		retained[el.Fracture] += res.InitialAperture[i] * ratio * el.Length
+	}
+	var gained int
+	for _, f := range fractures {
+		numtest.Rel(t, "retained aperture", f.RetainedAperture, retained[f.Fracture]/f.TraceLength, 1e-12)
+		switch {
+		case f.MaxSlip == 0 && f.RetainedPermeabilityGain != 1:
+			t.Errorf("fracture %d never slipped but retains a gain of %g", f.Fracture, f.RetainedPermeabilityGain)
+		case f.MaxSlip > 0 && !(f.RetainedPermeabilityGain > 1):
+			t.Errorf("fracture %d slipped %.3g mm but retains a gain of %g", f.Fracture, f.MaxSlip*1e3, f.RetainedPermeabilityGain)
+		case f.MaxSlip > 0:
+			gained++
+		}
+	}
+	if gained == 0 {
+		t.Error("no slipped fracture to check")
+	}
+}
+
 // Same scenario and seed → identical timeline.csv and events.csv (every
 // draw is seeded, maps are iterated in order).
 func TestDeterministic(t *testing.T) {
@@ -329,19 +396,69 @@ func TestStageTouchingNoFracture(t *testing.T) {
 	}
 }
 
-// StimulatedCells rebuilds the run's stimulated cells from the elements'
-// stimulation times.
-func TestStimulatedCellsMatchRun(t *testing.T) {
+// StimulatedArea rebuilds the run's headline area from the elements'
+// stimulation times, and the stimulated cells kept for maps are the cells
+// those elements pass through.
+func TestStimulatedAreaMatchesRun(t *testing.T) {
 	s, res := runSmallDemo(t)
-	mask := StimulatedCells(s.MapGrid(), res.Elements, func(i int) bool { return !math.IsNaN(res.StimulatedAt[i]) })
-	var cells []int
-	for c, on := range mask {
-		if on {
-			cells = append(cells, c)
+	stimulated := func(i int) bool { return !math.IsNaN(res.StimulatedAt[i]) }
+	if got := StimulatedArea(res.Elements, stimulated, s.Numerics.StimulatedReach); got != res.StimulatedArea || got <= 0 {
+		t.Errorf("rebuilt stimulated area %g m², the run reported %g m²", got, res.StimulatedArea)
+	}
+	if last := res.Timeline[len(res.Timeline)-1]; last.StimulatedArea != res.StimulatedArea {
+		t.Errorf("last timeline row %g m², result %g m²", last.StimulatedArea, res.StimulatedArea)
+	}
+	g := s.MapGrid()
+	var want []int
+	for i, el := range res.Elements {
+		if stimulated(i) {
+			want = CellsAlong(want, g, el.P0, el.P1)
 		}
 	}
-	if len(cells) == 0 || fmt.Sprint(cells) != fmt.Sprint(res.Cells) {
-		t.Errorf("rebuilt %d cells, the run counted %d", len(cells), len(res.Cells))
+	slices.Sort(want)
+	want = slices.Compact(want)
+	if len(want) == 0 || !slices.Equal(want, res.Cells) {
+		t.Errorf("rebuilt %d cells, the run counted %d", len(want), len(res.Cells))
+	}
+}
+
+// The stimulated area of one element of length L is its stadium, 2rL +
+// πr² (Steiner's formula for a convex body; Santaló 1976, Part I, ch. 1,
+// from memory); two elements continuing one another count as one of
+// their joint length, and a parallel element farther than 2r away adds a
+// second stadium.
+func TestStimulatedAreaGeometry(t *testing.T) {
+	const r, l = 5.0, 10.0
+	el := func(x0, y0, x1, y1 float64) Element {
+		return Element{P0: r2.Vec{X: x0, Y: y0}, P1: r2.Vec{X: x1, Y: y1}, Length: math.Hypot(x1-x0, y1-y0)}
+	}
+	stadium := func(length float64) float64 { return 2*r*length + math.Pi*r*r }
+	all := func(int) bool { return true }
+	for _, c := range []struct {
+		name     string
+		elements []Element
+		want     float64
+	}{
+		{"one element", []Element{el(0, 0, l, 0)}, stadium(l)},
+		{"two in line", []Element{el(0, 0, l, 0), el(l, 0, 2*l, 0)}, stadium(2 * l)},
+		{"two apart", []Element{el(0, 0, l, 0), el(0, 2*r+1, l, 2*r+1)}, 2 * stadium(l)},
+		{"one slanted", []Element{el(100, 100, 100+l*0.6, 100+l*0.8)}, stadium(l)},
+	} {
+		numtest.Rel(t, c.name, StimulatedArea(c.elements, all, r), c.want, 1e-12)
+	}
+}
+
+// Neither the cell size of the map grid nor the snapshot interval changes
+// the stimulated area: it is a property of the stimulated elements alone.
+func TestStimulatedAreaIndependentOfDisplay(t *testing.T) {
+	_, _, base := runExample(t, "single-fracture")
+	_, _, fine := runExample(t, "single-fracture", "numerics.cell_size=2.5 m", "numerics.output_interval=7 s")
+	if base.StimulatedArea <= 0 || fine.StimulatedArea != base.StimulatedArea {
+		t.Errorf("stimulated area %g m² at the default cell size, %g m² at 2.5 m cells and another output interval",
+			base.StimulatedArea, fine.StimulatedArea)
+	}
+	if len(fine.Cells) <= len(base.Cells) {
+		t.Errorf("%d cells at 2.5 m against %d at the default: the grid did not change", len(fine.Cells), len(base.Cells))
 	}
 }
 

@@ -86,8 +86,14 @@ type FractureResult struct {
 	// MeanAperture and InitialAperture (length-weighted), m.
 	MeanAperture, InitialAperture float64
 	// PermeabilityGain (MeanAperture/InitialAperture)² (cubic law: k = e²/12)
-	// and the largest gain of any of its elements.
+	// and the largest gain of any of its elements, at the end of the run.
 	PermeabilityGain, MaxPermeabilityGain float64
+	// RetainedAperture (length-weighted), m, and RetainedPermeabilityGain
+	// (RetainedAperture/InitialAperture)²: what stays when the pressure
+	// falls back to the initial pore pressure and the stresses to their
+	// in-situ values, the shear dilation of the accumulated slip alone
+	// (mechanics.ApertureModel.DilationFactor).
+	RetainedAperture, RetainedPermeabilityGain float64
 	// FirstSlip time, s (NaN if never), and its stage index (−1).
 	FirstSlip      float64
 	FirstSlipStage int
@@ -96,7 +102,11 @@ type FractureResult struct {
 }
 
 // Fractures sums the result per fracture, in fracture order.
-func Fractures(net *dfn.Network, res *Result) []FractureResult {
+func Fractures(s *scenarios.Scenario, net *dfn.Network, res *Result) ([]FractureResult, error) {
+	ap, err := mechanics.ApertureFromScenario(s.Rock)
+	if err != nil {
+		return nil, err
+	}
 	byFracture := map[int]*FractureResult{}
 	var order []int
 	for i, el := range res.Elements {
@@ -118,6 +128,7 @@ func Fractures(net *dfn.Network, res *Result) []FractureResult {
 		f.MeanSlip += res.Slip[i] * el.Length
 		f.MeanAperture += res.Aperture[i] * el.Length
 		f.InitialAperture += res.InitialAperture[i] * el.Length
+		f.RetainedAperture += res.InitialAperture[i] * ap.DilationFactor(res.Slip[i]) * el.Length
 		f.MaxPermeabilityGain = math.Max(f.MaxPermeabilityGain, mechanics.PermeabilityGain(res.Aperture[i], res.InitialAperture[i]))
 		if t := res.FirstSlip[i]; !math.IsNaN(t) && (math.IsNaN(f.FirstSlip) || t < f.FirstSlip) {
 			f.FirstSlip, f.FirstSlipStage = t, res.FirstSlipStage[i]
@@ -132,10 +143,12 @@ func Fractures(net *dfn.Network, res *Result) []FractureResult {
 		f.MeanSlip /= f.TraceLength
 		f.MeanAperture /= f.TraceLength
 		f.InitialAperture /= f.TraceLength
+		f.RetainedAperture /= f.TraceLength
 		f.PermeabilityGain = mechanics.PermeabilityGain(f.MeanAperture, f.InitialAperture)
+		f.RetainedPermeabilityGain = mechanics.PermeabilityGain(f.RetainedAperture, f.InitialAperture)
 		out = append(out, *f)
 	}
-	return out
+	return out, nil
 }
 
 // WriteFractures writes fractures.csv (FracturesTable): one row per
@@ -143,12 +156,17 @@ func Fractures(net *dfn.Network, res *Result) []FractureResult {
 func WriteFractures(w io.Writer, s *scenarios.Scenario, net *dfn.Network, res *Result) error {
 	cw := csvw.NewWriter(w, &FracturesTable)
 	order := s.PumpingOrder()
-	for _, f := range Fractures(net, res) {
+	fractures, err := Fractures(s, net, res)
+	if err != nil {
+		return err
+	}
+	for _, f := range fractures {
 		cw.Write([]string{
 			strconv.Itoa(f.Fracture), strconv.Itoa(f.Set), f.SetName,
 			num(f.Dip*180/math.Pi, 3), num(f.DipDirection*180/math.Pi, 3), num(f.TraceLength, 3), num(f.Height, 3),
 			strconv.Itoa(f.Elements), num(f.MaxSlip*1e3, 6), num(f.MeanSlip*1e3, 6),
 			num(f.InitialAperture*1e3, 6), num(f.MeanAperture*1e3, 6), num(f.PermeabilityGain, 4), num(f.MaxPermeabilityGain, 4),
+			num(f.RetainedAperture*1e3, 6), num(f.RetainedPermeabilityGain, 4),
 			num(f.FirstSlip, 3), scenarios.StageNameAt(order, f.FirstSlipStage), num(f.StimulatedLength, 3),
 		})
 	}
@@ -177,12 +195,20 @@ type totalsJSON struct {
 	InjectedM3         float64  `json:"injected_volume_m3"`
 	LeakedM3           float64  `json:"leaked_volume_m3"`
 	StimulatedAreaM2   float64  `json:"stimulated_area_m2"`
+	StimulatedReachM   float64  `json:"stimulated_reach_m"`
 	FractureAreaM2     float64  `json:"stimulated_fracture_area_m2"`
 	StimulatedVolumeM3 float64  `json:"stimulated_volume_m3"`
 	Events             int      `json:"events"`
 	MaxMagnitude       *float64 `json:"max_magnitude_Mw"`
 	SeismicMomentNm    float64  `json:"seismic_moment_Nm"`
 	AseismicMomentNm   float64  `json:"aseismic_moment_Nm"`
+	McGarrBoundNm      float64  `json:"mcgarr_bound_Nm"`
+	GainStimulated     *float64 `json:"permeability_gain_stimulated"`
+	RetainedStimulated *float64 `json:"retained_permeability_gain_stimulated"`
+	Completeness       *float64 `json:"magnitude_of_completeness_Mw"`
+	BValue             *float64 `json:"b_value"`
+	BValueError        *float64 `json:"b_value_error"`
+	BValueEvents       int      `json:"b_value_events"`
 	PeakBHPMPa         float64  `json:"peak_bhp_MPa"`
 	MassBalanceError   float64  `json:"mass_balance_relative_error"`
 }
@@ -224,6 +250,31 @@ func optional(v float64) *float64 {
 	return &v
 }
 
+// StimulatedGains returns the permeability gains of the stimulated
+// fracture elements (conduits left out) taken together, at the end of the
+// run and retained at the initial pore pressure and stress:
+// (Σ L·e / Σ L·e_init)² with e the final or the retained aperture
+// (FractureResult). Both are NaN when no element was stimulated.
+func StimulatedGains(s *scenarios.Scenario, res *Result) (end, retained float64, err error) {
+	ap, err := mechanics.ApertureFromScenario(s.Rock)
+	if err != nil {
+		return 0, 0, err
+	}
+	var sumInit, sumEnd, sumRetained float64
+	for i, el := range res.Elements {
+		if el.Fracture < 0 || !res.Stimulated[i] {
+			continue
+		}
+		sumInit += el.Length * res.InitialAperture[i]
+		sumEnd += el.Length * res.Aperture[i]
+		sumRetained += el.Length * res.InitialAperture[i] * ap.DilationFactor(res.Slip[i])
+	}
+	if sumInit == 0 {
+		return math.NaN(), math.NaN(), nil
+	}
+	return mechanics.PermeabilityGain(sumEnd, sumInit), mechanics.PermeabilityGain(sumRetained, sumInit), nil
+}
+
 // WriteSummary writes summary.json; failure, when not nil, is recorded as
 // the reason the run stopped early.
 func WriteSummary(w io.Writer, s *scenarios.Scenario, net *dfn.Network, res *Result, failure error) error {
@@ -233,14 +284,28 @@ func WriteSummary(w io.Writer, s *scenarios.Scenario, net *dfn.Network, res *Res
 		Seed: s.Seed, Realization: net.Realization, NetworkHash: net.Digest(), Start: s.Schedule.Start,
 		Totals: totalsJSON{
 			DurationS: res.Duration, InjectedM3: res.Injected, LeakedM3: res.Leaked,
-			StimulatedAreaM2: res.StimulatedArea, FractureAreaM2: res.FractureArea, StimulatedVolumeM3: res.StimulatedVolume,
+			StimulatedAreaM2: res.StimulatedArea, StimulatedReachM: s.Numerics.StimulatedReach, FractureAreaM2: res.FractureArea, StimulatedVolumeM3: res.StimulatedVolume,
 			Events: len(res.Events), MaxMagnitude: optional(maxMw), PeakBHPMPa: res.PeakBHP / 1e6,
 			SeismicMomentNm: res.SeismicMoment, AseismicMomentNm: res.AseismicMoment,
+			McGarrBoundNm:    mechanics.MaxInducedMoment(s.Rock.ShearModulus, res.Injected),
 			MassBalanceError: res.MassBalanceError,
 		},
 		Warnings: []warningJSON{},
 		Numerics: numericsJSON{Elements: len(res.Elements), Conduits: len(res.Conduits), Solver: res.Solver,
 			FactorEntries: res.FactorEntries, Steps: res.Steps, CutSteps: res.CutSteps},
+	}
+	if end, retained, err := StimulatedGains(s, res); err != nil {
+		return err
+	} else if !math.IsNaN(end) {
+		sj.Totals.GainStimulated, sj.Totals.RetainedStimulated = &end, &retained
+	}
+	mags := make([]float64, len(res.Events))
+	for i, e := range res.Events {
+		mags[i] = e.Magnitude
+	}
+	if mc, b, err := mechanics.FitCatalogue(mags); err == nil {
+		sj.Totals.Completeness, sj.Totals.BValue, sj.Totals.BValueError = &mc, &b.B, &b.ShiBoltError
+		sj.Totals.BValueEvents = b.Events
 	}
 	for _, w := range res.Warnings {
 		sj.Warnings = append(sj.Warnings, warningJSON{Kind: w.Kind, Stage: w.Stage, Message: w.Message})
