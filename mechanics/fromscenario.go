@@ -1,6 +1,13 @@
 package mechanics
 
-import "slipfront/scenarios"
+import (
+	"math"
+
+	"gonum.org/v1/gonum/spatial/r2"
+
+	"slipfront/elastic"
+	"slipfront/scenarios"
+)
 
 // StressFromScenario returns the stress state at true vertical depth z, m,
 // from a scenario's stress gradients (SI units, radians).
@@ -67,4 +74,21 @@ func LayerFromScenario(r scenarios.Rock, l scenarios.Layer, biot float64) (Layer
 // scenario's map grid (same order: row·Cols + col, rows south to north).
 func DepletionGridFromScenario(g scenarios.Grid) DepletionGrid {
 	return DepletionGrid{Cols: g.Cols, Rows: g.Rows, DX: g.CellSize, DY: g.CellSize}
+}
+
+// ReceiverFromScenario returns the vertical receiver planes of a
+// scenario's Coulomb stress change: their unit tangent in map view (east,
+// north) and their sense of slip. The optimal receiver is the plane best
+// oriented for right-lateral slip under SHmax at the effective friction μ′:
+// it makes β = ½·atan(1/μ′) with SHmax (45° − φ/2, tan φ = μ′;
+// docs/references.md §7.3) and strikes β anticlockwise of it, where SHmax
+// shears it right-laterally.
+func ReceiverFromScenario(c scenarios.Coulomb, shmaxAzimuth float64) (tangent r2.Vec, sense elastic.Sense) {
+	strike, sense := c.ReceiverStrike, elastic.RightLateral
+	if c.Receiver == "optimal" {
+		strike = shmaxAzimuth - 0.5*math.Atan2(1, c.EffectiveFriction)
+	} else if c.ReceiverSense == "left-lateral" {
+		sense = elastic.LeftLateral
+	}
+	return r2.Vec{X: math.Sin(strike), Y: math.Cos(strike)}, sense
 }

@@ -5,6 +5,9 @@ import (
 	"math"
 	"testing"
 
+	"gonum.org/v1/gonum/spatial/r2"
+
+	"slipfront/elastic"
 	"slipfront/scenarios"
 )
 
@@ -139,5 +142,35 @@ func TestFromScenario(t *testing.T) {
 	}
 	if g.Cells() != (scenarios.Grid{CellSize: 10, Cols: 160, Rows: 100}).Cells() {
 		t.Errorf("depletion grid has %d cells, the map grid %d", g.Cells(), 160*100)
+	}
+}
+
+// The optimal receiver is the vertical plane on which the horizontal
+// in-situ stresses come closest to Coulomb failure, τ − μ′σn largest in
+// the right-lateral sense (45° − φ/2 from SHmax, docs/references.md §7.3):
+// no other strike, scanned every 0.01°, does better. A given strike and
+// sense are taken as they are.
+func TestReceiverFromScenario(t *testing.T) {
+	const mu, shmax, shmin = 0.4, 90e6, 55e6
+	az := 60 * math.Pi / 180
+	// Horizontal stress tensor, compression-positive, east–north frame.
+	c, s := math.Sin(az), math.Cos(az) // SHmax direction (east, north)
+	st := elastic.Stress{XX: shmax*c*c + shmin*s*s, YY: shmax*s*s + shmin*c*c, XY: (shmax - shmin) * c * s}
+	coulomb := func(t r2.Vec) float64 { return st.Coulomb(t, mu, elastic.RightLateral) }
+	tangent, sense := ReceiverFromScenario(scenarios.Coulomb{Receiver: "optimal", EffectiveFriction: mu}, az)
+	if sense != elastic.RightLateral {
+		t.Fatalf("optimal receiver slips %v, want right-lateral", sense)
+	}
+	best := coulomb(tangent)
+	for k := range 18000 {
+		a := float64(k) * 0.01 * math.Pi / 180
+		if v := coulomb(r2.Vec{X: math.Sin(a), Y: math.Cos(a)}); v > best+1e-6 {
+			t.Fatalf("strike %.2f°: τ − μ′σn = %.6g Pa beats the optimal receiver's %.6g Pa", float64(k)*0.01, v, best)
+		}
+	}
+	tangent, sense = ReceiverFromScenario(scenarios.Coulomb{Receiver: "strike", ReceiverStrike: 330 * math.Pi / 180,
+		ReceiverSense: "left-lateral", EffectiveFriction: mu}, az)
+	if sense != elastic.LeftLateral || math.Abs(tangent.X+0.5) > 1e-12 || math.Abs(tangent.Y-math.Sqrt(3)/2) > 1e-12 {
+		t.Errorf("strike N30W left-lateral: tangent %v, sense %v", tangent, sense)
 	}
 }

@@ -21,8 +21,9 @@
 //	run       scenario.json (written first), run.snap (frame by frame),
 //	          summary.json, timeline.csv, events.csv, fractures.csv,
 //	          csv-metadata.json, maps.gpkg, map.png, growth.png,
-//	          distance-time.png and magnitude-frequency.png (with
-//	          events), section_NNNN.png (per well)
+//	          stress_change.tif, distance-time.png and
+//	          magnitude-frequency.png (with events), section_NNNN.png
+//	          (per well)
 //	batch     the files of package batch, and for a complete batch
 //	          maps.gpkg, probability_NNNN.tif and .png,
 //	          probability_difference_NNNN_vs_RRRR.tif and .png,

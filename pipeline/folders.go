@@ -46,6 +46,7 @@ const (
 	MapsFile          = "maps.gpkg"
 	MapPictureFile    = "map.png"
 	GrowthPictureFile = "growth.png"
+	StressChangeFile  = "stress_change.tif"
 	// DistanceTimeFile and MagnitudeFrequencyFile are written when the run
 	// has events (at least two above the completeness magnitude for the
 	// latter); one sectionPictureFile per well.

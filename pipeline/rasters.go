@@ -69,3 +69,20 @@ func (r *Run) Raster(name string) (gis.Raster, error) {
 	band := rasterBands[name]
 	return gis.Raster{Grid: g, Data: data, NoData: float32(math.NaN()), Description: band.description, Unit: band.unit}, nil
 }
+
+// StressChangeRaster is the Coulomb stress change of the run's final slip
+// and opening at every cell centre of the map grid, MPa, on the
+// scenario's receiver planes (sim.CoulombChangeMap); NaN where the field
+// is singular.
+func (r *Run) StressChangeRaster() (gis.Raster, error) {
+	values, err := sim.CoulombChangeMap(r.Scenario, r.Result)
+	if err != nil {
+		return gis.Raster{}, err
+	}
+	data := make([]float32, len(values))
+	for k, v := range values {
+		data[k] = float32(v / 1e6)
+	}
+	return gis.Raster{Grid: r.Grid(), Data: data, NoData: float32(math.NaN()),
+		Description: "coulomb_stress_change_MPa", Unit: "MPa"}, nil
+}

@@ -11,6 +11,7 @@ import (
 
 	"slipfront/batch"
 	"slipfront/dfn"
+	"slipfront/gis"
 	"slipfront/internal/badinput"
 	"slipfront/internal/plural"
 	"slipfront/scenarios"
@@ -120,7 +121,18 @@ func writeRunFiles(ctx context.Context, out string, s *scenarios.Scenario, net *
 		return err
 	}
 	r := &Run{Scenario: s, Network: net, Result: res, Time: res.Duration, OutlineTimes: res.FrameTimes}
-	return writeRunMaps(ctx, out, r)
+	if err := writeRunMaps(ctx, out, r); err != nil {
+		return err
+	}
+	stress, err := r.StressChangeRaster()
+	if err != nil {
+		return err
+	}
+	pl, err := r.Placement()
+	if err != nil {
+		return err
+	}
+	return writeFiles(out, namedWriter{StressChangeFile, func(w io.Writer) error { return gis.WriteGeoTIFF(w, pl, stress) }})
 }
 
 // writeRunMaps writes MapsFile and the pictures of a finished run into

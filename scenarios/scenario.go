@@ -32,6 +32,7 @@ type Scenario struct {
 	Fluids         map[string]Fluid `toml:"fluids" doc:"fluids by name, referenced by the schedule"`
 	Schedule       Schedule         `toml:"schedule"`
 	Numerics       Numerics         `toml:"numerics"`
+	Coulomb        Coulomb          `toml:"coulomb"`
 
 	// Source is the file the scenario was read from (for messages); not a key.
 	Source string `toml:"-"`
@@ -309,4 +310,20 @@ type Numerics struct {
 	// InteractionTolerance is the relative accuracy of the compressed
 	// far-field blocks of the interaction operator.
 	InteractionTolerance float64 `toml:"interaction_tolerance" when:"interaction=on" range:"[1e-7,0.1]" default:"1e-6" doc:"relative accuracy of the compressed far-field blocks of the interaction operator"`
+}
+
+// Coulomb sets the receiver planes of the Coulomb stress change that a run
+// reports: the map stress_change.tif and each element's coulomb_change in
+// the snapshot, ΔCFS = Δτ − μ′·Δσn.
+type Coulomb struct {
+	// Receiver is "optimal" (the vertical plane best oriented for
+	// right-lateral slip under SHmax at the effective friction) or
+	// "strike" (ReceiverStrike and ReceiverSense).
+	Receiver string `toml:"receiver" default:"optimal" range:"optimal|strike" doc:"receiver planes of stress_change.tif: optimal (the vertical plane best oriented for right-lateral slip under SHmax at effective_friction) or strike (receiver_strike and receiver_sense)"`
+	// ReceiverStrike, radians clockwise from north.
+	ReceiverStrike float64 `toml:"receiver_strike" when:"receiver=strike" unit:"azimuth" range:"[0,360]" default:"0 deg" doc:"strike of the vertical receiver planes, e.g. \"N30W\" or \"330 deg\""`
+	ReceiverSense  string  `toml:"receiver_sense" when:"receiver=strike" default:"right-lateral" range:"right-lateral|left-lateral" doc:"sense of slip of the receiver planes"`
+	// EffectiveFriction μ′ absorbs the pore-pressure change (King, Stein
+	// & Lin 1994).
+	EffectiveFriction float64 `toml:"effective_friction" range:"[0,1.5]" default:"0.4" doc:"effective friction of the Coulomb stress change (0.4 is a usual choice)"`
 }

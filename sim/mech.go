@@ -66,6 +66,8 @@ type mechState struct {
 	// step, if iterated.
 	lastP, lastE []float64
 	iterated     bool
+	// coulomb holds the Coulomb stress change of every element, Pa.
+	coulomb []float64
 }
 
 // contactNearRadius is the reach, in element lengths or layer
@@ -429,4 +431,22 @@ func MaxMagnitude(events []Event) float64 {
 		}
 	}
 	return mw
+}
+
+// coulombChange returns Result.CoulombChange of the committed state in a
+// reused array.
+func (ms *mechState) coulombChange() []float64 {
+	m, st := ms.m, ms.state
+	if ms.coulomb == nil {
+		ms.coulomb = make([]float64, len(m.elements))
+	}
+	mu := m.s.Coulomb.EffectiveFriction
+	for i := range ms.coulomb {
+		sense := 1.0
+		if m.tau0[i] < 0 {
+			sense = -1
+		}
+		ms.coulomb[i] = sense*(st.Shear[i]-m.tau0[i]) - mu*(st.Normal[i]-m.sigmaN[i])
+	}
+	return ms.coulomb
 }

@@ -38,17 +38,22 @@ var recordedFields = [...]snapshot.Field{
 	{Name: snapshot.FieldPressure, Unit: "Pa"},
 	{Name: snapshot.FieldAperture, Unit: "m"},
 	{Name: snapshot.FieldSlip, Unit: "m"},
+	{Name: snapshot.FieldCoulombChange, Unit: "Pa"},
 }
+
+// optionalField is the recorded field that snapshots written before it
+// was recorded lack; Replay leaves it nil there.
+const optionalField = snapshot.FieldCoulombChange
 
 // recorded returns the frame's arrays in the order of recordedFields.
 func (f *Frame) recorded() [len(recordedFields)][]float64 {
-	return [...][]float64{f.Pressure, f.Aperture, f.Slip}
+	return [...][]float64{f.Pressure, f.Aperture, f.Slip, f.CoulombChange}
 }
 
 // setRecorded sets the frame's arrays from fields in the order of
 // recordedFields.
 func (f *Frame) setRecorded(fields [len(recordedFields)][]float64) {
-	f.Pressure, f.Aperture, f.Slip = fields[0], fields[1], fields[2]
+	f.Pressure, f.Aperture, f.Slip, f.CoulombChange = fields[0], fields[1], fields[2], fields[3]
 }
 
 // Metadata keys of the snapshot header written by Recorder.
@@ -58,6 +63,7 @@ const (
 	MetaStart          = "schedule_start_utc"
 	MetaStimulatedSlip = "stimulated_slip_m"
 	MetaCellSize       = "cell_size_m"
+	MetaReach          = "stimulated_reach_m"
 )
 
 // Begin writes the header with the element geometry.
@@ -70,6 +76,7 @@ func (r *Recorder) Begin(elements []Element) error {
 			MetaProgram: "slipfront " + version.Version, MetaScenario: s.Name, MetaStart: s.Schedule.Start,
 			MetaStimulatedSlip: strconv.FormatFloat(s.Numerics.StimulatedSlip, 'g', -1, 64),
 			MetaCellSize:       strconv.FormatFloat(s.Numerics.CellSize, 'g', -1, 64),
+			MetaReach:          strconv.FormatFloat(s.Numerics.StimulatedReach, 'g', -1, 64),
 		},
 		Fields: slices.Clone(recordedFields[:]),
 	}
@@ -165,7 +172,7 @@ func Replay(rd *snapshot.Reader, t float64) (*Result, Replayed, error) {
 	}
 	var index [len(recordedFields)]int
 	for k, f := range recordedFields {
-		if index[k] = h.FieldIndex(f.Name); index[k] < 0 {
+		if index[k] = h.FieldIndex(f.Name); index[k] < 0 && f.Name != optionalField {
 			return nil, Replayed{}, fmt.Errorf("sim: the snapshot lacks the %s field", f.Name)
 		}
 	}
@@ -193,7 +200,9 @@ func Replay(rd *snapshot.Reader, t float64) (*Result, Replayed, error) {
 		}
 		var fields [len(recordedFields)][]float64
 		for k, at := range index {
-			fields[k] = float64s(fr.Fields[at])
+			if at >= 0 {
+				fields[k] = float64s(fr.Fields[at])
+			}
 		}
 		state.setRecorded(fields)
 		if res.InitialAperture == nil {
@@ -203,7 +212,7 @@ func Replay(rd *snapshot.Reader, t float64) (*Result, Replayed, error) {
 	if len(rp.Times) == 0 {
 		return nil, rp, fmt.Errorf("sim: no intact frame at or before %g s (%d damaged): %w", t, len(rp.Damaged), snapshot.ErrFormat)
 	}
-	res.Pressure, res.Aperture, res.Slip = state.Pressure, state.Aperture, state.Slip
+	res.Pressure, res.Aperture, res.Slip, res.CoulombChange = state.Pressure, state.Aperture, state.Slip, state.CoulombChange
 	return res, rp, nil
 }
 

@@ -30,9 +30,10 @@ type Options struct {
 type Frame struct {
 	Time  float64
 	Stage int
-	// Pressure, Pa; Aperture, m; Slip, m; Flags as snapshot.Flag*.
-	Pressure, Aperture, Slip []float64
-	Flags                    []byte
+	// Pressure, Pa; Aperture, m; Slip, m; CoulombChange, Pa (see
+	// Result.CoulombChange); Flags as snapshot.Flag*.
+	Pressure, Aperture, Slip, CoulombChange []float64
+	Flags                                   []byte
 }
 
 // Sample is one row of the timeline.
@@ -100,6 +101,17 @@ type Result struct {
 	// law in the last step, Pa: the in-situ stress plus the stress shadows
 	// of all slip and opening, averaged along its trace or conduit.
 	NormalStress []float64
+	// ShearSlip (signed as elastic's slip) and Opening, m: the final
+	// displacement discontinuity of every element, whose stress field
+	// CoulombChangeMap evaluates. Nil in a replayed result.
+	ShearSlip, Opening []float64
+	// CoulombChange is the Coulomb stress change on each element's own
+	// plane, Pa: ΔCFS = s·Δτ − μ′·Δσn from all slip and opening so far,
+	// with s the sign of its in-situ shear (the sense it is driven in) and
+	// μ′ coulomb.effective_friction; the far field as last brought up to
+	// date (mechanics.ContactSettings.FarRefresh). Nil in a result replayed
+	// from a snapshot that lacks it.
+	CoulombChange []float64
 	// SeismicMoment is the moment released by ruptures (the events) and
 	// AseismicMoment that of stable slip, N·m (M0 = G·Σ A·|Δs|).
 	SeismicMoment, AseismicMoment float64
@@ -498,7 +510,7 @@ func (r *runner) record(final bool) error {
 		}
 		r.flags[i] = f
 	}
-	return r.opt.Frame(&Frame{Time: r.t, Stage: max(r.stage, 0), Pressure: r.cur.Pressure,
+	return r.opt.Frame(&Frame{Time: r.t, Stage: max(r.stage, 0), Pressure: r.cur.Pressure, CoulombChange: r.ms.coulombChange(),
 		Aperture: r.cur.Aperture, Slip: r.ms.state.Travel, Flags: r.flags})
 }
 
@@ -527,6 +539,7 @@ func (r *runner) result() *Result {
 	res.Slip, res.FirstSlip, res.FirstSlipStage = r.ms.state.Travel, r.ms.firstSlip, r.ms.firstStage
 	res.SeismicMoment, res.AseismicMoment = r.ms.seismicMoment, r.ms.aseismicMoment
 	res.NormalStress = r.normal
+	res.ShearSlip, res.Opening, res.CoulombChange = r.ms.state.Slip, r.ms.state.Opening, r.ms.coulombChange()
 	res.Stimulated, res.StimulatedAt, res.Cells = r.stim.element, r.stim.at, r.stim.cellList()
 	res.StimulatedArea, res.FractureArea = r.stim.area(), r.stim.fracArea
 	res.StimulatedVolume = res.StimulatedArea * m.s.Layer.Thickness

@@ -69,7 +69,7 @@ func Example() {
 	}
 	// Output:
 	// frames: 3 recovered: false
-	// element_id,fracture_id,x0_m,y0_m,x1_m,y1_m,pressure_MPa,aperture_mm,slip_mm,state
-	// 0,0,0,0,2,0,28,0.1,0.5,3
-	// 1,0,2,0,4,0,27,0.1,0,0
+	// element_id,fracture_id,x0_m,y0_m,x1_m,y1_m,pressure_MPa,aperture_mm,slip_mm,coulomb_change_MPa,state
+	// 0,0,0,0,2,0,28,0.1,0.5,,3
+	// 1,0,2,0,4,0,27,0.1,0,,0
 }

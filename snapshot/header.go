@@ -19,6 +19,11 @@ const (
 	FieldAperture = "aperture"
 	// FieldSlip is the cumulative shear slip of the element, unit "m".
 	FieldSlip = "slip"
+	// FieldCoulombChange is the Coulomb stress change on the element's own
+	// plane in the sense its in-situ shear drives it, from all slip and
+	// opening so far, unit "Pa" (optional: snapshots of earlier versions
+	// lack it).
+	FieldCoulombChange = "coulomb_change"
 )
 
 // Flag bits of the per-element state byte of a frame. Bits 4–7 are

@@ -165,7 +165,7 @@ func countFractures(elements []Element) int {
 const MetaStageNames = "stage_names"
 
 // CSVHeader is the first line written by WriteFrameCSV.
-const CSVHeader = "element_id,fracture_id,x0_m,y0_m,x1_m,y1_m,pressure_MPa,aperture_mm,slip_mm,state"
+const CSVHeader = "element_id,fracture_id,x0_m,y0_m,x1_m,y1_m,pressure_MPa,aperture_mm,slip_mm,coulomb_change_MPa,state"
 
 // csvColumn is a frame field converted to a CSV unit.
 type csvColumn struct {
@@ -181,11 +181,20 @@ var (
 
 // WriteFrameCSV writes, one line per element, the last frame at or before
 // time t (s), under CSVHeader. Pressure is converted to MPa, aperture and
-// slip to mm; state is the flags byte as an integer. The snapshot must
-// record the fields FieldPressure, FieldAperture and FieldSlip in a
-// pressure unit (Pa, kPa, MPa) and a length unit (m, mm).
+// slip to mm, the Coulomb stress change to MPa (empty when the snapshot
+// does not record FieldCoulombChange); state is the flags byte as an
+// integer. The snapshot must record the fields FieldPressure,
+// FieldAperture and FieldSlip in a pressure unit (Pa, kPa, MPa) and a
+// length unit (m, mm).
 func WriteFrameCSV(w io.Writer, r *Reader, t float64) error {
 	h := r.Header()
+	coulomb, err := csvColumnFor(&h, FieldCoulombChange, toMPa)
+	if h.FieldIndex(FieldCoulombChange) < 0 {
+		coulomb, err = csvColumn{field: -1}, nil
+	}
+	if err != nil {
+		return err
+	}
 	var cols [3]csvColumn
 	for k, want := range []struct {
 		name  string
@@ -213,6 +222,10 @@ func WriteFrameCSV(w io.Writer, r *Reader, t float64) error {
 		}
 		for _, c := range cols {
 			line = appendFloat32Scaled(append(line, ','), f.Fields[c.field][i], c.scale)
+		}
+		line = append(line, ',')
+		if coulomb.field >= 0 {
+			line = appendFloat32Scaled(line, f.Fields[coulomb.field][i], coulomb.scale)
 		}
 		line = append(line, ',')
 		line = strconv.AppendUint(line, uint64(f.Flags[i]), 10)
@@ -311,7 +324,7 @@ func shownUnit(fd Field) (unit string, scale float64) {
 	for _, c := range [...]struct {
 		name, unit string
 		from       map[string]float64
-	}{{FieldPressure, "MPa", toMPa}, {FieldAperture, "mm", toMM}, {FieldSlip, "mm", toMM}} {
+	}{{FieldPressure, "MPa", toMPa}, {FieldAperture, "mm", toMM}, {FieldSlip, "mm", toMM}, {FieldCoulombChange, "MPa", toMPa}} {
 		if s, ok := c.from[fd.Unit]; ok && fd.Name == c.name {
 			return c.unit, s
 		}

@@ -88,8 +88,8 @@ func TestWriteFrameCSV(t *testing.T) {
 	// System of Units, 9th ed., Table 7): 1 MPa = 1e6 Pa = 1e3 kPa,
 	// 1 m = 1e3 mm.
 	want := CSVHeader + "\n" +
-		"0,7,-1.5,2,0.5,2,26,0.15,0,2\n" +
-		"1,8,10,-3.25,10,-1.25,31.5,0.4,2.5,11\n"
+		"0,7,-1.5,2,0.5,2,26,0.15,0,,2\n" +
+		"1,8,10,-3.25,10,-1.25,31.5,0.4,2.5,,11\n"
 	for _, tc := range []struct {
 		pUnit, lUnit string
 		p, e, s      [2]float32 // pressure, aperture, slip in those units
@@ -113,6 +113,23 @@ func TestWriteFrameCSV(t *testing.T) {
 		if out.String() != want {
 			t.Errorf("units %s, %s: CSV\n%s\nwant\n%s", tc.pUnit, tc.lUnit, out.String(), want)
 		}
+	}
+}
+
+// A recorded Coulomb stress change fills its column in MPa (an exact SI
+// prefix, as above).
+func TestWriteFrameCSVCoulomb(t *testing.T) {
+	h := csvHeader("Pa", "m")
+	h.Fields = append(h.Fields, Field{FieldCoulombChange, "Pa"})
+	f := Frame{Time: 60, Fields: [][]float32{{0, 0}, {0, 0}, {0, 0}, {-1.25e6, 3e5}}, Flags: []byte{0, 0}}
+	r := open(t, encode(t, h, []Frame{f}, true))
+	var out bytes.Buffer
+	if err := WriteFrameCSV(&out, r, 60); err != nil {
+		t.Fatal(err)
+	}
+	got := lines(out.String())
+	if len(got) != 3 || !strings.HasSuffix(got[1], ",-1.25,0") || !strings.HasSuffix(got[2], ",0.3,0") {
+		t.Errorf("CSV\n%s\nwant coulomb_change_MPa -1.25 and 0.3", out.String())
 	}
 }
 

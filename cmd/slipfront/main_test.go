@@ -255,7 +255,7 @@ func TestRunOutputs(t *testing.T) {
 		t.Errorf("inspect: exit %d\n%s", code, out)
 	}
 	code, out, _ = runCLI(t, "inspect", filepath.Join(dir, "run.snap"), "--time", "1h", "--csv")
-	if code != exitOK || !strings.HasPrefix(out, "element_id,fracture_id,x0_m,y0_m,x1_m,y1_m,pressure_MPa,aperture_mm,slip_mm,state") {
+	if code != exitOK || !strings.HasPrefix(out, "element_id,fracture_id,x0_m,y0_m,x1_m,y1_m,pressure_MPa,aperture_mm,slip_mm,coulomb_change_MPa,state") {
 		t.Errorf("inspect --csv: exit %d\n%.200s", code, out)
 	}
 	if code, _, stderr := runCLI(t, "inspect", filepath.Join(dir, "run.snap"), "--time", "99h"); code != exitBadInput || !strings.Contains(stderr, "holds frames from") {
