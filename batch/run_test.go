@@ -431,9 +431,23 @@ func TestMergeRefuses(t *testing.T) {
 	b1 := shard("b1", 1, 2, func(o *Options) { o.Load = loader(scenarios.Override{Key: "layer.thickness", Value: "25 m"}) })
 	c1 := shard("c1", 1, 2, func(o *Options) { o.Realizations = 6 })
 	d0 := shard("d0", 0, 3, nil)
+	// A shard whose manifest claims 10⁹ realizations (beyond MaxRealizations)
+	// is refused when read, before anything is counted or allocated.
+	e1 := shard("e1", 1, 2, nil)
+	claim, err := os.ReadFile(filepath.Join(e1, ManifestName))
+	if err != nil {
+		t.Fatal(err)
+	}
+	huge := strings.Replace(string(claim), `"realizations": 4`, `"realizations": 1000000000`, 1)
+	if huge == string(claim) {
+		t.Fatal("the manifest edit did not apply")
+	}
+	if err := os.WriteFile(filepath.Join(e1, ManifestName), []byte(huge), 0o644); err != nil {
+		t.Fatal(err)
+	}
 
 	var mm *MismatchError
-	err := Merge(context.Background(), []string{a0, b1}, filepath.Join(root, "m1"), false)
+	err = Merge(context.Background(), []string{a0, b1}, filepath.Join(root, "m1"), false)
 	if !errors.As(err, &mm) || mm.Field != "scenario digest" || !strings.Contains(err.Error(), b1) {
 		t.Errorf("different scenarios: err = %v, want a MismatchError on the scenario digest naming %s", err, b1)
 	}
@@ -452,11 +466,14 @@ func TestMergeRefuses(t *testing.T) {
 	if err := Merge(context.Background(), []string{a0, root}, filepath.Join(root, "m6"), false); !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), "not a batch folder") {
 		t.Errorf("not a batch folder: err = %v", err)
 	}
+	if err := Merge(context.Background(), []string{a0, e1}, filepath.Join(root, "m8"), false); !errors.Is(err, ErrFormat) || !strings.Contains(err.Error(), "realizations = 1000000000: must be 1 to 1000000") {
+		t.Errorf("a manifest claiming 10⁹ realizations: err = %v", err)
+	}
 	os.Remove(filepath.Join(a1, ResultName(2, 3)))
 	if err := Merge(context.Background(), []string{a0, a1}, filepath.Join(root, "m7"), false); !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), "incomplete") {
 		t.Errorf("incomplete shard: err = %v", err)
 	}
-	for _, m := range []string{"m1", "m2", "m3", "m4", "m5", "m6", "m7"} {
+	for _, m := range []string{"m1", "m2", "m3", "m4", "m5", "m6", "m7", "m8"} {
 		if _, err := os.Stat(filepath.Join(root, m)); err == nil {
 			t.Errorf("a refused merge created %s", m)
 		}
