@@ -140,7 +140,7 @@ func WriteBatchMaps(ctx context.Context, dir string) error {
 			return err
 		}
 	}
-	s, err := batchScenario(dir, m)
+	s, err := batch.ReadScenario(dir, m)
 	if err != nil {
 		return err
 	}

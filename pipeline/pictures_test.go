@@ -19,6 +19,7 @@ import (
 
 	"gonum.org/v1/gonum/spatial/r3"
 
+	"slipfront/batch"
 	"slipfront/dfn"
 	"slipfront/internal/badinput"
 	"slipfront/internal/numtest"
@@ -359,9 +360,9 @@ func TestSections(t *testing.T) {
 	}
 }
 
-// A batch folder's maps show the wells when the folder holds its base
-// scenario (checked against the manifest's digest), and say that they
-// cannot otherwise; the page then lists the scenario's inputs.
+// A batch folder keeps its base scenario (checked against the manifest's
+// digest): its maps show the wells, and say that they cannot without it;
+// the page then lists the scenario's inputs.
 func TestBatchMapsWells(t *testing.T) {
 	out, m := singleFractureBatch(t)
 	aggs := readAggregates(t, out)
@@ -384,14 +385,12 @@ func TestBatchMapsWells(t *testing.T) {
 	if wellsOn(ps) != 0 || !slices.ContainsFunc(notes, func(n string) bool { return strings.Contains(n, "no wells") }) {
 		t.Errorf("without a scenario: %d wells drawn, notes %q", wellsOn(ps), notes)
 	}
-	// The base scenario of singleFractureBatch.
+	// The batch kept its base scenario: single-fracture with the batch's
+	// overrides and no sweep value.
 	s := loadExample(t, "single-fracture", singleFractureBatchSets...)
-	if err := writeFiles(out, scenarioWriter(s)); err != nil {
-		t.Fatal(err)
-	}
-	got, err := batchScenario(out, m)
-	if err != nil || got == nil {
-		t.Fatalf("batch scenario %v, error %v", got, err)
+	got, err := batch.ReadScenario(out, m)
+	if err != nil || got == nil || got.Digest != s.Digest {
+		t.Fatalf("batch scenario %v, error %v; want the base scenario %.12s…", got, err, s.Digest)
 	}
 	ps, _, err = batchPictures(m, aggs, got)
 	if err != nil {
@@ -415,7 +414,7 @@ func TestBatchMapsWells(t *testing.T) {
 	if err := writeFiles(out, scenarioWriter(loadExample(t, "demo"))); err != nil {
 		t.Fatal(err)
 	}
-	if _, err := batchScenario(out, m); !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), "mixes two scenarios") {
+	if _, err := batch.ReadScenario(out, m); !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), "mixes two scenarios") {
 		t.Errorf("another scenario in the batch folder: %v", err)
 	}
 }
