@@ -400,6 +400,22 @@ func TestBatchMapsWells(t *testing.T) {
 	if want := 3 * len(s.Wells); len(s.Wells) == 0 || wellsOn(ps) != want {
 		t.Errorf("%d wells drawn on the maps, want %d", wellsOn(ps), want)
 	}
+	// The GeoPackage gets the wells after the cases' contours, and export
+	// writes them on their own (single-fracture has no CRS, so no GeoJSON).
+	layers, _, _, err := batchLayers(out, m, aggs)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if n := len(layers); n != len(aggs)+1 || layers[n-1].Name != "wells" || len(layers[n-1].Features) != len(s.Wells) {
+		t.Errorf("batch layers %d, the last %q with %d features; want %d case layers and the %d wells", n, layers[n-1].Name, len(layers[n-1].Features), len(aggs), len(s.Wells))
+	}
+	var wells bytes.Buffer
+	if _, err := Export(context.Background(), out, ExportOptions{Format: "gpkg", Layer: "wells", Out: StdoutName, Stdout: &wells, Time: math.NaN()}); err != nil {
+		t.Fatal(err)
+	}
+	if !strings.HasPrefix(wells.String(), "SQLite format 3\x00") {
+		t.Errorf("export of the batch's wells: %.20q", wells.String())
+	}
 	rep := t.TempDir()
 	if err := WriteReport(context.Background(), out, Folder{Dir: rep}); err != nil {
 		t.Fatal(err)
