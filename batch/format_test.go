@@ -307,6 +307,7 @@ func TestManifestReadRejects(t *testing.T) {
 		{"no reference", `"reference": "1 cP"`, `"reference": ""`},
 		{"unknown key", `"realizations"`, `"realisations"`},
 		{"zero realizations", `"realizations": 1`, `"realizations": 0`},
+		{"a billion realizations", `"realizations": 1`, `"realizations": 1000000000`},
 		{"case label", `"label": "fluids.slickwater.viscosity=1 cP, schedule.rate=8 bbl/min"`, `"label": "x"`},
 		{"bad shard", `"index": 0,
     "count": 1`, `"index": 2,

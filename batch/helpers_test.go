@@ -113,11 +113,11 @@ func testOptions(t testing.TB, out string) Options {
 
 // aggregateFiles reads the files of a batch folder that must agree byte for
 // byte between equivalent batches, relative to the folder: the manifest,
-// the aggregates and the probability grids.
+// the base scenario, the aggregates and the probability grids.
 func aggregateFiles(t testing.TB, dir string) map[string][]byte {
 	t.Helper()
 	out := map[string][]byte{}
-	names := []string{ManifestName, RealizationsName, PercentilesName, ComparisonName, WarningsName, SummaryName,
+	names := []string{ManifestName, ScenarioName, RealizationsName, PercentilesName, ComparisonName, WarningsName, SummaryName,
 		CSVMetadataName, filepath.Join(ProbabilityDir, CSVMetadataName)}
 	if _, err := os.Stat(filepath.Join(dir, PairedName)); err == nil {
 		names = append(names, PairedName, PairedPercentilesName)

@@ -18,7 +18,9 @@ import (
 // aggregates there. The folders must hold the same batch (manifests equal
 // apart from the shard index), one folder per shard 0 … n−1, each
 // complete; otherwise Merge returns an error matching badinput.Err that names
-// the folder and the difference or what is missing. out must not exist or
+// the folder and the difference or what is missing. The base scenario
+// (ScenarioName) is copied from the shards that keep it, which must all
+// keep the manifest's. out must not exist or
 // be empty, or hold a batch when force is set (it is replaced, as by
 // Options.Force; never one of the shard folders). Result files are
 // hard-linked when possible, else copied. The merged folder is a complete
@@ -57,6 +59,10 @@ func Merge(ctx context.Context, dirs []string, out string, force bool) error {
 			return err
 		}
 	}
+	scenario, err := shardScenario(dirs, ms[0])
+	if err != nil {
+		return err
+	}
 	if force {
 		if err := clearBatchFolder(out); err != nil {
 			return err
@@ -72,6 +78,11 @@ func Merge(ctx context.Context, dirs []string, out string, force bool) error {
 	}
 	if err := writeFileAtomic(out, ManifestName, func(w io.Writer) error { return WriteManifest(w, &merged) }); err != nil {
 		return err
+	}
+	if scenario != nil {
+		if err := writeBytesAtomic(out, ScenarioName, scenario); err != nil {
+			return err
+		}
 	}
 	for i, d := range dirs {
 		for r := ms[i].Shard.Index; r < merged.Realizations; r += ms[i].Shard.Count {

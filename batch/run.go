@@ -110,11 +110,11 @@ func Run(ctx context.Context, opts Options) (*Summary, error) {
 	if err := opts.check(); err != nil {
 		return nil, err
 	}
-	m, cases, err := makePlan(opts)
+	m, base, cases, err := makePlan(opts)
 	if err != nil {
 		return nil, err
 	}
-	if err := prepareFolder(opts, m); err != nil {
+	if err := prepareFolder(opts, m, base); err != nil {
 		return nil, err
 	}
 	sum := &Summary{Cases: len(cases), Realizations: opts.Realizations, Shard: m.Shard}
@@ -184,15 +184,16 @@ func (o *Options) check() error {
 }
 
 // makePlan loads the base scenario, checks every sweep value on its own,
-// then loads every case, and returns the batch's manifest.
-func makePlan(opts Options) (*Manifest, []Case, error) {
+// then loads every case, and returns the batch's manifest, the base
+// scenario and the cases.
+func makePlan(opts Options) (*Manifest, *scenarios.Scenario, []Case, error) {
 	base, err := opts.Load()
 	if err != nil {
-		return nil, nil, inputError("scenario", err)
+		return nil, nil, nil, inputError("scenario", err)
 	}
 	for _, sw := range opts.Sweeps {
 		if err := checkSweepChanges(opts, base, sw); err != nil {
-			return nil, nil, err
+			return nil, nil, nil, err
 		}
 	}
 	cases := Cases(opts.Sweeps)
@@ -207,21 +208,21 @@ func makePlan(opts Options) (*Manifest, []Case, error) {
 	for _, c := range cases {
 		s, err := opts.Load(c.Overrides...)
 		if err != nil {
-			return nil, nil, inputError("case "+c.Label(), err)
+			return nil, nil, nil, inputError("case "+c.Label(), err)
 		}
 		g, err := GridFor(s)
 		if err != nil {
-			return nil, nil, inputError("case "+c.Label(), err)
+			return nil, nil, nil, inputError("case "+c.Label(), err)
 		}
 		tg, err := TimeGridFor(s)
 		if err != nil {
-			return nil, nil, inputError("case "+c.Label(), err)
+			return nil, nil, nil, inputError("case "+c.Label(), err)
 		}
 		m.Cases = append(m.Cases, ManifestCase{
 			Index: c.Index, Label: c.Label(), Values: c.Values, Digest: s.Digest, Grid: g, TimeGrid: tg,
 		})
 	}
-	return m, cases, nil
+	return m, base, cases, nil
 }
 
 // checkSweepChanges loads the base scenario with each value of the sweep
@@ -263,8 +264,8 @@ func checkSweepChanges(opts Options, base *scenarios.Scenario, sw Sweep) error {
 }
 
 // prepareFolder checks Out against the options, clears it for Force, and
-// writes the manifest.
-func prepareFolder(opts Options, m *Manifest) error {
+// writes the manifest and the base scenario.
+func prepareFolder(opts Options, m *Manifest, base *scenarios.Scenario) error {
 	old, err := readManifestFile(opts.Out)
 	switch {
 	case opts.Force:
@@ -289,7 +290,10 @@ func prepareFolder(opts Options, m *Manifest) error {
 	if err := os.MkdirAll(filepath.Join(opts.Out, ResultsDir), 0o755); err != nil {
 		return fmt.Errorf("batch: %w", err)
 	}
-	return writeFileAtomic(opts.Out, ManifestName, func(w io.Writer) error { return WriteManifest(w, m) })
+	if err := writeFileAtomic(opts.Out, ManifestName, func(w io.Writer) error { return WriteManifest(w, m) }); err != nil {
+		return err
+	}
+	return writeScenario(opts.Out, m, base, opts.Resume)
 }
 
 // clearBatchFolder empties dir for --force. It refuses a folder that

@@ -416,6 +416,60 @@ func TestFolderRules(t *testing.T) {
 	}
 }
 
+// A batch keeps its base scenario (the --set overrides, no sweep value)
+// as ScenarioName with the manifest's digest. Resuming a folder that lacks
+// it (written before batches kept it) writes it; resuming one whose
+// scenario was swapped for another is refused.
+func TestBatchKeepsScenario(t *testing.T) {
+	out := t.TempDir()
+	o := testOptions(t, out)
+	o.Realizations = 2
+	runBatch(t, o)
+	base, err := loader()()
+	if err != nil {
+		t.Fatal(err)
+	}
+	m, err := readManifestFile(out)
+	if err != nil {
+		t.Fatal(err)
+	}
+	s, err := ReadScenario(out, m)
+	if err != nil || s == nil || s.Digest != base.Digest || m.Scenario.Digest != base.Digest {
+		t.Fatalf("kept scenario %v, error %v; want the base scenario %.12s…", s, err, base.Digest)
+	}
+	kept, err := os.ReadFile(filepath.Join(out, ScenarioName))
+	if err != nil {
+		t.Fatal(err)
+	}
+
+	o.Resume = true
+	if err := os.Remove(filepath.Join(out, ScenarioName)); err != nil {
+		t.Fatal(err)
+	}
+	runBatch(t, o)
+	if again, err := os.ReadFile(filepath.Join(out, ScenarioName)); err != nil || !bytes.Equal(again, kept) {
+		t.Errorf("resuming a folder without its scenario: %v; want the same bytes written again", err)
+	}
+
+	thick, err := loader(scenarios.Override{Key: "layer.thickness", Value: "25 m"})()
+	if err != nil {
+		t.Fatal(err)
+	}
+	other, err := resolvedBytes(thick)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := os.WriteFile(filepath.Join(out, ScenarioName), other, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if _, err := Run(context.Background(), o); !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), "mixes two scenarios") {
+		t.Errorf("resuming a folder with another scenario: err = %v, want bad input saying it mixes two scenarios", err)
+	}
+	if _, err := ReadScenario(out, m); !errors.Is(err, badinput.Err) {
+		t.Errorf("reading another scenario: err = %v, want bad input", err)
+	}
+}
+
 func TestMergeRefuses(t *testing.T) {
 	root := t.TempDir()
 	shard := func(name string, i, n int, mod func(*Options)) string {
@@ -431,9 +485,36 @@ func TestMergeRefuses(t *testing.T) {
 	b1 := shard("b1", 1, 2, func(o *Options) { o.Load = loader(scenarios.Override{Key: "layer.thickness", Value: "25 m"}) })
 	c1 := shard("c1", 1, 2, func(o *Options) { o.Realizations = 6 })
 	d0 := shard("d0", 0, 3, nil)
+	// A shard whose manifest claims 10⁹ realizations (beyond MaxRealizations)
+	// is refused when read, before anything is counted or allocated.
+	e1 := shard("e1", 1, 2, nil)
+	claim, err := os.ReadFile(filepath.Join(e1, ManifestName))
+	if err != nil {
+		t.Fatal(err)
+	}
+	huge := strings.Replace(string(claim), `"realizations": 4`, `"realizations": 1000000000`, 1)
+	if huge == string(claim) {
+		t.Fatal("the manifest edit did not apply")
+	}
+	if err := os.WriteFile(filepath.Join(e1, ManifestName), []byte(huge), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	// A shard whose base scenario was swapped for another's.
+	f1 := shard("f1", 1, 2, nil)
+	thick, err := loader(scenarios.Override{Key: "layer.thickness", Value: "25 m"})()
+	if err != nil {
+		t.Fatal(err)
+	}
+	other, err := resolvedBytes(thick)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := os.WriteFile(filepath.Join(f1, ScenarioName), other, 0o644); err != nil {
+		t.Fatal(err)
+	}
 
 	var mm *MismatchError
-	err := Merge(context.Background(), []string{a0, b1}, filepath.Join(root, "m1"), false)
+	err = Merge(context.Background(), []string{a0, b1}, filepath.Join(root, "m1"), false)
 	if !errors.As(err, &mm) || mm.Field != "scenario digest" || !strings.Contains(err.Error(), b1) {
 		t.Errorf("different scenarios: err = %v, want a MismatchError on the scenario digest naming %s", err, b1)
 	}
@@ -452,11 +533,18 @@ func TestMergeRefuses(t *testing.T) {
 	if err := Merge(context.Background(), []string{a0, root}, filepath.Join(root, "m6"), false); !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), "not a batch folder") {
 		t.Errorf("not a batch folder: err = %v", err)
 	}
+	if err := Merge(context.Background(), []string{a0, e1}, filepath.Join(root, "m8"), false); !errors.Is(err, ErrFormat) || !strings.Contains(err.Error(), "realizations = 1000000000: must be 1 to 1000000") {
+		t.Errorf("a manifest claiming 10⁹ realizations: err = %v", err)
+	}
+	if err := Merge(context.Background(), []string{a0, f1}, filepath.Join(root, "m9"), false); !errors.Is(err, badinput.Err) ||
+		!strings.Contains(err.Error(), "mixes two scenarios") || !strings.Contains(err.Error(), f1) {
+		t.Errorf("a shard with another scenario: err = %v, want bad input naming %s", err, f1)
+	}
 	os.Remove(filepath.Join(a1, ResultName(2, 3)))
 	if err := Merge(context.Background(), []string{a0, a1}, filepath.Join(root, "m7"), false); !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), "incomplete") {
 		t.Errorf("incomplete shard: err = %v", err)
 	}
-	for _, m := range []string{"m1", "m2", "m3", "m4", "m5", "m6", "m7"} {
+	for _, m := range []string{"m1", "m2", "m3", "m4", "m5", "m6", "m7", "m8", "m9"} {
 		if _, err := os.Stat(filepath.Join(root, m)); err == nil {
 			t.Errorf("a refused merge created %s", m)
 		}

@@ -21,6 +21,10 @@ type NetworkEstimate struct {
 	// Bytes is the memory the network takes, from the sizes of its
 	// records.
 	Bytes float64
+	// Densest is the index of the set with the largest P32 target, which
+	// contributes the most trace length and intersections (-1 without
+	// sets): the first set to thin out when the network is too large.
+	Densest int
 }
 
 // Estimate returns the expected size of the scenario's network.
@@ -39,8 +43,8 @@ func Estimate(s *scenarios.Scenario) (NetworkEstimate, error) {
 	if err != nil {
 		return NetworkEstimate{}, err
 	}
-	var e NetworkEstimate
-	var p32, meanSize float64
+	e := NetworkEstimate{Densest: -1}
+	var p32, densest, meanSize float64
 	for i, set := range s.Sets {
 		m, err := NewSetModel(set, region)
 		if err != nil {
@@ -48,6 +52,9 @@ func Estimate(s *scenarios.Scenario) (NetworkEstimate, error) {
 		}
 		e.Fractures += m.Info.ExpectedCount
 		p32 += m.Info.P32Target
+		if m.Info.P32Target > densest {
+			e.Densest, densest = i, m.Info.P32Target
+		}
 		meanSize = max(meanSize, m.Size.Moment(1))
 	}
 	for _, k := range s.KnownFractures.Fractures {

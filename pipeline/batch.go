@@ -12,6 +12,7 @@ import (
 	"slipfront/gis"
 	"slipfront/internal/badinput"
 	"slipfront/internal/outdir"
+	"slipfront/scenarios"
 )
 
 // Convention is the percentile convention printed on batch charts; the
@@ -95,8 +96,24 @@ func ProbabilityLayers(aggs []batch.CaseAggregate) ([]gis.Layer, gis.Placement, 
 	return withCaution(layers), pl, nil
 }
 
+// batchLayers are the GeoPackage layers of the batch folder dir: the
+// probability contours of every case (ProbabilityLayers) and, when the
+// folder keeps its base scenario (batch.ReadScenario, returned too; nil
+// without), the wells.
+func batchLayers(dir string, m *batch.Manifest, aggs []batch.CaseAggregate) ([]gis.Layer, gis.Placement, *scenarios.Scenario, error) {
+	layers, pl, err := ProbabilityLayers(aggs)
+	if err != nil {
+		return nil, pl, nil, err
+	}
+	s, err := batch.ReadScenario(dir, m)
+	if err != nil || s == nil {
+		return layers, pl, nil, err
+	}
+	return append(layers, withCaution([]gis.Layer{wellLayer(s)})...), pl, s, nil
+}
+
 // WriteBatchMaps writes into a complete batch folder: maps.gpkg with the
-// probability contours, one probability GeoTIFF per case, one probability
+// probability contours and the wells (batchLayers), one probability GeoTIFF per case, one probability
 // difference GeoTIFF per pairing of a case with its reference case
 // (batch.Manifest.Pairings; none where a sweep changes the map grid), and
 // the pictures of batchPictures: the comparison chart, the fans on shared
@@ -107,7 +124,7 @@ func WriteBatchMaps(ctx context.Context, dir string) error {
 	if err != nil {
 		return err
 	}
-	layers, pl, err := ProbabilityLayers(aggs)
+	layers, pl, s, err := batchLayers(dir, m, aggs)
 	if err != nil {
 		return err
 	}
@@ -139,10 +156,6 @@ func WriteBatchMaps(ctx context.Context, dir string) error {
 		}); err != nil {
 			return err
 		}
-	}
-	s, err := batchScenario(dir, m)
-	if err != nil {
-		return err
 	}
 	ps, _, err := batchPictures(m, aggs, s)
 	if err != nil {

@@ -2,35 +2,14 @@ package pipeline
 
 import (
 	"fmt"
-	"path/filepath"
 
 	"github.com/paulmach/orb"
 
 	"slipfront/batch"
 	"slipfront/gis"
-	"slipfront/internal/badinput"
 	"slipfront/report"
 	"slipfront/scenarios"
 )
-
-// batchScenario reads the base scenario of the batch folder dir from its
-// ScenarioFile, or returns nil when the folder has none (package batch
-// keeps only the scenario's digest in its manifest). A scenario whose
-// digest is not the manifest's is refused.
-func batchScenario(dir string, m *batch.Manifest) (*scenarios.Scenario, error) {
-	if !exists(dir, ScenarioFile) {
-		return nil, nil
-	}
-	s, err := readScenario(filepath.Join(dir, ScenarioFile))
-	if err != nil {
-		return nil, err
-	}
-	if s.Digest != m.Scenario.Digest {
-		return nil, badinput.Errorf("%s: %s is scenario %.12s…, but the batch ran %.12s…: the folder mixes two scenarios",
-			dir, ScenarioFile, s.Digest, m.Scenario.Digest)
-	}
-	return s, nil
-}
 
 // DifferenceLevel is the probability difference whose contours (≥ +level
 // and ≤ −level) carry the sign on a difference map: a quarter of the
@@ -42,7 +21,7 @@ const DifferenceLevel = 0.25
 // the final areas, every case's fans on shared axes, each case's fan, its
 // probability map and, against its reference case, its difference map,
 // and the distribution of the paired area ratios. The maps show the wells
-// of s, the batch's base scenario, when it is known (see batchScenario).
+// of s, the batch's base scenario, when it is known (see batch.ReadScenario).
 func batchPictures(m *batch.Manifest, aggs []batch.CaseAggregate, s *scenarios.Scenario) ([]picture, []string, error) {
 	conv := Convention(m.Realizations)
 	var notes []string
@@ -50,7 +29,7 @@ func batchPictures(m *batch.Manifest, aggs []batch.CaseAggregate, s *scenarios.S
 	if s != nil {
 		wells = mapWells(s)
 	} else {
-		notes = append(notes, "The batch folder holds no "+ScenarioFile+": its maps show no wells.")
+		notes = append(notes, "The batch folder holds no "+batch.ScenarioName+" (written before batches kept their scenario): its maps show no wells.")
 	}
 	ps := []picture{{ComparisonPictureFile, "Final stimulated area by case: how much the swept value moves the P10–P90 range.", comparisonChart(m, aggs)}}
 	if len(aggs) <= report.MaxFanPanels {

@@ -191,7 +191,7 @@ func exportBatch(ctx context.Context, dir string, o ExportOptions) error {
 	if err != nil {
 		return err
 	}
-	layers, pl, err := ProbabilityLayers(aggs)
+	layers, pl, _, err := batchLayers(dir, m, aggs)
 	if err != nil {
 		return err
 	}
@@ -199,7 +199,7 @@ func exportBatch(ctx context.Context, dir string, o ExportOptions) error {
 	case "gpkg":
 		return writeLayers(ctx, o, pl, layers, scheduleStart(m.Scenario.Start))
 	case "geojson":
-		l, err := pickDefault(layers, o.Layer)
+		l, err := pickDefault(layers, len(aggs), o.Layer)
 		if err != nil {
 			return err
 		}
@@ -208,7 +208,7 @@ func exportBatch(ctx context.Context, dir string, o ExportOptions) error {
 		}
 		return writeOut(o, func(w io.Writer) error { return gis.WriteGeoJSON(w, pl, l, nil) })
 	case "geotiff":
-		l, err := pickDefault(layers, o.Layer)
+		l, err := pickDefault(layers[:len(aggs)], len(aggs), o.Layer)
 		if err != nil {
 			return err
 		}
@@ -225,17 +225,18 @@ func exportBatch(ctx context.Context, dir string, o ExportOptions) error {
 	return badinput.Errorf("a batch folder exports gpkg, geojson or geotiff, not %s (vtk and quakeml export a run's fractures and events)", o.Format)
 }
 
-// pickDefault picks the named layer, or the only one.
-func pickDefault(layers []gis.Layer, name string) (gis.Layer, error) {
-	if name == "" && len(layers) == 1 {
+// pickDefault picks the named layer of a batch, or without a name the
+// probability layer of its only case (the layers of the cases come first).
+func pickDefault(layers []gis.Layer, cases int, name string) (gis.Layer, error) {
+	if name == "" && cases == 1 {
 		return layers[0], nil
 	}
 	if name == "" {
 		var names []string
-		for _, l := range layers {
+		for _, l := range layers[:cases] {
 			names = append(names, l.Name)
 		}
-		return gis.Layer{}, badinput.Errorf("the batch has %d cases: choose one with --layer (%s)", len(layers), strings.Join(names, ", "))
+		return gis.Layer{}, badinput.Errorf("the batch has %d cases: choose one with --layer (%s)", cases, strings.Join(names, ", "))
 	}
 	return pick(layers, name)
 }

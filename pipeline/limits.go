@@ -46,9 +46,27 @@ func (l Limits) CheckNetwork(s *scenarios.Scenario) error {
 	if e.Bytes <= l.memory() {
 		return nil
 	}
+	change := "the sets' intensity or size range"
+	if e.Densest >= 0 {
+		change = intensityKey(s, e.Densest) + " (the densest set) or the sets' size range"
+	}
 	return badinput.Errorf("%s: the network would take about %s (%.3g fractures, %.3g intersections), more than the memory limit of %s: "+
-		"lower the sets' intensity or size range or the domain, or raise --memory-limit",
-		s.Source, bytesText(e.Bytes), e.Fractures, e.Intersections, bytesText(l.memory()))
+		"lower %s or the domain, or raise --memory-limit",
+		s.Source, bytesText(e.Bytes), e.Fractures, e.Intersections, bytesText(l.memory()), change)
+}
+
+// intensityKey names the intensity key of set i that the scenario uses,
+// with its value in SI: "sets[0].intensity.count = 1900000".
+func intensityKey(s *scenarios.Scenario, i int) string {
+	in := s.Sets[i].Intensity
+	switch in.Measure {
+	case "count":
+		return fmt.Sprintf("sets[%d].intensity.count = %d", i, in.Count)
+	case "p10":
+		return fmt.Sprintf("sets[%d].intensity.p10 = %g 1/m", i, in.P10)
+	default:
+		return fmt.Sprintf("sets[%d].intensity.p32 = %g 1/m", i, in.P32)
+	}
 }
 
 // CheckRun refuses a scenario whose simulation, runs at a time (batch
@@ -74,10 +92,11 @@ func (l Limits) CheckRun(s *scenarios.Scenario, runs int) error {
 	return nil
 }
 
-// bytesText writes a byte count in MB or GB.
+// bytesText writes a byte count in MB or GB, with the SI prefixes that
+// --memory-limit reads them with (1 MB = 10⁶ bytes).
 func bytesText(b float64) string {
-	if b >= 1<<30 {
-		return fmt.Sprintf("%.1f GB", b/(1<<30))
+	if b >= 1e9 {
+		return fmt.Sprintf("%.1f GB", b/1e9)
 	}
-	return fmt.Sprintf("%.0f MB", b/(1<<20))
+	return fmt.Sprintf("%.0f MB", b/1e6)
 }

@@ -19,6 +19,7 @@ import (
 
 	"gonum.org/v1/gonum/spatial/r3"
 
+	"slipfront/batch"
 	"slipfront/dfn"
 	"slipfront/internal/badinput"
 	"slipfront/internal/numtest"
@@ -359,9 +360,9 @@ func TestSections(t *testing.T) {
 	}
 }
 
-// A batch folder's maps show the wells when the folder holds its base
-// scenario (checked against the manifest's digest), and say that they
-// cannot otherwise; the page then lists the scenario's inputs.
+// A batch folder keeps its base scenario (checked against the manifest's
+// digest): its maps show the wells, and say that they cannot without it;
+// the page then lists the scenario's inputs.
 func TestBatchMapsWells(t *testing.T) {
 	out, m := singleFractureBatch(t)
 	aggs := readAggregates(t, out)
@@ -384,14 +385,12 @@ func TestBatchMapsWells(t *testing.T) {
 	if wellsOn(ps) != 0 || !slices.ContainsFunc(notes, func(n string) bool { return strings.Contains(n, "no wells") }) {
 		t.Errorf("without a scenario: %d wells drawn, notes %q", wellsOn(ps), notes)
 	}
-	// The base scenario of singleFractureBatch.
+	// The batch kept its base scenario: single-fracture with the batch's
+	// overrides and no sweep value.
 	s := loadExample(t, "single-fracture", singleFractureBatchSets...)
-	if err := writeFiles(out, scenarioWriter(s)); err != nil {
-		t.Fatal(err)
-	}
-	got, err := batchScenario(out, m)
-	if err != nil || got == nil {
-		t.Fatalf("batch scenario %v, error %v", got, err)
+	got, err := batch.ReadScenario(out, m)
+	if err != nil || got == nil || got.Digest != s.Digest {
+		t.Fatalf("batch scenario %v, error %v; want the base scenario %.12s…", got, err, s.Digest)
 	}
 	ps, _, err = batchPictures(m, aggs, got)
 	if err != nil {
@@ -400,6 +399,22 @@ func TestBatchMapsWells(t *testing.T) {
 	// Two probability maps and one difference map, each with the wells.
 	if want := 3 * len(s.Wells); len(s.Wells) == 0 || wellsOn(ps) != want {
 		t.Errorf("%d wells drawn on the maps, want %d", wellsOn(ps), want)
+	}
+	// The GeoPackage gets the wells after the cases' contours, and export
+	// writes them on their own (single-fracture has no CRS, so no GeoJSON).
+	layers, _, _, err := batchLayers(out, m, aggs)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if n := len(layers); n != len(aggs)+1 || layers[n-1].Name != "wells" || len(layers[n-1].Features) != len(s.Wells) {
+		t.Errorf("batch layers %d, the last %q with %d features; want %d case layers and the %d wells", n, layers[n-1].Name, len(layers[n-1].Features), len(aggs), len(s.Wells))
+	}
+	var wells bytes.Buffer
+	if _, err := Export(context.Background(), out, ExportOptions{Format: "gpkg", Layer: "wells", Out: StdoutName, Stdout: &wells, Time: math.NaN()}); err != nil {
+		t.Fatal(err)
+	}
+	if !strings.HasPrefix(wells.String(), "SQLite format 3\x00") {
+		t.Errorf("export of the batch's wells: %.20q", wells.String())
 	}
 	rep := t.TempDir()
 	if err := WriteReport(context.Background(), out, Folder{Dir: rep}); err != nil {
@@ -415,7 +430,7 @@ func TestBatchMapsWells(t *testing.T) {
 	if err := writeFiles(out, scenarioWriter(loadExample(t, "demo"))); err != nil {
 		t.Fatal(err)
 	}
-	if _, err := batchScenario(out, m); !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), "mixes two scenarios") {
+	if _, err := batch.ReadScenario(out, m); !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), "mixes two scenarios") {
 		t.Errorf("another scenario in the batch folder: %v", err)
 	}
 }

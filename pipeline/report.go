@@ -148,7 +148,7 @@ func writeBatchReport(ctx context.Context, dir, out string) error {
 	if err != nil {
 		return err
 	}
-	s, err := batchScenario(dir, m)
+	s, err := batch.ReadScenario(dir, m)
 	if err != nil {
 		return err
 	}

@@ -61,7 +61,7 @@ func (r *Run) Layers() ([]gis.Layer, error) {
 	if err != nil {
 		return nil, err
 	}
-	return withCaution([]gis.Layer{fractures, r.conduitLayer(), outlines, r.eventLayer(), r.wellLayer(), r.clusterLayer()}), nil
+	return withCaution([]gis.Layer{fractures, r.conduitLayer(), outlines, r.eventLayer(), wellLayer(r.Scenario), r.clusterLayer()}), nil
 }
 
 // withCaution adds the caution to every layer's description, so it travels
@@ -210,10 +210,11 @@ func utc(start time.Time, t float64) time.Time {
 	return start.Add(time.Duration(t * float64(time.Second))).UTC()
 }
 
-func (r *Run) wellLayer() gis.Layer {
+// wellLayer is the wells of s in map view.
+func wellLayer(s *scenarios.Scenario) gis.Layer {
 	l := gis.Layer{Name: "wells", Description: "well paths in map view", Geometry: gis.LineString,
 		Fields: []gis.Field{{Name: "well", Type: gis.Text}, {Name: "path_length_m", Type: gis.Real}}}
-	for _, w := range r.Scenario.Wells {
+	for _, w := range s.Wells {
 		var ls orb.LineString
 		for _, p := range w.Path {
 			ls = append(ls, pt(p.X, p.Y))

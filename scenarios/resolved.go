@@ -8,15 +8,21 @@ import (
 
 // WriteResolved writes the scenario as JSON in SI units, with its digest:
 // the exact input of a run, kept in its output folder so that later
-// commands (export, inspect) work from the folder alone.
+// commands (export, inspect) work from the folder alone. The path the
+// scenario was read from is left out (ReadResolved names the file it
+// reads instead), so that the same scenario gives the same bytes however
+// it was named on the command line: the shards of a batch, run from
+// different folders, keep the same file.
 func WriteResolved(w io.Writer, s *Scenario) error {
 	type resolved struct {
 		Digest   string    `json:"digest"`
 		Scenario *Scenario `json:"scenario"`
 	}
+	c := *s
+	c.Source = ""
 	enc := json.NewEncoder(w)
 	enc.SetIndent("", " ")
-	return enc.Encode(resolved{Digest: s.Digest, Scenario: s})
+	return enc.Encode(resolved{Digest: s.Digest, Scenario: &c})
 }
 
 // ReadResolved reads what WriteResolved wrote and checks the digest, so a

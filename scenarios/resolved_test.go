@@ -34,6 +34,37 @@ func TestResolvedRoundTrip(t *testing.T) {
 	}
 }
 
+// The same scenario gives the same resolved bytes whatever path it was
+// read from (the shards of a batch, run from other folders, keep the same
+// file), and reading names the file read.
+func TestResolvedWithoutSource(t *testing.T) {
+	s, err := LoadExample("single-fracture")
+	if err != nil {
+		t.Fatal(err)
+	}
+	var a, b bytes.Buffer
+	for _, w := range []struct {
+		source string
+		to     *bytes.Buffer
+	}{{"single-fracture.toml", &a}, {"/elsewhere/single-fracture.toml", &b}} {
+		c := *s
+		c.Source = w.source
+		if err := WriteResolved(w.to, &c); err != nil {
+			t.Fatal(err)
+		}
+	}
+	if !bytes.Equal(a.Bytes(), b.Bytes()) || strings.Contains(a.String(), "single-fracture.toml") {
+		t.Errorf("the resolved scenario depends on where it was read from:\n%.300s", a.String())
+	}
+	got, err := ReadResolved(bytes.NewReader(a.Bytes()), "run/scenario.json")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if got.Source != "run/scenario.json" {
+		t.Errorf("read back from %q", got.Source)
+	}
+}
+
 // resolvedSeed returns a small scenario.json: the scenario written as the
 // JSON body (only the keys it sets; the others read as zero) under the
 // digest of what it decodes to. A large seed (the full demo writes 2.5 kB)

@@ -713,3 +713,33 @@ func TestElementCap(t *testing.T) {
 		t.Errorf("error %v", err)
 	}
 }
+
+// A run that needs more accepted steps than numerics.max_steps stops with
+// ErrTooManySteps. The scenario check counts only the schedule length over
+// time_step_max (60 s / 0.5 s = 120 steps for single-fracture), so 120
+// passes it; the run starts at time_step_initial = 0.05 s and grows its
+// steps from there, so it needs more than 120.
+func TestMaxStepsStopsRun(t *testing.T) {
+	ov, err := scenarios.ParseOverrides([]string{"numerics.max_steps=120", "numerics.element_length=40 m"})
+	if err != nil {
+		t.Fatal(err)
+	}
+	s, err := scenarios.LoadExample("single-fracture", ov...)
+	if err != nil {
+		t.Fatalf("max_steps = 120 is refused up front, so the run-time stop is not reached: %v", err)
+	}
+	net, err := dfn.Generate(s, 0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	res, err := Run(context.Background(), s, net, Options{})
+	if !errors.Is(err, ErrTooManySteps) || !strings.Contains(err.Error(), "numerics.max_steps = 120") {
+		t.Fatalf("error %v, want ErrTooManySteps naming numerics.max_steps = 120", err)
+	}
+	if res == nil {
+		t.Fatal("no result: the steps run before the stop are lost")
+	}
+	if res.Steps != 120 {
+		t.Errorf("stopped after %d accepted steps, want 120", res.Steps)
+	}
+}

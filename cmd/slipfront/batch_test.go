@@ -2,6 +2,7 @@ package main
 
 import (
 	"encoding/csv"
+	"encoding/json"
 	"os"
 	"path/filepath"
 	"regexp"
@@ -111,5 +112,82 @@ func TestBatchReference(t *testing.T) {
 	code, _, stderr = runCLI(t, args("bad", "--reference", "7cP")...)
 	if code != exitBadInput || !strings.Contains(stderr, "--reference") {
 		t.Errorf("--reference 7cP: exit %d, %s", code, stderr)
+	}
+}
+
+// run --realization N reproduces realization N of a batch: the same
+// network and the same headline numbers as its row of realizations.csv,
+// for the base case and for a sweep case given as --set. The tiny batch
+// scenario's realizations differ (checked), so a run of another
+// realization would not pass.
+func TestRunReproducesBatchRealization(t *testing.T) {
+	dir := t.TempDir()
+	tiny := filepath.Join("..", "..", "batch", "testdata", "tiny.toml")
+	// tiny's clusters meet no fracture without conduits; 20 m elements
+	// keep it quick.
+	sets := []string{"--set", "wells[0].conduit_half_length=40 m", "--set", "numerics.element_length=20 m"}
+	batchArgs := append([]string{"batch", tiny, "-n", "4", "--sweep", "schedule.fluid=slickwater,gel", "--out", filepath.Join(dir, "batch"), "--quiet"}, sets...)
+	if code, _, stderr := runCLI(t, batchArgs...); code != exitOK {
+		t.Fatalf("batch: exit %d: %s", code, stderr)
+	}
+	head, rows := readTable(t, filepath.Join(dir, "batch", "realizations.csv"))
+	col := func(row []string, name string) string {
+		k := slices.Index(head, name)
+		if k < 0 {
+			t.Fatalf("no column %s in %v", name, head)
+		}
+		return row[k]
+	}
+	// Realizations 0 and 3 of the base case must differ for the test to
+	// mean anything.
+	if col(rows[0], "network_digest") == col(rows[3], "network_digest") || col(rows[0], "stimulated_fracture_area_m2") == col(rows[3], "stimulated_fracture_area_m2") {
+		t.Fatalf("realizations 0 and 3 give the same network or area: the test cannot tell them apart\n%v\n%v", rows[0], rows[3])
+	}
+	for _, tc := range []struct {
+		c    string
+		sets []string
+	}{
+		{"0", nil},
+		{"1", []string{"--set", "schedule.fluid=gel"}},
+	} {
+		i := slices.IndexFunc(rows, func(r []string) bool { return col(r, "case") == tc.c && col(r, "realization") == "3" })
+		if i < 0 {
+			t.Fatalf("realizations.csv has no row for case %s, realization 3", tc.c)
+		}
+		want := rows[i]
+		out := filepath.Join(dir, "run-"+tc.c)
+		args := slices.Concat([]string{"run", tiny, "--realization", "3", "--out", out, "--quiet"}, sets, tc.sets)
+		if code, _, stderr := runCLI(t, args...); code != exitOK {
+			t.Fatalf("run: exit %d: %s", code, stderr)
+		}
+		var sum struct {
+			Realization   int    `json:"realization"`
+			NetworkDigest string `json:"network_digest"`
+			Totals        map[string]float64
+			Warnings      []json.RawMessage
+		}
+		b, err := os.ReadFile(filepath.Join(out, "summary.json"))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if err := json.Unmarshal(b, &sum); err != nil {
+			t.Fatal(err)
+		}
+		if sum.Realization != 3 || sum.NetworkDigest != col(want, "network_digest") {
+			t.Errorf("case %s: run of realization %d, network %.12s…; batch realization 3 has network %.12s…",
+				tc.c, sum.Realization, sum.NetworkDigest, col(want, "network_digest"))
+		}
+		for _, name := range []string{"stimulated_area_m2", "stimulated_fracture_area_m2", "events", "max_magnitude_Mw", "peak_bhp_MPa", "injected_volume_m3"} {
+			v, err := strconv.ParseFloat(col(want, name), 64)
+			if err != nil {
+				t.Fatalf("case %s: %s = %q: %v", tc.c, name, col(want, name), err)
+			}
+			if got, ok := sum.Totals[name]; !ok || got != v {
+				t.Errorf("case %s: %s = %v in the run, %v in the batch", tc.c, name, got, v)
+			}
+		}
+		if n := strconv.Itoa(len(sum.Warnings)); n != col(want, "warnings") {
+			t.Errorf("case %s: %s warnings in the run, %s in the batch", tc.c, n, col(want, "warnings"))
+		}
 	}
 }

@@ -459,6 +459,8 @@ func TestUnsafeInputs(t *testing.T) {
 		{"output is a file", []string{"run", "single-fracture", "--out", afile}, "is a file, not a folder"},
 		{"empty output", []string{"run", "single-fracture", "--out", ""}, "no output folder"},
 		{"network beyond memory", []string{"generate", "demo", "--memory-limit", "1MB", "--out", out}, "more than the memory limit of 1 MB"},
+		{"a set of 1.9 million fractures", []string{"run", "demo", "--set", "sets[0].intensity.measure=count", "--set", "sets[0].intensity.count=1900000",
+			"--memory-limit", "256MB", "--out", out}, "more than the memory limit of 256 MB: lower sets[0].intensity.count = 1900000 (the densest set)"},
 		{"run beyond memory", []string{"run", "single-fracture", "--set", "numerics.element_length=1 cm", "--memory-limit", "50MB", "--out", out},
 			"the simulation would take about"},
 		{"bad memory limit", []string{"run", "single-fracture", "--memory-limit", "lots", "--out", out}, "--memory-limit lots"},

@@ -19,7 +19,8 @@ import (
 	"slipfront/scenarios"
 )
 
-// Exit codes of the command line contract (DESIGN.md).
+// Exit codes of the command line contract, listed in the README
+// ("Commands").
 const (
 	exitOK          = 0
 	exitFailure     = 1
@@ -64,7 +65,14 @@ func (g *globalOptions) limits() (pipeline.Limits, error) {
 // run executes the command line args and returns the process exit code.
 func run(ctx context.Context, args []string, stdout, stderr io.Writer) int {
 	var g globalOptions
-	started := false
+	root := newRootCmd(&g, stdout, stderr)
+	root.SetArgs(args)
+	return execute(ctx, root, stderr)
+}
+
+// newRootCmd builds the slipfront command with every subcommand; g
+// receives the global flags.
+func newRootCmd(g *globalOptions, stdout, stderr io.Writer) *cobra.Command {
 	root := &cobra.Command{
 		Use:           "slipfront",
 		Short:         "Stochastic fracture networks, injection-driven slip and stimulated-area maps",
@@ -75,22 +83,30 @@ func run(ctx context.Context, args []string, stdout, stderr io.Writer) int {
 	root.SetOut(stdout)
 	root.SetErr(stderr)
 	addVersionFlag(root)
-	root.SetArgs(args)
 	root.PersistentFlags().BoolVarP(&g.quiet, "quiet", "q", false, "print no progress or status lines")
 	root.PersistentFlags().StringVar(&g.memoryLimit, "memory-limit", "", "memory a run may take, e.g. 8GB or 512MiB; scenarios estimated to need more are refused before they start (default half of the machine's memory)")
 	root.AddCommand(
 		newVersionCmd(stdout),
-		newScenarioCmd(&g, stdout, stderr),
-		newGenerateCmd(&g, stdout, stderr),
-		newScreenCmd(&g, stdout, stderr),
-		newRunCmd(&g, stdout, stderr),
-		newDemoCmd(&g, stdout, stderr),
+		newScenarioCmd(g, stdout, stderr),
+		newGenerateCmd(g, stdout, stderr),
+		newScreenCmd(g, stdout, stderr),
+		newRunCmd(g, stdout, stderr),
+		newDemoCmd(g, stdout, stderr),
 		newInspectCmd(stdout),
-		newBatchCmd(&g, stdout, stderr),
+		newBatchCmd(g, stdout, stderr),
 		newMergeCmd(stdout),
-		newExportCmd(&g, stderr),
-		newReportCmd(&g, stderr),
+		newExportCmd(g, stderr),
+		newReportCmd(g, stderr),
 	)
+	return root
+}
+
+// execute runs root with its arguments and maps the outcome to an exit
+// code, printing the error to stderr: a panic anywhere below (a worker
+// goroutine's included, which batch hands back as a crash.Error) is an
+// internal error with its stack, never bad input.
+func execute(ctx context.Context, root *cobra.Command, stderr io.Writer) int {
+	started := false
 	markStarted(root, &started)
 	err := crash.Capture(func() error { return root.ExecuteContext(ctx) })
 	if err == nil {

@@ -23,11 +23,13 @@ func newRunCmd(g *globalOptions, stdout, stderr io.Writer) *cobra.Command {
 	cmd := &cobra.Command{
 		Use:   "run SCENARIO --out DIR",
 		Short: "Simulate the pumping schedule on one fracture network",
-		Long: "run generates realization 0 of the scenario's network (or --seed), pumps the schedule into it\n" +
+		Long: "run generates realization 0 of the scenario's network (--realization N: realization N, as batch\n" +
+			"draws it with the same --set values), pumps the schedule into it\n" +
 			"and writes summary.json, timeline.csv, events.csv, fractures.csv, run.snap, maps.gpkg,\n" +
 			"map.png and growth.png.\n\n" + caution,
 		Example: "  slipfront run scenarios/examples/demo.toml --out run1\n" +
-			"  slipfront run demo --set fluids.slickwater.viscosity=20cP --out run-20cp",
+			"  slipfront run demo --set fluids.slickwater.viscosity=20cP --out run-20cp\n" +
+			"  slipfront run demo --set fluids.slickwater.viscosity=20cP --realization 7 --out visc-20cp-r7",
 	}
 	cmd = newScenarioToFolderCmd(cmd, &o.scenarioToFolder, func(ctx context.Context) error {
 		return runRun(ctx, &o, g, stdout, stderr)
