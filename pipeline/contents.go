@@ -15,6 +15,7 @@ import (
 	"slipfront/internal/badinput"
 	"slipfront/internal/outdir"
 	"slipfront/scenarios"
+	"slipfront/snapshot"
 )
 
 // RunContents is what ContentsFile records of a complete run folder: the
@@ -114,23 +115,52 @@ func (c *RunContents) verify(dir string, names ...string) error {
 
 // openRunFolder reads the contents list of the run folder dir and checks
 // the named files against it. A folder without a list is accepted as a
-// stopped run's partial folder; the returned note says so ("" for a
-// complete folder).
-func openRunFolder(dir string, s *scenarios.Scenario, names ...string) (note string, err error) {
-	c, err := readContents(dir)
+// stopped run's partial folder: the list is nil and the returned note
+// says so ("" for a complete folder).
+func openRunFolder(dir string, s *scenarios.Scenario, names ...string) (c *RunContents, note string, err error) {
+	c, err = readContents(dir)
 	if errors.Is(err, fs.ErrNotExist) {
 		why := "the run did not finish"
 		if outdir.IsPartial(dir) {
 			why = "this is a stopped run's partial folder"
 		}
-		return fmt.Sprintf("%s has no %s: %s; its snapshot frames are used as recovered", dir, ContentsFile, why), nil
+		return nil, fmt.Sprintf("%s has no %s: %s; its snapshot frames are used as recovered", dir, ContentsFile, why), nil
 	}
 	if err != nil {
-		return "", err
+		return nil, "", err
 	}
 	if c.ScenarioDigest != s.Digest {
-		return "", badinput.Errorf("%s belongs to scenario %.12s…, but %s is scenario %.12s…: the folder mixes two runs",
+		return nil, "", badinput.Errorf("%s belongs to scenario %.12s…, but %s is scenario %.12s…: the folder mixes two runs",
 			ContentsFile, c.ScenarioDigest, ScenarioFile, s.Digest)
 	}
-	return "", c.verify(dir, names...)
+	return c, "", c.verify(dir, names...)
+}
+
+// verifySnapshot checks the snapshot of a complete run folder against
+// its contents list. A snapshot that differs from the listed file is
+// still the run's own when its header names the listed scenario and
+// realization and the differences are damage the format detects (frames
+// failing their checksums, or a cut or broken index it recovered from):
+// the note says so and the intact frames serve. Anything else is a
+// swapped file.
+func (c *RunContents) verifySnapshot(dir string, rd *snapshot.ReadCloser) (note string, err error) {
+	err = c.verify(dir, SnapshotFile)
+	if err == nil {
+		return "", nil
+	}
+	h := rd.Header()
+	if h.Digest != c.ScenarioDigest || h.Realization != c.Realization {
+		return "", err
+	}
+	damaged := 0
+	for i := range rd.Frames() {
+		if errors.Is(rd.CheckFrame(i), snapshot.ErrFormat) {
+			damaged++
+		}
+	}
+	if damaged == 0 && !rd.Recovered() {
+		return "", err
+	}
+	return fmt.Sprintf("%s was damaged after the run (it differs from the file the run wrote; %d of its %d frames fail their checksums): the intact frames are used",
+		SnapshotFile, damaged, len(rd.Frames())), nil
 }

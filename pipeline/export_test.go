@@ -5,6 +5,8 @@ import (
 	"errors"
 	"io"
 	"math"
+	"os"
+	"path/filepath"
 	"slices"
 	"strings"
 	"testing"
@@ -17,6 +19,7 @@ import (
 	"slipfront/internal/numtest"
 	"slipfront/internal/outdir"
 	"slipfront/scenarios"
+	"slipfront/snapshot"
 )
 
 // runFolder simulates a small demo into a folder with Simulate, as the run
@@ -155,5 +158,61 @@ func TestLoadRunRefusesMixedFolder(t *testing.T) {
 	_, err = LoadRun(dir, math.NaN())
 	if !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), "mixes two runs") {
 		t.Errorf("error %v", err)
+	}
+}
+
+// A complete folder whose snapshot was damaged after the run (a byte
+// flipped inside one frame) is still read, from its intact frames, with a
+// note; another run's snapshot in its place is refused.
+func TestLoadRunDamagedSnapshot(t *testing.T) {
+	dir, mem := runFolder(t)
+	snap := filepath.Join(dir, SnapshotFile)
+	rd, err := snapshot.Open(snap)
+	if err != nil {
+		t.Fatal(err)
+	}
+	frames := rd.Frames()
+	rd.Close()
+	if len(frames) < 3 {
+		t.Fatalf("%d frames: too few to damage one in the middle", len(frames))
+	}
+	b, err := os.ReadFile(snap)
+	if err != nil {
+		t.Fatal(err)
+	}
+	mid := frames[len(frames)/2]
+	b[mid.Offset+mid.Size/2] ^= 0xff
+	if err := os.WriteFile(snap, b, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	r, err := LoadRun(dir, math.NaN())
+	if err != nil {
+		t.Fatalf("damaged snapshot refused: %v", err)
+	}
+	if !slices.ContainsFunc(r.Notes, func(n string) bool { return strings.Contains(n, "damaged after the run") }) {
+		t.Errorf("notes %q do not tell of the damage", r.Notes)
+	}
+	if r.Time != mem.Result.Duration {
+		t.Errorf("state at %g s, want the last frame at %g s", r.Time, mem.Result.Duration)
+	}
+
+	// Another run's snapshot is a swap.
+	single, err := scenarios.LoadExample("single-fracture")
+	if err != nil {
+		t.Fatal(err)
+	}
+	other := t.TempDir()
+	if _, err := Simulate(context.Background(), single, SimulateOptions{Out: Folder{Dir: other}}); err != nil {
+		t.Fatal(err)
+	}
+	swapped, err := os.ReadFile(filepath.Join(other, SnapshotFile))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := os.WriteFile(snap, swapped, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if _, err := LoadRun(dir, math.NaN()); !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), "mixes two runs") {
+		t.Errorf("another realization's snapshot: error %v", err)
 	}
 }

@@ -38,7 +38,7 @@ func LoadRun(dir string, t float64) (*Run, error) {
 	if err != nil {
 		return nil, err
 	}
-	note, err := openRunFolder(dir, s, ScenarioFile, SnapshotFile, EventsFile)
+	contents, note, err := openRunFolder(dir, s, ScenarioFile, EventsFile)
 	if err != nil {
 		return nil, err
 	}
@@ -51,6 +51,15 @@ func LoadRun(dir string, t float64) (*Run, error) {
 		return nil, err
 	}
 	defer rd.Close()
+	if contents != nil {
+		damage, err := contents.verifySnapshot(dir, rd)
+		if err != nil {
+			return nil, err
+		}
+		if damage != "" {
+			r.Notes = append(r.Notes, damage)
+		}
+	}
 	if rd.Recovered() {
 		r.Notes = append(r.Notes, SnapshotFile+" was recovered: "+rd.Note())
 	}

@@ -72,7 +72,7 @@ func writeRunReport(dir, out string) error {
 	}
 	warnings := r.Notes
 	if r.Complete {
-		if _, err := openRunFolder(dir, r.Scenario, TimelineFile, SummaryFile); err != nil {
+		if _, _, err := openRunFolder(dir, r.Scenario, TimelineFile, SummaryFile); err != nil {
 			return err
 		}
 		if err := readFile(filepath.Join(dir, TimelineFile), func(f io.Reader) (err error) {
