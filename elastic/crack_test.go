@@ -2,12 +2,12 @@ package elastic
 
 import (
 	"math"
-	"math/cmplx"
 	"testing"
 
 	"gonum.org/v1/gonum/integrate/quad"
 	"gonum.org/v1/gonum/spatial/r2"
 
+	"slipfront/internal/hfref"
 	"slipfront/internal/numtest"
 )
 
@@ -142,16 +142,12 @@ func shadowXX(y float64) float64 {
 	return -(1 - y*(y*y+2*crackHalf*crackHalf)/math.Pow(y*y+crackHalf*crackHalf, 1.5))
 }
 
-// westergaard returns σxx, σyy, σxy/p at (x, y) from Z (Westergaard 1939,
-// mode I: σxx = Re Z − y Im Z′, σyy = Re Z + y Im Z′, σxy = −y Re Z′),
-// with √(z² − c²) = √(z − c)√(z + c) cut along the crack.
+// westergaard returns σxx, σyy, σxy/p at (x, y), tension-positive as the
+// closed forms above, from Westergaard's function (hfref.CrackStress,
+// which is compression-positive).
 func westergaard(x, y float64) (sxx, syy, sxy float64) {
-	z := complex(x, y)
-	c := complex(crackHalf, 0)
-	root := cmplx.Sqrt(z-c) * cmplx.Sqrt(z+c)
-	zz := z/root - 1
-	dz := -c * c / (root * root * root)
-	return real(zz) - y*imag(dz), real(zz) + y*imag(dz), -y * real(dz)
+	sxx, syy, sxy = hfref.CrackStress(x, y, crackHalf)
+	return -sxx, -syy, -sxy
 }
 
 // TestShadowClosedForm checks the closed forms of the stress shadow

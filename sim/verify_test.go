@@ -9,6 +9,10 @@ import (
 	"path/filepath"
 	"testing"
 
+	"gonum.org/v1/gonum/integrate/quad"
+
+	"slipfront/internal/hfref"
+	"slipfront/internal/numtest"
 	"slipfront/mechanics"
 	"slipfront/scenarios"
 )
@@ -140,4 +144,57 @@ func TestCouplingToleranceConverges(t *testing.T) {
 	if !(d1 > 0 && d2 < d1) {
 		t.Errorf("peak BHP changes %.3g Pa then %.3g Pa: want a change that shrinks as the tolerance tightens", d1, d2)
 	}
+}
+
+// Two parallel pressurised conduits shade each other: each is squeezed by
+// the normal stress the other's opening puts on it, so each opens less
+// than a conduit alone at the same pressure. Kachanov's (1987)
+// average-traction solution gives the ratio of their mean openings to the
+// lone one's as 1/(1 + λ), λ the mean normal stress that one crack's
+// uniform pressure puts on the other's plane, per unit pressure
+// (hfref.CrackStress, Westergaard 1939). The case
+// testdata/parallel-conduits (plane strain, pressure control above Shmin
+// until the pressure is uniform) holds two conduits 20 m long, shorter
+// than the layer's thickness so that each opens as a plane-strain crack of
+// its length, 5 m apart (half a half-length).
+func TestParallelConduitsShadow(t *testing.T) {
+	path := filepath.Join("..", "testdata", "parallel-conduits", "scenario.toml")
+	meanOpening := func(overrides ...string) (float64, *scenarios.Scenario) {
+		t.Helper()
+		ov, err := scenarios.ParseOverrides(overrides)
+		if err != nil {
+			t.Fatal(err)
+		}
+		s, err := scenarios.Load(path, ov...)
+		if err != nil {
+			t.Fatal(err)
+		}
+		_, res := runScenario(t, s)
+		var sum, n float64
+		for i, el := range res.Elements {
+			// The conduit of the cluster at 117.5 m, 2.5 m west of the
+			// map's centre line.
+			if el.Set == ConduitSet && math.Abs(0.5*(el.P0.X+el.P1.X)+2.5) < 0.25 {
+				sum += (res.Aperture[i] - res.InitialAperture[i]) * el.Length
+				n += el.Length
+			}
+		}
+		if n == 0 {
+			t.Fatal("no conduit at x = −2.5 m")
+		}
+		return sum / n, s
+	}
+	pair, s := meanOpening()
+	alone, _ := meanOpening(`wells[0].stages[0].clusters=["117.5 m"]`)
+	c := s.Wells[0].ConduitHalfLength
+	const spacing = 5.0
+	lambda := quad.Fixed(func(u float64) float64 { _, syy, _ := hfref.CrackStress(u, spacing, c); return syy }, -c, c, 64, nil, 0) / (2 * c)
+	want := 1 / (1 + lambda)
+	t.Logf("mean opening %.4g mm alone, %.4g mm beside another: ratio %.4f; Kachanov 1/(1 + λ) = %.4f (λ = %.4f)",
+		alone*1e3, pair*1e3, pair/alone, want, lambda)
+	// Alone it opens as Sneddon's (1946) plane-strain crack under the net
+	// pressure: mean opening π(1 − ν)·Δp·c/(2G).
+	net := s.Schedule.InjectionPressure - s.Stress.ShminGradient*s.Layer.Depth
+	numtest.Rel(t, "lone conduit's mean opening against Sneddon", alone, math.Pi*(1-s.Rock.PoissonRatio)*net*c/(2*s.Rock.ShearModulus), 1e-3)
+	numtest.Rel(t, "opening ratio against Kachanov", pair/alone, want, 0.03)
 }

@@ -35,7 +35,18 @@
 // injection into a fracture of zero length; the net pressure is the fluid
 // pressure minus the minimum stress.
 //
+// [CrackStress] adds the stress around a 2-D crack opened by a uniform
+// pressure (Westergaard 1939; Sneddon 1946), against which the shadows
+// of pressurised cracks are checked (elastic's closed forms, Kachanov's
+// (1987) average tractions for interacting conduits in sim).
+//
 // # References
+//
+// Westergaard, H.M. (1939), Bearing pressures and cracks, J. Appl. Mech.
+// 6, A49–A53 (from memory).
+//
+// Kachanov, M. (1987), Elastic solids with many cracks: a simple method of
+// analysis, Int. J. Solids Struct. 23(1), 23–43.
 //
 // Adachi, J.I. & Detournay, E. (2002), Self-similar solution of a
 // plane-strain fracture driven by a power-law fluid, Int. J. Numer. Anal.

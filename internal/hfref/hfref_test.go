@@ -211,3 +211,22 @@ func TestRegime(t *testing.T) {
 		t.Errorf("unknown regime prints %q", got)
 	}
 }
+
+// The pressurised crack's stress: the pressure itself on its faces
+// (σyy = 1, σxy = 0 just off the crack), Sneddon's axis value σyy(0, c) =
+// 1 − 1/2^{3/2} (Sneddon 1946; the closed form of elastic's tests), and
+// nothing far away.
+func TestCrackStress(t *testing.T) {
+	const c = 10.0
+	for _, x := range []float64{-7, 0, 3.5} {
+		_, syy, sxy := CrackStress(x, 1e-9, c)
+		numtest.Abs(t, "σyy on the crack", syy, 1, 1e-7)
+		numtest.Abs(t, "σxy on the crack", sxy, 0, 1e-7)
+	}
+	_, syy, _ := CrackStress(0, c, c)
+	numtest.Abs(t, "σyy(0, c)", syy, 1-1/math.Pow(2, 1.5), 1e-12)
+	sxx, syy, sxy := CrackStress(1e4, 3e4, c)
+	if math.Abs(sxx)+math.Abs(syy)+math.Abs(sxy) > 1e-6 {
+		t.Errorf("far field %g, %g, %g: want about 0", sxx, syy, sxy)
+	}
+}
