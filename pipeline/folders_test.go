@@ -153,7 +153,7 @@ func TestSimulateFolderAndRealization(t *testing.T) {
 	dir, mem := runFolder(t)
 	// The demo's two wells have a section each.
 	pictures := []string{DistanceTimeFile, GrowthPictureFile, MagnitudeFrequencyFile, MapPictureFile, sectionPictureFile(0), sectionPictureFile(1)}
-	want := append([]string{ContentsFile, CSVMetadataFile, EventsFile, FracturesFile, MapsFile, SnapshotFile, ScenarioFile, SummaryFile, TimelineFile},
+	want := append([]string{ContentsFile, CSVMetadataFile, EventsFile, FracturesFile, MapsFile, SnapshotFile, ScenarioFile, StressChangeFile, SummaryFile, TimelineFile},
 		pictures...)
 	slices.Sort(want)
 	if got := folderFiles(t, dir); !slices.Equal(got, want) {
