@@ -67,6 +67,30 @@ func benchmarkMulVec(b *testing.B, n int, build func([]Element) (Operator, error
 	b.ReportMetric(float64(len(el)), "elements")
 }
 
+// BenchmarkHierarchicalMulVecSparse1e4 is a product whose input is
+// non-zero on 1 % of the elements (the first ones generated), as a step's
+// new slip or a far-field refresh of the contact problem is: the blocks
+// over zeros are skipped.
+func BenchmarkHierarchicalMulVecSparse1e4(b *testing.B) {
+	el := dfnElements(networkSettings{elements: 1e4, seed: 1, varied: true})
+	op, err := hierarchical(el)
+	if err != nil {
+		b.Fatal(err)
+	}
+	s, w := make([]float64, len(el)), make([]float64, len(el))
+	for i := range len(el) / 100 {
+		s[i] = 1e-3
+	}
+	tau, sn := make([]float64, len(el)), make([]float64, len(el))
+	op.MulVecTo(tau, sn, s, w)
+	runtime.GC()
+	b.ReportAllocs()
+	b.ResetTimer()
+	for b.Loop() {
+		op.MulVecTo(tau, sn, s, w)
+	}
+}
+
 func hierarchical(el []Element) (Operator, error) { return NewHierarchical(el, rock, Settings{}) }
 func dense(el []Element) (Operator, error)        { return NewDense(el, rock, Settings{}) }
 

@@ -87,6 +87,42 @@ func TestHierarchicalMatchesDense(t *testing.T) {
 	}
 }
 
+// Products skip the blocks whose slice of the input is all zeros; with
+// few non-zero entries (slip on a handful of elements, opening on
+// another) the product still equals the dense operator's to the
+// tolerance, and a zero input gives exactly zero.
+func TestHierarchicalSparseInput(t *testing.T) {
+	el := dfnElements(networkSettings{elements: 1000, seed: 5, varied: true})
+	h, err := NewHierarchical(el, rock, Settings{Tolerance: 1e-6})
+	if err != nil {
+		t.Fatal(err)
+	}
+	d := mustDense(t, el, Settings{})
+	r := rand.New(rand.NewPCG(11, 12))
+	s, w := make([]float64, len(el)), make([]float64, len(el))
+	for range 10 {
+		s[r.IntN(len(el))] = 1e-3 * (2*r.Float64() - 1)
+	}
+	w[r.IntN(len(el))] = 1e-3
+	for _, tc := range []struct {
+		name string
+		s, w []float64
+	}{{"slip and opening", s, w}, {"slip only", s, make([]float64, len(el))}, {"opening only", make([]float64, len(el)), w}} {
+		ht, hn := apply(h, tc.s, tc.w)
+		dt, dn := apply(d, tc.s, tc.w)
+		if e := relDiff(ht, hn, dt, dn); !(e <= 1e-6) {
+			t.Errorf("%s: relative error %.3g against dense, want ≤ 1e-6", tc.name, e)
+		}
+	}
+	zero := make([]float64, len(el))
+	ht, hn := apply(h, zero, zero)
+	for i := range ht {
+		if ht[i] != 0 || hn[i] != 0 {
+			t.Fatalf("zero input: element %d gets %g, %g", i, ht[i], hn[i])
+		}
+	}
+}
+
 // TestWorkersDeterminism checks that products do not depend on the
 // number of workers that assembled and multiply: bit for bit.
 func TestWorkersDeterminism(t *testing.T) {

@@ -44,6 +44,10 @@ type hmatrix struct {
 	mu    sync.Mutex // guards the scratch below
 	parts []part     // the blocks split for products
 	xp    []float32  // x in tree order
+	// nz[k] counts the non-zero values among xp[:k]: a block whose
+	// columns (or, for its transpose, rows) hold only zeros adds nothing
+	// and is skipped.
+	nz []int32
 	yp    []float64  // y in tree order
 	t     []float32  // Vᵀx (and Uᵀx) of every low-rank block
 }

@@ -47,6 +47,7 @@ func (h *hmatrix) makeParts() {
 		h.parts[p].z = make([]float32, n)
 	}
 	h.xp = make([]float32, h.cd*len(h.cols.perm))
+	h.nz = make([]int32, len(h.xp)+1)
 	h.yp = make([]float64, n)
 }
 
@@ -63,6 +64,12 @@ func (h *hmatrix) mulVec(y, x []float64) {
 	for p, o := range h.cols.perm {
 		for c := range cd {
 			h.xp[p*cd+c] = float32(x[o*cd+c])
+		}
+	}
+	for k, v := range h.xp {
+		h.nz[k+1] = h.nz[k]
+		if v != 0 {
+			h.nz[k+1]++
 		}
 	}
 	// One worker calls the loops directly: a closure would allocate.
@@ -101,7 +108,10 @@ func (h *hmatrix) sumParts(lo, hi int) {
 }
 
 // blockProduct adds block b's contribution (and, for an off-diagonal
-// block of a symmetric matrix, its transpose's) to the part's y.
+// block of a symmetric matrix, its transpose's) to the part's y. A
+// product whose slice of x is all zeros adds exactly nothing and is
+// skipped: slip and opening increments are non-zero on few elements, so
+// most far blocks drop out of their products.
 // Diagonal blocks, which hold the largest entries, are summed in double
 // precision (gonum's vectorized Dsdot); the other blocks in single
 // precision (Sdot by rows, Saxpy by columns into z, then added to y),
@@ -111,7 +121,11 @@ func (h *hmatrix) blockProduct(b *hblock, pt *part) {
 	rn, cn := &h.rows.nodes[b.spec.row], &h.cols.nodes[b.spec.col]
 	xc := h.xp[h.cd*cn.lo : h.cd*cn.hi]
 	yr := pt.y[h.rd*rn.lo : h.rd*rn.hi]
-	trans := h.symmetric && b.spec.row != b.spec.col
+	forward := h.nz[h.cd*cn.hi] > h.nz[h.cd*cn.lo]
+	trans := h.symmetric && b.spec.row != b.spec.col && h.nz[h.rd*rn.hi] > h.nz[h.rd*rn.lo]
+	if !forward && !trans {
+		return
+	}
 	var xr []float32
 	var yc []float64
 	if trans { // rd = cd
@@ -131,7 +145,9 @@ func (h *hmatrix) blockProduct(b *hblock, pt *part) {
 		}
 		for r := range yr {
 			row := b.dense[r*nn : (r+1)*nn]
-			yr[r] += float64(impl.Sdot(nn, row, 1, xc, 1))
+			if forward {
+				yr[r] += float64(impl.Sdot(nn, row, 1, xc, 1))
+			}
 			if trans {
 				impl.Saxpy(nn, xr[r], row, 1, zc, 1)
 			}
@@ -142,19 +158,25 @@ func (h *hmatrix) blockProduct(b *hblock, pt *part) {
 	default:
 		k, m := b.k, len(yr)
 		t, t2 := h.t[b.tOff:b.tOff+k], h.t[b.tOff+k:b.tOff+2*k]
-		for l := range t {
-			t[l] = impl.Sdot(nn, b.v[l*nn:], 1, xc, 1)
-		}
 		zr := pt.z[:m]
-		clear(zr)
-		for l, tl := range t {
+		if forward {
+			for l := range t {
+				t[l] = impl.Sdot(nn, b.v[l*nn:], 1, xc, 1)
+			}
+			clear(zr)
+		}
+		for l := range k { // each column of U read once for both products
 			col := b.u[l*m : (l+1)*m]
 			if trans {
 				t2[l] = impl.Sdot(m, col, 1, xr, 1)
 			}
-			impl.Saxpy(m, tl, col, 1, zr, 1)
+			if forward {
+				impl.Saxpy(m, t[l], col, 1, zr, 1)
+			}
 		}
-		addTo(yr, zr)
+		if forward {
+			addTo(yr, zr)
+		}
 		if trans {
 			zc := pt.z[:nn]
 			clear(zc)
