@@ -123,8 +123,8 @@ func parseSample(rec []string, stages map[string]int) (Sample, error) {
 	if !ok {
 		return Sample{}, fmt.Errorf("stage %q is not in the scenario's schedule", rec[1])
 	}
-	var v [9]float64
-	for k, c := range []int{0, 2, 3, 4, 5, 6, 8, 9, 10} {
+	var v [11]float64
+	for k, c := range []int{0, 2, 3, 4, 5, 6, 8, 9, 10, 11, 12} {
 		if rec[c] == "" && (c == 2 || c == 4) {
 			v[k] = math.NaN()
 			continue
@@ -138,11 +138,15 @@ func parseSample(rec []string, stages map[string]int) (Sample, error) {
 	if v[6] != math.Trunc(v[6]) || v[7] != math.Trunc(v[7]) || v[6] < 0 || v[7] < 0 {
 		return Sample{}, fmt.Errorf("element and event counts must be whole numbers ≥ 0")
 	}
+	if v[9] < 0 || v[10] < 0 {
+		return Sample{}, fmt.Errorf("moments %g and %g N·m: must be ≥ 0", v[9], v[10])
+	}
 	if math.Abs(v[3]) > maxMPa || math.Abs(v[8]) > maxMPa {
 		return Sample{}, fmt.Errorf("pressures of %g and %g MPa: at most %g MPa", v[3], v[8], maxMPa)
 	}
 	return Sample{Time: v[0], Stage: stage, Rate: v[1], Injected: v[2], BHP: v[3] * 1e6,
-		StimulatedArea: v[4], FractureArea: v[5], SlippedElements: int(v[6]), Events: int(v[7]), MaxPressure: v[8] * 1e6}, nil
+		StimulatedArea: v[4], FractureArea: v[5], SlippedElements: int(v[6]), Events: int(v[7]), MaxPressure: v[8] * 1e6,
+		SeismicMoment: v[9], AseismicMoment: v[10]}, nil
 }
 
 // ReadSummary reads the per-stage summaries and the warnings from a

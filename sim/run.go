@@ -52,6 +52,9 @@ type Sample struct {
 	SlippedElements, Events int
 	// MaxPressure over all elements, Pa.
 	MaxPressure float64
+	// SeismicMoment (the events) and AseismicMoment (stable slip)
+	// released so far, N·m.
+	SeismicMoment, AseismicMoment float64
 }
 
 // StageSummary sums up one stage.
@@ -517,7 +520,8 @@ func (r *runner) record(final bool) error {
 // sample is the timeline row of the current state.
 func (r *runner) sample() Sample {
 	s := Sample{Time: r.t, Stage: r.stage, Rate: r.lastRate, Injected: r.res.Injected, BHP: r.lastBHP,
-		StimulatedArea: r.stim.area(), FractureArea: r.stim.fracArea, Events: len(r.res.Events)}
+		StimulatedArea: r.stim.area(), FractureArea: r.stim.fracArea, Events: len(r.res.Events),
+		SeismicMoment: r.ms.seismicMoment, AseismicMoment: r.ms.aseismicMoment}
 	for i, d := range r.ms.state.Travel {
 		if d > 0 {
 			s.SlippedElements++

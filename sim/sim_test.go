@@ -186,6 +186,10 @@ func TestDemoInvariants(t *testing.T) {
 		t.Error("the event catalogue is not in time order")
 	}
 	numtest.Rel(t, "Σ event moments", m0, res.SeismicMoment, 1e-9)
+	last := res.Timeline[len(res.Timeline)-1]
+	if last.SeismicMoment != res.SeismicMoment || last.AseismicMoment != res.AseismicMoment {
+		t.Errorf("last timeline row moments %g, %g N·m; the run's %g, %g N·m", last.SeismicMoment, last.AseismicMoment, res.SeismicMoment, res.AseismicMoment)
+	}
 	numtest.Rel(t, "seismic + aseismic moment", res.SeismicMoment+res.AseismicMoment, s.Rock.ShearModulus*slipArea, 1e-9)
 	if !(res.AseismicMoment > 0) {
 		t.Errorf("aseismic moment %g N·m: the demo's fractures slip stably before they rupture", res.AseismicMoment)
@@ -616,6 +620,8 @@ func checkSamplesEqual(t *testing.T, i int, got, want Sample) {
 		{"stimulated area", got.StimulatedArea, want.StimulatedArea, fixedTol(want.StimulatedArea, 1)},
 		{"fracture area", got.FractureArea, want.FractureArea, fixedTol(want.FractureArea, 1)},
 		{"max pressure MPa", got.MaxPressure / 1e6, want.MaxPressure / 1e6, fixedTol(want.MaxPressure/1e6, 6)},
+		{"seismic moment", got.SeismicMoment, want.SeismicMoment, sciTol(want.SeismicMoment, 6)},
+		{"aseismic moment", got.AseismicMoment, want.AseismicMoment, sciTol(want.AseismicMoment, 6)},
 	} {
 		checkPrinted(t, fmt.Sprintf("row %d %s", i, c.name), c.got, c.want, c.tol)
 	}
@@ -664,7 +670,7 @@ func FuzzReadTimeline(f *testing.F) {
 	if err != nil {
 		f.Fatal(err)
 	}
-	f.Add([]byte(TimelineHeader + "\n0,,,0,31.2,0,0,0,0,0,31.2\n300,W1:1,2.6e-02,7.9,49.1,100.0,250.0,3000.0,4,7,49.1\n"))
+	f.Add([]byte(TimelineHeader + "\n0,,,0,31.2,0,0,0,0,0,31.2,0,0\n300,W1:1,2.6e-02,7.9,49.1,100.0,250.0,3000.0,4,7,49.1,2.5e+10,1.0e+12\n"))
 	f.Fuzz(func(t *testing.T, data []byte) {
 		rows, err := ReadTimeline(bytes.NewReader(data), "fuzz.csv", s)
 		if err != nil {

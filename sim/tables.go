@@ -27,6 +27,8 @@ var (
 			{Title: "slipped_elements", Datatype: csvw.Integer, Description: "elements that have slipped at least once"},
 			{Title: "events", Datatype: csvw.Integer, Description: "synthetic microseismic events so far"},
 			{Title: "max_pressure_MPa", Datatype: csvw.Double, Unit: "MPa", Description: "highest pore pressure of any element, absolute"},
+			{Title: "seismic_moment_Nm", Datatype: csvw.Double, Unit: "N.m", Description: "summed moment of the events (unstable ruptures) so far"},
+			{Title: "aseismic_moment_Nm", Datatype: csvw.Double, Unit: "N.m", Description: "moment of the stable (aseismic) slip so far"},
 		},
 	}
 	EventsTable = csvw.Table{

@@ -50,6 +50,7 @@ func WriteTimeline(w io.Writer, s *scenarios.Scenario, res *Result) error {
 			num(x.Time, 3), scenarios.StageNameAt(order, x.Stage), sci(x.Rate, 6), num(x.Injected, 6), num(x.BHP/1e6, 6),
 			num(x.StimulatedArea, 1), num(x.FractureArea, 1), num(x.StimulatedArea*s.Layer.Thickness, 1),
 			strconv.Itoa(x.SlippedElements), strconv.Itoa(x.Events), num(x.MaxPressure/1e6, 6),
+			sci(x.SeismicMoment, 6), sci(x.AseismicMoment, 6),
 		})
 	}
 	return cw.Flush()
