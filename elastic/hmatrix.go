@@ -48,8 +48,8 @@ type hmatrix struct {
 	// columns (or, for its transpose, rows) hold only zeros adds nothing
 	// and is skipped.
 	nz []int32
-	yp    []float64  // y in tree order
-	t     []float32  // Vᵀx (and Uᵀx) of every low-rank block
+	yp []float64 // y in tree order
+	t  []float32 // Vᵀx (and Uᵀx) of every low-rank block
 }
 
 // newHMatrix assembles the hierarchical matrix of src over the given
