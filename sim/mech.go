@@ -4,10 +4,12 @@ import (
 	"cmp"
 	"fmt"
 	"math"
+	"math/rand/v2"
 	"slices"
 
 	"gonum.org/v1/gonum/spatial/r2"
 
+	"slipfront/dfn"
 	"slipfront/elastic"
 	"slipfront/mechanics"
 )
@@ -66,6 +68,9 @@ type mechState struct {
 	// step, if iterated.
 	lastP, lastE []float64
 	iterated     bool
+	// depths draws the events' depths (seeded by the scenario's seed, the
+	// realization and the purpose, so runs repeat exactly).
+	depths *rand.Rand
 	// coulomb holds the Coulomb stress change of every element, Pa.
 	coulomb []float64
 }
@@ -132,6 +137,7 @@ func newMechState(m *model) (*mechState, error) {
 		return nil, err
 	}
 	ms.state = ms.contact.NewState()
+	ms.depths = dfn.Stream(m.s.Seed, m.net.Realization, -1, "event depth")
 	ms.averageNormal()
 	ms.setOpeningShape()
 	return ms, nil
@@ -291,8 +297,10 @@ func (ms *mechState) commit(t0, dt float64, k int, p []float64, dst []Event) []E
 }
 
 // event is the synthetic microseismic event of a rupture: its centre is
-// the nucleation element, its slip the area-weighted mean slip of the
-// rupture, its moment M0 = G·Σ A·|Δs| (Aki 1966).
+// the nucleation element, its depth drawn uniformly over that element's
+// conducting height about the layer's mid-plane (the map-view model does
+// not place the rupture within the height), its slip the area-weighted
+// mean slip of the rupture, its moment M0 = G·Σ A·|Δs| (Aki 1966).
 func (ms *mechState) event(rp mechanics.Rupture, t float64, k int) Event {
 	m, st := ms.m, ms.state
 	g := m.s.Rock.ShearModulus
@@ -304,7 +312,8 @@ func (ms *mechState) event(rp mechanics.Rupture, t float64, k int) Event {
 	}
 	el := m.elements[rp.Nucleation]
 	c := r2.Scale(0.5, r2.Add(el.P0, el.P1))
-	return Event{Time: t, X: c.X, Y: c.Y, Depth: m.s.Layer.Depth,
+	depth := m.s.Layer.Depth + (ms.depths.Float64()-0.5)*el.Height
+	return Event{Time: t, X: c.X, Y: c.Y, Depth: depth,
 		Fracture: el.Fracture, Trace: el.Trace, Stage: k,
 		Slip: m0 / (g * area), Area: area, Moment: m0, Magnitude: mechanics.MomentMagnitude(m0)}
 }

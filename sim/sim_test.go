@@ -186,6 +186,24 @@ func TestDemoInvariants(t *testing.T) {
 		t.Error("the event catalogue is not in time order")
 	}
 	numtest.Rel(t, "Σ event moments", m0, res.SeismicMoment, 1e-9)
+	// Event depths lie within the nucleating element's conducting height
+	// about the mid-plane, and are not all on it.
+	var spread float64
+	for _, e := range res.Events {
+		var h float64
+		for _, el := range res.Elements {
+			if el.Fracture == e.Fracture && el.Trace == e.Trace {
+				h = math.Max(h, el.Height)
+			}
+		}
+		if d := math.Abs(e.Depth - s.Layer.Depth); d > h/2 {
+			t.Errorf("event at %.2f m TVD: %.2f m off the mid-plane, beyond half its fracture's height %.2f m", e.Depth, d, h)
+		}
+		spread = math.Max(spread, math.Abs(e.Depth-s.Layer.Depth))
+	}
+	if !(spread > 1) {
+		t.Errorf("every event within %.2g m of the mid-plane: depths not drawn over the height", spread)
+	}
 	last := res.Timeline[len(res.Timeline)-1]
 	if last.SeismicMoment != res.SeismicMoment || last.AseismicMoment != res.AseismicMoment {
 		t.Errorf("last timeline row moments %g, %g N·m; the run's %g, %g N·m", last.SeismicMoment, last.AseismicMoment, res.SeismicMoment, res.AseismicMoment)

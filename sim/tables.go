@@ -38,7 +38,7 @@ var (
 			{Title: "time_s", Datatype: csvw.Double, Unit: "s", Description: "time since the start of pumping"},
 			{Title: "x_m", Datatype: csvw.Double, Unit: "m", Description: "local east of the scenario origin: centre of the element where the rupture nucleated"},
 			{Title: "y_m", Datatype: csvw.Double, Unit: "m", Description: "local north of the scenario origin"},
-			{Title: "depth_m", Datatype: csvw.Double, Unit: "m", Description: "true vertical depth, positive down"},
+			{Title: "depth_m", Datatype: csvw.Double, Unit: "m", Description: "true vertical depth, positive down: drawn uniformly over the nucleating element's conducting height about the layer mid-plane (seeded)"},
 			{Title: "fracture_id", Datatype: csvw.Integer, Description: "index of the fracture in the realization's network (fracture_id of fractures.csv); -1 for a primary conduit"},
 			{Title: "stage", Datatype: csvw.String, Description: "name of the stage (well:stage)"},
 			{Title: "slip_mm", Datatype: csvw.Double, Unit: "mm", Description: "mean slip D of the rupture"},
