@@ -285,7 +285,7 @@ type Numerics struct {
 	// Solver is "auto", "cholesky", "pcg-jacobi" or "pcg-ic0".
 	Solver string `toml:"solver" default:"auto" range:"auto|cholesky|pcg-jacobi|pcg-ic0" doc:"linear solver: auto picks sparse Cholesky unless the system is too large to factor"`
 	// OutputInterval between snapshot frames and timeline rows, s.
-	OutputInterval float64 `toml:"output_interval" unit:"time" range:"[0.001,1e8]" default:"5 min" doc:"time between snapshot frames and timeline rows"`
+	OutputInterval float64 `toml:"output_interval" unit:"time" range:"[0.001,1e8]" default:"5 min" doc:"time between snapshot frames and timeline rows (each at the end of the first time step at or after its output time; output times never shorten steps)"`
 	// CellSize of the map grid of pictures, rasters and probability maps,
 	// m. No headline number depends on it.
 	CellSize float64 `toml:"cell_size" unit:"length" range:"[0.01,1e4]" default:"10 m" doc:"map cell size of the pictures, rasters and probability maps"`

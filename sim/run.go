@@ -18,15 +18,16 @@ type Options struct {
 	// Begin, when set, is called once the mesh is built, before the first
 	// frame, with the elements (e.g. to write a snapshot header).
 	Begin func(elements []Element) error
-	// Frame, when set, receives the state at every output time and at the
-	// end; the slices are valid only during the call.
+	// Frame, when set, receives the state at the end of the first time
+	// step at or after every output time (k·numerics.output_interval) and
+	// at the end; the slices are valid only during the call.
 	Frame func(*Frame) error
 	// Progress, when set, is called after every accepted step with the
 	// simulated time and the schedule's nominal end, s.
 	Progress func(t, end float64)
 }
 
-// Frame is the state of every element at one output time.
+// Frame is the state of every element at the end of one time step.
 type Frame struct {
 	Time  float64
 	Stage int
@@ -88,8 +89,9 @@ type Result struct {
 	StimulatedAt []float64
 	Cells        []int
 	Timeline     []Sample
-	// FrameTimes are the output times (and the end): the times of the
-	// frames passed to Options.Frame, whether or not it is set, s.
+	// FrameTimes are the times of the frames passed to Options.Frame
+	// (step ends at or after the output times, and the end), whether or
+	// not it is set, s.
 	FrameTimes []float64
 	Events     []Event
 	Stages     []StageSummary
@@ -374,16 +376,15 @@ func (r *runner) runPhase(ctx context.Context, sys *flow.System, p *phase, sum *
 		if err := ctx.Err(); err != nil {
 			return err
 		}
-		// The step ends at the next output time or the phase's end when
-		// it reaches them, exactly, so outputs fall on round times.
+		// The step ends at the phase's end when it reaches it, exactly.
+		// Output times do not shorten steps (an output setting must not
+		// change the result): a frame is taken at the end of the first
+		// step at or after each output time.
 		end := r.t + z.Dt
-		for _, mark := range []float64{r.t + p.limit(r.t), p.until, r.output} {
+		for _, mark := range []float64{r.t + p.limit(r.t), p.until} {
 			if mark > r.t && mark <= end {
 				end = mark
 			}
-		}
-		if math.Abs(end-r.output) <= 1e-9*math.Max(1, r.output) {
-			end = r.output // an end of volume a round-off away from an output
 		}
 		dt := end - r.t
 		err := r.step(sys, p, sum, end, settings, &z)
@@ -475,7 +476,8 @@ func (r *runner) warnTensile(stage string, bhp float64) {
 }
 
 // record appends a timeline row at the current time (replacing a row at
-// the same time) and, at output times and at the end, passes a frame on.
+// the same time) and, at the first step end at or after an output time
+// and at the end, passes a frame on.
 func (r *runner) record(final bool) error {
 	const tol = 1e-9
 	interval := r.m.s.Numerics.OutputInterval

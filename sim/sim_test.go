@@ -470,14 +470,21 @@ func TestStimulatedAreaGeometry(t *testing.T) {
 	}
 }
 
-// Neither the cell size of the map grid nor the snapshot interval changes
-// the stimulated area: it is a property of the stimulated elements alone.
-func TestStimulatedAreaIndependentOfDisplay(t *testing.T) {
+// Neither the cell size of the map grid nor the output interval changes
+// any result: the stimulated area is a property of the stimulated elements
+// alone, and output times do not shorten time steps.
+func TestResultsIndependentOfDisplay(t *testing.T) {
 	_, _, base := runExample(t, "single-fracture")
 	_, _, fine := runExample(t, "single-fracture", "numerics.cell_size=2.5 m", "numerics.output_interval=7 s")
 	if base.StimulatedArea <= 0 || fine.StimulatedArea != base.StimulatedArea {
 		t.Errorf("stimulated area %g m² at the default cell size, %g m² at 2.5 m cells and another output interval",
 			base.StimulatedArea, fine.StimulatedArea)
+	}
+	if len(base.Events) == 0 || len(fine.Events) != len(base.Events) || fine.SeismicMoment != base.SeismicMoment ||
+		fine.AseismicMoment != base.AseismicMoment || fine.PeakBHP != base.PeakBHP || fine.Steps != base.Steps {
+		t.Errorf("with another output interval: %d events, moments %g and %g N·m, peak BHP %g Pa, %d steps; at the default %d, %g and %g N·m, %g Pa, %d steps",
+			len(fine.Events), fine.SeismicMoment, fine.AseismicMoment, fine.PeakBHP, fine.Steps,
+			len(base.Events), base.SeismicMoment, base.AseismicMoment, base.PeakBHP, base.Steps)
 	}
 	if len(fine.Cells) <= len(base.Cells) {
 		t.Errorf("%d cells at 2.5 m against %d at the default: the grid did not change", len(fine.Cells), len(base.Cells))

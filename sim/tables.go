@@ -13,7 +13,7 @@ import (
 var (
 	TimelineTable = csvw.Table{
 		Title: "timeline",
-		Description: "The run over time: one row at every output time (numerics.output_interval) and stage boundary, " +
+		Description: "The run over time: one row at the end of the first time step at or after every output time (k times numerics.output_interval) and at every stage boundary, " +
 			"times in s from schedule.start.",
 		Columns: []csvw.Column{
 			{Title: "time_s", Datatype: csvw.Double, Unit: "s", Description: "time since the start of pumping"},
