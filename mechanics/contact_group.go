@@ -43,6 +43,8 @@ type groupSystem struct {
 	jac    []float64 // |free|², row-major
 	res    []float64 // |free|
 	slopes []float64 // ∂μ/∂D of each element at z (0 unless sliding and weakening)
+	// monotone forbids sliding elements to stick again (see settle).
+	monotone bool
 }
 
 // maxStatusChanges bounds the active-set iterations of a group solve, and
@@ -162,8 +164,20 @@ func (u *unstable) Error() string { return "mechanics: unstable sliding patch" }
 // hold. After every solve the sliding patch's stability is checked: near
 // the instability the statuses would otherwise cycle, and past it no
 // quasi-static solution exists; an *unstable error reports it.
+//
+// Statuses can still cycle where strongly coupled elements (crossing or
+// touching traces) unload one another: an element sticks, its neighbour
+// then overloads it, it slides again. After maxStatusChanges rounds the
+// active set is made monotone: a sliding element keeps sliding (its
+// increment may then run slightly backwards, by less than the sliding
+// tolerance of the next rounds' solves), so each element changes at most
+// once more and the rounds end. This is the usual guard of active-set
+// methods against cycling (common practice, no source); results that
+// converge within maxStatusChanges are untouched.
 func (s *groupSystem) settle() error {
-	for range maxStatusChanges {
+	s.monotone = false
+	for round := range maxStatusChanges + 2*s.m {
+		s.monotone = round >= maxStatusChanges
 		if err := s.newton(); err != nil {
 			return err
 		}
@@ -342,7 +356,7 @@ func (s *groupSystem) updateStatus() bool {
 			switch {
 			case opens:
 				t.status[i], changed = open, true
-			case float64(t.sign[i])*s.z[k] < -absScale*1e-3:
+			case float64(t.sign[i])*s.z[k] < -absScale*1e-3 && !s.monotone:
 				t.status[i], changed = stuck, true
 			}
 		case open:
