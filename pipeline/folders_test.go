@@ -244,6 +244,14 @@ func TestStoppedRunPartialFolder(t *testing.T) {
 	if !errors.Is(err, outdir.ErrPartialExists) || !errors.Is(err, badinput.Err) {
 		t.Errorf("rerun beside a partial folder: error %v, want ErrPartialExists", err)
 	}
+	// Stopped before the snapshot held anything (during the set-up): an
+	// input error that says so, not a failure.
+	if err := os.WriteFile(filepath.Join(partial, SnapshotFile), nil, 0o644); err != nil {
+		t.Fatal(err)
+	}
+	if _, err := LoadRun(partial, math.NaN()); !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), "stopped before") {
+		t.Errorf("partial folder with an empty snapshot: error %v", err)
+	}
 }
 
 // A complete folder whose file was swapped for another run's is refused.

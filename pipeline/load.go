@@ -3,6 +3,7 @@ package pipeline
 import (
 	"errors"
 	"fmt"
+	"io"
 	"io/fs"
 	"math"
 	"os"
@@ -47,6 +48,9 @@ func LoadRun(dir string, t float64) (*Run, error) {
 		r.Notes = append(r.Notes, note)
 	}
 	rd, err := snapshot.Open(filepath.Join(dir, SnapshotFile))
+	if errors.Is(err, io.ErrUnexpectedEOF) || errors.Is(err, snapshot.ErrFormat) {
+		return nil, badinput.Errorf("%w (a run stopped before its snapshot held a header and a frame has nothing to read)", err)
+	}
 	if err != nil {
 		return nil, err
 	}
