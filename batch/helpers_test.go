@@ -172,3 +172,20 @@ func runBatch(t testing.TB, opts Options) *Summary {
 	}
 	return sum
 }
+
+// swapScenario replaces the base scenario kept in the batch folder dir by
+// another one (a thicker layer), as a mixed-up folder would hold.
+func swapScenario(t *testing.T, dir string) {
+	t.Helper()
+	thick, err := loader(scenarios.Override{Key: "layer.thickness", Value: "25 m"})()
+	if err != nil {
+		t.Fatal(err)
+	}
+	other, err := resolvedBytes(thick)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := os.WriteFile(filepath.Join(dir, ScenarioName), other, 0o644); err != nil {
+		t.Fatal(err)
+	}
+}

@@ -451,17 +451,7 @@ func TestBatchKeepsScenario(t *testing.T) {
 		t.Errorf("resuming a folder without its scenario: %v; want the same bytes written again", err)
 	}
 
-	thick, err := loader(scenarios.Override{Key: "layer.thickness", Value: "25 m"})()
-	if err != nil {
-		t.Fatal(err)
-	}
-	other, err := resolvedBytes(thick)
-	if err != nil {
-		t.Fatal(err)
-	}
-	if err := os.WriteFile(filepath.Join(out, ScenarioName), other, 0o644); err != nil {
-		t.Fatal(err)
-	}
+	swapScenario(t, out)
 	if _, err := Run(context.Background(), o); !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), "mixes two scenarios") {
 		t.Errorf("resuming a folder with another scenario: err = %v, want bad input saying it mixes two scenarios", err)
 	}
@@ -501,17 +491,7 @@ func TestMergeRefuses(t *testing.T) {
 	}
 	// A shard whose base scenario was swapped for another's.
 	f1 := shard("f1", 1, 2, nil)
-	thick, err := loader(scenarios.Override{Key: "layer.thickness", Value: "25 m"})()
-	if err != nil {
-		t.Fatal(err)
-	}
-	other, err := resolvedBytes(thick)
-	if err != nil {
-		t.Fatal(err)
-	}
-	if err := os.WriteFile(filepath.Join(f1, ScenarioName), other, 0o644); err != nil {
-		t.Fatal(err)
-	}
+	swapScenario(t, f1)
 
 	var mm *MismatchError
 	err = Merge(context.Background(), []string{a0, b1}, filepath.Join(root, "m1"), false)

@@ -175,7 +175,6 @@ func (u *unstable) Error() string { return "mechanics: unstable sliding patch" }
 // methods against cycling (common practice, no source); results that
 // converge within maxStatusChanges are untouched.
 func (s *groupSystem) settle() error {
-	s.monotone = false
 	for round := range maxStatusChanges + 2*s.m {
 		s.monotone = round >= maxStatusChanges
 		if err := s.newton(); err != nil {

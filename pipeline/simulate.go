@@ -121,25 +121,21 @@ func writeRunFiles(ctx context.Context, out string, s *scenarios.Scenario, net *
 		return err
 	}
 	r := &Run{Scenario: s, Network: net, Result: res, Time: res.Duration, OutlineTimes: res.FrameTimes}
-	if err := writeRunMaps(ctx, out, r); err != nil {
+	return writeRunMaps(ctx, out, r)
+}
+
+// writeRunMaps writes MapsFile, StressChangeFile and the pictures of a
+// finished run into dir.
+func writeRunMaps(ctx context.Context, dir string, r *Run) error {
+	pl, err := r.Placement()
+	if err != nil {
 		return err
 	}
 	stress, err := r.StressChangeRaster()
 	if err != nil {
 		return err
 	}
-	pl, err := r.Placement()
-	if err != nil {
-		return err
-	}
-	return writeFiles(out, namedWriter{StressChangeFile, func(w io.Writer) error { return gis.WriteGeoTIFF(w, pl, stress) }})
-}
-
-// writeRunMaps writes MapsFile and the pictures of a finished run into
-// dir.
-func writeRunMaps(ctx context.Context, dir string, r *Run) error {
-	pl, err := r.Placement()
-	if err != nil {
+	if err := writeFiles(dir, namedWriter{StressChangeFile, func(w io.Writer) error { return gis.WriteGeoTIFF(w, pl, stress) }}); err != nil {
 		return err
 	}
 	layers, err := r.Layers()

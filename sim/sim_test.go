@@ -271,10 +271,10 @@ func TestShminWarningPerStage(t *testing.T) {
 	}
 }
 
-// checkGainOnlyWhereSlipped: an element that never slipped has exactly the
-// aperture the closure law gives at its final pressure (no lasting gain);
-// with dilation, a slipped one has more.
-func checkGainOnlyWhereSlipped(t *testing.T, s *scenarios.Scenario, res *Result) {
+// apertureSetting returns what a check of apertures needs: the
+// scenario's aperture law, its stress at the layer's depth and the network
+// of realization 0.
+func apertureSetting(t *testing.T, s *scenarios.Scenario) (mechanics.ApertureModel, mechanics.Stress, *dfn.Network) {
 	t.Helper()
 	model, err := mechanics.ApertureFromScenario(s.Rock)
 	if err != nil {
@@ -288,6 +288,15 @@ func checkGainOnlyWhereSlipped(t *testing.T, s *scenarios.Scenario, res *Result)
 	if err != nil {
 		t.Fatal(err)
 	}
+	return model, stress, net
+}
+
+// checkGainOnlyWhereSlipped: an element that never slipped has exactly the
+// aperture the closure law gives at its final pressure (no lasting gain);
+// with dilation, a slipped one has more.
+func checkGainOnlyWhereSlipped(t *testing.T, s *scenarios.Scenario, res *Result) {
+	t.Helper()
+	model, stress, net := apertureSetting(t, s)
 	var slipped, shadowed int
 	for i, el := range res.Elements {
 		if el.Fracture < 0 {
@@ -327,19 +336,8 @@ func checkGainOnlyWhereSlipped(t *testing.T, s *scenarios.Scenario, res *Result)
 // with it.
 func TestRetainedPermeabilityGain(t *testing.T) {
 	s, res := runSmallDemo(t)
-	net, err := dfn.Generate(s, 0)
-	if err != nil {
-		t.Fatal(err)
-	}
+	model, stress, net := apertureSetting(t, s)
 	fractures, err := Fractures(s, net, res)
-	if err != nil {
-		t.Fatal(err)
-	}
-	model, err := mechanics.ApertureFromScenario(s.Rock)
-	if err != nil {
-		t.Fatal(err)
-	}
-	stress, err := mechanics.StressFromScenario(s.Stress, s.Layer.Depth)
 	if err != nil {
 		t.Fatal(err)
 	}

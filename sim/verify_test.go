@@ -96,21 +96,14 @@ func TestMcGarrBoundRandomScenarios(t *testing.T) {
 	rng := rand.New(rand.NewPCG(2014, 1008))
 	for k := range 20 {
 		mus := 0.55 + 0.15*rng.Float64()
-		ov, err := scenarios.ParseOverrides([]string{
+		s := loadCase(t, "induced-moment-bound",
 			fmt.Sprintf("seed=%d", 1+rng.IntN(1_000_000)),
 			fmt.Sprintf("schedule.volume=%.1f bbl", 10+90*rng.Float64()),
 			fmt.Sprintf("schedule.rate=%.1f bbl/min", 5+15*rng.Float64()),
 			fmt.Sprintf("rock.friction_static=%.3f", mus),
 			fmt.Sprintf("rock.friction_residual=%.3f", mus-0.03-0.07*rng.Float64()),
 			fmt.Sprintf("rock.slip_weakening_distance=%.2f mm", 0.5+1.5*rng.Float64()),
-		})
-		if err != nil {
-			t.Fatal(err)
-		}
-		s, err := scenarios.Load(filepath.Join("..", "testdata", "induced-moment-bound", "scenario.toml"), ov...)
-		if err != nil {
-			t.Fatal(err)
-		}
+		)
 		_, res := runScenario(t, s)
 		largest := checkMcGarr(t, s, res)
 		t.Logf("draw %2d (seed %d): %3d events, largest M0 %.3g N·m, sum %.3g N·m, G·ΔV %.3g N·m", k, s.Seed, len(res.Events), largest,
@@ -125,15 +118,7 @@ func TestMcGarrBoundRandomScenarios(t *testing.T) {
 func TestCouplingToleranceConverges(t *testing.T) {
 	var bhp, mass []float64
 	for _, tol := range []string{"1e-2", "1e-3", "1e-4"} {
-		ov, err := scenarios.ParseOverrides([]string{"numerics.coupling_tolerance=" + tol})
-		if err != nil {
-			t.Fatal(err)
-		}
-		s, err := scenarios.Load(filepath.Join("..", "testdata", "induced-moment-bound", "scenario.toml"), ov...)
-		if err != nil {
-			t.Fatal(err)
-		}
-		_, res := runScenario(t, s)
+		_, res := runScenario(t, loadCase(t, "induced-moment-bound", "numerics.coupling_tolerance="+tol))
 		t.Logf("coupling_tolerance %s: peak BHP %.10g MPa, mass-balance error %.3g", tol, res.PeakBHP/1e6, res.MassBalanceError)
 		bhp, mass = append(bhp, res.PeakBHP), append(mass, res.MassBalanceError)
 	}
@@ -158,17 +143,9 @@ func TestCouplingToleranceConverges(t *testing.T) {
 // than the layer's thickness so that each opens as a plane-strain crack of
 // its length, 5 m apart (half a half-length).
 func TestParallelConduitsShadow(t *testing.T) {
-	path := filepath.Join("..", "testdata", "parallel-conduits", "scenario.toml")
 	meanOpening := func(overrides ...string) (float64, *scenarios.Scenario) {
 		t.Helper()
-		ov, err := scenarios.ParseOverrides(overrides)
-		if err != nil {
-			t.Fatal(err)
-		}
-		s, err := scenarios.Load(path, ov...)
-		if err != nil {
-			t.Fatal(err)
-		}
+		s := loadCase(t, "parallel-conduits", overrides...)
 		_, res := runScenario(t, s)
 		var sum, n float64
 		for i, el := range res.Elements {
@@ -197,4 +174,19 @@ func TestParallelConduitsShadow(t *testing.T) {
 	net := s.Schedule.InjectionPressure - s.Stress.ShminGradient*s.Layer.Depth
 	numtest.Rel(t, "lone conduit's mean opening against Sneddon", alone, math.Pi*(1-s.Rock.PoissonRatio)*net*c/(2*s.Rock.ShearModulus), 1e-3)
 	numtest.Rel(t, "opening ratio against Kachanov", pair/alone, want, 0.03)
+}
+
+// loadCase loads the scenario of the top-level testdata case dir with
+// overrides.
+func loadCase(t *testing.T, dir string, overrides ...string) *scenarios.Scenario {
+	t.Helper()
+	ov, err := scenarios.ParseOverrides(overrides)
+	if err != nil {
+		t.Fatal(err)
+	}
+	s, err := scenarios.Load(filepath.Join("..", "testdata", dir, "scenario.toml"), ov...)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return s
 }

@@ -188,12 +188,13 @@ var (
 // length unit (m, mm).
 func WriteFrameCSV(w io.Writer, r *Reader, t float64) error {
 	h := r.Header()
-	coulomb, err := csvColumnFor(&h, FieldCoulombChange, toMPa)
-	if h.FieldIndex(FieldCoulombChange) < 0 {
-		coulomb, err = csvColumn{field: -1}, nil
-	}
-	if err != nil {
-		return err
+	coulomb := csvColumn{field: -1}
+	if h.FieldIndex(FieldCoulombChange) >= 0 {
+		c, err := csvColumnFor(&h, FieldCoulombChange, toMPa)
+		if err != nil {
+			return err
+		}
+		coulomb = c
 	}
 	var cols [3]csvColumn
 	for k, want := range []struct {
