@@ -5,13 +5,16 @@ import (
 	"math"
 
 	"gonum.org/v1/gonum/dsp/fourier"
+
+	"slipfront/scenarios"
 )
 
-// MaxDepletionCells caps the cells of a [DepletionGrid]. The kernel tables
-// take 24 bytes per cell and the FFT summation about 160 more (five
-// half-spectra on a grid padded to twice the size each way), so the cap
-// keeps a response within about 400 MB.
-const MaxDepletionCells = 1 << 21
+// MaxDepletionCells caps the cells of a [DepletionGrid]: the scenario's
+// cap on its depletion grid. The kernel tables take 24 bytes per cell and
+// the FFT summation about 160 more (five half-spectra on a grid padded to
+// twice the size each way), so the cap keeps a response within about
+// 400 MB.
+const MaxDepletionCells = scenarios.MaxDepletionCells
 
 // DepletionGrid is a regular map grid carrying a depletion field, one
 // pore-pressure change per cell. Cell (col, row) has index row·Cols + col,

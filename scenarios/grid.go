@@ -7,6 +7,11 @@ import "math"
 // clear error instead of exhausting memory.
 const MaxGridCells = 1 << 25
 
+// MaxDepletionCells caps the cells of the depletion grid: the stress
+// response takes about 200 bytes per cell (mechanics.GridResponse), so the
+// cap keeps it within about 400 MB.
+const MaxDepletionCells = 1 << 21
+
 // MaxOutputPoints caps the output times of a schedule (frames, timeline
 // rows, batch time grids), for the same reason.
 const MaxOutputPoints = 1 << 20
@@ -46,6 +51,15 @@ func ceilCount(v float64) float64 {
 // within MaxGridCells, see gridCells).
 func (s *Scenario) MapGrid() Grid {
 	d, c := s.Domain, s.Numerics.CellSize
+	cols, rows := gridCells(d, c)
+	return Grid{Cols: int(cols), Rows: int(rows), CellSize: c, XMin: d.XMin, YMin: d.YMin}
+}
+
+// DepletionGrid returns the grid of the scenario's map area with the
+// depletion cell size, on which production depletes the layer and its
+// stress change is computed. The scenario must be valid.
+func (s *Scenario) DepletionGrid() Grid {
+	d, c := s.Domain, s.Depletion.CellSize
 	cols, rows := gridCells(d, c)
 	return Grid{Cols: int(cols), Rows: int(rows), CellSize: c, XMin: d.XMin, YMin: d.YMin}
 }

@@ -33,6 +33,10 @@ type Scenario struct {
 	Schedule       Schedule         `toml:"schedule"`
 	Numerics       Numerics         `toml:"numerics"`
 	Coulomb        Coulomb          `toml:"coulomb"`
+	// Depletion is optional: absent, nothing produced before the
+	// stimulation and the scenario's digest is what it was before the
+	// table existed.
+	Depletion Depletion `toml:"depletion" opt:"" json:",omitzero" doc:"optional: production from parent wells before the stimulation (refrac and child-well studies)"`
 
 	// Source is the file the scenario was read from (for messages); not a key.
 	Source string `toml:"-"`
@@ -327,3 +331,41 @@ type Coulomb struct {
 	// & Lin 1994).
 	EffectiveFriction float64 `toml:"effective_friction" range:"[0,1.5]" default:"0.4" doc:"effective friction of the Coulomb stress change (0.4 is a usual choice)"`
 }
+
+// Depletion is production from parent wells before the stimulation. Each
+// cluster of a parent well's stages produced through a propped fracture
+// along SHmax, held at the flowing bottom-hole pressure for the production
+// time; the pore pressure of the layer around them falls by matrix
+// diffusion, and the stresses change with it (poroelastically). The
+// stimulation then starts from that depleted state.
+type Depletion struct {
+	// Wells names the parent wells among [[wells]].
+	Wells []string `toml:"wells" doc:"names of the wells in [[wells]] that produced before the stimulation; each cluster of their stages produced through a fracture along SHmax" example:"[\"A\"]"`
+	// FractureHalfLength of the producing fracture of each parent cluster,
+	// m.
+	FractureHalfLength float64 `toml:"fracture_half_length" unit:"length" range:"(0,5000]" default:"100 m" doc:"half-length of the producing fracture of each parent cluster, along SHmax"`
+	// BottomholePressure is the flowing bottom-hole pressure of the
+	// parents during production, Pa.
+	BottomholePressure float64 `toml:"bottomhole_pressure" unit:"pressure" range:"[0,1e9]" doc:"flowing bottom-hole pressure of the parent wells during production (at most the initial pore pressure)" example:"15 MPa"`
+	// Duration of the production before the stimulation, s.
+	Duration float64 `toml:"duration" unit:"time" range:"[0,1e10]" doc:"production time before the stimulation; 0 for none" example:"2 yr"`
+	// MatrixPermeability k of the layer's rock, m².
+	MatrixPermeability float64 `toml:"matrix_permeability" unit:"permeability" range:"[1e-24,1e-10]" default:"100 nD" doc:"permeability of the layer's matrix (with the natural fractures it holds, upscaled)"`
+	// Porosity φ of the matrix.
+	Porosity float64 `toml:"porosity" range:"(0,1)" default:"0.06" doc:"porosity of the layer's matrix"`
+	// TotalCompressibility c_t of pore fluid and pore volume, 1/Pa.
+	TotalCompressibility float64 `toml:"total_compressibility" unit:"compressibility" range:"[1e-12,1e-6]" default:"2 1/GPa" doc:"total compressibility of the matrix's pore fluid and pore volume"`
+	// Viscosity of the produced fluid, Pa·s.
+	Viscosity float64 `toml:"viscosity" unit:"viscosity" range:"[1e-5,1e3]" default:"0.3 cP" doc:"viscosity of the produced fluid"`
+	// Biot is Biot's effective-stress coefficient α.
+	Biot float64 `toml:"biot" range:"(0,1]" default:"1" doc:"Biot's effective-stress coefficient α of the stress path α(1-2ν)/(1-ν)"`
+	// CellSize of the depletion and stress-change grid, m: a numerical
+	// setting (results converge as it shrinks; see the README).
+	CellSize float64 `toml:"cell_size" unit:"length" range:"[0.1,1e4]" default:"10 m" doc:"cell size of the depletion and stress-change grid over the map area (numerics: results converge as it shrinks)"`
+	// TimeSteps of the production period.
+	TimeSteps int `toml:"time_steps" range:"[1,100000]" default:"40" doc:"implicit time steps of the production period (numerics)"`
+}
+
+// Active reports whether the scenario produces from parent wells before
+// the stimulation: a [depletion] table with a positive duration.
+func (d Depletion) Active() bool { return len(d.Wells) > 0 && d.Duration > 0 }

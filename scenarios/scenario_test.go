@@ -142,6 +142,45 @@ func TestMinimal(t *testing.T) {
 	}
 }
 
+// TestDepletionTable: without a [depletion] table the scenario holds no
+// production and its canonical content (so its digest) has no trace of the
+// table; with one, the defaults apply and an override can shorten the
+// production to nothing.
+func TestDepletionTable(t *testing.T) {
+	s, err := parseText(t, minimal)
+	if err != nil {
+		t.Fatal(err)
+	}
+	b, err := json.Marshal(s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if s.Depletion.Active() || strings.Contains(string(b), "Depletion") {
+		t.Errorf("no [depletion] table, yet active %v or in the canonical content: %s", s.Depletion.Active(), b)
+	}
+	withTable := strings.Replace(minimal, "[fluids.water]",
+		"[depletion]\nwells = [\"A\"]\nbottomhole_pressure = \"10 MPa\"\nduration = \"2 yr\"\n[fluids.water]", 1)
+	d, err := parseText(t, withTable)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !d.Depletion.Active() || d.Digest == s.Digest {
+		t.Errorf("a [depletion] table: active %v, digest changed %v", d.Depletion.Active(), d.Digest != s.Digest)
+	}
+	numtest.Rel(t, "duration", d.Depletion.Duration, 2*365.25*86400, 1e-15)
+	numtest.Rel(t, "default permeability (100 nD)", d.Depletion.MatrixPermeability, 9.869233e-20, 1e-15)
+	if g := d.DepletionGrid(); g.CellSize != 10 || g.Cols != 100 || g.Rows != 100 {
+		t.Errorf("depletion grid %+v, want 100 × 100 cells of 10 m over the 1 km map", g)
+	}
+	none, err := parseText(t, withTable, "depletion.duration=0 s")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if none.Depletion.Active() {
+		t.Error("zero production time is active")
+	}
+}
+
 func TestExamplesParse(t *testing.T) {
 	names := Examples()
 	if len(names) == 0 || !strings.Contains(strings.Join(names, " "), "demo") {
@@ -234,6 +273,11 @@ func TestBadValues(t *testing.T) {
 		{"absurd rate", `volume = "100 m3"`, "volume = \"100 m3\"\nrate = \"1e300 m3/s\"", `schedule.rate = "1e300 m3/s": must be within (0, 10] m3/s`},
 		{"absurd modulus", "[[sets]]\nname = \"one\"", "[rock]\nshear_modulus = \"1e-300 Pa\"\n[[sets]]\nname = \"one\"", `rock.shear_modulus = "1e-300 Pa": must be within [100, 200000] MPa`},
 		{"tiny time step", `volume = "100 m3"`, "volume = \"100 m3\"\n[numerics]\ntime_step_initial = \"1e-6 s\"\ntime_step_min = \"1e-6 s\"\ntime_step_max = \"1e-6 s\"", `numerics.time_step_max = "1e-6 s": needs at least`},
+		{"depletion of an unknown well", `[fluids.water]`, "[depletion]\nwells = [\"B\"]\nbottomhole_pressure = \"10 MPa\"\nduration = \"1 yr\"\n[fluids.water]", `depletion.wells[0] = "B": no well is named "B"; wells: "A"`},
+		{"depletion well twice", `[fluids.water]`, "[depletion]\nwells = [\"A\", \"A\"]\nbottomhole_pressure = \"10 MPa\"\nduration = \"1 yr\"\n[fluids.water]", `depletion.wells[1] = "A": names well "A" twice`},
+		{"depletion above the pore pressure", `[fluids.water]`, "[depletion]\nwells = [\"A\"]\nbottomhole_pressure = \"25 MPa\"\nduration = \"1 yr\"\n[fluids.water]", `depletion.bottomhole_pressure = "25 MPa": must not exceed the initial pore pressure 20 MPa`},
+		{"depletion without a time", `[fluids.water]`, "[depletion]\nwells = [\"A\"]\nbottomhole_pressure = \"10 MPa\"\n[fluids.water]", `depletion.duration: required key is missing (e.g. "2 yr")`},
+		{"depletion grid too fine", `[fluids.water]`, "[depletion]\nwells = [\"A\"]\nbottomhole_pressure = \"10 MPa\"\nduration = \"1 yr\"\ncell_size = \"0.5 m\"\n[fluids.water]", `depletion.cell_size = "0.5 m": gives 2000 × 2000 depletion cells over the domain; at most 2097152 allowed`},
 		{"long value cut short", `name = "two"`, `name = "two"` + "\nshape = \"" + strings.Repeat("x", 5000) + "\"", `sets[1].shape = "` + strings.Repeat("x", 60) + `"…: must be one of`},
 	}
 	for _, tc := range tests {

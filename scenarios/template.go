@@ -62,6 +62,10 @@ func writeTable(b *strings.Builder, path string, t reflect.Type, arrayElem bool)
 		}
 		switch f.Type.Kind() {
 		case reflect.Struct:
+			if _, optional := f.Tag.Lookup("opt"); optional {
+				writeCommentedTable(b, name, f.Type)
+				continue
+			}
 			fmt.Fprintf(b, "[%s]\n", name)
 			writeTable(b, name, f.Type, false)
 		case reflect.Map:
@@ -72,6 +76,21 @@ func writeTable(b *strings.Builder, path string, t reflect.Type, arrayElem bool)
 			fmt.Fprintf(b, "[[%s]]\n", name)
 			writeTable(b, name, f.Type.Elem(), true)
 		}
+	}
+}
+
+// writeCommentedTable writes an optional table with every line commented
+// out, so that the template runs without it and a user enables it by
+// removing the leading "# " of the header and of the keys.
+func writeCommentedTable(b *strings.Builder, name string, t reflect.Type) {
+	var sub strings.Builder
+	fmt.Fprintf(&sub, "[%s]\n", name)
+	writeTable(&sub, name, t, false)
+	for line := range strings.Lines(sub.String()) {
+		if !strings.HasPrefix(line, "#") {
+			line = "# " + line
+		}
+		b.WriteString(line)
 	}
 }
 

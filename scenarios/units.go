@@ -26,6 +26,8 @@ const (
 	minute     = 60.0                       // s
 	hour       = 3600.0                     // s
 	day        = 86400.0                    // s
+	julianYear = 365.25 * day               // s (SP 811 B.8: year [365.25 days] 3.15576 E+07, from memory)
+	darcy      = 9.869233e-13               // m² (SP 811 B.8: darcy 9.869233 E-13, from memory)
 	degree     = math.Pi / 180              // rad
 )
 
@@ -46,6 +48,7 @@ const (
 	kindAzimuth         unitKind = "azimuth"
 	kindIntensity       unitKind = "intensity"
 	kindLeakoff         unitKind = "leakoff"
+	kindPermeability    unitKind = "permeability"
 )
 
 // unitTable lists, per kind, the accepted unit spellings and their factor
@@ -66,11 +69,13 @@ var unitTable = map[unitKind][]struct {
 	kindRate: {{"m3/s", 1}, {"m3/min", 1 / minute}, {"m3/h", 1 / hour}, {"L/s", 1e-3}, {"L/min", 1e-3 / minute},
 		{"bbl/min", oilBarrel / minute}, {"gal/min", usGallon / minute}},
 	kindVolume:    {{"m3", 1}, {"L", 1e-3}, {"bbl", oilBarrel}, {"gal", usGallon}},
-	kindTime:      {{"s", 1}, {"ms", 1e-3}, {"min", minute}, {"h", hour}, {"d", day}},
+	kindTime:      {{"s", 1}, {"ms", 1e-3}, {"min", minute}, {"h", hour}, {"d", day}, {"yr", julianYear}},
 	kindAngle:     {{"rad", 1}, {"deg", degree}},
 	kindAzimuth:   {{"rad", 1}, {"deg", degree}},
 	kindIntensity: {{"1/m", 1}, {"1/km", 1e-3}, {"1/ft", 1 / foot}},
 	kindLeakoff:   {{"m/s^0.5", 1}, {"ft/min^0.5", foot / math.Sqrt(minute)}},
+	kindPermeability: {{"m2", 1}, {"D", darcy}, {"mD", 1e-3 * darcy}, {"uD", 1e-6 * darcy},
+		{"nD", 1e-9 * darcy}},
 }
 
 // shownUnit is the unit in which messages and the template state a
@@ -82,6 +87,7 @@ var shownUnit = map[unitKind]string{
 	kindLength: "m", kindPressure: "MPa", kindGradient: "kPa/m", kindViscosity: "cP",
 	kindCompressibility: "1/GPa", kindRate: "m3/s", kindVolume: "m3", kindTime: "s",
 	kindAngle: "deg", kindAzimuth: "deg", kindIntensity: "1/m", kindLeakoff: "m/s^0.5",
+	kindPermeability: "m2",
 }
 
 // usualUnits are the units suggested for a number written without one:
@@ -93,6 +99,7 @@ var usualUnits = map[unitKind][]string{
 	kindViscosity: {"cP", "mPa.s"}, kindCompressibility: {"1/GPa", "1/psi"}, kindRate: {"bbl/min", "m3/min"},
 	kindVolume: {"m3", "bbl"}, kindTime: {"min", "h", "s"}, kindAngle: {"deg"}, kindAzimuth: {"deg"},
 	kindIntensity: {"1/m", "1/ft"}, kindLeakoff: {"m/s^0.5", "ft/min^0.5"},
+	kindPermeability: {"nD", "mD"},
 }
 
 // unitFactor is the factor to SI of the unit name of kind k; it panics on
@@ -173,6 +180,12 @@ func normalizeUnit(u string) string {
 		return "h"
 	case "day", "days":
 		return "d"
+	case "year", "years":
+		return "yr"
+	case "md", "millidarcy":
+		return "mD"
+	case "nd", "nanodarcy":
+		return "nD"
 	}
 	return u
 }

@@ -43,6 +43,9 @@ func TestParseQuantity(t *testing.T) {
 		{"2 m³", kindVolume, 2, "typographic variant of m3"},
 		{"1e-5 m/sqrt(s)", kindLeakoff, 1e-5, "SI"},
 		{"2600m", kindLength, 2600, "no space between number and unit"},
+		{"100 nD", kindPermeability, 9.869233e-20, "NIST SP 811 B.8: darcy = 9.869233e-13 m² (from memory)"},
+		{"0.5 mD", kindPermeability, 4.9346165e-16, "NIST SP 811 B.8 darcy (from memory)"},
+		{"2 yr", kindTime, 63115200, "NIST SP 811 B.8: year (365.25 d) = 3.15576e7 s (from memory)"},
 	}
 	for _, tc := range tests {
 		got, err := parseQuantity(tc.in, tc.kind)

@@ -7,6 +7,7 @@ import (
 	"math"
 	"regexp"
 	"slices"
+	"strconv"
 	"strings"
 	"time"
 
@@ -30,6 +31,7 @@ func (d *decoder) validate(s *Scenario) {
 	d.validateWells(s)
 	d.validateSchedule(s)
 	d.validateNumerics(s)
+	d.validateDepletion(s)
 }
 
 func (d *decoder) validateDomain(s *Scenario) {
@@ -265,4 +267,43 @@ func (d *decoder) validateNumerics(s *Scenario) {
 	if total > 0 && n.OutputInterval > total {
 		d.failKey("numerics.output_interval", "is longer than the whole schedule (%s at nominal rates)", formatQuantity(total, kindTime))
 	}
+}
+
+// validateDepletion checks the [depletion] table, when there is one.
+func (d *decoder) validateDepletion(s *Scenario) {
+	dp := s.Depletion
+	if dp.Wells == nil {
+		return // no table
+	}
+	if len(dp.Wells) == 0 {
+		d.failKey("depletion.wells", "must name at least one well of [[wells]] (%s); remove the [depletion] table for no production", wellNames(s))
+	}
+	for i, name := range dp.Wells {
+		key := fmt.Sprintf("depletion.wells[%d]", i)
+		switch {
+		case slices.Index(dp.Wells, name) < i:
+			d.failKey(key, "names well %q twice", name)
+		case !slices.ContainsFunc(s.Wells, func(w Well) bool { return w.Name == name }):
+			d.failKey(key, "no well is named %q; wells: %s", name, wellNames(s))
+		}
+	}
+	if p0 := s.Stress.PorePressureGradient * s.Layer.Depth; dp.BottomholePressure > p0 {
+		d.failKey("depletion.bottomhole_pressure", "must not exceed the initial pore pressure %s at the layer depth (production draws the pressure down)",
+			formatQuantity(p0, kindPressure))
+	}
+	if cols, rows := gridCells(s.Domain, dp.CellSize); !(cols*rows <= MaxDepletionCells) {
+		d.failKey("depletion.cell_size", "gives %.4g × %.4g depletion cells over the domain; at most %d allowed, use a larger cell", cols, rows, MaxDepletionCells)
+	}
+}
+
+// wellNames lists the scenario's well names, quoted, for messages.
+func wellNames(s *Scenario) string {
+	names := make([]string, len(s.Wells))
+	for i, w := range s.Wells {
+		names[i] = strconv.Quote(w.Name)
+	}
+	if len(names) == 0 {
+		return "none"
+	}
+	return strings.Join(names, ", ")
 }
