@@ -45,6 +45,17 @@
 // pressure), and gives the chord conductance q/Δp that makes a cluster's
 // perforations a lagged, positive connection of the implicit system.
 //
+// # Drainage
+//
+// Drainage is the depletion a producing parent well leaves in one layer
+// before a stimulation nearby: single-phase, slightly compressible flow
+// S ∂p/∂t = ∇·(λ∇p) on a regular map grid, closed at its edges, with the
+// parent's propped fractures as held cells at the well's pressure
+// (infinite conductivity). Finite volumes with harmonic-mean two-point
+// transmissibilities and backward Euler in equal steps; the held cells are
+// eliminated as known values, so each step solves a symmetric positive
+// definite system on the free cells with the same Cholesky factor.
+//
 // # Linear algebra
 //
 // Each implicit time step and Picard iteration of the pressure equation
@@ -123,6 +134,12 @@
 //     estimating the extent of the fractured area", appendix to Howard,
 //     G.C. & Fast, C.R., Drilling and Production Practice, API, 261–270
 //     (leak-off ∝ 1/√t).
+//   - Varga, R.S. (1962), Matrix Iterative Analysis, Prentice-Hall, ch. 3
+//     (M-matrices and their non-negative inverses: the drainage's maximum
+//     principle).
+//   - Thomée, V. (2006), Galerkin Finite Element Methods for Parabolic
+//     Problems, 2nd ed., Springer, ch. 7 (backward Euler after non-smooth
+//     data: error of order Δt/t; why the drainage steps are equal).
 //   - Irons, B.M. & Tuck, R.C. (1969), "A version of the Aitken accelerator
 //     for computer iteration", Int. J. Numer. Meth. Eng. 1(3), 275–277;
 //     Küttler, U. & Wall, W.A. (2008), "Fixed-point fluid–structure

@@ -111,7 +111,8 @@ func (m Matrix) withDefaults() Matrix {
 // CellSizes returns the thicknesses of the matrix cells of one face, m,
 // from the face outwards: geometric, with a first cell of
 // min(√(D·ShortestTime)/2, depth/Cells) and the growth factor r ≥ 1 that
-// fills the depth, Σ h_j = depth (HalfWidth, or 4√(D·LongestTime)).
+// fills the depth, Σ h_j = depth (HalfWidth, or 4√(D·LongestTime)); a
+// single cell fills the depth.
 func (m Matrix) CellSizes() []float64 {
 	m = m.withDefaults()
 	d := m.Diffusivity()
@@ -120,6 +121,11 @@ func (m Matrix) CellSizes() []float64 {
 		depth = 4 * math.Sqrt(d*m.LongestTime)
 	}
 	n := m.Cells
+	if n == 1 {
+		// No growth factor to find: the bisection below would look for
+		// ever.
+		return []float64{depth}
+	}
 	first := math.Min(0.5*math.Sqrt(d*m.ShortestTime), depth/float64(n))
 	// Σ_{j<n} first·r^j = depth; the sum grows with r, so bisect r.
 	fill := func(r float64) float64 {

@@ -115,7 +115,9 @@ func TestMatrixFiniteBlock(t *testing.T) {
 }
 
 // CellSizes: geometric, the first cell √(D·t_min)/2 thick, the cells
-// filling the depth 4√(D·t_max) (semi-infinite) or the half-width.
+// filling the depth 4√(D·t_max) (semi-infinite) or the half-width; one
+// cell is the whole half-width (it used to loop for ever looking for a
+// growth factor that one cell cannot have).
 func TestMatrixCellSizes(t *testing.T) {
 	for _, tc := range []struct {
 		name  string
@@ -126,6 +128,7 @@ func TestMatrixCellSizes(t *testing.T) {
 		{"semi-infinite", testMatrix, 4 * math.Sqrt(1e-5*1e4), 0.5 * math.Sqrt(1e-5*1)},
 		{"finite", Matrix{Permeability: 1e-18, Porosity: 0.05, Compressibility: 2e-9, Viscosity: 1e-3, HalfWidth: 1, Cells: 10}, 1, 0.5 * math.Sqrt(1e-5)},
 		{"thin block: uniform", Matrix{Permeability: 1e-18, Porosity: 0.05, Compressibility: 2e-9, Viscosity: 1e-3, HalfWidth: 1e-3, Cells: 4}, 1e-3, 2.5e-4},
+		{"one cell", Matrix{Permeability: 1e-18, Porosity: 0.05, Compressibility: 2e-9, Viscosity: 1e-3, HalfWidth: 1, Cells: 1}, 1, 1},
 	} {
 		h := tc.m.CellSizes()
 		var sum float64
