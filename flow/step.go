@@ -130,25 +130,38 @@ type StepResult struct {
 // NewState returns the state with every element at pressure p0 (and the
 // well too), with apertures and contents from ap.
 func (s *System) NewState(p0 float64, ap ApertureFunc) *State {
+	p := make([]float64, s.nElem)
+	for i := range p {
+		p[i] = p0
+	}
+	return s.NewStateAt(p, p0, ap)
+}
+
+// NewStateAt returns the state with element i at pressure p[i] (the matrix
+// beside it too) and the well at bhp, with apertures and contents from ap.
+// It keeps p.
+func (s *System) NewStateAt(p []float64, bhp float64, ap ApertureFunc) *State {
 	n := s.nElem
+	if len(p) != n {
+		panic("flow: NewStateAt: len(p) is not the number of elements")
+	}
 	st := &State{
-		Pressure: make([]float64, n), Aperture: make([]float64, n),
-		Content: make([]float64, n), InitialContent: make([]float64, n), Exposed: make([]float64, n), BHP: p0,
+		Pressure: p, Aperture: make([]float64, n),
+		Content: make([]float64, n), InitialContent: make([]float64, n), Exposed: make([]float64, n), BHP: bhp,
 	}
 	dedp := make([]float64, n)
-	for i := range st.Pressure {
-		st.Pressure[i] = p0
+	for i := range st.Exposed {
 		st.Exposed[i] = math.NaN()
 	}
 	ap(st.Pressure, st.Aperture, dedp)
 	for i := range st.Content {
-		st.Content[i] = s.Content(i, st.Aperture[i], p0)
+		st.Content[i] = s.Content(i, st.Aperture[i], p[i])
 	}
 	copy(st.InitialContent, st.Content)
 	if s.mx != nil {
 		st.Matrix = make([]float64, n*s.mx.n)
 		for i := range st.Matrix {
-			st.Matrix[i] = p0
+			st.Matrix[i] = p[i/s.mx.n]
 		}
 	}
 	return st

@@ -59,9 +59,8 @@ func ApertureFromScenario(r scenarios.Rock) (ApertureModel, error) {
 }
 
 // LayerFromScenario returns the depletion model of a scenario's layer: its
-// rock's Poisson's ratio, its thickness and Biot's coefficient biot (the
-// scenario has no key for it yet; 1 is the upper bound and the value the
-// demo's figures use).
+// rock's Poisson's ratio, its thickness and Biot's coefficient biot
+// (depletion.biot).
 func LayerFromScenario(r scenarios.Rock, l scenarios.Layer, biot float64) (Layer, error) {
 	m := Layer{Poroelastic: Poroelastic{Biot: biot, Poisson: r.PoissonRatio}, Thickness: l.Thickness}
 	if err := m.Validate(); err != nil {

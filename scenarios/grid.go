@@ -7,10 +7,11 @@ import "math"
 // clear error instead of exhausting memory.
 const MaxGridCells = 1 << 25
 
-// MaxDepletionCells caps the cells of the depletion grid: the stress
-// response takes about 200 bytes per cell (mechanics.GridResponse), so the
-// cap keeps it within about 400 MB.
-const MaxDepletionCells = 1 << 21
+// MaxDepletionCells caps the cells of the depletion grid (about
+// 1000 × 1000): the drainage's Cholesky factor holds about 44 entries per
+// cell on a square grid (flow.MaxDrainageCells, the same cap) and the
+// stress response about 200 bytes per cell (mechanics.GridResponse).
+const MaxDepletionCells = 1 << 20
 
 // MaxOutputPoints caps the output times of a schedule (frames, timeline
 // rows, batch time grids), for the same reason.

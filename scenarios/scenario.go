@@ -363,7 +363,7 @@ type Depletion struct {
 	// setting (results converge as it shrinks; see the README).
 	CellSize float64 `toml:"cell_size" unit:"length" range:"[0.1,1e4]" default:"10 m" doc:"cell size of the depletion and stress-change grid over the map area (numerics: results converge as it shrinks)"`
 	// TimeSteps of the production period.
-	TimeSteps int `toml:"time_steps" range:"[1,100000]" default:"40" doc:"implicit time steps of the production period (numerics)"`
+	TimeSteps int `toml:"time_steps" range:"[1,100000]" default:"60" doc:"equal implicit time steps of the production period (numerics)"`
 }
 
 // Active reports whether the scenario produces from parent wells before

@@ -277,7 +277,7 @@ func TestBadValues(t *testing.T) {
 		{"depletion well twice", `[fluids.water]`, "[depletion]\nwells = [\"A\", \"A\"]\nbottomhole_pressure = \"10 MPa\"\nduration = \"1 yr\"\n[fluids.water]", `depletion.wells[1] = "A": names well "A" twice`},
 		{"depletion above the pore pressure", `[fluids.water]`, "[depletion]\nwells = [\"A\"]\nbottomhole_pressure = \"25 MPa\"\nduration = \"1 yr\"\n[fluids.water]", `depletion.bottomhole_pressure = "25 MPa": must not exceed the initial pore pressure 20 MPa`},
 		{"depletion without a time", `[fluids.water]`, "[depletion]\nwells = [\"A\"]\nbottomhole_pressure = \"10 MPa\"\n[fluids.water]", `depletion.duration: required key is missing (e.g. "2 yr")`},
-		{"depletion grid too fine", `[fluids.water]`, "[depletion]\nwells = [\"A\"]\nbottomhole_pressure = \"10 MPa\"\nduration = \"1 yr\"\ncell_size = \"0.5 m\"\n[fluids.water]", `depletion.cell_size = "0.5 m": gives 2000 × 2000 depletion cells over the domain; at most 2097152 allowed`},
+		{"depletion grid too fine", `[fluids.water]`, "[depletion]\nwells = [\"A\"]\nbottomhole_pressure = \"10 MPa\"\nduration = \"1 yr\"\ncell_size = \"0.5 m\"\n[fluids.water]", `depletion.cell_size = "0.5 m": gives 2000 × 2000 depletion cells over the domain; at most 1048576 allowed`},
 		{"long value cut short", `name = "two"`, `name = "two"` + "\nshape = \"" + strings.Repeat("x", 5000) + "\"", `sets[1].shape = "` + strings.Repeat("x", 60) + `"…: must be one of`},
 	}
 	for _, tc := range tests {

@@ -30,6 +30,31 @@ func BenchmarkDemo(b *testing.B) {
 	}
 }
 
+// BenchmarkDepleteDemo computes the depletion of the demo pad after two
+// years of production from well W1 (its six stages' clusters) and the
+// stress change it leaves, on the default 10 m grid over the 1.6 × 1 km
+// map: the cost the depletion work must keep below one stimulation run
+// (BenchmarkDemo).
+func BenchmarkDepleteDemo(b *testing.B) {
+	ov, err := scenarios.ParseOverrides([]string{`depletion.wells=["W1"]`, "depletion.bottomhole_pressure=15 MPa",
+		"depletion.duration=2 yr", "depletion.matrix_permeability=1.5 uD"})
+	if err != nil {
+		b.Fatal(err)
+	}
+	s, err := scenarios.LoadExample("demo", ov...)
+	if err != nil {
+		b.Fatal(err)
+	}
+	b.ResetTimer()
+	for range b.N {
+		d, err := Deplete(s)
+		if err != nil {
+			b.Fatal(err)
+		}
+		b.ReportMetric(float64(d.Grid.Cells()), "cells")
+	}
+}
+
 // benchmarkCoupledStep times one coupled step (flow ⇄ mechanics, all
 // Picard iterations, factorizations included) of the demo's first stage on
 // a map enlarged by the given overrides, from the initial state.

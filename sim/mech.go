@@ -156,7 +156,7 @@ func (m *model) resolutionWarnings() []Warning {
 	}
 	var eff float64
 	for i := range m.elements {
-		eff = math.Max(eff, m.sigmaN[i]-m.p0)
+		eff = math.Max(eff, m.sigmaN[i]-m.initialPressure(i))
 	}
 	mu := mechanics.EffectiveShearModulus(m.s.Rock.ShearModulus, m.s.Rock.PoissonRatio, mechanics.InPlane)
 	an := mechanics.NucleationHalfLength(mu, m.friction.WeakeningRate(eff))

@@ -5,6 +5,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"slices"
 
 	"slipfront/dfn"
 	"slipfront/flow"
@@ -126,6 +127,9 @@ type Result struct {
 	// Solver is the linear method and FactorEntries its fill (Cholesky).
 	Solver        string
 	FactorEntries int
+	// Depletion is the state production left before the stimulation; nil
+	// for none and in a replayed result (Deplete computes it again).
+	Depletion *Depletion
 }
 
 // Run simulates the scenario's schedule on the network. On failure it
@@ -185,6 +189,9 @@ func newRunner(m *model, opt Options) (*runner, error) {
 		stim: newStimulation(m.grid, m.s.Numerics.StimulatedSlip, m.s.Numerics.StimulatedReach, m.elements)}
 	r.end = m.s.ScheduleLength()
 	r.res.Warnings = append(r.res.Warnings, m.resolutionWarnings()...)
+	if m.depletion != nil {
+		r.res.Warnings = append(r.res.Warnings, m.depletion.Warnings...)
+	}
 	r.lastFrame = math.NaN()
 	r.flags = make([]byte, len(m.elements))
 	r.normal = append([]float64(nil), ms.crackNormal...)
@@ -211,8 +218,13 @@ func (r *runner) initialise() error {
 	if err != nil {
 		return err
 	}
-	r.cur = sys.NewState(r.m.p0, r.ms.apertures)
-	r.next = sys.NewState(r.m.p0, r.ms.apertures)
+	if r.m.pInit != nil {
+		r.cur = sys.NewStateAt(slices.Clone(r.m.pInit), r.m.p0, r.ms.apertures)
+		r.next = sys.NewStateAt(slices.Clone(r.m.pInit), r.m.p0, r.ms.apertures)
+	} else {
+		r.cur = sys.NewState(r.m.p0, r.ms.apertures)
+		r.next = sys.NewState(r.m.p0, r.ms.apertures)
+	}
 	r.eInit = append([]float64(nil), r.cur.Aperture...)
 	r.lastBHP = r.m.p0 // no well yet: the bottom hole sees the pore pressure
 	r.res.Solver = sys.Solver().Method().String()
@@ -537,7 +549,7 @@ func (r *runner) sample() Sample {
 func (r *runner) result() *Result {
 	res := r.res
 	m := r.m
-	res.Elements, res.Conduits, res.Grid = m.elements, m.conduits, m.grid
+	res.Elements, res.Conduits, res.Grid, res.Depletion = m.elements, m.conduits, m.grid, m.depletion
 	if r.cur != nil {
 		res.Pressure, res.Aperture = r.cur.Pressure, r.cur.Aperture
 	}

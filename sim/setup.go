@@ -60,9 +60,13 @@ type model struct {
 	aperture     mechanics.ApertureModel
 	stress       mechanics.Stress
 	shmin        float64 // Pa, for the tensile-regime warning
-	p0           float64 // initial pore pressure, Pa
-	grid         scenarios.Grid
-	conduitEl    []bool
+	p0           float64 // initial pore pressure before any production, Pa
+	// depletion is the state production left (nil for none); then
+	// pInit holds each element's pore pressure at the start, Pa.
+	depletion *Depletion
+	pInit     []float64
+	grid      scenarios.Grid
+	conduitEl []bool
 }
 
 // newModel builds the mesh (traces, conduits, junctions, well cuts), the
@@ -87,6 +91,9 @@ func newModel(s *scenarios.Scenario, net *dfn.Network) (*model, error) {
 			m.shmin = p.Value
 		}
 	}
+	if m.depletion, err = Deplete(s); err != nil {
+		return nil, err
+	}
 	paths, junctions := m.paths()
 	if n := estimateElements(paths, s.Numerics.ElementLength); n > MaxElements {
 		return nil, badinput.Errorf("numerics.element_length = %g m would split the %d traces and conduits into about %.3g elements; at most %d are allowed: use longer elements or a smaller map",
@@ -106,12 +113,33 @@ func newModel(s *scenarios.Scenario, net *dfn.Network) (*model, error) {
 			m.wellNodes[k] = appendUnique(m.wellNodes[k], m.mesh.Node(f.path, f.frac))
 		}
 	}
-	m.elementStresses(stress)
+	if err := m.elementStresses(stress); err != nil {
+		return nil, err
+	}
 	return m, nil
 }
 
+// initialPressure is element i's pore pressure at the start of the
+// stimulation, Pa.
+func (m *model) initialPressure(i int) float64 {
+	if m.pInit != nil {
+		return m.pInit[i]
+	}
+	return m.p0
+}
+
+// shmaxAzimuth is the azimuth of SHmax at the local point p at the start
+// of the stimulation, radians: the in-situ one, turned by the depletion's
+// stress change there if the parents produced.
+func (m *model) shmaxAzimuth(p r2.Vec) float64 {
+	if m.depletion == nil {
+		return m.s.Stress.SHmaxAzimuth
+	}
+	return m.stress.Horizontal().Changed(m.depletion.At(p)).Azimuth
+}
+
 // paths lists the natural traces, then one conduit per cluster when the
-// well has conduits, and their junctions.
+// well has conduits, striking along the local SHmax, and their junctions.
 func (m *model) paths() ([]flow.Path, []flow.Junction) {
 	net := m.net
 	paths := make([]flow.Path, 0, len(net.Traces))
@@ -122,8 +150,6 @@ func (m *model) paths() ([]flow.Path, []flow.Junction) {
 	for _, x := range net.Intersections {
 		junctions = append(junctions, flow.Junction{A: x.I, B: x.J, SA: x.SI, SB: x.SJ})
 	}
-	strike := orient.Line(m.s.Stress.SHmaxAzimuth, 0)
-	dir := r2.Vec{X: strike.X, Y: strike.Y}
 	var ix *dfn.Index
 	for k, st := range m.order {
 		w := m.s.Wells[st.Well]
@@ -136,6 +162,8 @@ func (m *model) paths() ([]flow.Path, []flow.Junction) {
 		}
 		for c, at := range w.Stages[st.Stage].Clusters {
 			centre := PointAlong(net.Wells[st.Well].Path, at)
+			strike := orient.Line(m.shmaxAzimuth(centre), 0)
+			dir := r2.Vec{X: strike.X, Y: strike.Y}
 			cd := Conduit{Stage: k, Cluster: c, Aperture: w.ConduitAperture, Height: h,
 				P0: r2.Sub(centre, r2.Scale(w.ConduitHalfLength, dir)),
 				P1: r2.Add(centre, r2.Scale(w.ConduitHalfLength, dir))}
@@ -220,8 +248,9 @@ func (m *model) clusterCuts(paths []flow.Path) ([][]feed, error) {
 // stress resolved on their fracture's plane (dipping or not), the shear
 // signed by its component along the trace, which is the direction the map
 // plane lets it slip; conduits, vertical, carry the horizontal stress on
-// their plane.
-func (m *model) elementStresses(stress mechanics.Stress) {
+// their plane. After production each element takes the stress and pore
+// pressure of the depleted field at its centre.
+func (m *model) elementStresses(stress mechanics.Stress) error {
 	nt := len(m.net.Traces)
 	n := len(m.mesh.Elements)
 	m.elements = make([]Element, n)
@@ -230,16 +259,27 @@ func (m *model) elementStresses(stress mechanics.Stress) {
 	m.group = make([]int, n)
 	m.conduitEl = make([]bool, n)
 	resolved := map[int]mechanics.PlaneStress{}
+	if m.depletion != nil {
+		m.pInit = make([]float64, n)
+	}
 	for i, el := range m.mesh.Elements {
 		e := Element{Trace: -1, Fracture: -1, Set: ConduitSet, P0: el.P0, P1: el.P1, Length: el.Length, Height: el.Height}
 		m.group[i] = el.Path
-		strikeShear, horizontalNormal := horizontalTractions(stress, el.P0, el.P1)
+		local := stress
+		if m.depletion != nil {
+			var err error
+			if local, err = stress.Changed(m.depletion.At(el.Centre())); err != nil {
+				return badinput.Errorf("the depleted stress at (%.1f, %.1f) m: %v", el.Centre().X, el.Centre().Y, err)
+			}
+			m.pInit[i] = local.PorePressure()
+		}
+		strikeShear, horizontalNormal := horizontalTractions(local, el.P0, el.P1)
 		if el.Path < nt {
 			t := m.net.Traces[el.Path]
 			e.Trace, e.Fracture, e.Set = el.Path, t.Fracture, t.Set
 			ps, ok := resolved[t.Fracture]
-			if !ok {
-				ps = stress.Resolve(m.net.Fractures[t.Fracture].Normal)
+			if !ok || m.depletion != nil {
+				ps = local.Resolve(m.net.Fractures[t.Fracture].Normal)
 				resolved[t.Fracture] = ps
 			}
 			m.sigmaN[i], m.tau0[i] = ps.SigmaN, math.Copysign(ps.Tau, strikeShear)
@@ -252,6 +292,7 @@ func (m *model) elementStresses(stress mechanics.Stress) {
 		}
 		m.elements[i] = e
 	}
+	return nil
 }
 
 // horizontalTractions returns the in-situ shear traction along the

@@ -13,6 +13,14 @@ const (
 	// half-length of slip-weakening friction on some fracture, so the
 	// size and number of ruptures (events) depend on element_length.
 	WarnNucleationUnresolved = "nucleation_unresolved"
+	// WarnDepletionAtEdge: production drew the pore pressure down at the
+	// edge of the map area, whose closed edge then held fluid in that an
+	// open reservoir would have let flow: the depletion near the edge is
+	// overstated.
+	WarnDepletionAtEdge = "depletion_at_edge"
+	// WarnRegimeChanged: production changed the order of the principal
+	// stresses (the faulting regime) somewhere in the map area.
+	WarnRegimeChanged = "depletion_changed_regime"
 )
 
 // Warning is a condition of a run that its result should be read with.

@@ -176,19 +176,54 @@ func WriteFractures(w io.Writer, s *scenarios.Scenario, net *dfn.Network, res *R
 
 // summaryJSON is the layout of summary.json.
 type summaryJSON struct {
-	Program     string        `json:"program"`
-	Caution     string        `json:"caution"`
-	Scenario    string        `json:"scenario"`
-	Digest      string        `json:"scenario_digest"`
-	Seed        uint64        `json:"seed"`
-	Realization int           `json:"realization"`
-	NetworkHash string        `json:"network_digest"`
-	Start       string        `json:"schedule_start_utc"`
-	Totals      totalsJSON    `json:"totals"`
-	Stages      []stageJSON   `json:"stages"`
-	Warnings    []warningJSON `json:"warnings"`
-	Numerics    numericsJSON  `json:"numerics"`
-	Failure     *string       `json:"failure,omitempty"`
+	Program     string         `json:"program"`
+	Caution     string         `json:"caution"`
+	Scenario    string         `json:"scenario"`
+	Digest      string         `json:"scenario_digest"`
+	Seed        uint64         `json:"seed"`
+	Realization int            `json:"realization"`
+	NetworkHash string         `json:"network_digest"`
+	Start       string         `json:"schedule_start_utc"`
+	Totals      totalsJSON     `json:"totals"`
+	Stages      []stageJSON    `json:"stages"`
+	Warnings    []warningJSON  `json:"warnings"`
+	Numerics    numericsJSON   `json:"numerics"`
+	Depletion   *depletionJSON `json:"depletion,omitempty"`
+	Failure     *string        `json:"failure,omitempty"`
+}
+
+// depletionJSON is the production before the stimulation, its inputs and
+// what it left, in summary.json.
+type depletionJSON struct {
+	Wells                []string `json:"parent_wells"`
+	DurationS            float64  `json:"production_time_s"`
+	BottomholeMPa        float64  `json:"bottomhole_pressure_MPa"`
+	FractureHalfLengthM  float64  `json:"fracture_half_length_m"`
+	CellSizeM            float64  `json:"cell_size_m"`
+	ProducedM3           float64  `json:"produced_volume_m3"`
+	MaxDepletionMPa      float64  `json:"largest_pore_pressure_drop_MPa"`
+	MaxHorizontalDropMPa float64  `json:"largest_mean_horizontal_stress_drop_MPa"`
+	MaxRotationDeg       float64  `json:"largest_shmax_rotation_deg"`
+	CriticalChangeMinMPa float64  `json:"least_critical_pressure_change_min_MPa"`
+	CriticalChangeMaxMPa float64  `json:"least_critical_pressure_change_max_MPa"`
+}
+
+// newDepletionJSON summarises d (nil for none).
+func newDepletionJSON(s *scenarios.Scenario, d *Depletion) *depletionJSON {
+	if d == nil {
+		return nil
+	}
+	dp := s.Depletion
+	out := &depletionJSON{Wells: dp.Wells, DurationS: dp.Duration, BottomholeMPa: dp.BottomholePressure / 1e6,
+		FractureHalfLengthM: dp.FractureHalfLength, CellSizeM: dp.CellSize, ProducedM3: d.Produced}
+	for k, c := range d.Change {
+		out.MaxDepletionMPa = math.Max(out.MaxDepletionMPa, -c.Pore/1e6)
+		out.MaxHorizontalDropMPa = math.Max(out.MaxHorizontalDropMPa, -(c.XX+c.YY)/2e6)
+		out.MaxRotationDeg = math.Max(out.MaxRotationDeg, math.Abs(d.Rotation[k])*180/math.Pi)
+		out.CriticalChangeMinMPa = math.Min(out.CriticalChangeMinMPa, d.CriticalChange[k]/1e6)
+		out.CriticalChangeMaxMPa = math.Max(out.CriticalChangeMaxMPa, d.CriticalChange[k]/1e6)
+	}
+	return out
 }
 
 type totalsJSON struct {
@@ -291,7 +326,8 @@ func WriteSummary(w io.Writer, s *scenarios.Scenario, net *dfn.Network, res *Res
 			McGarrBoundNm:    mechanics.MaxInducedMoment(s.Rock.ShearModulus, res.Injected),
 			MassBalanceError: res.MassBalanceError,
 		},
-		Warnings: []warningJSON{},
+		Warnings:  []warningJSON{},
+		Depletion: newDepletionJSON(s, res.Depletion),
 		Numerics: numericsJSON{Elements: len(res.Elements), Conduits: len(res.Conduits), Solver: res.Solver,
 			FactorEntries: res.FactorEntries, Steps: res.Steps, CutSteps: res.CutSteps},
 	}
