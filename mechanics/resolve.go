@@ -135,3 +135,21 @@ func (c Coulomb) CriticalPressure(sigmaN, tau float64) float64 {
 func (c Coulomb) CriticalIncrease(sigmaN, tau, p float64) float64 {
 	return c.CriticalPressure(sigmaN, tau) - p
 }
+
+// OptimalCriticalIncrease returns the least pore-pressure increase above
+// the pore pressure of s, Pa, that brings a plane of any orientation to
+// slip: that of the planes containing σ2 whose normal makes ½·atan(1/μs)
+// with σ1, where the Mohr circle of S1 and S3 first touches the Coulomb
+// line,
+//
+//	Δp_c,min = σm′ + c/μs − τm·√(1 + μs²)/μs,
+//	σm′ = (S1 + S3)/2 − p,  τm = (S1 − S3)/2
+//
+// (the tangency of the circle and the line; Jaeger, Cook & Zimmerman 2007,
+// §4.6, from memory). It is ≤ 0 where such a plane is critical already.
+func (c Coulomb) OptimalCriticalIncrease(s Stress) float64 {
+	pr := s.Principal()
+	s1, s3 := pr[0].Value, pr[2].Value
+	mean, radius := 0.5*(s1+s3)-s.PorePressure(), 0.5*(s1-s3)
+	return mean + c.Cohesion/c.Friction - radius*math.Hypot(1, c.Friction)/c.Friction
+}

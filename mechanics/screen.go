@@ -63,12 +63,18 @@ func ScreenPlanes(dst []PlaneResult, planes []Plane, s Stress, c Coulomb) error 
 	if err := c.Validate(); err != nil {
 		return err
 	}
-	p := s.pore
+	return screenPlanes(dst, planes, func(int) Stress { return s }, c)
+}
+
+// screenPlanes screens plane i under the stress at(i).
+func screenPlanes(dst []PlaneResult, planes []Plane, at func(i int) Stress, c Coulomb) error {
 	for i := range planes {
 		pl := &planes[i]
 		if err := checkPlane(i, pl); err != nil {
 			return err
 		}
+		s := at(i)
+		p := s.pore
 		r := s.Resolve(pl.Normal)
 		dst[i] = PlaneResult{
 			ID:                pl.ID,
@@ -118,6 +124,11 @@ type ScreenOptions struct {
 	// negative, e.g. for mapped fractures); sets without a name are called
 	// "set <index>".
 	SetNames map[int]string
+	// Local, when not nil, is the stress state at each plane, parallel to
+	// the planes (a depleted field): each plane is resolved, and its Δp_c
+	// taken from its own pore pressure, under its own state. The Stress
+	// argument of Screen then serves the frictional-limit check only.
+	Local []Stress
 }
 
 // Shares are the counts and slipping shares of one set or of all
@@ -176,7 +187,17 @@ func Screen(planes []Plane, s Stress, c Coulomb, opt ScreenOptions) (*Screening,
 	}
 	sc := &Screening{Stress: s, Criterion: c, Limit: limit, Increases: incs,
 		Planes: make([]PlaneResult, len(planes)), CurveStep: step}
-	if err := ScreenPlanes(sc.Planes, planes, s, c); err != nil {
+	at := func(int) Stress { return s }
+	if opt.Local != nil {
+		if len(opt.Local) != len(planes) {
+			panic("mechanics: Screen: len(ScreenOptions.Local) != len(planes)")
+		}
+		at = func(i int) Stress { return opt.Local[i] }
+	}
+	if err := c.Validate(); err != nil {
+		return nil, err
+	}
+	if err := screenPlanes(sc.Planes, planes, at, c); err != nil {
 		return nil, err
 	}
 	sc.Sets, sc.Total = shares(sc.Planes, incs, opt.SetNames)
