@@ -74,6 +74,9 @@ func (m *Map) keyRows(l mapLayers) []keyRow {
 	if len(m.Conduits) > 0 {
 		rows = append(rows, keyRow{text: "Primary conduit", symbol: lineSymbol(styleConduit)})
 	}
+	if len(m.StressTicks) > 0 {
+		rows = append(rows, keyRow{text: "Local SHmax", symbol: lineSymbol(draw.LineStyle{Color: colourStressTick, Width: widthStressTick})})
+	}
 	if len(m.Clusters) > 0 {
 		rows = append(rows, keyRow{text: "Perforation cluster", height: 2 * radiusCluster,
 			symbol: func(c draw.Canvas, at vg.Point) { drawDiamond(c, at, radiusCluster) }})

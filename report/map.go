@@ -97,6 +97,17 @@ type Map struct {
 	// stress, radians clockwise from north, drawn as a double-headed
 	// arrow in the upper-left corner.
 	SHmax *float64
+	// StressTicks are local SHmax directions (a stress field that varies,
+	// such as after depletion), drawn beneath everything as short grey
+	// ticks centred on their points.
+	StressTicks []StressTick
+}
+
+// StressTick is the direction of SHmax at a point of the map.
+type StressTick struct {
+	At Point
+	// Azimuth of SHmax, radians clockwise from north.
+	Azimuth float64
 }
 
 // WritePNG draws the map at size s (zero: DefaultSize) and writes it to w
@@ -143,6 +154,14 @@ func (m *Map) validate() error {
 		}
 		if err := checkPoint("Conduits", i, "B", c.B); err != nil {
 			return err
+		}
+	}
+	for i, t := range m.StressTicks {
+		if err := checkPoint("StressTicks", i, "At", t.At); err != nil {
+			return err
+		}
+		if !finite(t.Azimuth) {
+			return fmt.Errorf("report: map StressTicks[%d].Azimuth = %g rad: must be finite", i, t.Azimuth)
 		}
 	}
 	if m.SHmax != nil && !finite(*m.SHmax) {

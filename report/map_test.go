@@ -248,6 +248,8 @@ func TestMapErrors(t *testing.T) {
 		{"NaN cluster", Map{Extent: ext, Clusters: []Cluster{{At: Point{0, nan}}}}, Size{}, "Clusters[0]"},
 		{"NaN magnitude", Map{Extent: ext, Events: []Event{{Magnitude: nan}}}, Size{}, "Magnitude"},
 		{"short ring", Map{Extent: ext, Outline: []Polygon{{{{0, 0}, {1, 1}}}}}, Size{}, "at least 3"},
+		{"NaN stress tick", Map{Extent: ext, StressTicks: []StressTick{{At: Point{nan, 0}}}}, Size{}, "StressTicks[0].At"},
+		{"infinite tick azimuth", Map{Extent: ext, StressTicks: []StressTick{{At: Point{1, 1}, Azimuth: inf}}}, Size{}, "StressTicks[0].Azimuth"},
 		{"colour range inverted", Map{Extent: ext, Traces: tr, Colour: ColourScale{Min: 5, Max: 1}}, Size{}, "Min < Max"},
 		{"size too small", Map{Extent: ext}, Size{Width: 100, Height: 100}, "picture size"},
 		{"size too large", Map{Extent: ext}, Size{Width: 20000, Height: 1000}, "picture size"},
@@ -444,6 +446,27 @@ func TestMapConduitsAndSHmax(t *testing.T) {
 	const minArrowPixels = 150
 	if with, without := count(img), count(imgBare); with < without+minArrowPixels {
 		t.Errorf("black pixels in the SHmax panel: %d with the arrow, %d without; want at least %d more", with, without, minArrowPixels)
+	}
+}
+
+// Stress ticks draw blue-grey pixels along their azimuth and none across
+// it: an east-west tick (azimuth 90°) inks the pixels 3 pt east and west
+// of its point, not those 3 pt north and south.
+func TestMapStressTicks(t *testing.T) {
+	ext := Extent{MinEast: 0, MaxEast: 100, MinNorth: 0, MaxNorth: 100}
+	m := &Map{Extent: ext, StressTicks: []StressTick{{At: Point{50, 50}, Azimuth: math.Pi / 2}}}
+	img, f := renderDecoded(t, m, DefaultSize)
+	x, y := f.pixel(Point{50, 50})
+	pt := 3 * f.pg.dpi / 72 // 3 points in pixels
+	inked := func(dx, dy float64) bool {
+		c := nrgbaAt(img, int(x+dx), int(y+dy))
+		return c == colourStressTick
+	}
+	if !inked(pt, 0) || !inked(-pt, 0) {
+		t.Error("no tick ink 3 pt east or west of the point of an east-west tick")
+	}
+	if inked(0, pt) || inked(0, -pt) {
+		t.Error("tick ink 3 pt north or south of the point of an east-west tick")
 	}
 }
 

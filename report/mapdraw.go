@@ -35,7 +35,8 @@ var (
 	styleOutline = draw.LineStyle{Color: okabeVermillion, Width: widthOutline}
 )
 
-// mapLayers draws the features of a Map in order: grey traces, events,
+// mapLayers draws the features of a Map in order: stress ticks, grey
+// traces, events,
 // coloured traces (latest first, so the earliest lie on top), conduits,
 // outlines, wells, clusters, the SHmax arrow and the labels. It is a
 // plot.Plotter.
@@ -57,6 +58,7 @@ func (l mapLayers) Plot(c draw.Canvas, p *plot.Plot) {
 	for split < len(order) && (math.IsNaN(l.m.Traces[order[split]].Value) || l.cmap == nil) {
 		split++
 	}
+	l.stressTicks(c, at)
 	l.traces(c, at, order[:split])
 	l.events(c, at)
 	l.traces(c, at, order[split:])
@@ -111,6 +113,31 @@ func (l mapLayers) traces(c draw.Canvas, at func(Point) vg.Point, idx []int) {
 		}
 		sty.Color = l.cmap.clamped(t.Value)
 		c.StrokeLine2(sty, a.X, a.Y, b.X, b.Y)
+	}
+}
+
+// Stress ticks: short, thin and blue-grey, so that they read as a field
+// behind the grey no-value traces rather than as fractures.
+const (
+	stressTickLength = 9   // points
+	widthStressTick  = 0.9 // points
+)
+
+var colourStressTick = color.NRGBA{110, 135, 175, 255}
+
+// stressTicks draws every stress tick as a grey segment along its SHmax
+// azimuth (east = sin, north = cos; page up is north), centred on its
+// point, when the point lies inside the map.
+func (l mapLayers) stressTicks(c draw.Canvas, at func(Point) vg.Point) {
+	sty := draw.LineStyle{Color: colourStressTick, Width: widthStressTick}
+	for _, t := range l.m.StressTicks {
+		p := at(t.At)
+		if !c.Contains(p) {
+			continue
+		}
+		sin, cos := math.Sincos(t.Azimuth)
+		d := vg.Point{X: stressTickLength / 2 * vg.Length(sin), Y: stressTickLength / 2 * vg.Length(cos)}
+		c.StrokeLine2(sty, p.X-d.X, p.Y-d.Y, p.X+d.X, p.Y+d.Y)
 	}
 }
 
