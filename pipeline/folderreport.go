@@ -38,7 +38,11 @@ func writeScreenReport(dir, out string) error {
 	if err != nil {
 		return err
 	}
-	net, sc, err := screen(s)
+	net, sc, d, err := screen(s)
+	if err != nil {
+		return err
+	}
+	ticks, err := stressTicks(s, d)
 	if err != nil {
 		return err
 	}
@@ -51,7 +55,7 @@ func writeScreenReport(dir, out string) error {
 		p.Notes = append(p.Notes, sc.Limit.Warning)
 	}
 	p.Tables = []report.Table{shareTable(sc)}
-	return writePage(out, p, screenPictures(s, net, sc))
+	return writePage(out, p, screenPictures(s, net, sc, ticks))
 }
 
 // sameAsFile refuses a folder whose file name differs from what write

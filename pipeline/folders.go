@@ -47,6 +47,12 @@ const (
 	MapPictureFile    = "map.png"
 	GrowthPictureFile = "growth.png"
 	StressChangeFile  = "stress_change.tif"
+	// DepletionFile, RotationFile and CriticalChangeFile are written, by
+	// run and by screen, when the scenario produces from parent wells
+	// before the stimulation ([depletion]).
+	DepletionFile      = "depletion.tif"
+	RotationFile       = "shmax_rotation.tif"
+	CriticalChangeFile = "critical_pressure_change.tif"
 	// DistanceTimeFile and MagnitudeFrequencyFile are written when the run
 	// has events (at least two above the completeness magnitude for the
 	// latter); one sectionPictureFile per well.

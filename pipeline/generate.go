@@ -4,9 +4,13 @@ import (
 	"errors"
 	"io"
 
+	"gonum.org/v1/gonum/spatial/r2"
+
 	"slipfront/dfn"
+	"slipfront/internal/badinput"
 	"slipfront/mechanics"
 	"slipfront/scenarios"
+	"slipfront/sim"
 )
 
 // Generate generates realization 0 of the scenario's network and writes
@@ -61,9 +65,16 @@ func Screen(s *scenarios.Scenario, out Folder, lim Limits) (*mechanics.Screening
 	if err != nil {
 		return nil, err
 	}
-	net, sc, err := screen(s)
+	net, sc, d, err := screen(s)
 	if err != nil {
 		return nil, errors.Join(err, st.Abandon())
+	}
+	pl, err := mapPlacement(s)
+	if err != nil {
+		return nil, errors.Join(err, st.Abandon())
+	}
+	if err := writeDepletionRasters(st.Dir, pl, d); err != nil {
+		return nil, err
 	}
 	err = writeFiles(st.Dir,
 		scenarioWriter(s),
@@ -75,7 +86,11 @@ func Screen(s *scenarios.Scenario, out Folder, lim Limits) (*mechanics.Screening
 	if err != nil {
 		return nil, err
 	}
-	if err := writePictures(st.Dir, screenPictures(s, net, sc)); err != nil {
+	ticks, err := stressTicks(s, d)
+	if err != nil {
+		return nil, err
+	}
+	if err := writePictures(st.Dir, screenPictures(s, net, sc, ticks)); err != nil {
 		return nil, err
 	}
 	return sc, st.Commit()
@@ -92,18 +107,42 @@ func screenCriteria(s *scenarios.Scenario) (mechanics.Stress, mechanics.Coulomb,
 	return stress, crit, err
 }
 
-// screen generates realization 0 and screens every fracture of it.
-func screen(s *scenarios.Scenario) (*dfn.Network, *mechanics.Screening, error) {
+// screen generates realization 0 and screens every fracture of it, in
+// the depleted state after the scenario's production if it has any (d;
+// nil for none).
+func screen(s *scenarios.Scenario) (net *dfn.Network, sc *mechanics.Screening, d *sim.Depletion, err error) {
 	stress, crit, err := screenCriteria(s)
 	if err != nil {
-		return nil, nil, err
+		return nil, nil, nil, err
 	}
-	net, err := dfn.Generate(s, 0)
-	if err != nil {
-		return nil, nil, err
+	if net, err = dfn.Generate(s, 0); err != nil {
+		return nil, nil, nil, err
 	}
-	sc, err := mechanics.Screen(screenPlanes(net), stress, crit, mechanics.ScreenOptions{SetNames: setNames(s)})
-	return net, sc, err
+	if d, err = sim.Deplete(s); err != nil {
+		return nil, nil, nil, err
+	}
+	opt := mechanics.ScreenOptions{SetNames: setNames(s)}
+	if opt.Local, err = depletedStresses(net, stress, d); err != nil {
+		return nil, nil, nil, err
+	}
+	sc, err = mechanics.Screen(screenPlanes(net), stress, crit, opt)
+	return net, sc, d, err
+}
+
+// depletedStresses returns the stress state at the centre of every
+// fracture after the production d, or nil for none.
+func depletedStresses(net *dfn.Network, stress mechanics.Stress, d *sim.Depletion) ([]mechanics.Stress, error) {
+	if d == nil {
+		return nil, nil
+	}
+	var err error
+	local := make([]mechanics.Stress, len(net.Fractures))
+	for i, f := range net.Fractures {
+		if local[i], err = stress.Changed(d.At(r2.Vec{X: f.Centre.X, Y: f.Centre.Y})); err != nil {
+			return nil, badinput.Errorf("fracture %d: the depleted stress at (%.1f, %.1f) m: %v", i, f.Centre.X, f.Centre.Y, err)
+		}
+	}
+	return local, nil
 }
 
 // screenPlanes lists every fracture with its trace length on the

@@ -13,7 +13,8 @@ import (
 
 // MapPicture is the quick-look map of the run: traces coloured by
 // first-slip time, primary conduits, wells, clusters, events sized by
-// magnitude, the final stimulated-area outline and the SHmax direction.
+// magnitude, the final stimulated-area outline, the SHmax direction and,
+// after production ([depletion]), the local SHmax as ticks.
 func (r *Run) MapPicture() (*report.Map, error) {
 	s := r.Scenario
 	m := baseMap(s, fmt.Sprintf("%s — realization %d, t = %.2f h", s.Name, r.Network.Realization, r.Time/3600))
@@ -28,6 +29,13 @@ func (r *Run) MapPicture() (*report.Map, error) {
 		m.Traces = append(m.Traces, report.Trace{A: a, B: b, Value: res.FirstSlip[i] / 3600})
 	}
 	m.Wells = mapWells(s)
+	d, err := r.Depletion()
+	if err != nil {
+		return nil, err
+	}
+	if m.StressTicks, err = stressTicks(s, d); err != nil {
+		return nil, err
+	}
 	for _, f := range r.clusterLayer().Features {
 		g := f.Geometry.(orb.Point)
 		m.Clusters = append(m.Clusters, report.Cluster{At: rp(g[0], g[1]), Stage: f.Values[1].(string)})

@@ -70,7 +70,7 @@ func TestMain(m *testing.M) {
 // reported increases: the chart counts what the screening counts.
 func TestSlipSharesMatchScreening(t *testing.T) {
 	s := loadExample(t, "demo")
-	_, sc, err := screen(s)
+	_, sc, _, err := screen(s)
 	if err != nil {
 		t.Fatal(err)
 	}

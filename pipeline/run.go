@@ -34,12 +34,15 @@ type Run struct {
 }
 
 // Placement returns where the run's local coordinates lie on the map.
-func (r *Run) Placement() (gis.Placement, error) {
-	crs, err := gis.ParseCRS(r.Scenario.Domain.CRSSpec())
+func (r *Run) Placement() (gis.Placement, error) { return mapPlacement(r.Scenario) }
+
+// mapPlacement returns where the scenario's local coordinates lie on the map.
+func mapPlacement(s *scenarios.Scenario) (gis.Placement, error) {
+	crs, err := gis.ParseCRS(s.Domain.CRSSpec())
 	if err != nil {
 		return gis.Placement{}, err
 	}
-	return gis.Placement{CRS: crs, Easting: r.Scenario.Domain.OriginEasting, Northing: r.Scenario.Domain.OriginNorthing}, nil
+	return gis.Placement{CRS: crs, Easting: s.Domain.OriginEasting, Northing: s.Domain.OriginNorthing}, nil
 }
 
 // Grid returns the scenario's map grid as a gis raster grid.
@@ -48,7 +51,8 @@ func (r *Run) Grid() gis.Grid {
 	return gis.Grid{Cols: g.Cols, Rows: g.Rows, CellSize: g.CellSize, XMin: g.XMin, YMin: g.YMin}
 }
 
-// LayerNames are the layers Layers builds, in order.
+// LayerNames are the layers Layers builds, in order; after production
+// ([depletion]) StressLayerName follows.
 var LayerNames = []string{"fractures", "conduits", "stimulated_area", "events", "wells", "clusters"}
 
 // Layers builds every vector layer of the run.
@@ -61,7 +65,19 @@ func (r *Run) Layers() ([]gis.Layer, error) {
 	if err != nil {
 		return nil, err
 	}
-	return withCaution([]gis.Layer{fractures, r.conduitLayer(), outlines, r.eventLayer(), wellLayer(r.Scenario), r.clusterLayer()}), nil
+	layers := []gis.Layer{fractures, r.conduitLayer(), outlines, r.eventLayer(), wellLayer(r.Scenario), r.clusterLayer()}
+	d, err := r.Depletion()
+	if err != nil {
+		return nil, err
+	}
+	if d != nil {
+		stress, err := stressLayer(r.Scenario, d)
+		if err != nil {
+			return nil, err
+		}
+		layers = append(layers, stress)
+	}
+	return withCaution(layers), nil
 }
 
 // withCaution adds the caution to every layer's description, so it travels

@@ -66,8 +66,12 @@ func (r *Run) runPictures() (ps []picture, notes []string, err error) {
 	if err != nil {
 		return nil, nil, err
 	}
-	ps = append(ps, picture{MapPictureFile, "Map: where and when the natural fractures slipped (colour: first-slip time; grey: never), " +
-		"primary conduits dashed, events as rings sized by magnitude, the stimulated-area outline and the SHmax direction.", m})
+	caption := "Map: where and when the natural fractures slipped (colour: first-slip time; grey: never), " +
+		"primary conduits dashed, events as rings sized by magnitude, the stimulated-area outline and the SHmax direction."
+	if len(m.StressTicks) > 0 {
+		caption += " Blue-grey ticks: SHmax as the parent wells' production left it."
+	}
+	ps = append(ps, picture{MapPictureFile, caption, m})
 	if len(r.Result.Timeline) > 0 {
 		ps = append(ps, picture{GrowthPictureFile, "Growth: how fast the stimulated area grows in each stage, against the bottom-hole pressure.",
 			r.GrowthPicture()})

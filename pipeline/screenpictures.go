@@ -31,8 +31,9 @@ func MohrIncrease(s *scenarios.Scenario, st mechanics.Stress) (float64, string) 
 
 // screenPictures are the pictures of a screening: poles by slip tendency
 // and by Δp_c with the principal axes, the Mohr diagram, the slipping
-// shares against the pressure increase, and the map of traces by Δp_c.
-func screenPictures(s *scenarios.Scenario, net *dfn.Network, sc *mechanics.Screening) []picture {
+// shares against the pressure increase, and the map of traces by Δp_c
+// (with the local SHmax ticks after production, none for nil).
+func screenPictures(s *scenarios.Scenario, net *dfn.Network, sc *mechanics.Screening, ticks []report.StressTick) []picture {
 	axes := stressAxes(sc.Stress)
 	note := fmt.Sprintf("%d fractures of realization 0", len(sc.Planes))
 	byTendency := &report.Stereonet{Title: s.Name + " — poles by slip tendency", Note: note, Axes: axes, Graticule: true,
@@ -48,6 +49,7 @@ func screenPictures(s *scenarios.Scenario, net *dfn.Network, sc *mechanics.Scree
 	m := baseMap(s, s.Name+" — traces by critical pressure increase")
 	m.Colour = report.ColourScale{Label: "Critical pressure increase Δp_c", Unit: "MPa"}
 	m.Wells = mapWells(s)
+	m.StressTicks = ticks
 	for _, t := range net.Traces {
 		m.Traces = append(m.Traces, report.Trace{A: rp(t.P0.X, t.P0.Y), B: rp(t.P1.X, t.P1.Y), Value: critical[t.Fracture]})
 	}

@@ -138,6 +138,13 @@ func writeRunMaps(ctx context.Context, dir string, r *Run) error {
 	if err := writeFiles(dir, namedWriter{StressChangeFile, func(w io.Writer) error { return gis.WriteGeoTIFF(w, pl, stress) }}); err != nil {
 		return err
 	}
+	d, err := r.Depletion()
+	if err != nil {
+		return err
+	}
+	if err := writeDepletionRasters(dir, pl, d); err != nil {
+		return err
+	}
 	layers, err := r.Layers()
 	if err != nil {
 		return err
