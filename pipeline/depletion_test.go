@@ -37,6 +37,13 @@ func TestDepletionFolders(t *testing.T) {
 				t.Error(err)
 			}
 		}
+		// --force may replace the folder: every file is one pipeline
+		// knows it writes (stress_change.tif once was not).
+		for _, name := range folderFiles(t, dir) {
+			if !ours(name) {
+				t.Errorf("%s holds %s, which --force would not know as its own", filepath.Base(dir), name)
+			}
+		}
 	}
 	b, err := os.ReadFile(filepath.Join(run, SummaryFile))
 	if err != nil {

@@ -131,6 +131,7 @@ var ourFiles = []string{
 	SlipTendencyNetFile, CriticalNetFile, MohrPictureFile, SlipSharesPictureFile, CriticalMapFile,
 	ScenarioFile, SnapshotFile, SummaryFile, TimelineFile, EventsFile, FracturesFile, ContentsFile,
 	CSVMetadataFile, MapsFile, MapPictureFile, GrowthPictureFile, DistanceTimeFile, MagnitudeFrequencyFile,
+	StressChangeFile, DepletionFile, RotationFile, CriticalChangeFile,
 	ComparisonPictureFile, FanPanelsPictureFile, PairedRatiosFile, ReportPageFile,
 	VTKCollectionFile,
 }
