@@ -149,24 +149,54 @@ func (d Drainage) Validate() error {
 // covers: an error of first order in the cell size in the produced
 // volume, while the pressures keep second order.
 func (d Drainage) Deplete(drawdown, duration float64, steps int) (dp []float64, produced float64, err error) {
+	return d.DepleteHistory([]DrainagePeriod{{Drawdown: drawdown, Duration: duration}}, steps)
+}
+
+// DrainagePeriod is a time of production at one drawdown.
+type DrainagePeriod struct {
+	// Drawdown below the initial pressure at the held cells, Pa.
+	Drawdown float64
+	// Duration, s.
+	Duration float64
+}
+
+// DepleteHistory is Deplete for a production history: the held cells go
+// through the periods in order, each at its own drawdown. The steps are
+// shared out in proportion to the periods' durations, at least one each
+// (a period of zero duration takes none), equal within a period, with one
+// factorization per period; the error at the end is that of the last
+// period's steps (see Deplete). The held cells end at the last drawdown.
+// Zero production (every drawdown or every duration 0) changes nothing.
+func (d Drainage) DepleteHistory(periods []DrainagePeriod, steps int) (dp []float64, produced float64, err error) {
 	if err := d.Validate(); err != nil {
 		return nil, 0, err
 	}
-	switch {
-	case math.IsNaN(drawdown) || math.IsInf(drawdown, 0):
-		return nil, 0, badinput.Errorf("flow: drainage drawdown %g Pa: must be finite", drawdown)
-	case !(duration >= 0) || math.IsInf(duration, 0):
-		return nil, 0, badinput.Errorf("flow: drainage duration %g s: must be finite and ≥ 0", duration)
-	case steps < 1 || steps > MaxDrainageSteps:
-		return nil, 0, badinput.Errorf("flow: drainage steps %d: must be in [1, %d]", steps, MaxDrainageSteps)
+	if len(periods) == 0 {
+		return nil, 0, badinput.Errorf("flow: drainage history has no period")
+	}
+	var total float64
+	producing := false
+	for k, pd := range periods {
+		switch {
+		case math.IsNaN(pd.Drawdown) || math.IsInf(pd.Drawdown, 0):
+			return nil, 0, badinput.Errorf("flow: drainage period %d: drawdown %g Pa: must be finite", k, pd.Drawdown)
+		case !(pd.Duration >= 0) || math.IsInf(pd.Duration, 0):
+			return nil, 0, badinput.Errorf("flow: drainage period %d: duration %g s: must be finite and ≥ 0", k, pd.Duration)
+		}
+		total += pd.Duration
+		producing = producing || (pd.Drawdown != 0 && pd.Duration > 0)
+	}
+	if steps < len(periods) || steps > MaxDrainageSteps {
+		return nil, 0, badinput.Errorf("flow: drainage steps %d: must be in [%d, %d] (at least one per period)", steps, len(periods), MaxDrainageSteps)
 	}
 	dp = make([]float64, len(d.Mobility))
-	if drawdown == 0 || duration == 0 {
+	if !producing {
 		return dp, 0, nil
 	}
 	g := d.connect()
+	last := periods[len(periods)-1].Drawdown
 	for _, c := range d.Held {
-		dp[c] = -drawdown
+		dp[c] = -last
 	}
 	if len(g.toHeld) == 0 {
 		return dp, 0, nil // every cell is held: nothing left to drain
@@ -179,27 +209,34 @@ func (d Drainage) Deplete(drawdown, duration float64, steps int) (dp []float64, 
 	if err != nil {
 		return nil, 0, err
 	}
-	dt := duration / float64(steps)
-	sdt := d.Storage * d.DX * d.DY / dt
-	for k, t := range g.trans {
-		as.AddConnection(k, t)
-	}
-	for i, w := range g.toHeld {
-		as.AddDiagonal(i, sdt+w)
-	}
-	if err := ls.Factor(as.Matrix()); err != nil {
-		return nil, 0, err
-	}
 	p, b := make([]float64, len(g.toHeld)), make([]float64, len(g.toHeld))
-	for range steps {
-		for i, w := range g.toHeld {
-			b[i] = sdt*p[i] - w*drawdown
+	for _, pd := range periods {
+		if pd.Duration == 0 {
+			continue
 		}
-		if _, err := ls.Solve(p, b); err != nil {
+		n := max(1, int(math.Round(float64(steps)*pd.Duration/total)))
+		dt := pd.Duration / float64(n)
+		sdt := d.Storage * d.DX * d.DY / dt
+		as.Reset()
+		for k, t := range g.trans {
+			as.AddConnection(k, t)
+		}
+		for i, w := range g.toHeld {
+			as.AddDiagonal(i, sdt+w)
+		}
+		if err := ls.Factor(as.Matrix()); err != nil {
 			return nil, 0, err
 		}
-		for i, w := range g.toHeld {
-			produced += dt * w * (p[i] + drawdown)
+		for range n {
+			for i, w := range g.toHeld {
+				b[i] = sdt*p[i] - w*pd.Drawdown
+			}
+			if _, err := ls.Solve(p, b); err != nil {
+				return nil, 0, err
+			}
+			for i, w := range g.toHeld {
+				produced += dt * w * (p[i] + pd.Drawdown)
+			}
 		}
 	}
 	for c, i := range g.unknown {

@@ -362,10 +362,30 @@ type Depletion struct {
 	// CellSize of the depletion and stress-change grid, m: a numerical
 	// setting (results converge as it shrinks; see the README).
 	CellSize float64 `toml:"cell_size" unit:"length" range:"[0.1,1e4]" default:"10 m" doc:"cell size of the depletion and stress-change grid over the map area (numerics: results converge as it shrinks)"`
+	// Periods follow the first period (BottomholePressure for
+	// Duration), each at its own bottom-hole pressure.
+	Periods []ProductionPeriod `toml:"periods" doc:"optional: later production periods, in order, each at its own bottom-hole pressure (a history)"`
 	// TimeSteps of the production period.
 	TimeSteps int `toml:"time_steps" range:"[1,100000]" default:"60" doc:"equal implicit time steps of the production period (numerics)"`
 }
 
+// ProductionPeriod is a later period of a parent well's production
+// history.
+type ProductionPeriod struct {
+	Duration           float64 `toml:"duration" unit:"time" range:"[0,1e10]" doc:"length of the period" example:"180 d"`
+	BottomholePressure float64 `toml:"bottomhole_pressure" unit:"pressure" range:"[0,1e9]" doc:"flowing bottom-hole pressure during the period (at most the initial pore pressure)" example:"10 MPa"`
+}
+
+// ProductionTime is the whole production time, s: the first period and
+// every later one.
+func (d Depletion) ProductionTime() float64 {
+	t := d.Duration
+	for _, p := range d.Periods {
+		t += p.Duration
+	}
+	return t
+}
+
 // Active reports whether the scenario produces from parent wells before
-// the stimulation: a [depletion] table with a positive duration.
-func (d Depletion) Active() bool { return len(d.Wells) > 0 && d.Duration > 0 }
+// the stimulation: a [depletion] table with a positive production time.
+func (d Depletion) Active() bool { return len(d.Wells) > 0 && d.ProductionTime() > 0 }

@@ -287,9 +287,19 @@ func (d *decoder) validateDepletion(s *Scenario) {
 			d.failKey(key, "no well is named %q; wells: %s", name, wellNames(s))
 		}
 	}
-	if p0 := s.Stress.PorePressureGradient * s.Layer.Depth; dp.BottomholePressure > p0 {
+	p0 := s.Stress.PorePressureGradient * s.Layer.Depth
+	if dp.BottomholePressure > p0 {
 		d.failKey("depletion.bottomhole_pressure", "must not exceed the initial pore pressure %s at the layer depth (production draws the pressure down)",
 			formatQuantity(p0, kindPressure))
+	}
+	for i, p := range dp.Periods {
+		if p.BottomholePressure > p0 {
+			d.failKey(fmt.Sprintf("depletion.periods[%d].bottomhole_pressure", i), "must not exceed the initial pore pressure %s at the layer depth (production draws the pressure down)",
+				formatQuantity(p0, kindPressure))
+		}
+	}
+	if len(dp.Periods)+1 > dp.TimeSteps {
+		d.failKey("depletion.time_steps", "must be at least the number of production periods, %d", len(dp.Periods)+1)
 	}
 	if cols, rows := gridCells(s.Domain, dp.CellSize); !(cols*rows <= MaxDepletionCells) {
 		d.failKey("depletion.cell_size", "gives %.4g × %.4g depletion cells over the domain; at most %d allowed, use a larger cell", cols, rows, MaxDepletionCells)

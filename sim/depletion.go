@@ -76,7 +76,14 @@ func Deplete(s *scenarios.Scenario) (*Depletion, error) {
 	}
 	drain := flow.Drainage{Cols: g.Cols, Rows: g.Rows, DX: g.CellSize, DY: g.CellSize,
 		Mobility: mobility, Storage: dp.Porosity * dp.TotalCompressibility, Held: held}
-	pore, produced, err := drain.Deplete(stress.PorePressure()-dp.BottomholePressure, dp.Duration, dp.TimeSteps)
+	history := []flow.DrainagePeriod{{Drawdown: stress.PorePressure() - dp.BottomholePressure, Duration: dp.Duration}}
+	for _, p := range dp.Periods {
+		history = append(history, flow.DrainagePeriod{Drawdown: stress.PorePressure() - p.BottomholePressure, Duration: p.Duration})
+	}
+	if !producing(history) {
+		return nil, nil // held at the initial pressure: nothing changes
+	}
+	pore, produced, err := drain.DepleteHistory(history, dp.TimeSteps)
 	if err != nil {
 		return nil, fmt.Errorf("depletion: %w", err)
 	}
@@ -113,8 +120,31 @@ func Deplete(s *scenarios.Scenario) (*Depletion, error) {
 			changed++
 		}
 	}
-	d.Warnings = depletionWarnings(g, pore, stress.PorePressure()-dp.BottomholePressure, changed, stress.Regime())
+	d.Warnings = depletionWarnings(g, pore, largestDrawdown(history), changed, stress.Regime())
 	return d, nil
+}
+
+// producing reports whether a history draws anything: a period of
+// positive length at a drawdown other than zero.
+func producing(history []flow.DrainagePeriod) bool {
+	for _, p := range history {
+		if p.Drawdown != 0 && p.Duration > 0 {
+			return true
+		}
+	}
+	return false
+}
+
+// largestDrawdown is the largest drawdown of the periods of a history
+// that last, Pa.
+func largestDrawdown(history []flow.DrainagePeriod) float64 {
+	var d float64
+	for _, p := range history {
+		if p.Duration > 0 {
+			d = math.Max(d, p.Drawdown)
+		}
+	}
+	return d
 }
 
 // edgeDepletion is the share of the drawdown at the map's edge above which

@@ -179,3 +179,32 @@ func TestDepletionGridCaps(t *testing.T) {
 			scenarios.MaxDepletionCells, flow.MaxDrainageCells, mechanics.MaxDepletionCells)
 	}
 }
+
+// A production history of two equal periods at one bottom-hole pressure is
+// that pressure held throughout (the drainage's superposition is tested
+// in flow); a second period at a higher pressure lets the layer recover
+// part of its drop and produces less.
+func TestDepletionHistory(t *testing.T) {
+	deplete := func(overrides ...string) *Depletion {
+		t.Helper()
+		d, err := Deplete(loadCase(t, "depleted-pad", overrides...))
+		if err != nil {
+			t.Fatal(err)
+		}
+		return d
+	}
+	whole := deplete()
+	split := deplete("depletion.duration=1 yr", "depletion.periods=[{duration = \"1 yr\", bottomhole_pressure = \"15 MPa\"}]")
+	eased := deplete("depletion.duration=1 yr", "depletion.periods=[{duration = \"1 yr\", bottomhole_pressure = \"25 MPa\"}]")
+	for k := range whole.Pore {
+		numtest.Abs(t, "pore-pressure change, two equal periods against one, Pa", split.Pore[k], whole.Pore[k], 1e-6)
+	}
+	numtest.Rel(t, "produced, two equal periods against one", split.Produced, whole.Produced, 1e-9)
+	if !(eased.Produced < whole.Produced) {
+		t.Errorf("a second year at 25 MPa produced %g m³, not less than two years at 15 MPa (%g m³)", eased.Produced, whole.Produced)
+	}
+	k, _ := whole.Grid.CellAt(0, 40) // between the parent's fractures, off them
+	if !(eased.Pore[k] > whole.Pore[k]) {
+		t.Errorf("at (0, 40) m: %g Pa after easing the drawdown, %g Pa without: no recovery", eased.Pore[k], whole.Pore[k])
+	}
+}

@@ -196,8 +196,9 @@ type summaryJSON struct {
 // what it left, in summary.json.
 type depletionJSON struct {
 	Wells                []string `json:"parent_wells"`
-	DurationS            float64  `json:"production_time_s"`
-	BottomholeMPa        float64  `json:"bottomhole_pressure_MPa"`
+	DurationS            float64   `json:"production_time_s"`
+	PeriodsS             []float64 `json:"period_durations_s"`
+	BottomholeMPa        []float64 `json:"period_bottomhole_pressures_MPa"`
 	FractureHalfLengthM  float64  `json:"fracture_half_length_m"`
 	CellSizeM            float64  `json:"cell_size_m"`
 	ProducedM3           float64  `json:"produced_volume_m3"`
@@ -214,8 +215,13 @@ func newDepletionJSON(s *scenarios.Scenario, d *Depletion) *depletionJSON {
 		return nil
 	}
 	dp := s.Depletion
-	out := &depletionJSON{Wells: dp.Wells, DurationS: dp.Duration, BottomholeMPa: dp.BottomholePressure / 1e6,
+	out := &depletionJSON{Wells: dp.Wells, DurationS: dp.ProductionTime(),
+		PeriodsS: []float64{dp.Duration}, BottomholeMPa: []float64{dp.BottomholePressure / 1e6},
 		FractureHalfLengthM: dp.FractureHalfLength, CellSizeM: dp.CellSize, ProducedM3: d.Produced}
+	for _, p := range dp.Periods {
+		out.PeriodsS = append(out.PeriodsS, p.Duration)
+		out.BottomholeMPa = append(out.BottomholeMPa, p.BottomholePressure/1e6)
+	}
 	for k, c := range d.Change {
 		out.MaxDepletionMPa = math.Max(out.MaxDepletionMPa, -c.Pore/1e6)
 		out.MaxHorizontalDropMPa = math.Max(out.MaxHorizontalDropMPa, -(c.XX+c.YY)/2e6)
