@@ -195,18 +195,18 @@ type summaryJSON struct {
 // depletionJSON is the production before the stimulation, its inputs and
 // what it left, in summary.json.
 type depletionJSON struct {
-	Wells                []string `json:"parent_wells"`
+	Wells                []string  `json:"parent_wells"`
 	DurationS            float64   `json:"production_time_s"`
 	PeriodsS             []float64 `json:"period_durations_s"`
 	BottomholeMPa        []float64 `json:"period_bottomhole_pressures_MPa"`
-	FractureHalfLengthM  float64  `json:"fracture_half_length_m"`
-	CellSizeM            float64  `json:"cell_size_m"`
-	ProducedM3           float64  `json:"produced_volume_m3"`
-	MaxDepletionMPa      float64  `json:"largest_pore_pressure_drop_MPa"`
-	MaxHorizontalDropMPa float64  `json:"largest_mean_horizontal_stress_drop_MPa"`
-	MaxRotationDeg       float64  `json:"largest_shmax_rotation_deg"`
-	CriticalChangeMinMPa float64  `json:"least_critical_pressure_change_min_MPa"`
-	CriticalChangeMaxMPa float64  `json:"least_critical_pressure_change_max_MPa"`
+	FractureHalfLengthM  float64   `json:"fracture_half_length_m"`
+	CellSizeM            float64   `json:"cell_size_m"`
+	ProducedM3           float64   `json:"produced_volume_m3"`
+	MaxDepletionMPa      float64   `json:"largest_pore_pressure_drop_MPa"`
+	MaxHorizontalDropMPa float64   `json:"largest_mean_horizontal_stress_drop_MPa"`
+	MaxRotationDeg       float64   `json:"largest_shmax_rotation_deg"`
+	CriticalChangeMinMPa float64   `json:"least_critical_pressure_change_min_MPa"`
+	CriticalChangeMaxMPa float64   `json:"least_critical_pressure_change_max_MPa"`
 }
 
 // newDepletionJSON summarises d (nil for none).
