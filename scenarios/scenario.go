@@ -33,6 +33,10 @@ type Scenario struct {
 	Schedule       Schedule         `toml:"schedule"`
 	Numerics       Numerics         `toml:"numerics"`
 	Coulomb        Coulomb          `toml:"coulomb"`
+	// Matrix is optional: absent, fluid leaks off (if at all) by the
+	// fluids' Carter coefficients, and nothing can drain before the
+	// stimulation.
+	Matrix Matrix `toml:"matrix" opt:"" json:",omitzero" doc:"optional: the layer's rock matrix, into which the fractures leak off by pressure diffusion (instead of Carter coefficients) and through which parent wells deplete the layer ([depletion])"`
 	// Depletion is optional: absent, nothing produced before the
 	// stimulation and the scenario's digest is what it was before the
 	// table existed.
@@ -332,12 +336,31 @@ type Coulomb struct {
 	EffectiveFriction float64 `toml:"effective_friction" range:"[0,1.5]" default:"0.4" doc:"effective friction of the Coulomb stress change (0.4 is a usual choice)"`
 }
 
+// Matrix is the rock matrix of the layer between the fractures.
+type Matrix struct {
+	// Permeability k, m².
+	Permeability float64 `toml:"permeability" unit:"permeability" range:"[1e-24,1e-10]" doc:"matrix permeability (with any natural fractures too small to be in the network, upscaled)" example:"100 nD"`
+	// Porosity φ.
+	Porosity float64 `toml:"porosity" range:"(0,1)" default:"0.06" doc:"matrix porosity"`
+	// TotalCompressibility c_t of pore fluid and pore volume, 1/Pa.
+	TotalCompressibility float64 `toml:"total_compressibility" unit:"compressibility" range:"[1e-12,1e-6]" default:"2 1/GPa" doc:"total compressibility of the matrix's pore fluid and pore volume"`
+	// Viscosity of the fluid in the matrix pores, Pa·s.
+	Viscosity float64 `toml:"viscosity" unit:"viscosity" range:"[1e-5,1e3]" default:"0.3 cP" doc:"viscosity of the fluid in the matrix pores (and of the fluid parent wells produce)"`
+	// HalfWidth is the distance from a fracture face to the no-flow plane
+	// between parallel fractures, m; 0 for a matrix without end.
+	HalfWidth float64 `toml:"half_width" unit:"length" range:"[0,1e4]" default:"0 m" doc:"leak-off: distance from a fracture face to the no-flow plane between parallel fractures (half their spacing); 0 for a matrix without end"`
+}
+
+// Present reports whether the scenario has a [matrix] table.
+func (m Matrix) Present() bool { return m.Permeability > 0 }
+
 // Depletion is production from parent wells before the stimulation. Each
 // cluster of a parent well's stages produced through a propped fracture
 // along SHmax, held at the flowing bottom-hole pressure for the production
-// time; the pore pressure of the layer around them falls by matrix
-// diffusion, and the stresses change with it (poroelastically). The
-// stimulation then starts from that depleted state.
+// time; the pore pressure of the layer around them falls by diffusion
+// through the [matrix], and the stresses change with it
+// (poroelastically). The stimulation then starts from that depleted
+// state.
 type Depletion struct {
 	// Wells names the parent wells among [[wells]].
 	Wells []string `toml:"wells" doc:"names of the wells in [[wells]] that produced before the stimulation; each cluster of their stages produced through a fracture along SHmax" example:"[\"A\"]"`
@@ -349,14 +372,6 @@ type Depletion struct {
 	BottomholePressure float64 `toml:"bottomhole_pressure" unit:"pressure" range:"[0,1e9]" doc:"flowing bottom-hole pressure of the parent wells during production (at most the initial pore pressure)" example:"15 MPa"`
 	// Duration of the production before the stimulation, s.
 	Duration float64 `toml:"duration" unit:"time" range:"[0,1e10]" doc:"production time before the stimulation; 0 for none" example:"2 yr"`
-	// MatrixPermeability k of the layer's rock, m².
-	MatrixPermeability float64 `toml:"matrix_permeability" unit:"permeability" range:"[1e-24,1e-10]" default:"100 nD" doc:"permeability of the layer's matrix (with the natural fractures it holds, upscaled)"`
-	// Porosity φ of the matrix.
-	Porosity float64 `toml:"porosity" range:"(0,1)" default:"0.06" doc:"porosity of the layer's matrix"`
-	// TotalCompressibility c_t of pore fluid and pore volume, 1/Pa.
-	TotalCompressibility float64 `toml:"total_compressibility" unit:"compressibility" range:"[1e-12,1e-6]" default:"2 1/GPa" doc:"total compressibility of the matrix's pore fluid and pore volume"`
-	// Viscosity of the produced fluid, Pa·s.
-	Viscosity float64 `toml:"viscosity" unit:"viscosity" range:"[1e-5,1e3]" default:"0.3 cP" doc:"viscosity of the produced fluid"`
 	// Biot is Biot's effective-stress coefficient α.
 	Biot float64 `toml:"biot" range:"(0,1]" default:"1" doc:"Biot's effective-stress coefficient α of the stress path α(1-2ν)/(1-ν)"`
 	// CellSize of the depletion and stress-change grid, m: a numerical

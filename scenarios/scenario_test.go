@@ -159,7 +159,7 @@ func TestDepletionTable(t *testing.T) {
 		t.Errorf("no [depletion] table, yet active %v or in the canonical content: %s", s.Depletion.Active(), b)
 	}
 	withTable := strings.Replace(minimal, "[fluids.water]",
-		"[depletion]\nwells = [\"A\"]\nbottomhole_pressure = \"10 MPa\"\nduration = \"2 yr\"\n[fluids.water]", 1)
+		"[matrix]\npermeability = \"100 nD\"\n[depletion]\nwells = [\"A\"]\nbottomhole_pressure = \"10 MPa\"\nduration = \"2 yr\"\n[fluids.water]", 1)
 	d, err := parseText(t, withTable)
 	if err != nil {
 		t.Fatal(err)
@@ -168,7 +168,8 @@ func TestDepletionTable(t *testing.T) {
 		t.Errorf("a [depletion] table: active %v, digest changed %v", d.Depletion.Active(), d.Digest != s.Digest)
 	}
 	numtest.Rel(t, "duration", d.Depletion.Duration, 2*365.25*86400, 1e-15)
-	numtest.Rel(t, "default permeability (100 nD)", d.Depletion.MatrixPermeability, 9.869233e-20, 1e-15)
+	numtest.Rel(t, "matrix permeability (100 nD)", d.Matrix.Permeability, 9.869233e-20, 1e-15)
+	numtest.Rel(t, "default matrix porosity", d.Matrix.Porosity, 0.06, 1e-15)
 	if g := d.DepletionGrid(); g.CellSize != 10 || g.Cols != 100 || g.Rows != 100 {
 		t.Errorf("depletion grid %+v, want 100 × 100 cells of 10 m over the 1 km map", g)
 	}
@@ -279,6 +280,8 @@ func TestBadValues(t *testing.T) {
 		{"depletion without a time", `[fluids.water]`, "[depletion]\nwells = [\"A\"]\nbottomhole_pressure = \"10 MPa\"\n[fluids.water]", `depletion.duration: required key is missing (e.g. "2 yr")`},
 		{"later period above the pore pressure", `[fluids.water]`, "[depletion]\nwells = [\"A\"]\nbottomhole_pressure = \"10 MPa\"\nduration = \"1 yr\"\n[[depletion.periods]]\nduration = \"1 yr\"\nbottomhole_pressure = \"21 MPa\"\n[fluids.water]", `depletion.periods[0].bottomhole_pressure = "21 MPa": must not exceed the initial pore pressure 20 MPa`},
 		{"fewer steps than periods", `[fluids.water]`, "[depletion]\nwells = [\"A\"]\nbottomhole_pressure = \"10 MPa\"\nduration = \"1 yr\"\ntime_steps = 1\n[[depletion.periods]]\nduration = \"1 yr\"\nbottomhole_pressure = \"12 MPa\"\n[fluids.water]", `depletion.time_steps = 1: must be at least the number of production periods, 2`},
+		{"depletion without a matrix", `[fluids.water]`, "[depletion]\nwells = [\"A\"]\nbottomhole_pressure = \"10 MPa\"\nduration = \"1 yr\"\n[fluids.water]", `depletion.wells = [A]: production needs a [matrix] table`},
+		{"matrix and Carter leak-off", `viscosity = "1 cP"`, "viscosity = \"1 cP\"\nleakoff_coefficient = \"1e-5 m/s^0.5\"\n[matrix]\npermeability = \"100 nD\"", `fluids.water.leakoff_coefficient = "1e-5 m/s^0.5": must be 0 with a [matrix] table`},
 		{"depletion grid too fine", `[fluids.water]`, "[depletion]\nwells = [\"A\"]\nbottomhole_pressure = \"10 MPa\"\nduration = \"1 yr\"\ncell_size = \"0.5 m\"\n[fluids.water]", `depletion.cell_size = "0.5 m": gives 2000 × 2000 depletion cells over the domain; at most 1048576 allowed`},
 		{"long value cut short", `name = "two"`, `name = "two"` + "\nshape = \"" + strings.Repeat("x", 5000) + "\"", `sets[1].shape = "` + strings.Repeat("x", 60) + `"…: must be one of`},
 	}

@@ -31,7 +31,21 @@ func (d *decoder) validate(s *Scenario) {
 	d.validateWells(s)
 	d.validateSchedule(s)
 	d.validateNumerics(s)
+	d.validateMatrix(s)
 	d.validateDepletion(s)
+}
+
+// validateMatrix checks that matrix leak-off and Carter coefficients are
+// not both asked for.
+func (d *decoder) validateMatrix(s *Scenario) {
+	if !s.Matrix.Present() {
+		return
+	}
+	for _, name := range s.PumpedFluids() {
+		if c := s.Fluids[name].LeakoffCoefficient; c > 0 {
+			d.failKey("fluids."+name+".leakoff_coefficient", "must be 0 with a [matrix] table: fluid leaks off into the matrix by pressure diffusion instead; remove one of the two")
+		}
+	}
 }
 
 func (d *decoder) validateDomain(s *Scenario) {
@@ -274,6 +288,9 @@ func (d *decoder) validateDepletion(s *Scenario) {
 	dp := s.Depletion
 	if dp.Wells == nil {
 		return // no table
+	}
+	if !s.Matrix.Present() {
+		d.failKey("depletion.wells", "production needs a [matrix] table: the layer drains through its matrix (permeability, porosity, total_compressibility, viscosity)")
 	}
 	if len(dp.Wells) == 0 {
 		d.failKey("depletion.wells", "must name at least one well of [[wells]] (%s); remove the [depletion] table for no production", wellNames(s))

@@ -37,7 +37,7 @@ func BenchmarkDemo(b *testing.B) {
 // (BenchmarkDemo).
 func BenchmarkDepleteDemo(b *testing.B) {
 	ov, err := scenarios.ParseOverrides([]string{`depletion.wells=["W1"]`, "depletion.bottomhole_pressure=15 MPa",
-		"depletion.duration=2 yr", "depletion.matrix_permeability=1.5 uD"})
+		"depletion.duration=2 yr", "matrix.permeability=1.5 uD"})
 	if err != nil {
 		b.Fatal(err)
 	}

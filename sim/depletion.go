@@ -23,8 +23,9 @@ import (
 // each way, held at the flowing bottom-hole pressure for depletion.duration
 // (infinite-conductivity fractures, the idealisation of Gringarten, Ramey &
 // Raghavan 1974, from memory); the layer's matrix drains into them by
-// single-phase pressure diffusion in the map plane (flow.Drainage), with
-// the natural fractures folded into the matrix permeability. Stress: the
+// single-phase pressure diffusion in the map plane (flow.Drainage) through
+// the scenario's [matrix], with the natural fractures folded into its
+// permeability. Stress: the
 // change of a layer of the scenario's thickness depleted by the cell
 // field, summed exactly over cells (mechanics.GridResponse; Segall 1989 and
 // Segall & Fitzgerald 1998 for the model it reduces).
@@ -70,12 +71,13 @@ func Deplete(s *scenarios.Scenario) (*Depletion, error) {
 	if len(held) == 0 {
 		return nil, badinput.Errorf("depletion: no producing fracture of the parent wells %v lies in the map area", dp.Wells)
 	}
+	mx := s.Matrix
 	mobility := make([]float64, g.Cells())
 	for i := range mobility {
-		mobility[i] = dp.MatrixPermeability / dp.Viscosity
+		mobility[i] = mx.Permeability / mx.Viscosity
 	}
 	drain := flow.Drainage{Cols: g.Cols, Rows: g.Rows, DX: g.CellSize, DY: g.CellSize,
-		Mobility: mobility, Storage: dp.Porosity * dp.TotalCompressibility, Held: held}
+		Mobility: mobility, Storage: mx.Porosity * mx.TotalCompressibility, Held: held}
 	history := []flow.DrainagePeriod{{Drawdown: stress.PorePressure() - dp.BottomholePressure, Duration: dp.Duration}}
 	for _, p := range dp.Periods {
 		history = append(history, flow.DrainagePeriod{Drawdown: stress.PorePressure() - p.BottomholePressure, Duration: p.Duration})

@@ -241,7 +241,21 @@ func (r *runner) system(k int) (*flow.System, error) {
 		Fluid:             flow.Fluid{Viscosity: f.Viscosity, Compressibility: f.Compressibility, Leakoff: f.LeakoffCoefficient},
 		ReferencePressure: r.m.p0,
 		Linear:            flow.Settings{Method: solverMethod(r.m.s.Numerics.Solver), Tol: r.m.s.Numerics.LinearTolerance},
+		Matrix:            matrixLeakoff(r.m.s),
 	})
+}
+
+// matrixLeakoff is the scenario's [matrix] as the fractures' leak-off
+// (nil without the table): its cells resolve diffusion from the first
+// time step to the whole schedule.
+func matrixLeakoff(s *scenarios.Scenario) *flow.Matrix {
+	mx := s.Matrix
+	if !mx.Present() {
+		return nil
+	}
+	return &flow.Matrix{Permeability: mx.Permeability, Porosity: mx.Porosity, Compressibility: mx.TotalCompressibility,
+		Viscosity: mx.Viscosity, HalfWidth: mx.HalfWidth,
+		ShortestTime: s.Numerics.TimeStepInitial, LongestTime: math.Max(s.ScheduleLength(), s.Numerics.TimeStepInitial)}
 }
 
 func solverMethod(name string) flow.Method {
