@@ -128,6 +128,18 @@ func (l *LimitedEntry) Conductance(k int, dp float64) float64 {
 	return perfConductance(l.coef[k], dp)
 }
 
+// Tangent returns the linearisation of cluster k's perforations at the
+// rate q0 (m³/s): q ≈ slope·Δp + offset, the tangent of the orifice law at
+// q0, slope = 1/(2K|q0|) (m³/(Pa·s)) and offset = q0/2 (m³/s); on the
+// linear continuation below 1 kPa, its slope and offset 0.
+func (l *LimitedEntry) Tangent(k int, q0 float64) (slope, offset float64) {
+	c := l.coef[k]
+	if math.Abs(q0) < math.Sqrt(linearDrop/c) {
+		return perfConductance(c, 0), 0
+	}
+	return 1 / (2 * c * math.Abs(q0)), q0 / 2
+}
+
 // Split sets dst[k] to the rate (m³/s) of cluster k when the stage takes
 // the total rate total (m³/s) and the fractures at the clusters' entries
 // are at the pressures entry (Pa), and returns the bottom-hole pressure

@@ -335,6 +335,8 @@ func (s *System) linearSolve(it *iteration) error {
 	s.as.Reset()
 	clear(s.rhs)
 	s.conductances(it.e)
+	s.sumClusters()
+	s.updatePerforations(it.p, it.pw)
 	cf, pref := s.cfg.Fluid.Compressibility, s.cfg.ReferencePressure
 	p, e, dt := it.p, it.e, it.dt
 	for i := range s.nElem {

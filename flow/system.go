@@ -43,6 +43,15 @@ type Config struct {
 	// pressure diffusion, in place of Carter's coefficient (which must
 	// then be 0).
 	Matrix *Matrix
+	// ClusterNodes, when set, groups the well's nodes by perforation
+	// cluster: ClusterNodes[k] are the nodes cluster k feeds, each node in
+	// one cluster, together the well's nodes. System.ClusterRates then
+	// reports each cluster's rate.
+	ClusterNodes [][]int
+	// Perforations, when set (with ClusterNodes, one cluster each), pass
+	// each cluster's fluid through its perforations (limited entry):
+	// the well no longer meets the fractures at infinite conductance.
+	Perforations *LimitedEntry
 }
 
 // System is the implicit pressure system of a mesh during one stage: one
@@ -58,6 +67,30 @@ type Config struct {
 // with every element k at its nodes and the elements at a well node
 // exchange nothing directly. Under rate control the well's row states
 // Σ_k α_k (p_w − p_k) = Q; under pressure control p_w is given.
+//
+// # Limited entry
+//
+// With Config.Perforations, the fluid of cluster k passes through its
+// perforations, a member of conductance γ_k, into the cluster's nodes,
+// which together form one star node with the elements there (their
+// memberships E_k, conductances α_i). The star–delta rule then gives
+//
+//	T_iw = α_i γ_k / (Σ_{E_k} α + γ_k),  T_ij = α_i α_j / (Σ_{E_k} α + γ_k)
+//
+// between an element and the well and between two elements of the
+// cluster; γ_k → ∞ gives back the well above. The orifice law
+// q = sign(Δp)·√(|Δp|/K_k) is linearised at the cluster's rate q⁰ of the
+// previous iterate (Newton's method on the perforations, with the
+// transmissibilities lagged as everywhere): q ≈ γ_k Δp + s_k with the
+// tangent γ_k = 1/(2K_k|q⁰|) and s_k = q⁰/2, the source term entering the
+// cluster's node and shared by its elements in proportion α_i/(Σα + γ_k);
+// below the orifice law's linear continuation (LimitedEntry) γ_k is its
+// slope and s_k = 0. A rate-driven cluster converges in two updates and a
+// shared rate quadratically; at convergence every cluster's rate and
+// perforation drop obey the orifice law while the clusters share the
+// well's rate through it. The chord q⁰/Δp⁰ alone would not do: where the
+// perforations dominate it maps a cluster's rate to its reciprocal, and
+// the iterations swing between clusters without end.
 type System struct {
 	mesh   *Mesh
 	cfg    Config
@@ -79,6 +112,18 @@ type System struct {
 	e, dedp, ePrev, leak []float64
 	// mx is the matrix leak-off model (nil: Carter's or none).
 	mx *matrixLeak
+	// Clusters (Config.ClusterNodes): wellCluster[c] is the cluster of
+	// membership c of wellEl; clusterSumA the Σ α of each cluster.
+	wellCluster []int32
+	clusterSumA []float64
+	// Limited entry (Config.Perforations; nil: none): gamma and source
+	// hold each cluster's linearised perforations, q = γ Δp + s
+	// (m³/(Pa·s), m³/s); pairs the element pairs of each cluster (indices
+	// into wellEl), whose connections follow the well's in the pattern.
+	perf          *LimitedEntry
+	gamma, source []float64
+	pairs         [][2]int32
+	qWork         []float64 // per cluster: the rates of updatePerforations
 }
 
 // NewSystem analyses the system of mesh m with a well at wellNodes (none:
@@ -98,18 +143,8 @@ func NewSystem(m *Mesh, wellNodes []int, cfg Config) (*System, error) {
 		}
 		s.mx = newMatrixLeak(cfg.Matrix.withDefaults(), n, cfg.ReferencePressure)
 	}
-	for _, node := range wellNodes {
-		if node < 0 || node >= m.NumNodes() {
-			return nil, fmt.Errorf("flow: well node %d outside the mesh's %d nodes", node, m.NumNodes())
-		}
-		if s.wellAt[node] {
-			continue
-		}
-		s.wellAt[node] = true
-		s.wellEl = append(s.wellEl, m.NodeElems[m.NodeStart[node]:m.NodeStart[node+1]]...)
-	}
-	if len(wellNodes) > 0 && len(s.wellEl) == 0 {
-		return nil, fmt.Errorf("flow: the well's nodes touch no element")
+	if err := s.wellMembers(m, wellNodes, cfg); err != nil {
+		return nil, err
 	}
 	unknowns := n
 	conns := append([][2]int(nil), m.Conns...)
@@ -117,6 +152,9 @@ func NewSystem(m *Mesh, wellNodes []int, cfg Config) (*System, error) {
 		unknowns++
 		for _, e := range s.wellEl {
 			conns = append(conns, [2]int{int(e), n})
+		}
+		for _, pr := range s.pairs {
+			conns = append(conns, [2]int{int(s.wellEl[pr[0]]), int(s.wellEl[pr[1]])})
 		}
 	}
 	as, err := NewAssembler(unknowns, conns)
@@ -136,6 +174,70 @@ func NewSystem(m *Mesh, wellNodes []int, cfg Config) (*System, error) {
 	s.delta = make([]float64, unknowns)
 	s.prevDelta = make([]float64, unknowns)
 	return s, nil
+}
+
+// wellMembers finds the element memberships at the well's nodes, their
+// clusters (Config.ClusterNodes) and, with limited entry, the element
+// pairs of every cluster.
+func (s *System) wellMembers(m *Mesh, wellNodes []int, cfg Config) error {
+	clusterOf := map[int]int32{}
+	for k, nodes := range cfg.ClusterNodes {
+		for _, node := range nodes {
+			if j, ok := clusterOf[node]; ok && int(j) != k {
+				return fmt.Errorf("flow: well node %d is in clusters %d and %d: each node belongs to one cluster", node, j, k)
+			}
+			clusterOf[node] = int32(k)
+		}
+	}
+	if cfg.Perforations != nil && cfg.Perforations.Len() != len(cfg.ClusterNodes) {
+		return fmt.Errorf("flow: %d perforation clusters for %d clusters of well nodes", cfg.Perforations.Len(), len(cfg.ClusterNodes))
+	}
+	for _, node := range wellNodes {
+		if node < 0 || node >= m.NumNodes() {
+			return fmt.Errorf("flow: well node %d outside the mesh's %d nodes", node, m.NumNodes())
+		}
+		if s.wellAt[node] {
+			continue
+		}
+		k, ok := clusterOf[node]
+		if cfg.ClusterNodes != nil && !ok {
+			return fmt.Errorf("flow: well node %d is in no cluster", node)
+		}
+		s.wellAt[node] = true
+		for _, e := range m.NodeElems[m.NodeStart[node]:m.NodeStart[node+1]] {
+			s.wellEl = append(s.wellEl, e)
+			s.wellCluster = append(s.wellCluster, k)
+		}
+	}
+	if len(wellNodes) > 0 && len(s.wellEl) == 0 {
+		return fmt.Errorf("flow: the well's nodes touch no element")
+	}
+	for node := range clusterOf {
+		if node < 0 || node >= m.NumNodes() || !s.wellAt[node] {
+			return fmt.Errorf("flow: cluster node %d is not a well node", node)
+		}
+	}
+	if cfg.ClusterNodes == nil {
+		return nil
+	}
+	s.clusterSumA = make([]float64, len(cfg.ClusterNodes))
+	if cfg.Perforations == nil {
+		return nil
+	}
+	s.perf = cfg.Perforations
+	n := s.perf.Len()
+	s.gamma, s.source, s.qWork = make([]float64, n), make([]float64, n), make([]float64, n)
+	for k := range s.gamma {
+		s.gamma[k] = s.perf.Conductance(k, 0) // the linear branch: the steepest
+	}
+	for a := range s.wellEl {
+		for b := a + 1; b < len(s.wellEl); b++ {
+			if s.wellCluster[a] == s.wellCluster[b] && s.wellEl[a] != s.wellEl[b] {
+				s.pairs = append(s.pairs, [2]int32{int32(a), int32(b)})
+			}
+		}
+	}
+	return nil
 }
 
 // HasWell reports whether the system has a bottom-hole pressure unknown.
@@ -196,7 +298,7 @@ func (s *System) assembleFlux(ctl Control) {
 	w := s.nElem
 	var total float64
 	for c, e := range s.wellEl {
-		a := s.alpha[e]
+		a := s.wellConductance(c)
 		total += a
 		if pressureControl {
 			s.as.AddDiagonal(int(e), a)
@@ -205,22 +307,110 @@ func (s *System) assembleFlux(ctl Control) {
 		}
 		s.as.AddConnection(k+c, a)
 	}
+	k += len(s.wellEl)
+	for i, pr := range s.pairs {
+		a, b := pr[0], pr[1]
+		cl := s.wellCluster[a]
+		s.as.AddConnection(k+i, s.alpha[s.wellEl[a]]*s.alpha[s.wellEl[b]]/(s.clusterSumA[cl]+s.gamma[cl]))
+	}
 	switch {
 	case pressureControl:
 		s.as.AddDiagonal(w, total)
 		s.rhs[w] = total * ctl.Pressure
 	default:
-		s.rhs[w] = ctl.Rate
+		s.rhs[w] = ctl.Rate - s.sourceRate()
+	}
+	if s.perf != nil {
+		// The perforations' source terms enter the clusters' elements.
+		for c, e := range s.wellEl {
+			cl := s.wellCluster[c]
+			s.rhs[e] += s.source[cl] * s.alpha[e] / (s.clusterSumA[cl] + s.gamma[cl])
+		}
 	}
 }
 
-// wellRate returns Σ α_k (p_w − p_k): the rate into the network, m³/s.
-func (s *System) wellRate(p []float64, pw float64) float64 {
+// sourceRate is the part of the well's rate that the perforations' source
+// terms carry, Σ_k s_k Σα_k/(Σα_k + γ_k), m³/s (0 without limited entry).
+func (s *System) sourceRate() float64 {
 	var q float64
-	for _, e := range s.wellEl {
-		q += s.alpha[e] * (pw - p[e])
+	for k := range s.source {
+		q += s.clusterSource(k)
 	}
 	return q
+}
+
+// clusterSource is the part of cluster k's rate its perforations' source
+// term carries into its elements, m³/s.
+func (s *System) clusterSource(k int) float64 {
+	return s.source[k] * s.clusterSumA[k] / (s.clusterSumA[k] + s.gamma[k])
+}
+
+// wellConductance is the conductance between the well and membership c of
+// wellEl: α, or with limited entry α γ/(Σα + γ) of its cluster.
+func (s *System) wellConductance(c int) float64 {
+	a := s.alpha[s.wellEl[c]]
+	if s.perf == nil {
+		return a
+	}
+	k := s.wellCluster[c]
+	return a * s.gamma[k] / (s.clusterSumA[k] + s.gamma[k])
+}
+
+// wellRate returns Σ T_kw (p_w − p_k), and the perforations' source
+// terms: the rate into the network, m³/s.
+func (s *System) wellRate(p []float64, pw float64) float64 {
+	q := s.sourceRate()
+	for c, e := range s.wellEl {
+		q += s.wellConductance(c) * (pw - p[e])
+	}
+	return q
+}
+
+// sumClusters sets clusterSumA to each cluster's Σ α (after
+// conductances).
+func (s *System) sumClusters() {
+	if s.clusterSumA == nil {
+		return
+	}
+	clear(s.clusterSumA)
+	for c, e := range s.wellEl {
+		s.clusterSumA[s.wellCluster[c]] += s.alpha[e]
+	}
+}
+
+// clusterRates sets dst[k] to the rate into cluster k at the element
+// pressures p and bottom-hole pressure pw, m³/s (the conductances and
+// perforations of the last assembly).
+func (s *System) clusterRates(dst, p []float64, pw float64) {
+	clear(dst)
+	for k := range s.source {
+		dst[k] = s.clusterSource(k)
+	}
+	for c, e := range s.wellEl {
+		dst[s.wellCluster[c]] += s.wellConductance(c) * (pw - p[e])
+	}
+}
+
+// updatePerforations linearises each cluster's perforations at its rate
+// at p and pw under the present linearisation (see System, Limited entry).
+func (s *System) updatePerforations(p []float64, pw float64) {
+	if s.perf == nil || math.IsNaN(pw) {
+		return
+	}
+	s.clusterRates(s.qWork, p, pw)
+	for k, qk := range s.qWork {
+		s.gamma[k], s.source[k] = s.perf.Tangent(k, qk)
+	}
+}
+
+// ClusterRates sets dst[k] to the rate of cluster k (Config.ClusterNodes)
+// in the state st, m³/s, with the apertures and perforation conductances
+// of the last step; it panics without clusters.
+func (s *System) ClusterRates(dst []float64, st *State) {
+	if s.clusterSumA == nil || len(dst) != len(s.clusterSumA) {
+		panic("flow: ClusterRates: no clusters, or dst of the wrong length")
+	}
+	s.clusterRates(dst, st.Pressure, st.BHP)
 }
 
 // maxAbsDiff returns max |a_i − b_i|.
