@@ -239,12 +239,19 @@ type Stage struct {
 	Volume      *float64  `toml:"volume" unit:"volume" range:"[0,1e6]" opt:"" doc:"overrides schedule.volume"`
 	Duration    *float64  `toml:"duration" unit:"time" range:"[0,1e8]" opt:"" doc:"overrides schedule.duration"`
 	PressureCap *float64  `toml:"pressure_cap" unit:"pressure" range:"(0,1e9]" opt:"" doc:"overrides schedule.pressure_cap"`
+	// Limited entry of the stage's clusters; nil: the schedule's.
+	Perforations         *int     `toml:"perforations" range:"[0,1000]" opt:"" doc:"overrides schedule.perforations (per cluster)"`
+	PerforationDiameter  *float64 `toml:"perforation_diameter" unit:"length" range:"[0.001,0.1]" opt:"" doc:"overrides schedule.perforation_diameter"`
+	DischargeCoefficient *float64 `toml:"discharge_coefficient" range:"(0,1]" opt:"" doc:"overrides schedule.discharge_coefficient"`
 }
 
 // Fluid is an injected fluid (Newtonian, slightly compressible).
 type Fluid struct {
 	Viscosity       float64 `toml:"viscosity" unit:"viscosity" range:"[1e-5,1e3]" doc:"dynamic viscosity" example:"1 cP"`
 	Compressibility float64 `toml:"compressibility" unit:"compressibility" range:"[1e-12,1e-6]" default:"4.5e-10 1/Pa" doc:"isothermal compressibility"`
+	// Density ρ at the reference pressure, kg/m³: it sets the orifice
+	// pressure drop of limited entry.
+	Density float64 `toml:"density" unit:"density" range:"[100,3000]" default:"1000 kg/m3" doc:"density (the perforations' pressure drop of limited entry grows with it)"`
 	// LeakoffCoefficient is Carter's C_L, m/√s; 0 for none.
 	LeakoffCoefficient float64 `toml:"leakoff_coefficient" unit:"leakoff" range:"[0,0.01]" default:"0 m/s^0.5" doc:"Carter leak-off coefficient into the matrix; 0 for none"`
 }
@@ -272,6 +279,13 @@ type Schedule struct {
 	InjectionPressure float64 `toml:"injection_pressure" when:"control=pressure" unit:"pressure" range:"(0,1e9]" default:"50 MPa" doc:"bottom-hole pressure under pressure control"`
 	// ShutIn after each stage, s.
 	ShutIn float64 `toml:"shut_in" unit:"time" range:"[0,1e8]" default:"30 min" doc:"shut-in after each stage"`
+	// Perforations per cluster: the open holes through which each
+	// cluster's fluid passes (limited entry); 0 for open clusters.
+	Perforations int `toml:"perforations" range:"[0,1000]" default:"0" doc:"default open perforations per cluster (limited entry: the clusters share the rate through the holes' pressure drop); 0 for clusters open to the fractures"`
+	// PerforationDiameter of each entry hole, m.
+	PerforationDiameter float64 `toml:"perforation_diameter" when:"perforations>0" unit:"length" range:"[0.001,0.1]" default:"0.4 in" doc:"default entry-hole diameter of a perforation"`
+	// DischargeCoefficient C_d of the perforations.
+	DischargeCoefficient float64 `toml:"discharge_coefficient" when:"perforations>0" range:"(0,1]" default:"0.8" doc:"default orifice discharge coefficient of the perforations (about 0.6 for sharp new holes, towards 0.9 once eroded)"`
 }
 
 // Numerics are discretisation and solver settings.

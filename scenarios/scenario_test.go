@@ -282,6 +282,9 @@ func TestBadValues(t *testing.T) {
 		{"fewer steps than periods", `[fluids.water]`, "[depletion]\nwells = [\"A\"]\nbottomhole_pressure = \"10 MPa\"\nduration = \"1 yr\"\ntime_steps = 1\n[[depletion.periods]]\nduration = \"1 yr\"\nbottomhole_pressure = \"12 MPa\"\n[fluids.water]", `depletion.time_steps = 1: must be at least the number of production periods, 2`},
 		{"depletion without a matrix", `[fluids.water]`, "[depletion]\nwells = [\"A\"]\nbottomhole_pressure = \"10 MPa\"\nduration = \"1 yr\"\n[fluids.water]", `depletion.wells = [A]: production needs a [matrix] table`},
 		{"matrix and Carter leak-off", `viscosity = "1 cP"`, "viscosity = \"1 cP\"\nleakoff_coefficient = \"1e-5 m/s^0.5\"\n[matrix]\npermeability = \"100 nD\"", `fluids.water.leakoff_coefficient = "1e-5 m/s^0.5": must be 0 with a [matrix] table`},
+		{"discharge coefficient above 1", `volume = "100 m3"`, "volume = \"100 m3\"\nperforations = 6\ndischarge_coefficient = 1.5", `schedule.discharge_coefficient = 1.5: must be within (0, 1]`},
+		{"negative perforations", `clusters = ["500 m"]`, "clusters = [\"500 m\"]\nperforations = -2", `wells[0].stages[1].perforations = -2: must be within [0, 1000]`},
+		{"perforation in metres by mistake", `volume = "100 m3"`, "volume = \"100 m3\"\nperforations = 6\nperforation_diameter = \"0.4 m\"", `schedule.perforation_diameter = "0.4 m": must be within [0.001, 0.1] m`},
 		{"depletion grid too fine", `[fluids.water]`, "[depletion]\nwells = [\"A\"]\nbottomhole_pressure = \"10 MPa\"\nduration = \"1 yr\"\ncell_size = \"0.5 m\"\n[fluids.water]", `depletion.cell_size = "0.5 m": gives 2000 × 2000 depletion cells over the domain; at most 1048576 allowed`},
 		{"long value cut short", `name = "two"`, `name = "two"` + "\nshape = \"" + strings.Repeat("x", 5000) + "\"", `sets[1].shape = "` + strings.Repeat("x", 60) + `"…: must be one of`},
 	}

@@ -17,6 +17,10 @@ type PlannedStage struct {
 	// Rate, m³/s; Volume, m³ (0: the duration governs); Duration, s (0: the
 	// volume governs); PressureCap, Pa; ShutIn after the stage, s.
 	Rate, Volume, Duration, PressureCap, ShutIn float64
+	// Perforations per cluster (0: open clusters, no limited entry), their
+	// Diameter, m, and discharge coefficient.
+	Perforations                              int
+	PerforationDiameter, DischargeCoefficient float64
 }
 
 // NominalLength is the stage's planned pumping time at its nominal rate, s:
@@ -84,6 +88,16 @@ func (s *Scenario) plan(w, st int) PlannedStage {
 		Well: w, Stage: st, Name: StageName(s.Wells[w].Name, stage.Name),
 		Fluid: sc.Fluid, Rate: sc.Rate, Volume: sc.Volume, Duration: sc.Duration,
 		PressureCap: sc.PressureCap, ShutIn: sc.ShutIn,
+		Perforations: sc.Perforations, PerforationDiameter: sc.PerforationDiameter, DischargeCoefficient: sc.DischargeCoefficient,
+	}
+	if stage.Perforations != nil {
+		p.Perforations = *stage.Perforations
+	}
+	if stage.PerforationDiameter != nil {
+		p.PerforationDiameter = *stage.PerforationDiameter
+	}
+	if stage.DischargeCoefficient != nil {
+		p.DischargeCoefficient = *stage.DischargeCoefficient
 	}
 	if stage.Fluid != nil {
 		p.Fluid = *stage.Fluid

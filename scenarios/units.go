@@ -28,7 +28,10 @@ const (
 	day        = 86400.0                    // s
 	julianYear = 365.25 * day               // s (SP 811 B.8: year [365.25 days] 3.15576 E+07, from memory)
 	darcy      = 9.869233e-13               // m² (SP 811 B.8: darcy 9.869233 E-13, from memory)
-	degree     = math.Pi / 180              // rad
+	// poundPerGallon is the pound (avoirdupois, 0.45359237 kg exactly, SP
+	// 811 B.8) per US gallon, kg/m³ = 119.826427 (SP 811 B.8: 1.198264 E+02).
+	poundPerGallon = 0.45359237 / usGallon
+	degree         = math.Pi / 180 // rad
 )
 
 // unitKind is the physical dimension a scenario value must carry.
@@ -49,6 +52,7 @@ const (
 	kindIntensity       unitKind = "intensity"
 	kindLeakoff         unitKind = "leakoff"
 	kindPermeability    unitKind = "permeability"
+	kindDensity         unitKind = "density"
 )
 
 // unitTable lists, per kind, the accepted unit spellings and their factor
@@ -76,6 +80,7 @@ var unitTable = map[unitKind][]struct {
 	kindLeakoff:   {{"m/s^0.5", 1}, {"ft/min^0.5", foot / math.Sqrt(minute)}},
 	kindPermeability: {{"m2", 1}, {"D", darcy}, {"mD", 1e-3 * darcy}, {"uD", 1e-6 * darcy},
 		{"nD", 1e-9 * darcy}},
+	kindDensity: {{"kg/m3", 1}, {"g/cm3", 1e3}, {"lb/gal", poundPerGallon}},
 }
 
 // shownUnit is the unit in which messages and the template state a
@@ -87,7 +92,7 @@ var shownUnit = map[unitKind]string{
 	kindLength: "m", kindPressure: "MPa", kindGradient: "kPa/m", kindViscosity: "cP",
 	kindCompressibility: "1/GPa", kindRate: "m3/s", kindVolume: "m3", kindTime: "s",
 	kindAngle: "deg", kindAzimuth: "deg", kindIntensity: "1/m", kindLeakoff: "m/s^0.5",
-	kindPermeability: "m2",
+	kindPermeability: "m2", kindDensity: "kg/m3",
 }
 
 // usualUnits are the units suggested for a number written without one:
@@ -99,7 +104,7 @@ var usualUnits = map[unitKind][]string{
 	kindViscosity: {"cP", "mPa.s"}, kindCompressibility: {"1/GPa", "1/psi"}, kindRate: {"bbl/min", "m3/min"},
 	kindVolume: {"m3", "bbl"}, kindTime: {"min", "h", "s"}, kindAngle: {"deg"}, kindAzimuth: {"deg"},
 	kindIntensity: {"1/m", "1/ft"}, kindLeakoff: {"m/s^0.5", "ft/min^0.5"},
-	kindPermeability: {"nD", "mD"},
+	kindPermeability: {"nD", "mD"}, kindDensity: {"kg/m3", "lb/gal"},
 }
 
 // unitFactor is the factor to SI of the unit name of kind k; it panics on
@@ -186,6 +191,8 @@ func normalizeUnit(u string) string {
 		return "mD"
 	case "nd", "nanodarcy":
 		return "nD"
+	case "ppg":
+		return "lb/gal"
 	}
 	return u
 }

@@ -46,6 +46,8 @@ func TestParseQuantity(t *testing.T) {
 		{"100 nD", kindPermeability, 9.869233e-20, "NIST SP 811 B.8: darcy = 9.869233e-13 m² (from memory)"},
 		{"0.5 mD", kindPermeability, 4.9346165e-16, "NIST SP 811 B.8 darcy (from memory)"},
 		{"2 yr", kindTime, 63115200, "NIST SP 811 B.8: year (365.25 d) = 3.15576e7 s (from memory)"},
+		{"8.34 lb/gal", kindDensity, 8.34 * 0.45359237 / 3.785411784e-3, "NIST SP 811 B.8: lb = 0.45359237 kg, gal = 3.785411784e-3 m³, both exact"},
+		{"1.2 g/cm3", kindDensity, 1200, "SI prefix"},
 	}
 	for _, tc := range tests {
 		got, err := parseQuantity(tc.in, tc.kind)

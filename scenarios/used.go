@@ -98,7 +98,12 @@ func evalWhen(v reflect.Value, cond string) when {
 		}
 		fv := v.Field(i)
 		if positive {
-			if limit != "0" || fv.Kind() != reflect.Float64 {
+			switch {
+			case limit != "0":
+				panic("scenarios: bad when tag " + cond)
+			case fv.Kind() == reflect.Int:
+				return when{holds: fv.Int() > 0, key: key, want: "> 0", have: fmt.Sprint(fv.Int())}
+			case fv.Kind() != reflect.Float64:
 				panic("scenarios: bad when tag " + cond)
 			}
 			have := formatQuantity(fv.Float(), unitKind(f.Tag.Get("unit")))

@@ -304,7 +304,7 @@ func (d *decoder) validateDepletion(s *Scenario) {
 			d.failKey(key, "no well is named %q; wells: %s", name, wellNames(s))
 		}
 	}
-	p0 := s.Stress.PorePressureGradient * s.Layer.Depth
+	p0 := s.InitialPorePressure()
 	if dp.BottomholePressure > p0 {
 		d.failKey("depletion.bottomhole_pressure", "must not exceed the initial pore pressure %s at the layer depth (production draws the pressure down)",
 			formatQuantity(p0, kindPressure))

@@ -164,7 +164,7 @@ func ReadSummary(r io.Reader, name string) (stages []StageSummary, warnings []Wa
 		}
 		out[i] = StageSummary{Name: st.Name, Start: st.StartS, PumpEnd: st.PumpEndS, End: st.EndS,
 			Injected: st.InjectedM3, PeakBHP: st.PeakBHPMPa * 1e6, NewArea: st.NewAreaM2, Events: st.Events,
-			MaxMagnitude: mw, Capped: st.Capped, Steps: st.Steps}
+			MaxMagnitude: mw, Capped: st.Capped, Steps: st.Steps, ClusterVolumes: st.ClusterVolumes}
 	}
 	for _, w := range sj.Warnings {
 		warnings = append(warnings, Warning{Kind: w.Kind, Stage: w.Stage, Message: w.Message})

@@ -9,6 +9,7 @@ import (
 
 	"slipfront/dfn"
 	"slipfront/flow"
+	"slipfront/internal/badinput"
 	"slipfront/mechanics"
 	"slipfront/scenarios"
 	"slipfront/snapshot"
@@ -73,6 +74,9 @@ type StageSummary struct {
 	// Capped tells the pressure cap limited the rate at some time.
 	Capped bool
 	Steps  int
+	// ClusterVolumes is the volume each cluster took, m³ (back-flow
+	// during shut-in counted against it).
+	ClusterVolumes []float64
 }
 
 // Result is what a run produced, complete or up to a failure.
@@ -170,7 +174,10 @@ type runner struct {
 	shminAt bool // warned about BHP > Shmin in the current stage
 	// The last accepted step's rate (m³/s) and bottom-hole pressure (Pa).
 	lastRate, lastBHP float64
-	lastFrame         float64 // time of the last frame, s
+	// clusterRates holds the rate of each cluster of the stage after a
+	// step, m³/s.
+	clusterRates []float64
+	lastFrame    float64 // time of the last frame, s
 	// massError sums |injected − leaked − stored| over the steps and moved
 	// the larger of |injected| and |stored| per step, m³.
 	massError, moved float64
@@ -237,12 +244,35 @@ func (r *runner) initialise() error {
 func (r *runner) system(k int) (*flow.System, error) {
 	ps := r.m.order[k]
 	f := r.m.s.Fluids[ps.Fluid]
+	perfs, err := limitedEntry(ps, f, len(r.m.clusterNodes[k]))
+	if err != nil {
+		return nil, err
+	}
 	return flow.NewSystem(r.m.mesh, r.m.wellNodes[k], flow.Config{
 		Fluid:             flow.Fluid{Viscosity: f.Viscosity, Compressibility: f.Compressibility, Leakoff: f.LeakoffCoefficient},
 		ReferencePressure: r.m.p0,
 		Linear:            flow.Settings{Method: solverMethod(r.m.s.Numerics.Solver), Tol: r.m.s.Numerics.LinearTolerance},
 		Matrix:            matrixLeakoff(r.m.s),
+		ClusterNodes:      r.m.clusterNodes[k],
+		Perforations:      perfs,
 	})
+}
+
+// limitedEntry is the perforations of a stage's clusters pumping fluid f
+// (nil for open clusters: perforations = 0).
+func limitedEntry(ps scenarios.PlannedStage, f scenarios.Fluid, clusters int) (*flow.LimitedEntry, error) {
+	if ps.Perforations == 0 {
+		return nil, nil
+	}
+	perfs := make([]flow.Perforations, clusters)
+	for c := range perfs {
+		perfs[c] = flow.Perforations{Count: ps.Perforations, Diameter: ps.PerforationDiameter, Discharge: ps.DischargeCoefficient}
+	}
+	le, err := flow.NewLimitedEntry(perfs, f.Density)
+	if err != nil {
+		return nil, badinput.Errorf("stage %s: %v", ps.Name, err)
+	}
+	return le, nil
 }
 
 // matrixLeakoff is the scenario's [matrix] as the fractures' leak-off
@@ -281,7 +311,9 @@ func (r *runner) runStage(ctx context.Context, k int, ps scenarios.PlannedStage)
 	r.cur.Capped = false
 	r.stage = k
 	r.shminAt = false
-	sum := StageSummary{Name: ps.Name, Start: r.t, MaxMagnitude: math.NaN()}
+	sum := StageSummary{Name: ps.Name, Start: r.t, MaxMagnitude: math.NaN(),
+		ClusterVolumes: make([]float64, len(r.m.clusterNodes[k]))}
+	r.clusterRates = make([]float64, len(sum.ClusterVolumes))
 	area0, events0 := r.stim.area(), len(r.res.Events)
 	ctl := flow.Control{Mode: flow.RateControl, Rate: ps.Rate, Cap: ps.PressureCap}
 	if r.m.s.Schedule.Control == "pressure" {
@@ -472,6 +504,10 @@ func (r *runner) step(sys *flow.System, p *phase, sum *StageSummary, end float64
 	r.res.Steps++
 	sum.Steps++
 	sum.Injected += res.Injected
+	sys.ClusterRates(r.clusterRates, r.cur)
+	for c, q := range r.clusterRates {
+		sum.ClusterVolumes[c] += q * dt
+	}
 	sum.Capped = sum.Capped || res.Capped
 	if sys.HasWell() && p.ctl.Rate+p.ctl.Pressure > 0 {
 		sum.PeakBHP = math.Max(sum.PeakBHP, res.BHP)

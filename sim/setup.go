@@ -2,6 +2,7 @@ package sim
 
 import (
 	"math"
+	"slices"
 
 	"gonum.org/v1/gonum/spatial/r2"
 
@@ -47,8 +48,11 @@ type model struct {
 	elements []Element
 	conduits []Conduit
 	order    []scenarios.PlannedStage
-	// wellNodes[k] are the mesh nodes fed by stage k's clusters.
-	wellNodes [][]int
+	// wellNodes[k] are the mesh nodes fed by stage k's clusters, and
+	// clusterNodes[k][c] those fed by its cluster c (a node fed by two
+	// clusters goes to the first).
+	wellNodes    [][]int
+	clusterNodes [][][]int
 	// Per element: the in-situ total normal stress σn, compression-positive,
 	// and shear traction τ, signed as package elastic's Δτ (positive drives
 	// right-lateral slip), Pa; the crack that opens it (its trace, or the
@@ -108,9 +112,17 @@ func newModel(s *scenarios.Scenario, net *dfn.Network) (*model, error) {
 		return nil, err
 	}
 	m.wellNodes = make([][]int, len(m.order))
+	m.clusterNodes = make([][][]int, len(m.order))
 	for k, feeds := range clusterNodes {
+		st := m.order[k]
+		m.clusterNodes[k] = make([][]int, len(s.Wells[st.Well].Stages[st.Stage].Clusters))
 		for _, f := range feeds {
-			m.wellNodes[k] = appendUnique(m.wellNodes[k], m.mesh.Node(f.path, f.frac))
+			node := m.mesh.Node(f.path, f.frac)
+			if slices.Contains(m.wellNodes[k], node) {
+				continue
+			}
+			m.wellNodes[k] = append(m.wellNodes[k], node)
+			m.clusterNodes[k][f.cluster] = append(m.clusterNodes[k][f.cluster], node)
 		}
 	}
 	if err := m.elementStresses(stress); err != nil {
@@ -203,10 +215,12 @@ func estimateElements(paths []flow.Path, elementLength float64) float64 {
 	return n
 }
 
-// feed is a position on a path fed by a perforation cluster.
+// feed is a position on a path fed by a perforation cluster (its index in
+// the stage).
 type feed struct {
-	path int
-	frac float64
+	path    int
+	frac    float64
+	cluster int
 }
 
 // clusterCuts finds, for every stage, the path positions its clusters
@@ -217,7 +231,7 @@ func (m *model) clusterCuts(paths []flow.Path) ([][]feed, error) {
 	feeds := make([][]feed, len(m.order))
 	for i, cd := range m.conduits {
 		// Conduit i is path len(traces)+i, cut at its midpoint.
-		feeds[cd.Stage] = append(feeds[cd.Stage], feed{path: len(m.net.Traces) + i, frac: 0.5})
+		feeds[cd.Stage] = append(feeds[cd.Stage], feed{path: len(m.net.Traces) + i, frac: 0.5, cluster: cd.Cluster})
 	}
 	for k, st := range m.order {
 		w := m.s.Wells[st.Well]
@@ -225,12 +239,12 @@ func (m *model) clusterCuts(paths []flow.Path) ([][]feed, error) {
 			if x.Well != st.Well {
 				continue
 			}
-			for _, at := range w.Stages[st.Stage].Clusters {
+			for c, at := range w.Stages[st.Stage].Clusters {
 				if math.Abs(x.Distance-at) <= w.PerforationReach {
 					t := m.net.Traces[x.Trace]
 					f := r2.Norm(r2.Sub(x.Point, t.P0)) / t.Length
 					paths[x.Trace].Cuts = append(paths[x.Trace].Cuts, f)
-					feeds[k] = append(feeds[k], feed{path: x.Trace, frac: f})
+					feeds[k] = append(feeds[k], feed{path: x.Trace, frac: f, cluster: c})
 					break
 				}
 			}
@@ -321,13 +335,4 @@ func PointAlong(path []r2.Vec, d float64) r2.Vec {
 		d -= leg
 	}
 	return path[len(path)-1]
-}
-
-func appendUnique(list []int, v int) []int {
-	for _, x := range list {
-		if x == v {
-			return list
-		}
-	}
-	return append(list, v)
 }

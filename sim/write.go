@@ -267,6 +267,8 @@ type stageJSON struct {
 	MaxMagnitude *float64 `json:"max_magnitude_Mw"`
 	Capped       bool     `json:"pressure_cap_reached"`
 	Steps        int      `json:"time_steps"`
+	// ClusterVolumes: the volume each perforation cluster took, m³.
+	ClusterVolumes []float64 `json:"cluster_injected_volumes_m3"`
 }
 
 // warningJSON is one Warning in summary.json.
@@ -358,6 +360,7 @@ func WriteSummary(w io.Writer, s *scenarios.Scenario, net *dfn.Network, res *Res
 			Name: st.Name, StartS: st.Start, PumpEndS: st.PumpEnd, EndS: st.End, InjectedM3: st.Injected,
 			PeakBHPMPa: st.PeakBHP / 1e6, NewAreaM2: st.NewArea, Events: st.Events,
 			MaxMagnitude: optional(st.MaxMagnitude), Capped: st.Capped, Steps: st.Steps,
+			ClusterVolumes: st.ClusterVolumes,
 		})
 	}
 	if failure != nil {
