@@ -121,6 +121,12 @@ type Rock struct {
 	DilationAngle float64 `toml:"dilation_angle" unit:"angle" range:"[0,90)" default:"2.5 deg" doc:"shear dilation angle"`
 	// DilationSlipLimit D_max: slip beyond it adds no dilation, m.
 	DilationSlipLimit float64 `toml:"dilation_slip_limit" unit:"length" range:"[0,1]" default:"5 mm" doc:"slip beyond which shear dilation stops growing"`
+	// FractureToughness K_Ic of the rock, Pa·√m: a growing fracture's tip
+	// advances where the stress intensity reaches it.
+	FractureToughness float64 `toml:"fracture_toughness" unit:"toughness" range:"[0,1e8]" default:"1 MPa.m^0.5" doc:"mode-I fracture toughness K_Ic of the rock (growing fractures)"`
+	// TensileStrength T0 of the rock, Pa: it decides whether a growing
+	// fracture crosses a natural one.
+	TensileStrength float64 `toml:"tensile_strength" unit:"pressure" range:"[0,1e9]" default:"5 MPa" doc:"tensile strength of the rock (whether a growing fracture crosses a natural one)"`
 	// SlipWeakeningDistance Dc: slip over which friction falls from
 	// friction_static to friction_residual, m.
 	SlipWeakeningDistance float64 `toml:"slip_weakening_distance" unit:"length" range:"[1e-6,1]" default:"1 mm" doc:"slip over which friction falls from static to residual (slip-weakening distance Dc)"`
@@ -224,6 +230,13 @@ type Well struct {
 	// ConduitHeight is the conducting height of the conduits, m (0 = the
 	// layer thickness).
 	ConduitHeight float64 `toml:"conduit_height" when:"conduit_half_length>0" unit:"length" range:"[0,2000]" default:"0 m" doc:"conducting height of the primary conduits; 0 for the layer thickness"`
+	// Growth is "off" (the conduits exist whole from the start) or "on"
+	// (each grows from InitialHalfLength by linear elastic fracture
+	// mechanics, up to ConduitHalfLength).
+	Growth string `toml:"growth" when:"conduit_half_length>0" default:"off" range:"off|on" doc:"off: the primary conduits exist whole from the start; on: each grows from initial_half_length where its tips reach rock.fracture_toughness, up to conduit_half_length"`
+	// InitialHalfLength of a growing conduit, m: the part open (with the
+	// propped conduit_aperture) before pumping.
+	InitialHalfLength float64 `toml:"initial_half_length" when:"conduit_half_length>0" unit:"length" range:"(0,5000]" default:"5 m" doc:"growth on: half-length of each conduit before pumping (the breakdown zone, with conduit_aperture)"`
 	Stages        []Stage `toml:"stages" doc:"stages in pumping order along the well (toe first)"`
 }
 

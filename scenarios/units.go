@@ -53,6 +53,7 @@ const (
 	kindLeakoff         unitKind = "leakoff"
 	kindPermeability    unitKind = "permeability"
 	kindDensity         unitKind = "density"
+	kindToughness       unitKind = "toughness"
 )
 
 // unitTable lists, per kind, the accepted unit spellings and their factor
@@ -81,6 +82,7 @@ var unitTable = map[unitKind][]struct {
 	kindPermeability: {{"m2", 1}, {"D", darcy}, {"mD", 1e-3 * darcy}, {"uD", 1e-6 * darcy},
 		{"nD", 1e-9 * darcy}},
 	kindDensity: {{"kg/m3", 1}, {"g/cm3", 1e3}, {"lb/gal", poundPerGallon}},
+	kindToughness: {{"Pa.m^0.5", 1}, {"MPa.m^0.5", 1e6}, {"psi.in^0.5", psi * math.Sqrt(inch)}},
 }
 
 // shownUnit is the unit in which messages and the template state a
@@ -92,7 +94,7 @@ var shownUnit = map[unitKind]string{
 	kindLength: "m", kindPressure: "MPa", kindGradient: "kPa/m", kindViscosity: "cP",
 	kindCompressibility: "1/GPa", kindRate: "m3/s", kindVolume: "m3", kindTime: "s",
 	kindAngle: "deg", kindAzimuth: "deg", kindIntensity: "1/m", kindLeakoff: "m/s^0.5",
-	kindPermeability: "m2", kindDensity: "kg/m3",
+	kindPermeability: "m2", kindDensity: "kg/m3", kindToughness: "MPa.m^0.5",
 }
 
 // usualUnits are the units suggested for a number written without one:
@@ -104,7 +106,7 @@ var usualUnits = map[unitKind][]string{
 	kindViscosity: {"cP", "mPa.s"}, kindCompressibility: {"1/GPa", "1/psi"}, kindRate: {"bbl/min", "m3/min"},
 	kindVolume: {"m3", "bbl"}, kindTime: {"min", "h", "s"}, kindAngle: {"deg"}, kindAzimuth: {"deg"},
 	kindIntensity: {"1/m", "1/ft"}, kindLeakoff: {"m/s^0.5", "ft/min^0.5"},
-	kindPermeability: {"nD", "mD"}, kindDensity: {"kg/m3", "lb/gal"},
+	kindPermeability: {"nD", "mD"}, kindDensity: {"kg/m3", "lb/gal"}, kindToughness: {"MPa.m^0.5", "psi.in^0.5"},
 }
 
 // unitFactor is the factor to SI of the unit name of kind k; it panics on
@@ -193,6 +195,10 @@ func normalizeUnit(u string) string {
 		return "nD"
 	case "ppg":
 		return "lb/gal"
+	case "MPa.sqrt(m)", "MPa√m", "MPa.√m", "MPa.m^(1/2)":
+		return "MPa.m^0.5"
+	case "psi.sqrt(in)", "psi√in", "psi.√in", "psi.in^(1/2)":
+		return "psi.in^0.5"
 	}
 	return u
 }

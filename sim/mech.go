@@ -73,6 +73,14 @@ type mechState struct {
 	depths *rand.Rand
 	// coulomb holds the Coulomb stress change of every element, Pa.
 	coulomb []float64
+	// Growth (growth.go): opened marks the elements open to flow and
+	// opening (all but the intact rock ahead of growing conduits' tips);
+	// tips and openedLength (m) are each conduit's opened extent;
+	// elementNodes the mesh nodes of every element, built on first use.
+	opened       []bool
+	tips         []tipState
+	openedLength []float64
+	elementNodes [][2]int
 }
 
 // contactNearRadius is the reach, in element lengths or layer
@@ -138,8 +146,10 @@ func newMechState(m *model) (*mechState, error) {
 	}
 	ms.state = ms.contact.NewState()
 	ms.depths = dfn.Stream(m.s.Seed, m.net.Realization, -1, "event depth")
-	ms.averageNormal()
+	ms.openedLength = make([]float64, len(m.conduits))
 	ms.setOpeningShape()
+	ms.initGrowth()
+	ms.averageNormal()
 	return ms, nil
 }
 
@@ -235,7 +245,7 @@ func (ms *mechState) apertures(p, e, dedp []float64) {
 		sn := ms.crackNormal[i]
 		if ms.m.conduitEl[i] {
 			e[i], dedp[i] = ms.conduitAperture0[i], 0
-			if net := p[i] - sn; net > 0 {
+			if net := p[i] - sn; net > 0 && ms.opened[i] {
 				k := ms.crackStiffness[i]
 				e[i], dedp[i] = e[i]+net/k, 1/k
 			}
@@ -351,7 +361,7 @@ func (ms *mechState) setOpeningShape() {
 
 // averageNormal sets the normal stress of every element's aperture law:
 // the mean, weighted by length, of the normal stress along its trace or
-// conduit. The aperture law is a whole crack's (closure under the
+// conduit (the opened part of a growing one). The aperture law is a whole crack's (closure under the
 // effective stress, and above it Sneddon's opening under a uniform net
 // pressure with the whole crack's compliance), so it takes the crack's
 // mean load: the stress shadow of a neighbour, which varies slowly along
@@ -360,13 +370,20 @@ func (ms *mechState) setOpeningShape() {
 // whole crack with its compliance, is spread over the crack.
 func (ms *mechState) averageNormal() {
 	st := ms.state
-	for k, g := range ms.groups {
-		var sum float64
+	for _, g := range ms.groups {
+		var sum, length float64
 		for _, i := range g {
-			sum += ms.m.elements[i].Length * st.Normal[i]
+			if ms.opened[i] {
+				sum += ms.m.elements[i].Length * st.Normal[i]
+				length += ms.m.elements[i].Length
+			}
 		}
 		for _, i := range g {
-			ms.crackNormal[i] = sum / ms.groupLength[k]
+			if ms.opened[i] {
+				ms.crackNormal[i] = sum / length
+			} else {
+				ms.crackNormal[i] = st.Normal[i] // intact rock ahead of a tip
+			}
 		}
 	}
 }

@@ -131,6 +131,13 @@ type Result struct {
 	// Solver is the linear method and FactorEntries its fill (Cholesky).
 	Solver        string
 	FactorEntries int
+	// Crossings are the meetings of growing fractures with natural ones,
+	// in time order.
+	Crossings []Crossing
+	// Opened marks the elements open at the end (the intact rock ahead of
+	// growing fractures' tips is not); nil when nothing grows, and in a
+	// replayed result.
+	Opened []bool
 	// Depletion is the state production left before the stimulation; nil
 	// for none and in a replayed result (Deplete computes it again).
 	Depletion *Depletion
@@ -489,6 +496,11 @@ func (r *runner) step(sys *flow.System, p *phase, sum *StageSummary, end float64
 	// Accept.
 	copy(r.normal, r.ms.crackNormal)
 	r.res.Events = r.ms.commit(r.t, dt, r.stage, r.next.Pressure, r.res.Events)
+	var grown []Warning
+	var opened []opening
+	r.res.Crossings, opened, grown = r.ms.grow(end, r.stage, r.next.Pressure, r.res.Crossings)
+	r.res.Warnings = append(r.res.Warnings, grown...)
+	r.fillOpened(sys, r.next, opened)
 	r.t = end
 	r.next.Time = end
 	r.cur, r.next = r.next, r.cur
@@ -600,6 +612,9 @@ func (r *runner) result() *Result {
 	res := r.res
 	m := r.m
 	res.Elements, res.Conduits, res.Grid, res.Depletion = m.elements, m.conduits, m.grid, m.depletion
+	if m.anyGrowth() {
+		res.Opened = slices.Clone(r.ms.opened)
+	}
 	if r.cur != nil {
 		res.Pressure, res.Aperture = r.cur.Pressure, r.cur.Aperture
 	}

@@ -95,6 +95,9 @@ func newModel(s *scenarios.Scenario, net *dfn.Network) (*model, error) {
 			m.shmin = p.Value
 		}
 	}
+	if err := m.checkGrowthRegime(); err != nil {
+		return nil, err
+	}
 	if m.depletion, err = Deplete(s); err != nil {
 		return nil, err
 	}
@@ -138,6 +141,20 @@ func (m *model) initialPressure(i int) float64 {
 		return m.pInit[i]
 	}
 	return m.p0
+}
+
+// stressAt is the stress state at the local point p at the start of the
+// stimulation: the in-situ state, changed by the depletion there if the
+// parents produced (a state Changed rejected at an element is caught when
+// the model is built, so the in-situ state stands in for it here).
+func (m *model) stressAt(p r2.Vec) mechanics.Stress {
+	if m.depletion == nil {
+		return m.stress
+	}
+	if s, err := m.stress.Changed(m.depletion.At(p)); err == nil {
+		return s
+	}
+	return m.stress
 }
 
 // shmaxAzimuth is the azimuth of SHmax at the local point p at the start

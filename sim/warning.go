@@ -21,6 +21,9 @@ const (
 	// WarnRegimeChanged: production changed the order of the principal
 	// stresses (the faulting regime) somewhere in the map area.
 	WarnRegimeChanged = "depletion_changed_regime"
+	// WarnGrowthAtEnd: a growing fracture reached the end of the path
+	// meshed for it (conduit_half_length) with a tip still able to grow.
+	WarnGrowthAtEnd = "growth_reached_end"
 )
 
 // Warning is a condition of a run that its result should be read with.

@@ -1,0 +1,396 @@
+package sim
+
+import (
+	"fmt"
+	"math"
+	"slices"
+
+	"gonum.org/v1/gonum/spatial/r2"
+
+	"slipfront/flow"
+	"slipfront/internal/badinput"
+	"slipfront/internal/hfref"
+	"slipfront/mechanics"
+)
+
+// Growing fractures. A well with growth = "on" has its primary conduits
+// meshed to their largest extent (conduit_half_length each way of the
+// cluster) but open only over initial_half_length; the elements beyond
+// are intact rock: a flaw of flawAperture that conducts nothing to speak
+// of, opens not at all and loads nothing. After every accepted step each
+// tip advances by one element where the stress intensity of the opened
+// fracture reaches the rock's toughness,
+//
+//	K_I = p_net·√(π·a) ≥ K_Ic,  a = min(ℓ, h/2),
+//
+// with p_net the net pressure (p − σn) of the tip element, ℓ the
+// fracture's half-length and h its height: Irwin's (1957) K of a crack of half-length
+// a under a uniform net pressure, which is exact for the toughness-
+// dominated plane-strain fracture (KGD-K: Detournay 2004, whose pressure
+// is uniform) and takes the height as the crack's size once the fracture
+// is longer than high, as the opening compliance does (Sneddon 1946, from
+// the smaller of length and height; a height-contained blade, Perkins &
+// Kern 1961). The opened part's compliance follows its length as it
+// grows, and each element opens under its own pressure as the conduits
+// always do. A new element takes the pressure of the element behind it,
+// the fluid to fill it at that pressure moving in from the rest of the
+// fracture (in proportion to what each element holds), so mass is
+// conserved exactly and the new tip conducts at once: a closed flaw
+// would let no fluid in.
+//
+// Where a tip meets a natural fracture (a mesh junction between the
+// conduit and a trace) the criterion of Renshaw & Pollard (1995), in the
+// non-orthogonal form of mechanics.Approach (after Gu et al. 2012), decides
+// whether it crosses and goes on, is arrested, or opens the natural
+// fracture (diverted; the fluid then follows the natural fracture through
+// the junction and the conduit stops growing on that side: re-initiation
+// at the natural fracture's end is not modelled). Every meeting is a
+// Crossing of the result.
+//
+// Only the toughness-dominated regime is supported (checkGrowthRegime):
+// where viscosity governs, the front of this scheme runs ahead of the
+// fluid. Left out (see the README): the path is straight along the local SHmax
+// at the cluster (the stress shadows of neighbours do not curve it), the
+// two tips are advanced by the tip elements' own pressure but the front
+// moves by whole elements, and a tip advances at most one element per
+// step (the pressure-change control of the time step shortens the steps
+// while fluid enters new elements).
+
+// flawAperture is the aperture of the intact rock ahead of a growing
+// fracture's tip, m: a closed flaw whose transmissivity is ~10⁻¹⁸ of an
+// open fracture's (common practice, no source: only its smallness
+// matters).
+const flawAperture = 1e-6
+
+// Crossing is what a growing fracture did where its tip met a natural
+// fracture.
+type Crossing struct {
+	// Time of the meeting, s, and the stage index.
+	Time  float64
+	Stage int
+	// Conduit indexes Result.Conduits; Trace and Fracture the natural
+	// fracture met.
+	Conduit, Trace, Fracture int
+	// X, Y: where they met, local m.
+	X, Y float64
+	// Angle between the two fractures in map view, radians in (0, π/2].
+	Angle float64
+	// Outcome is "cross", "arrest" or "divert" (mechanics.Crossing).
+	Outcome string
+}
+
+// tipState is a growing conduit's opened extent: the indices of its first
+// and last opened elements in its group (ms.groups), and whether each
+// side has stopped (arrested, diverted or at the end of its path).
+type tipState struct {
+	lo, hi  int
+	stopped [2]bool
+}
+
+// initGrowth marks every element opened or not: natural elements and the
+// conduits of wells without growth whole, growing conduits within
+// initial_half_length of their cluster (at least the element on each side
+// of it).
+func (ms *mechState) initGrowth() {
+	m := ms.m
+	nt := len(m.net.Traces)
+	ms.opened = make([]bool, len(m.elements))
+	for i := range ms.opened {
+		ms.opened[i] = true
+	}
+	ms.tips = make([]tipState, len(m.conduits))
+	for c, cd := range m.conduits {
+		g := ms.groups[nt+c]
+		ms.tips[c] = tipState{lo: 0, hi: len(g) - 1, stopped: [2]bool{true, true}}
+		ms.openedLength[c] = ms.groupLength[nt+c]
+		if !m.growing(cd) {
+			continue
+		}
+		w := m.s.Wells[m.order[cd.Stage].Well]
+		half := ms.groupLength[nt+c] / 2
+		lo, hi := len(g), -1
+		var s float64
+		for k, i := range g {
+			l := m.elements[i].Length
+			centre := s + l/2 - half
+			s += l
+			near := math.Abs(centre) <= w.InitialHalfLength || math.Abs(centre) <= l
+			ms.opened[i] = near
+			if near {
+				lo, hi = min(lo, k), max(hi, k)
+			} else {
+				ms.conduitAperture0[i] = flawAperture
+			}
+		}
+		for _, i := range g {
+			if !ms.opened[i] {
+				ms.openingShape[i] = 0
+			}
+		}
+		ms.tips[c] = tipState{lo: lo, hi: hi, stopped: [2]bool{lo == 0, hi == len(g)-1}}
+		ms.resizeConduit(c)
+	}
+}
+
+// checkGrowthRegime refuses a growing stage whose fractures would not be
+// toughness-dominated: the growth above is verified against the KGD-K
+// solution only (its viscosity-dominated and height-contained limits, KGD-M
+// and PKN, are not reproduced yet: see the README), so a stage whose
+// dimensionless toughness 𝒦 = K′(E′³μ′q)^(−1/4) (Detournay 2004; hfref.KGD)
+// is below hfref.ToughnessBound, with q its rate per cluster and metre of
+// conduit height, gets an error rather than a length no check supports.
+func (m *model) checkGrowthRegime() error {
+	g, nu := m.s.Rock.ShearModulus, m.s.Rock.PoissonRatio
+	for k, ps := range m.order {
+		w := m.s.Wells[ps.Well]
+		if w.ConduitHalfLength <= 0 || w.Growth != "on" {
+			continue
+		}
+		h := w.ConduitHeight
+		if h == 0 {
+			h = m.s.Layer.Thickness
+		}
+		clusters := len(w.Stages[ps.Stage].Clusters)
+		kgd := hfref.KGD{PlaneModulus: 2 * g / (1 - nu), Viscosity: m.s.Fluids[ps.Fluid].Viscosity,
+			Toughness: m.s.Rock.FractureToughness, Rate: ps.Rate / float64(clusters) / h}
+		if kk := kgd.DimensionlessToughness(); !(kk >= hfref.ToughnessBound) {
+			return badinput.Errorf("stage %s (pumping order %d): wells[%d].growth = \"on\" grows fractures only in the toughness-dominated regime, dimensionless toughness 𝒦 ≥ %g (Detournay 2004); this stage has 𝒦 = %.3g (rate %.3g m³/s over %d clusters and %.3g m of height, viscosity %.3g cP, K_Ic %.3g MPa·√m): use growth = \"off\" with a conduit_half_length, a thinner fluid, a lower rate or a tougher rock",
+				ps.Name, k+1, ps.Well, hfref.ToughnessBound, kk, ps.Rate, clusters, h, m.s.Fluids[ps.Fluid].Viscosity*1e3, m.s.Rock.FractureToughness/1e6)
+		}
+	}
+	return nil
+}
+
+// anyGrowth reports whether some conduit grows.
+func (m *model) anyGrowth() bool {
+	return slices.ContainsFunc(m.conduits, m.growing)
+}
+
+// growing reports whether conduit cd grows (its well's growth is on).
+func (m *model) growing(cd Conduit) bool {
+	return m.s.Wells[m.order[cd.Stage].Well].Growth == "on"
+}
+
+// resizeConduit sets the compliance, the opening shape and the crack
+// normal stress of conduit c's elements from its opened extent.
+func (ms *mechState) resizeConduit(c int) {
+	m := ms.m
+	g := ms.groups[len(m.net.Traces)+c]
+	tp := ms.tips[c]
+	var length float64
+	for _, i := range g[tp.lo : tp.hi+1] {
+		length += m.elements[i].Length
+	}
+	crack := mechanics.PlaneStrainCrack{ShearModulus: m.s.Rock.ShearModulus, PoissonRatio: m.s.Rock.PoissonRatio}
+	k := crack.OpeningStiffness(mechanics.Patch{Length: length, Height: m.conduits[c].Height})
+	var s float64
+	for _, i := range g[tp.lo : tp.hi+1] {
+		l := m.elements[i].Length
+		xi := (s + l/2 - length/2) / (length / 2)
+		ms.openingShape[i] = 4 / math.Pi * math.Sqrt(math.Max(1-xi*xi, 0))
+		ms.crackStiffness[i] = k
+		s += l
+	}
+	ms.openedLength[c] = length
+	ms.averageNormal()
+}
+
+// opening is an element opened at a growing fracture's tip: the new tip
+// and the element behind it, indices of the model's elements.
+type opening struct{ tip, behind int }
+
+// grow advances the tips of every growing conduit whose stress intensity
+// reaches the toughness at the pressures p of the step that ended at t in
+// stage k, by one element each, deciding the meetings with natural
+// fractures; it returns the crossings with the new ones appended, the
+// elements it opened and a warning for each conduit that reached the end
+// of its path with a tip still able to grow.
+func (ms *mechState) grow(t float64, k int, p []float64, crossings []Crossing) ([]Crossing, []opening, []Warning) {
+	m := ms.m
+	nt := len(m.net.Traces)
+	kic := m.s.Rock.FractureToughness
+	var warnings []Warning
+	var opened []opening
+	for c := range ms.tips {
+		tp := &ms.tips[c]
+		if tp.stopped[0] && tp.stopped[1] {
+			continue
+		}
+		g := ms.groups[nt+c]
+		h := m.conduits[c].Height
+		a := math.Min(ms.openedLength[c]/2, h/2)
+		grew := false
+		for side, dir := range [2]int{-1, 1} {
+			if tp.stopped[side] {
+				continue
+			}
+			tip := tp.lo
+			if dir > 0 {
+				tip = tp.hi
+			}
+			i := g[tip]
+			if net := p[i] - ms.crackNormal[i]; !(net > 0 && net*math.Sqrt(math.Pi*a) >= kic) {
+				continue
+			}
+			next := tip + dir
+			if next < 0 || next >= len(g) {
+				tp.stopped[side] = true
+				warnings = append(warnings, Warning{Kind: WarnGrowthAtEnd, Stage: m.order[k].Name, Message: fmt.Sprintf(
+					"a fracture of stage %s reached conduit_half_length = %g m at t = %.0f s with its tip still able to grow: raise wells[%d].conduit_half_length",
+					m.order[k].Name, m.s.Wells[m.order[m.conduits[c].Stage].Well].ConduitHalfLength, t, m.order[m.conduits[c].Stage].Well)})
+				continue
+			}
+			j := g[next]
+			var outcome mechanics.Crossing
+			crossings, outcome = ms.meet(t, k, c, i, j, p[i], crossings)
+			if outcome != mechanics.Cross {
+				tp.stopped[side] = true
+				continue
+			}
+			ms.opened[j] = true
+			opened = append(opened, opening{tip: j, behind: i})
+			if dir > 0 {
+				tp.hi = next
+			} else {
+				tp.lo = next
+			}
+			grew = true
+		}
+		if grew {
+			ms.resizeConduit(c)
+		}
+	}
+	return crossings, opened, warnings
+}
+
+// meet decides, for conduit c whose tip element i is about to open its
+// neighbour j, what happens at every natural fracture that meets the
+// conduit at the node between them; it returns the crossings with the
+// meetings appended and the outcome that governs the tip (Cross when
+// there is no natural fracture there or every one is crossed).
+func (ms *mechState) meet(t float64, k, c, i, j int, fluid float64, crossings []Crossing) ([]Crossing, mechanics.Crossing) {
+	m := ms.m
+	nt := len(m.net.Traces)
+	mesh := m.mesh
+	node := ms.sharedNode(i, j)
+	if node < 0 {
+		return crossings, mechanics.Cross
+	}
+	result := mechanics.Cross
+	seen := map[int]bool{}
+	el := m.elements[i]
+	along := r2.Unit(r2.Sub(el.P1, el.P0))
+	for _, e := range mesh.NodeElems[mesh.NodeStart[node]:mesh.NodeStart[node+1]] {
+		tr := m.elements[e].Trace
+		if m.mesh.Elements[e].Path >= nt || seen[tr] {
+			continue
+		}
+		seen[tr] = true
+		other := m.net.Traces[tr]
+		dir := r2.Unit(r2.Sub(other.P1, other.P0))
+		angle := math.Acos(math.Min(1, math.Abs(r2.Dot(along, dir))))
+		stress := ms.m.stressAt(r2.Scale(0.5, r2.Add(el.P0, el.P1)))
+		parallel, normal := planeNormalStresses(stress, along)
+		ap := mechanics.Approach{Angle: math.Max(angle, 1e-6), ParallelStress: parallel, NormalStress: normal,
+			PorePressure: m.initialPressure(i), FluidPressure: fluid, TensileStrength: m.s.Rock.TensileStrength,
+			Friction: m.s.Rock.FrictionStatic, Cohesion: m.s.Rock.Cohesion}
+		outcome, err := ap.Decide()
+		if err != nil {
+			outcome = mechanics.Arrest // non-finite input: stop rather than cross blindly
+		}
+		at := mesh.Elements[e].P0
+		if r2.Norm(r2.Sub(mesh.Elements[e].P1, el.P1)) < r2.Norm(r2.Sub(at, el.P1)) {
+			at = mesh.Elements[e].P1
+		}
+		crossings = append(crossings, Crossing{Time: t, Stage: k, Conduit: c, Trace: tr, Fracture: other.Fracture,
+			X: at.X, Y: at.Y, Angle: angle, Outcome: outcome.String()})
+		if outcome != mechanics.Cross {
+			result = outcome
+		}
+	}
+	return crossings, result
+}
+
+// sharedNode returns the mesh node elements i and j share, or −1.
+func (ms *mechState) sharedNode(i, j int) int {
+	nodes := ms.nodesOf(i)
+	for _, n := range ms.nodesOf(j) {
+		if n >= 0 && (n == nodes[0] || n == nodes[1]) {
+			return n
+		}
+	}
+	return -1
+}
+
+// nodesOf returns the two nodes of element i (−1 where it has fewer),
+// from an index built on first use.
+func (ms *mechState) nodesOf(i int) [2]int {
+	if ms.elementNodes == nil {
+		mesh := ms.m.mesh
+		ms.elementNodes = make([][2]int, len(mesh.Elements))
+		for e := range ms.elementNodes {
+			ms.elementNodes[e] = [2]int{-1, -1}
+		}
+		for n := 0; n < mesh.NumNodes(); n++ {
+			for _, e := range mesh.NodeElems[mesh.NodeStart[n]:mesh.NodeStart[n+1]] {
+				en := &ms.elementNodes[e]
+				if en[0] < 0 {
+					en[0] = n
+				} else {
+					en[1] = n
+				}
+			}
+		}
+	}
+	return ms.elementNodes[i]
+}
+
+// planeNormalStresses returns the horizontal normal stresses along the
+// unit map direction t and across it, Pa, of a stress state.
+func planeNormalStresses(s mechanics.Stress, t r2.Vec) (along, across float64) {
+	ts := s.Tensor()
+	n := r2.Vec{X: -t.Y, Y: t.X}
+	quad := func(v r2.Vec) float64 {
+		return v.X*(ts[0][0]*v.X+ts[0][1]*v.Y) + v.Y*(ts[1][0]*v.X+ts[1][1]*v.Y)
+	}
+	return quad(t), quad(n)
+}
+
+// fillOpened gives every element just opened at a tip the pressure of the
+// element behind it in the state st, and the fluid that takes at the
+// opened element's aperture there, moved from the other opened elements
+// of its fracture in proportion to their contents (mass is conserved to
+// round-off; their pressures fall a little in the next step's solve).
+func (r *runner) fillOpened(sys *flow.System, st *flow.State, opened []opening) {
+	if len(opened) == 0 {
+		return
+	}
+	ms := r.ms
+	for _, o := range opened {
+		st.Pressure[o.tip] = st.Pressure[o.behind]
+	}
+	e, dedp := make([]float64, len(st.Pressure)), make([]float64, len(st.Pressure))
+	ms.restart()
+	ms.apertures(st.Pressure, e, dedp)
+	ms.restart()
+	for _, o := range opened {
+		j := o.tip
+		need := sys.Content(j, e[j], st.Pressure[j]) - st.Content[j]
+		st.Aperture[j], st.Content[j] = e[j], st.Content[j]+need
+		var held float64
+		g := ms.groups[r.m.group[j]]
+		for _, i := range g {
+			if ms.opened[i] && i != j {
+				held += st.Content[i]
+			}
+		}
+		if held <= 0 {
+			continue
+		}
+		for _, i := range g {
+			if ms.opened[i] && i != j {
+				st.Content[i] -= need * st.Content[i] / held
+			}
+		}
+	}
+}
