@@ -62,6 +62,10 @@ func screenMetadata(s *scenarios.Scenario) namedWriter {
 }
 
 func runMetadata(s *scenarios.Scenario) namedWriter {
-	return csvMetadata(s, "run", located(sim.TimelineTable, TimelineFile), located(sim.EventsTable, EventsFile),
-		located(sim.FracturesTable, FracturesFile))
+	tables := []csvw.Table{located(sim.TimelineTable, TimelineFile), located(sim.EventsTable, EventsFile),
+		located(sim.FracturesTable, FracturesFile)}
+	if sim.Grows(s) {
+		tables = append(tables, located(sim.CrossingsTable, CrossingsFile))
+	}
+	return csvMetadata(s, "run", tables...)
 }

@@ -53,6 +53,8 @@ const (
 	DepletionFile      = "depletion.tif"
 	RotationFile       = "shmax_rotation.tif"
 	CriticalChangeFile = "critical_pressure_change.tif"
+	// CrossingsFile is written by run when fractures grow.
+	CrossingsFile = "crossings.csv"
 	// DistanceTimeFile and MagnitudeFrequencyFile are written when the run
 	// has events (at least two above the completeness magnitude for the
 	// latter); one sectionPictureFile per well.
@@ -131,7 +133,7 @@ var ourFiles = []string{
 	SlipTendencyNetFile, CriticalNetFile, MohrPictureFile, SlipSharesPictureFile, CriticalMapFile,
 	ScenarioFile, SnapshotFile, SummaryFile, TimelineFile, EventsFile, FracturesFile, ContentsFile,
 	CSVMetadataFile, MapsFile, MapPictureFile, GrowthPictureFile, DistanceTimeFile, MagnitudeFrequencyFile,
-	StressChangeFile, DepletionFile, RotationFile, CriticalChangeFile,
+	StressChangeFile, DepletionFile, RotationFile, CriticalChangeFile, CrossingsFile,
 	ComparisonPictureFile, FanPanelsPictureFile, PairedRatiosFile, ReportPageFile,
 	VTKCollectionFile,
 }

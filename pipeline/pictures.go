@@ -23,7 +23,9 @@ func (r *Run) MapPicture() (*report.Map, error) {
 	for i, el := range res.Elements {
 		a, b := rp(el.P0.X, el.P0.Y), rp(el.P1.X, el.P1.Y)
 		if el.Set == sim.ConduitSet {
-			m.Conduits = append(m.Conduits, report.Segment{A: a, B: b})
+			if res.IsOpen(s, i) {
+				m.Conduits = append(m.Conduits, report.Segment{A: a, B: b})
+			}
 			continue
 		}
 		m.Traces = append(m.Traces, report.Trace{A: a, B: b, Value: res.FirstSlip[i] / 3600})

@@ -110,13 +110,17 @@ func simulateInto(ctx context.Context, dir string, s *scenarios.Scenario, o Simu
 
 // writeRunFiles writes the tables, the summary and the maps of a run.
 func writeRunFiles(ctx context.Context, out string, s *scenarios.Scenario, net *dfn.Network, res *sim.Result, runErr error) error {
-	err := writeFiles(out,
-		namedWriter{SummaryFile, func(w io.Writer) error { return sim.WriteSummary(w, s, net, res, runErr) }},
-		namedWriter{TimelineFile, func(w io.Writer) error { return sim.WriteTimeline(w, s, res) }},
-		namedWriter{EventsFile, func(w io.Writer) error { return sim.WriteEvents(w, s, res) }},
-		namedWriter{FracturesFile, func(w io.Writer) error { return sim.WriteFractures(w, s, net, res) }},
+	files := []namedWriter{
+		{SummaryFile, func(w io.Writer) error { return sim.WriteSummary(w, s, net, res, runErr) }},
+		{TimelineFile, func(w io.Writer) error { return sim.WriteTimeline(w, s, res) }},
+		{EventsFile, func(w io.Writer) error { return sim.WriteEvents(w, s, res) }},
+		{FracturesFile, func(w io.Writer) error { return sim.WriteFractures(w, s, net, res) }},
 		runMetadata(s),
-	)
+	}
+	if sim.Grows(s) {
+		files = append(files, namedWriter{CrossingsFile, func(w io.Writer) error { return sim.WriteCrossings(w, s, res) }})
+	}
+	err := writeFiles(out, files...)
 	if err != nil {
 		return err
 	}

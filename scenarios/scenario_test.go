@@ -285,6 +285,8 @@ func TestBadValues(t *testing.T) {
 		{"discharge coefficient above 1", `volume = "100 m3"`, "volume = \"100 m3\"\nperforations = 6\ndischarge_coefficient = 1.5", `schedule.discharge_coefficient = 1.5: must be within (0, 1]`},
 		{"negative perforations", `clusters = ["500 m"]`, "clusters = [\"500 m\"]\nperforations = -2", `wells[0].stages[1].perforations = -2: must be within [0, 1000]`},
 		{"perforation in metres by mistake", `volume = "100 m3"`, "volume = \"100 m3\"\nperforations = 6\nperforation_diameter = \"0.4 m\"", `schedule.perforation_diameter = "0.4 m": must be within [0.001, 0.1] m`},
+		{"initial slot longer than the path", `name = "A"`, "name = \"A\"\nconduit_half_length = \"20 m\"\ngrowth = \"on\"\ninitial_half_length = \"30 m\"", `wells[0].initial_half_length = "30 m": must not exceed wells[0].conduit_half_length = 20 m`},
+		{"toughness without its unit", "[[sets]]\nname = \"one\"", "[rock]\nfracture_toughness = 1\n[[sets]]\nname = \"one\"", `rock.fracture_toughness = 1: needs a unit`},
 		{"depletion grid too fine", `[fluids.water]`, "[depletion]\nwells = [\"A\"]\nbottomhole_pressure = \"10 MPa\"\nduration = \"1 yr\"\ncell_size = \"0.5 m\"\n[fluids.water]", `depletion.cell_size = "0.5 m": gives 2000 × 2000 depletion cells over the domain; at most 1048576 allowed`},
 		{"long value cut short", `name = "two"`, `name = "two"` + "\nshape = \"" + strings.Repeat("x", 5000) + "\"", `sets[1].shape = "` + strings.Repeat("x", 60) + `"…: must be one of`},
 	}

@@ -48,6 +48,9 @@ func TestParseQuantity(t *testing.T) {
 		{"2 yr", kindTime, 63115200, "NIST SP 811 B.8: year (365.25 d) = 3.15576e7 s (from memory)"},
 		{"8.34 lb/gal", kindDensity, 8.34 * 0.45359237 / 3.785411784e-3, "NIST SP 811 B.8: lb = 0.45359237 kg, gal = 3.785411784e-3 m³, both exact"},
 		{"1.2 g/cm3", kindDensity, 1200, "SI prefix"},
+		{"1.5 MPa.m^0.5", kindToughness, 1.5e6, "SI prefix"},
+		{"1000 psi.in^0.5", kindToughness, 1000 * 6894.757293168361 * math.Sqrt(0.0254), "NIST SP 811 B.8: psi and in"},
+		{"2 MPa√m", kindToughness, 2e6, "typographic variant"},
 	}
 	for _, tc := range tests {
 		got, err := parseQuantity(tc.in, tc.kind)

@@ -128,6 +128,10 @@ func (d *decoder) validateWells(s *Scenario) {
 			}
 		}
 		d.validateWellPlace(s, p, w)
+		if w.Growth == "on" && w.ConduitHalfLength > 0 && w.InitialHalfLength > w.ConduitHalfLength {
+			d.failKey(p+".initial_half_length", "must not exceed %s.conduit_half_length = %s, the farthest a fracture may grow",
+				p, formatQuantity(w.ConduitHalfLength, kindLength))
+		}
 		if len(w.Stages) == 0 {
 			d.failKey(p+".stages", "the well needs at least one stage ([[wells.stages]]) with at least one cluster")
 		}

@@ -11,12 +11,13 @@ import (
 	"slipfront/internal/badinput"
 	"slipfront/internal/hfref"
 	"slipfront/mechanics"
+	"slipfront/scenarios"
 )
 
 // Growing fractures. A well with growth = "on" has its primary conduits
 // meshed to their largest extent (conduit_half_length each way of the
 // cluster) but open only over initial_half_length; the elements beyond
-// are intact rock: a flaw of flawAperture that conducts nothing to speak
+// are intact rock: a flaw of FlawAperture that conducts nothing to speak
 // of, opens not at all and loads nothing. After every accepted step each
 // tip advances by one element where the stress intensity of the opened
 // fracture reaches the rock's toughness,
@@ -56,11 +57,11 @@ import (
 // step (the pressure-change control of the time step shortens the steps
 // while fluid enters new elements).
 
-// flawAperture is the aperture of the intact rock ahead of a growing
+// FlawAperture is the aperture of the intact rock ahead of a growing
 // fracture's tip, m: a closed flaw whose transmissivity is ~10⁻¹⁸ of an
 // open fracture's (common practice, no source: only its smallness
 // matters).
-const flawAperture = 1e-6
+const FlawAperture = 1e-6
 
 // Crossing is what a growing fracture did where its tip met a natural
 // fracture.
@@ -119,7 +120,7 @@ func (ms *mechState) initGrowth() {
 			if near {
 				lo, hi = min(lo, k), max(hi, k)
 			} else {
-				ms.conduitAperture0[i] = flawAperture
+				ms.conduitAperture0[i] = FlawAperture
 			}
 		}
 		for _, i := range g {
@@ -393,4 +394,19 @@ func (r *runner) fillOpened(sys *flow.System, st *flow.State, opened []opening) 
 			}
 		}
 	}
+}
+
+// IsOpen reports whether element i of a result is open: the intact rock
+// ahead of a growing fracture's tips is not. A result read back from a
+// snapshot does not record it; there an element of a scenario that grows
+// fractures counts as open when its aperture exceeds FlawAperture (the
+// closed part of an opened fracture then counts as not open).
+func (res *Result) IsOpen(s *scenarios.Scenario, i int) bool {
+	switch {
+	case res.Opened != nil:
+		return res.Opened[i]
+	case res.Elements[i].Set != ConduitSet || !Grows(s):
+		return true
+	}
+	return res.Aperture[i] > FlawAperture
 }

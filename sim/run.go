@@ -135,9 +135,11 @@ type Result struct {
 	// in time order.
 	Crossings []Crossing
 	// Opened marks the elements open at the end (the intact rock ahead of
-	// growing fractures' tips is not); nil when nothing grows, and in a
-	// replayed result.
-	Opened []bool
+	// growing fractures' tips is not), and ConduitHalfLengths is the
+	// opened half-length of every conduit, m; both nil when nothing grows,
+	// and in a replayed result.
+	Opened             []bool
+	ConduitHalfLengths []float64
 	// Depletion is the state production left before the stimulation; nil
 	// for none and in a replayed result (Deplete computes it again).
 	Depletion *Depletion
@@ -538,14 +540,18 @@ func (r *runner) step(sys *flow.System, p *phase, sum *StageSummary, end float64
 }
 
 // warnTensile records, once per stage, that the bottom-hole pressure
-// exceeded Shmin.
+// exceeded Shmin, unless the stage's fractures grow (the tensile regime
+// is then what the growth models).
 func (r *runner) warnTensile(stage string, bhp float64) {
 	if r.shminAt || bhp <= r.m.shmin {
 		return
 	}
+	if w := r.m.s.Wells[r.m.order[r.stage].Well]; w.ConduitHalfLength > 0 && w.Growth == "on" {
+		return
+	}
 	r.shminAt = true
 	r.res.Warnings = append(r.res.Warnings, Warning{Kind: WarnBHPAboveShmin, Stage: stage, Message: fmt.Sprintf(
-		"stage %s: bottom-hole pressure %.2f MPa exceeded Shmin %.2f MPa at t = %.0f s: the run entered the tensile-fracturing regime, which this model treats only approximately (existing fractures open; no new fractures grow)",
+		"stage %s: bottom-hole pressure %.2f MPa exceeded Shmin %.2f MPa at t = %.0f s: the run entered the tensile-fracturing regime, which this model treats only approximately (existing fractures open; no new fractures grow unless wells[].growth = \"on\")",
 		stage, bhp/1e6, r.m.shmin/1e6, r.t)})
 }
 
@@ -614,6 +620,10 @@ func (r *runner) result() *Result {
 	res.Elements, res.Conduits, res.Grid, res.Depletion = m.elements, m.conduits, m.grid, m.depletion
 	if m.anyGrowth() {
 		res.Opened = slices.Clone(r.ms.opened)
+		res.ConduitHalfLengths = make([]float64, len(m.conduits))
+		for c := range m.conduits {
+			res.ConduitHalfLengths[c] = r.ms.openedLength[c] / 2
+		}
 	}
 	if r.cur != nil {
 		res.Pressure, res.Aperture = r.cur.Pressure, r.cur.Aperture

@@ -47,6 +47,21 @@ var (
 			{Title: "magnitude_Mw", Datatype: csvw.Double, Description: "moment magnitude (Hanks and Kanamori 1979, IASPEI 2013 form)"},
 		},
 	}
+	CrossingsTable = csvw.Table{
+		Title:       "crossings",
+		Description: "Every meeting of a growing fracture's tip with a natural fracture, in time order, with what the tip did there (Renshaw and Pollard 1995; non-orthogonal form after Gu et al. 2012).",
+		Columns: []csvw.Column{
+			{Title: "time_s", Datatype: csvw.Double, Unit: "s", Description: "time since the start of pumping (end of the step in which the tip reached it)"},
+			{Title: "stage", Datatype: csvw.String, Description: "name of the stage being pumped (well:stage)"},
+			{Title: "fracture_stage", Datatype: csvw.String, Description: "name of the stage of the growing fracture (well:stage)"},
+			{Title: "cluster", Datatype: csvw.Integer, Description: "index of the growing fracture's cluster in its stage, from 0"},
+			{Title: "fracture_id", Datatype: csvw.Integer, Description: "the natural fracture met (fracture_id of fractures.csv)"},
+			{Title: "x_m", Datatype: csvw.Double, Unit: "m", Description: "local east of the meeting point"},
+			{Title: "y_m", Datatype: csvw.Double, Unit: "m", Description: "local north of the meeting point"},
+			{Title: "angle_deg", Datatype: csvw.Double, Unit: "deg", Description: "angle between the two fractures in map view, 0 to 90"},
+			{Title: "outcome", Datatype: csvw.String, Description: "cross (the tip goes on across it), arrest (it stops there) or divert (the fluid opens the natural fracture and the tip stops)"},
+		},
+	}
 	FracturesTable = csvw.Table{
 		Title:       "fractures",
 		Description: "Final state of every fracture crossing the layer mid-plane, summed over its elements.",

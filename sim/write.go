@@ -70,6 +70,32 @@ func WriteEvents(w io.Writer, s *scenarios.Scenario, res *Result) error {
 	return cw.Flush()
 }
 
+// WriteCrossings writes crossings.csv: the meetings of growing fractures
+// with natural ones (CrossingsTable).
+func WriteCrossings(w io.Writer, s *scenarios.Scenario, res *Result) error {
+	cw := csvw.NewWriter(w, &CrossingsTable)
+	order := s.PumpingOrder()
+	for _, c := range res.Crossings {
+		cd := res.Conduits[c.Conduit]
+		cw.Write([]string{
+			num(c.Time, 3), scenarios.StageNameAt(order, c.Stage), scenarios.StageNameAt(order, cd.Stage), strconv.Itoa(cd.Cluster),
+			strconv.Itoa(c.Fracture), num(c.X, 3), num(c.Y, 3), num(c.Angle*180/math.Pi, 3), c.Outcome,
+		})
+	}
+	return cw.Flush()
+}
+
+// Grows reports whether a scenario grows fractures (some well with
+// conduits has growth = "on"), so that a run writes crossings.csv.
+func Grows(s *scenarios.Scenario) bool {
+	for _, w := range s.Wells {
+		if w.ConduitHalfLength > 0 && w.Growth == "on" {
+			return true
+		}
+	}
+	return false
+}
+
 // FractureResult is the final state of one fracture that crosses the
 // layer, summed over its elements.
 type FractureResult struct {
@@ -189,6 +215,7 @@ type summaryJSON struct {
 	Warnings    []warningJSON  `json:"warnings"`
 	Numerics    numericsJSON   `json:"numerics"`
 	Depletion   *depletionJSON `json:"depletion,omitempty"`
+	Growth      *growthJSON    `json:"growth,omitempty"`
 	Failure     *string        `json:"failure,omitempty"`
 }
 
@@ -207,6 +234,42 @@ type depletionJSON struct {
 	MaxRotationDeg       float64   `json:"largest_shmax_rotation_deg"`
 	CriticalChangeMinMPa float64   `json:"least_critical_pressure_change_min_MPa"`
 	CriticalChangeMaxMPa float64   `json:"least_critical_pressure_change_max_MPa"`
+}
+
+// growthJSON is what the growing fractures did, in summary.json.
+type growthJSON struct {
+	Fractures         int            `json:"growing_fractures"`
+	MeanHalfLengthM   float64        `json:"mean_half_length_m"`
+	LargestHalfLength float64        `json:"largest_half_length_m"`
+	Crossings         map[string]int `json:"crossings"`
+}
+
+// newGrowthJSON summarises the growth of a run (nil when nothing grows,
+// and for a replayed result): the opened half-length of the growing
+// conduits and the meetings by outcome.
+func newGrowthJSON(s *scenarios.Scenario, res *Result) *growthJSON {
+	if !Grows(s) || res.ConduitHalfLengths == nil {
+		return nil
+	}
+	order := s.PumpingOrder()
+	out := &growthJSON{Crossings: map[string]int{"cross": 0, "arrest": 0, "divert": 0}}
+	half := res.ConduitHalfLengths
+	var sum float64
+	for c, cd := range res.Conduits {
+		if w := s.Wells[order[cd.Stage].Well]; w.Growth != "on" {
+			continue
+		}
+		out.Fractures++
+		sum += half[c]
+		out.LargestHalfLength = math.Max(out.LargestHalfLength, half[c])
+	}
+	if out.Fractures > 0 {
+		out.MeanHalfLengthM = sum / float64(out.Fractures)
+	}
+	for _, c := range res.Crossings {
+		out.Crossings[c.Outcome]++
+	}
+	return out
 }
 
 // newDepletionJSON summarises d (nil for none).
@@ -336,6 +399,7 @@ func WriteSummary(w io.Writer, s *scenarios.Scenario, net *dfn.Network, res *Res
 		},
 		Warnings:  []warningJSON{},
 		Depletion: newDepletionJSON(s, res.Depletion),
+		Growth:    newGrowthJSON(s, res),
 		Numerics: numericsJSON{Elements: len(res.Elements), Conduits: len(res.Conduits), Solver: res.Solver,
 			FactorEntries: res.FactorEntries, Steps: res.Steps, CutSteps: res.CutSteps},
 	}
