@@ -237,7 +237,7 @@ type Well struct {
 	// InitialHalfLength of a growing conduit, m: the part open (with the
 	// propped conduit_aperture) before pumping.
 	InitialHalfLength float64 `toml:"initial_half_length" when:"conduit_half_length>0" unit:"length" range:"(0,5000]" default:"5 m" doc:"growth on: half-length of each conduit before pumping (the breakdown zone, with conduit_aperture)"`
-	Stages        []Stage `toml:"stages" doc:"stages in pumping order along the well (toe first)"`
+	Stages            []Stage `toml:"stages" doc:"stages in pumping order along the well (toe first)"`
 }
 
 // Stage is a group of perforation clusters pumped together. Optional fields

@@ -81,7 +81,7 @@ var unitTable = map[unitKind][]struct {
 	kindLeakoff:   {{"m/s^0.5", 1}, {"ft/min^0.5", foot / math.Sqrt(minute)}},
 	kindPermeability: {{"m2", 1}, {"D", darcy}, {"mD", 1e-3 * darcy}, {"uD", 1e-6 * darcy},
 		{"nD", 1e-9 * darcy}},
-	kindDensity: {{"kg/m3", 1}, {"g/cm3", 1e3}, {"lb/gal", poundPerGallon}},
+	kindDensity:   {{"kg/m3", 1}, {"g/cm3", 1e3}, {"lb/gal", poundPerGallon}},
 	kindToughness: {{"Pa.m^0.5", 1}, {"MPa.m^0.5", 1e6}, {"psi.in^0.5", psi * math.Sqrt(inch)}},
 }
 
