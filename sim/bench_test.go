@@ -30,6 +30,27 @@ func BenchmarkDemo(b *testing.B) {
 	}
 }
 
+// BenchmarkGrowthKGD runs testdata/kgd-toughness: one fracture growing
+// from 4 m to 120 m over 60 s on 2 m elements (30 openings per tip).
+func BenchmarkGrowthKGD(b *testing.B) {
+	s, err := scenarios.Load("../testdata/kgd-toughness/scenario.toml")
+	if err != nil {
+		b.Fatal(err)
+	}
+	net, err := dfn.Generate(s, 0)
+	if err != nil {
+		b.Fatal(err)
+	}
+	b.ResetTimer()
+	for range b.N {
+		res, err := Run(context.Background(), s, net, Options{})
+		if err != nil {
+			b.Fatal(err)
+		}
+		b.ReportMetric(float64(res.Steps), "steps")
+	}
+}
+
 // BenchmarkDepleteDemo computes the depletion of the demo pad after two
 // years of production from well W1 (its six stages' clusters) and the
 // stress change it leaves, on the default 10 m grid over the 1.6 × 1 km
