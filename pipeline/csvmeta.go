@@ -67,5 +67,8 @@ func runMetadata(s *scenarios.Scenario) namedWriter {
 	if sim.Grows(s) {
 		tables = append(tables, located(sim.CrossingsTable, CrossingsFile))
 	}
+	if s.SeismicityRate.Active() {
+		tables = append(tables, located(sim.RateEventsTable, RateEventsFile))
+	}
 	return csvMetadata(s, "run", tables...)
 }

@@ -55,6 +55,8 @@ const (
 	CriticalChangeFile = "critical_pressure_change.tif"
 	// CrossingsFile is written by run when fractures grow.
 	CrossingsFile = "crossings.csv"
+	// RateEventsFile is written by run with a [seismicity_rate] table.
+	RateEventsFile = "rate_events.csv"
 	// DistanceTimeFile and MagnitudeFrequencyFile are written when the run
 	// has events (at least two above the completeness magnitude for the
 	// latter); one sectionPictureFile per well.
@@ -133,7 +135,7 @@ var ourFiles = []string{
 	SlipTendencyNetFile, CriticalNetFile, MohrPictureFile, SlipSharesPictureFile, CriticalMapFile,
 	ScenarioFile, SnapshotFile, SummaryFile, TimelineFile, EventsFile, FracturesFile, ContentsFile,
 	CSVMetadataFile, MapsFile, MapPictureFile, GrowthPictureFile, DistanceTimeFile, MagnitudeFrequencyFile,
-	StressChangeFile, DepletionFile, RotationFile, CriticalChangeFile, CrossingsFile,
+	StressChangeFile, DepletionFile, RotationFile, CriticalChangeFile, CrossingsFile, RateEventsFile,
 	ComparisonPictureFile, FanPanelsPictureFile, PairedRatiosFile, ReportPageFile,
 	VTKCollectionFile,
 }

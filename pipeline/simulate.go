@@ -120,6 +120,9 @@ func writeRunFiles(ctx context.Context, out string, s *scenarios.Scenario, net *
 	if sim.Grows(s) {
 		files = append(files, namedWriter{CrossingsFile, func(w io.Writer) error { return sim.WriteCrossings(w, s, res) }})
 	}
+	if s.SeismicityRate.Active() {
+		files = append(files, namedWriter{RateEventsFile, func(w io.Writer) error { return sim.WriteRateEvents(w, s, res) }})
+	}
 	err := writeFiles(out, files...)
 	if err != nil {
 		return err

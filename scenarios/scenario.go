@@ -37,6 +37,9 @@ type Scenario struct {
 	// fluids' Carter coefficients, and nothing can drain before the
 	// stimulation.
 	Matrix Matrix `toml:"matrix" opt:"" json:",omitzero" doc:"optional: the layer's rock matrix, into which the fractures leak off by pressure diffusion (instead of Carter coefficients) and through which parent wells deplete the layer ([depletion])"`
+	// SeismicityRate is optional: absent, the catalogue holds the ruptures
+	// alone.
+	SeismicityRate SeismicityRate `toml:"seismicity_rate" opt:"" json:",omitzero" doc:"optional: sub-resolution events from the Coulomb stress history of every element (Dieterich 1994), a catalogue of its own beside the ruptures"`
 	// Depletion is optional: absent, nothing produced before the
 	// stimulation and the scenario's digest is what it was before the
 	// table existed.
@@ -431,3 +434,24 @@ func (d Depletion) ProductionTime() float64 {
 // Active reports whether the scenario produces from parent wells before
 // the stimulation: a [depletion] table with a positive production time.
 func (d Depletion) Active() bool { return len(d.Wells) > 0 && d.ProductionTime() > 0 }
+
+// SeismicityRate is the seismicity-rate model of Dieterich (1994) run on
+// every fracture element: a population of small faults, too small to
+// mesh, whose rate of events follows the element's Coulomb stress
+// history (mechanics.SeismicityRate), with Gutenberg–Richter magnitudes.
+type SeismicityRate struct {
+	// BackgroundRate is the rate of events at or above MinMagnitude per
+	// km² of fracture surface per year under the background stressing.
+	BackgroundRate float64 `toml:"background_rate_per_km2_yr" range:"(0,1e6]" doc:"background rate of events at or above min_magnitude, per km² of fracture surface and per year" example:"50"`
+	// BackgroundStressingRate τ̇_r, Pa/s.
+	BackgroundStressingRate float64 `toml:"background_stressing_rate" unit:"stressing rate" range:"(0,1]" default:"1 kPa/yr" doc:"background (tectonic) Coulomb stressing rate under which the background rate holds"`
+	// ASigma is Aσ, Pa.
+	ASigma float64 `toml:"a_sigma" unit:"pressure" range:"(0,1e8]" default:"0.05 MPa" doc:"rate-and-state A times the effective normal stress (Aσ): how strongly the rate answers a stress change"`
+	BValue float64 `toml:"b_value" range:"(0,3]" default:"1" doc:"Gutenberg-Richter b-value of the sampled magnitudes"`
+	// MinMagnitude and MaxMagnitude bound the sampled magnitudes.
+	MinMagnitude float64 `toml:"min_magnitude" range:"[-10,10]" default:"-2" doc:"smallest sampled magnitude Mw (the background rate counts events at or above it)"`
+	MaxMagnitude float64 `toml:"max_magnitude" range:"[-10,10]" default:"0" doc:"largest sampled magnitude Mw: the sub-resolution events stay below the ruptures the mesh resolves"`
+}
+
+// Active reports whether the scenario has a [seismicity_rate] table.
+func (r SeismicityRate) Active() bool { return r.BackgroundRate > 0 }

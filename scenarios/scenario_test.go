@@ -287,6 +287,8 @@ func TestBadValues(t *testing.T) {
 		{"perforation in metres by mistake", `volume = "100 m3"`, "volume = \"100 m3\"\nperforations = 6\nperforation_diameter = \"0.4 m\"", `schedule.perforation_diameter = "0.4 m": must be within [0.001, 0.1] m`},
 		{"initial slot longer than the path", `name = "A"`, "name = \"A\"\nconduit_half_length = \"20 m\"\ngrowth = \"on\"\ninitial_half_length = \"30 m\"", `wells[0].initial_half_length = "30 m": must not exceed wells[0].conduit_half_length = 20 m`},
 		{"toughness without its unit", "[[sets]]\nname = \"one\"", "[rock]\nfracture_toughness = 1\n[[sets]]\nname = \"one\"", `rock.fracture_toughness = 1: needs a unit`},
+		{"rate magnitudes inverted", `[fluids.water]`, "[seismicity_rate]\nbackground_rate_per_km2_yr = 10\nmin_magnitude = 1\nmax_magnitude = 0\n[fluids.water]", `seismicity_rate.max_magnitude = 0: must exceed seismicity_rate.min_magnitude = 1`},
+		{"stressing rate without a unit", `[fluids.water]`, "[seismicity_rate]\nbackground_rate_per_km2_yr = 10\nbackground_stressing_rate = 0.001\n[fluids.water]", `seismicity_rate.background_stressing_rate = 0.001: needs a unit`},
 		{"depletion grid too fine", `[fluids.water]`, "[depletion]\nwells = [\"A\"]\nbottomhole_pressure = \"10 MPa\"\nduration = \"1 yr\"\ncell_size = \"0.5 m\"\n[fluids.water]", `depletion.cell_size = "0.5 m": gives 2000 × 2000 depletion cells over the domain; at most 1048576 allowed`},
 		{"long value cut short", `name = "two"`, `name = "two"` + "\nshape = \"" + strings.Repeat("x", 5000) + "\"", `sets[1].shape = "` + strings.Repeat("x", 60) + `"…: must be one of`},
 	}

@@ -54,6 +54,7 @@ const (
 	kindPermeability    unitKind = "permeability"
 	kindDensity         unitKind = "density"
 	kindToughness       unitKind = "toughness"
+	kindStressingRate   unitKind = "stressing rate"
 )
 
 // unitTable lists, per kind, the accepted unit spellings and their factor
@@ -81,8 +82,9 @@ var unitTable = map[unitKind][]struct {
 	kindLeakoff:   {{"m/s^0.5", 1}, {"ft/min^0.5", foot / math.Sqrt(minute)}},
 	kindPermeability: {{"m2", 1}, {"D", darcy}, {"mD", 1e-3 * darcy}, {"uD", 1e-6 * darcy},
 		{"nD", 1e-9 * darcy}},
-	kindDensity:   {{"kg/m3", 1}, {"g/cm3", 1e3}, {"lb/gal", poundPerGallon}},
-	kindToughness: {{"Pa.m^0.5", 1}, {"MPa.m^0.5", 1e6}, {"psi.in^0.5", psi * math.Sqrt(inch)}},
+	kindDensity:       {{"kg/m3", 1}, {"g/cm3", 1e3}, {"lb/gal", poundPerGallon}},
+	kindToughness:     {{"Pa.m^0.5", 1}, {"MPa.m^0.5", 1e6}, {"psi.in^0.5", psi * math.Sqrt(inch)}},
+	kindStressingRate: {{"Pa/s", 1}, {"kPa/yr", 1e3 / julianYear}, {"MPa/yr", 1e6 / julianYear}, {"bar/yr", 1e5 / julianYear}},
 }
 
 // shownUnit is the unit in which messages and the template state a
@@ -95,6 +97,7 @@ var shownUnit = map[unitKind]string{
 	kindCompressibility: "1/GPa", kindRate: "m3/s", kindVolume: "m3", kindTime: "s",
 	kindAngle: "deg", kindAzimuth: "deg", kindIntensity: "1/m", kindLeakoff: "m/s^0.5",
 	kindPermeability: "m2", kindDensity: "kg/m3", kindToughness: "MPa.m^0.5",
+	kindStressingRate: "kPa/yr",
 }
 
 // usualUnits are the units suggested for a number written without one:
@@ -107,6 +110,7 @@ var usualUnits = map[unitKind][]string{
 	kindVolume: {"m3", "bbl"}, kindTime: {"min", "h", "s"}, kindAngle: {"deg"}, kindAzimuth: {"deg"},
 	kindIntensity: {"1/m", "1/ft"}, kindLeakoff: {"m/s^0.5", "ft/min^0.5"},
 	kindPermeability: {"nD", "mD"}, kindDensity: {"kg/m3", "lb/gal"}, kindToughness: {"MPa.m^0.5", "psi.in^0.5"},
+	kindStressingRate: {"kPa/yr", "MPa/yr"},
 }
 
 // unitFactor is the factor to SI of the unit name of kind k; it panics on

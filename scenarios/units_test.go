@@ -51,6 +51,7 @@ func TestParseQuantity(t *testing.T) {
 		{"1.5 MPa.m^0.5", kindToughness, 1.5e6, "SI prefix"},
 		{"1000 psi.in^0.5", kindToughness, 1000 * 6894.757293168361 * math.Sqrt(0.0254), "NIST SP 811 B.8: psi and in"},
 		{"2 MPa√m", kindToughness, 2e6, "typographic variant"},
+		{"1 kPa/yr", kindStressingRate, 1e3 / (365.25 * 86400), "SI prefix and the Julian year"},
 	}
 	for _, tc := range tests {
 		got, err := parseQuantity(tc.in, tc.kind)

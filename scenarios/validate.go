@@ -31,6 +31,9 @@ func (d *decoder) validate(s *Scenario) {
 	d.validateWells(s)
 	d.validateSchedule(s)
 	d.validateNumerics(s)
+	if r := s.SeismicityRate; r.Active() && !(r.MaxMagnitude > r.MinMagnitude) {
+		d.failKey("seismicity_rate.max_magnitude", "must exceed seismicity_rate.min_magnitude = %g", r.MinMagnitude)
+	}
 	d.validateMatrix(s)
 	d.validateDepletion(s)
 }

@@ -131,6 +131,11 @@ type Result struct {
 	// Solver is the linear method and FactorEntries its fill (Cholesky).
 	Solver        string
 	FactorEntries int
+	// RateEvents is the catalogue of the seismicity-rate model (nil
+	// without [seismicity_rate]; Slip and Area NaN), in time order, and
+	// RateExpected its expected number of events.
+	RateEvents   []Event
+	RateExpected float64
 	// Crossings are the meetings of growing fractures with natural ones,
 	// in time order.
 	Crossings []Crossing
@@ -186,7 +191,9 @@ type runner struct {
 	// clusterRates holds the rate of each cluster of the stage after a
 	// step, m³/s.
 	clusterRates []float64
-	lastFrame    float64 // time of the last frame, s
+	// rate is the seismicity-rate model (nil without [seismicity_rate]).
+	rate      *rateModel
+	lastFrame float64 // time of the last frame, s
 	// massError sums |injected − leaked − stored| over the steps and moved
 	// the larger of |injected| and |stored| per step, m³.
 	massError, moved float64
@@ -204,6 +211,7 @@ func newRunner(m *model, opt Options) (*runner, error) {
 	r := &runner{m: m, opt: opt, ms: ms, stage: -1,
 		stim: newStimulation(m.grid, m.s.Numerics.StimulatedSlip, m.s.Numerics.StimulatedReach, m.elements)}
 	r.end = m.s.ScheduleLength()
+	r.rate = newRateModel(m)
 	r.res.Warnings = append(r.res.Warnings, m.resolutionWarnings()...)
 	if m.depletion != nil {
 		r.res.Warnings = append(r.res.Warnings, m.depletion.Warnings...)
@@ -498,6 +506,11 @@ func (r *runner) step(sys *flow.System, p *phase, sum *StageSummary, end float64
 	// Accept.
 	copy(r.normal, r.ms.crackNormal)
 	r.res.Events = r.ms.commit(r.t, dt, r.stage, r.next.Pressure, r.res.Events)
+	if r.rate != nil {
+		var n float64
+		r.res.RateEvents, n = r.rate.step(r.m, r.t, dt, r.stage, r.next.Pressure, r.ms.coulombChange(), r.res.RateEvents)
+		r.res.RateExpected += n
+	}
 	var grown []Warning
 	var opened []opening
 	r.res.Crossings, opened, grown = r.ms.grow(end, r.stage, r.next.Pressure, r.res.Crossings)
@@ -636,6 +649,9 @@ func (r *runner) result() *Result {
 	res.Stimulated, res.StimulatedAt, res.Cells = r.stim.element, r.stim.at, r.stim.cellList()
 	res.StimulatedArea, res.FractureArea = r.stim.area(), r.stim.fracArea
 	res.StimulatedVolume = res.StimulatedArea * m.s.Layer.Thickness
+	if r.rate != nil && r.rate.dropped && !slices.ContainsFunc(res.Warnings, func(w Warning) bool { return w.Kind == WarnRateOverflow }) {
+		res.Warnings = append(res.Warnings, Warning{Kind: WarnRateOverflow, Message: "seismicity rate: on some elements one step raised the Coulomb stress by hundreds of a_sigma, beyond any finite rate; their populations were reset to rest and their events of that step are missing: use shorter steps (numerics.time_step_max) or a larger a_sigma"})
+	}
 	res.Duration = r.t
 	if r.moved > 0 {
 		res.MassBalanceError = r.massError / r.moved

@@ -47,6 +47,13 @@ var (
 			{Title: "magnitude_Mw", Datatype: csvw.Double, Description: "moment magnitude (Hanks and Kanamori 1979, IASPEI 2013 form)"},
 		},
 	}
+	// RateEventsTable has the columns of EventsTable, with slip_mm and
+	// rupture_area_m2 empty (the model gives magnitudes only).
+	RateEventsTable = csvw.Table{
+		Title:       "rate_events",
+		Description: "The synthetic catalogue of the seismicity-rate model (Dieterich 1994; not observed data): events on faults too small to mesh, sampled from every fracture element's Coulomb stress history, in time order; slip_mm and rupture_area_m2 are empty, moment_Nm follows from the magnitude.",
+		Columns:     EventsTable.Columns,
+	}
 	CrossingsTable = csvw.Table{
 		Title:       "crossings",
 		Description: "Every meeting of a growing fracture's tip with a natural fracture, in time order, with what the tip did there (Renshaw and Pollard 1995; non-orthogonal form after Gu et al. 2012).",

@@ -24,6 +24,9 @@ const (
 	// WarnGrowthAtEnd: a growing fracture reached the end of the path
 	// meshed for it (conduit_half_length) with a tip still able to grow.
 	WarnGrowthAtEnd = "growth_reached_end"
+	// WarnRateOverflow: the seismicity-rate model met a stress step
+	// beyond any finite rate on some element.
+	WarnRateOverflow = "seismicity_rate_overflow"
 )
 
 // Warning is a condition of a run that its result should be read with.

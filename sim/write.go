@@ -59,9 +59,20 @@ func WriteTimeline(w io.Writer, s *scenarios.Scenario, res *Result) error {
 // WriteEvents writes events.csv (EventsTable): the synthetic microseismic
 // catalogue, slip in mm.
 func WriteEvents(w io.Writer, s *scenarios.Scenario, res *Result) error {
-	cw := csvw.NewWriter(w, &EventsTable)
+	return writeCatalogue(w, &EventsTable, s, res.Events)
+}
+
+// WriteRateEvents writes rate_events.csv: the catalogue of the
+// seismicity-rate model (RateEventsTable; slip and area empty).
+func WriteRateEvents(w io.Writer, s *scenarios.Scenario, res *Result) error {
+	return writeCatalogue(w, &RateEventsTable, s, res.RateEvents)
+}
+
+// writeCatalogue writes events in the columns of EventsTable.
+func writeCatalogue(w io.Writer, t *csvw.Table, s *scenarios.Scenario, events []Event) error {
+	cw := csvw.NewWriter(w, t)
 	order := s.PumpingOrder()
-	for _, e := range res.Events {
+	for _, e := range events {
 		cw.Write([]string{
 			num(e.Time, 3), num(e.X, 3), num(e.Y, 3), num(e.Depth, 3), strconv.Itoa(e.Fracture),
 			scenarios.StageNameAt(order, e.Stage), sci(e.Slip*1e3, 6), num(e.Area, 3), sci(e.Moment, 6), num(e.Magnitude, 4),
@@ -216,6 +227,7 @@ type summaryJSON struct {
 	Numerics    numericsJSON   `json:"numerics"`
 	Depletion   *depletionJSON `json:"depletion,omitempty"`
 	Growth      *growthJSON    `json:"growth,omitempty"`
+	Rate        *rateJSON      `json:"seismicity_rate,omitempty"`
 	Failure     *string        `json:"failure,omitempty"`
 }
 
@@ -234,6 +246,24 @@ type depletionJSON struct {
 	MaxRotationDeg       float64   `json:"largest_shmax_rotation_deg"`
 	CriticalChangeMinMPa float64   `json:"least_critical_pressure_change_min_MPa"`
 	CriticalChangeMaxMPa float64   `json:"least_critical_pressure_change_max_MPa"`
+}
+
+// rateJSON is the catalogue of the seismicity-rate model, in
+// summary.json.
+type rateJSON struct {
+	Events       int      `json:"events"`
+	Expected     float64  `json:"expected_events"`
+	MaxMagnitude *float64 `json:"max_magnitude_Mw"`
+	MinMagnitude float64  `json:"min_magnitude_Mw"`
+}
+
+// newRateJSON summarises the rate catalogue (nil without the model).
+func newRateJSON(s *scenarios.Scenario, res *Result) *rateJSON {
+	if !s.SeismicityRate.Active() {
+		return nil
+	}
+	return &rateJSON{Events: len(res.RateEvents), Expected: res.RateExpected,
+		MaxMagnitude: optional(MaxMagnitude(res.RateEvents)), MinMagnitude: s.SeismicityRate.MinMagnitude}
 }
 
 // growthJSON is what the growing fractures did, in summary.json.
@@ -400,6 +430,7 @@ func WriteSummary(w io.Writer, s *scenarios.Scenario, net *dfn.Network, res *Res
 		Warnings:  []warningJSON{},
 		Depletion: newDepletionJSON(s, res.Depletion),
 		Growth:    newGrowthJSON(s, res),
+		Rate:      newRateJSON(s, res),
 		Numerics: numericsJSON{Elements: len(res.Elements), Conduits: len(res.Conduits), Solver: res.Solver,
 			FactorEntries: res.FactorEntries, Steps: res.Steps, CutSteps: res.CutSteps},
 	}

@@ -1,0 +1,59 @@
+package sim
+
+import (
+	"math"
+	"slices"
+	"testing"
+)
+
+// The seismicity-rate catalogue (Dieterich 1994) of the small pad:
+//   - with Aσ = 100 MPa, twenty times the largest Coulomb stress change,
+//     every population stays near its background, so the expected count
+//     is the background rate × fracture surface × time to within 10 %
+//     (this checks the rate's units: per km² of surface and per year);
+//   - with the default Aσ (0.05 MPa) the stimulation multiplies the rate
+//     (Dieterich's exp(ΔS/Aσ)): the expected count exceeds the
+//     background's a hundredfold;
+//   - the catalogue is a Poisson draw of the expected count (within four
+//     standard deviations), in time order, with magnitudes within the
+//     Gutenberg–Richter bounds, and the same seed repeats it exactly.
+func TestSeismicityRateCatalogue(t *testing.T) {
+	const rate = 50.0 // per km² and year
+	var surface float64
+	background := func(res *Result) float64 {
+		surface = 0
+		for _, el := range res.Elements {
+			if el.Set != ConduitSet {
+				surface += el.Length * el.Height
+			}
+		}
+		return rate * surface / 1e6 * res.Duration / (365.25 * 86400)
+	}
+	stiff := loadCase(t, "induced-moment-bound", "seismicity_rate.background_rate_per_km2_yr=50", "seismicity_rate.a_sigma=100 MPa")
+	_, res := runScenario(t, stiff)
+	if b := background(res); math.Abs(res.RateExpected/b-1) > 0.1 {
+		t.Errorf("Aσ = 100 MPa: expected %.4g events, background %.4g (%.0f m² over %.0f s)", res.RateExpected, b, surface, res.Duration)
+	}
+	s := loadCase(t, "induced-moment-bound", "seismicity_rate.background_rate_per_km2_yr=50")
+	_, res = runScenario(t, s)
+	if b := background(res); !(res.RateExpected > 100*b) {
+		t.Errorf("default Aσ: expected %.4g events, not a hundredfold the background's %.4g", res.RateExpected, b)
+	}
+	n := float64(len(res.RateEvents))
+	if math.Abs(n-res.RateExpected) > 4*math.Sqrt(res.RateExpected) {
+		t.Errorf("%g events drawn, expected %.4g", n, res.RateExpected)
+	}
+	sr := s.SeismicityRate
+	for k, e := range res.RateEvents {
+		if e.Magnitude < sr.MinMagnitude || e.Magnitude > sr.MaxMagnitude || (k > 0 && e.Time < res.RateEvents[k-1].Time) {
+			t.Fatalf("event %d: Mw %g at %g s, out of bounds or of time order", k, e.Magnitude, e.Time)
+		}
+	}
+	_, again := runScenario(t, s)
+	same := func(a, b Event) bool { // Slip and Area are NaN
+		return a.Time == b.Time && a.Magnitude == b.Magnitude && a.X == b.X && a.Y == b.Y && a.Depth == b.Depth
+	}
+	if !slices.EqualFunc(again.RateEvents, res.RateEvents, same) || len(res.RateEvents) == 0 {
+		t.Error("the same seed drew another catalogue")
+	}
+}
