@@ -31,19 +31,23 @@
 // limit, pressure control, or shut-in (rate 0). Optional Carter leak-off
 // removes 2·h·L·2C_L(√(t+dt−t₀) − √(t−t₀)) from each exposed element;
 // alternatively (Config.Matrix) fluid leaks off by pressure diffusion into
-// the rock matrix from both faces of every element, driven by p − p0 and
-// discretised in a few cells per face, so it reverses below the matrix's
-// pressure; its step equations are eliminated into a positive diagonal
+// the rock matrix from both faces of every element, driven by the
+// difference between the element's and the matrix's pressures (the matrix
+// starts at the element's initial pressure) and discretised in a few cells
+// per face, so it reverses below the matrix's pressure; its step equations are eliminated into a positive diagonal
 // term and the system stays symmetric positive definite.
 // StepSize adapts the time step to a target pressure change.
 //
 // # Limited entry
 //
-// LimitedEntry shares a stage's rate between its perforation clusters
-// through the orifice pressure drop Δp = 8ρq²/(π²n²d⁴C_d²) of each
-// (Split: a monotone one-dimensional root find on the bottom-hole
-// pressure), and gives the chord conductance q/Δp that makes a cluster's
-// perforations a lagged, positive connection of the implicit system.
+// LimitedEntry is the orifice pressure drop Δp = 8ρq²/(π²n²d⁴C_d²) of
+// every perforation cluster of a stage. With Config.Perforations the
+// System passes each cluster's fluid through it: a member of the
+// cluster's star node, linearised at every iteration by its tangent
+// (LimitedEntry.Tangent), so the clusters share the rate through the
+// pressure balance. Split solves the same balance alone, for given
+// pressures at the clusters' entries (a monotone root find on the
+// bottom-hole pressure), as a reference.
 //
 // # Drainage
 //

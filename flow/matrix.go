@@ -15,7 +15,9 @@ import (
 //
 //	φ c_t ∂p/∂t = (k/μ) ∂²p/∂z²,  p(0, t) = p_element(t),
 //
-// from the initial pore pressure p0 (the System's reference pressure),
+// from the element's initial pressure (the System's reference pressure p0,
+// or the element's own when the state starts from a depleted field,
+// System.NewStateAt),
 // towards a no-flow plane at HalfWidth (half the spacing between parallel
 // fractures) or, with HalfWidth 0, a semi-infinite matrix. For a constant
 // step Δp at the face of a semi-infinite matrix this is the erfc solution
@@ -34,8 +36,8 @@ import (
 // Because the leak-off is driven by p − p_matrix, an element whose
 // pressure falls below its neighbouring matrix pressure draws fluid back,
 // and after shut-in the fractures' pressure decays towards, but never
-// below, p0 (the discrete maximum principle of the implicit M-matrix
-// system). Each step's matrix equations are linear and independent of the
+// below, the matrix's initial pressure (p0 without depletion; the
+// discrete maximum principle of the implicit M-matrix system). Each step's matrix equations are linear and independent of the
 // fractures' apertures, so they are eliminated in closed form: the leaked
 // volume of element i over a step is A_i p_i − B_i with A_i > 0, which
 // goes on the diagonal of the pressure system and keeps it symmetric

@@ -117,13 +117,11 @@ func (l *LimitedEntry) PressureDrop(k int, q float64) float64 {
 // (Pa), the inverse of PressureDrop.
 func (l *LimitedEntry) Rate(k int, dp float64) float64 { return perfRate(l.coef[k], dp) }
 
-// Conductance returns the chord conductance c_k = q_k/Δp_k of cluster k at
-// the pressure drop dp of the previous iterate, m³/(Pa·s). It is the
-// linearisation for the implicit flow system: lagged in the Picard
-// iterations like the transmissibilities, it makes the cluster's
-// perforations a positive, finite connection between the well and the
-// cluster's node, so every linear system stays symmetric positive
-// definite, and at convergence q_k = c_k Δp_k is the orifice law itself.
+// Conductance returns the chord conductance c_k = q_k/Δp_k of cluster k
+// at the pressure drop dp, m³/(Pa·s): at dp = 0 the slope of the orifice
+// law's linear continuation, the System's first linearisation of a
+// cluster before it has a rate (later iterations take the tangent,
+// LimitedEntry.Tangent: the chord alone lets the clusters' rates swing).
 func (l *LimitedEntry) Conductance(k int, dp float64) float64 {
 	return perfConductance(l.coef[k], dp)
 }

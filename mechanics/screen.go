@@ -42,6 +42,9 @@ type PlaneResult struct {
 	// Dip and DipDirection of the plane, radians.
 	Dip, DipDirection float64
 	SigmaN            float64 // total normal stress, Pa
+	// PorePressure is the pore pressure the plane was screened at, Pa: the
+	// screening's, or its own with ScreenOptions.Local.
+	PorePressure      float64
 	Tau               float64 // shear stress, Pa
 	SlipTendency      float64 // effective slip tendency τ/(σn − p)
 	TotalSlipTendency float64 // slip tendency with total stress τ/σn (Morris et al. 1996)
@@ -77,6 +80,7 @@ func screenPlanes(dst []PlaneResult, planes []Plane, at func(i int) Stress, c Co
 		p := s.pore
 		r := s.Resolve(pl.Normal)
 		dst[i] = PlaneResult{
+			PorePressure:      p,
 			ID:                pl.ID,
 			Set:               pl.Set,
 			Dip:               r.Dip,

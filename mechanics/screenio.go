@@ -64,8 +64,9 @@ func rakeDegrees(rake float64) float64 {
 // csv-metadata.json (package csvw); its URL is left to the folder's owner.
 var ScreenTable = csvw.Table{
 	Title: "screen",
-	Description: "Pre-injection screening: the in-situ stress resolved on every fracture, its slip tendency and the pore-pressure " +
-		"increase at which it slips (Mohr-Coulomb, total stresses held fixed). Stresses compression-positive, in MPa.",
+	Description: "Pre-injection screening: the in-situ stress (after production before the stimulation, the depleted stress and pore " +
+		"pressure at the fracture's centre) resolved on every fracture, its slip tendency and the pore-pressure increase at which it " +
+		"slips (Mohr-Coulomb, total stresses held fixed). Stresses compression-positive, in MPa.",
 	Columns: []csvw.Column{
 		{Title: "fracture_id", Datatype: csvw.Integer, Description: "index of the fracture in the network (fracture_id of fractures.csv)"},
 		{Title: "set", Datatype: csvw.Integer, Description: "index of the fracture's set in the scenario; -1 for mapped fractures"},

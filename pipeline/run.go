@@ -100,7 +100,7 @@ func (r *Run) Layer(name string) (gis.Layer, error) {
 			return l, nil
 		}
 	}
-	return gis.Layer{}, fmt.Errorf("no layer %q in a run; layers: %s", name, strings.Join(LayerNames, ", "))
+	return gis.Layer{}, fmt.Errorf("no layer %q in a run; layers: %s (and %s after production)", name, strings.Join(LayerNames, ", "), StressLayerName)
 }
 
 func line(a, b orb.Point) orb.LineString { return orb.LineString{a, b} }

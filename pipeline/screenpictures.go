@@ -55,7 +55,7 @@ func screenPictures(s *scenarios.Scenario, net *dfn.Network, sc *mechanics.Scree
 	}
 	dp, dpNote := MohrIncrease(s, sc.Stress)
 	return []picture{
-		{SlipTendencyNetFile, "Poles by slip tendency: which orientations are closest to slip under the in-situ stress (S1–S3 marked).", byTendency},
+		{SlipTendencyNetFile, "Poles by slip tendency: which orientations are closest to slip under the in-situ stress (after production, the depleted stress at each fracture; S1–S3 of the in-situ state marked).", byTendency},
 		{CriticalNetFile, "Poles by Δp_c: how far each orientation is from failure, as the pore-pressure increase it needs.", byCritical},
 		{MohrPictureFile, "Mohr diagram: every fracture against the failure envelope, now and with the pressure increase stated under it.",
 			mohrPicture(s, sc, dp, dpNote)},
@@ -93,7 +93,8 @@ func groupNames(s *scenarios.Scenario) []string {
 }
 
 // mohrPicture is the screening's Mohr diagram with the envelope shifted
-// by dp, Pa.
+// by dp, Pa: every plane at its own effective stress (after production,
+// its depleted pore pressure), the circles those of the in-situ stress.
 func mohrPicture(s *scenarios.Scenario, sc *mechanics.Screening, dp float64, note string) *report.Mohr {
 	p0 := sc.Stress.PorePressure()
 	m := &report.Mohr{Title: s.Name + " — Mohr diagram, effective stresses", Note: note,
@@ -102,7 +103,7 @@ func mohrPicture(s *scenarios.Scenario, sc *mechanics.Screening, dp float64, not
 		m.Principal[k] = p.Value - p0
 	}
 	for _, p := range sc.Planes {
-		m.Points = append(m.Points, report.MohrPoint{SigmaN: p.SigmaN - p0, Tau: p.Tau, Group: setGroup(s, p.Set)})
+		m.Points = append(m.Points, report.MohrPoint{SigmaN: p.SigmaN - p.PorePressure, Tau: p.Tau, Group: setGroup(s, p.Set)})
 	}
 	return m
 }

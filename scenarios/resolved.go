@@ -43,7 +43,7 @@ func ReadResolved(r io.Reader, name string) (*Scenario, error) {
 	s := in.Scenario
 	s.Source = name
 	if d := digest(s); d != in.Digest {
-		return nil, fmt.Errorf("%s: the scenario does not match its digest (%s…, computed %s…): the file was changed", name, short(in.Digest), short(d))
+		return nil, fmt.Errorf("%s: the scenario does not match its digest (%s…, computed %s…): the file was changed, or written by another version of slipfront (run the command that wrote the folder again)", name, short(in.Digest), short(d))
 	}
 	s.Digest = in.Digest
 	return s, nil

@@ -299,9 +299,9 @@ type Schedule struct {
 	// cluster's fluid passes (limited entry); 0 for open clusters.
 	Perforations int `toml:"perforations" range:"[0,1000]" default:"0" doc:"default open perforations per cluster (limited entry: the clusters share the rate through the holes' pressure drop); 0 for clusters open to the fractures"`
 	// PerforationDiameter of each entry hole, m.
-	PerforationDiameter float64 `toml:"perforation_diameter" when:"perforations>0" unit:"length" range:"[0.001,0.1]" default:"0.4 in" doc:"default entry-hole diameter of a perforation"`
+	PerforationDiameter float64 `toml:"perforation_diameter" unit:"length" range:"[0.001,0.1]" default:"0.4 in" doc:"default entry-hole diameter of a perforation"`
 	// DischargeCoefficient C_d of the perforations.
-	DischargeCoefficient float64 `toml:"discharge_coefficient" when:"perforations>0" range:"(0,1]" default:"0.8" doc:"default orifice discharge coefficient of the perforations (about 0.6 for sharp new holes, towards 0.9 once eroded)"`
+	DischargeCoefficient float64 `toml:"discharge_coefficient" range:"(0,1]" default:"0.8" doc:"default orifice discharge coefficient of the perforations (about 0.6 for sharp new holes, towards 0.9 once eroded)"`
 }
 
 // Numerics are discretisation and solver settings.
@@ -411,7 +411,7 @@ type Depletion struct {
 	// Duration), each at its own bottom-hole pressure.
 	Periods []ProductionPeriod `toml:"periods" doc:"optional: later production periods, in order, each at its own bottom-hole pressure (a history)"`
 	// TimeSteps of the production period.
-	TimeSteps int `toml:"time_steps" range:"[1,100000]" default:"60" doc:"equal implicit time steps of the production period (numerics)"`
+	TimeSteps int `toml:"time_steps" range:"[1,100000]" default:"60" doc:"implicit time steps of the production, shared out by the periods' durations, equal within each (numerics)"`
 }
 
 // ProductionPeriod is a later period of a parent well's production

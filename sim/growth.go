@@ -86,6 +86,7 @@ type Crossing struct {
 type tipState struct {
 	lo, hi  int
 	stopped [2]bool
+	warned  bool // reached the end of its path: warned once
 }
 
 // initGrowth marks every element opened or not: natural elements and the
@@ -139,7 +140,9 @@ func (ms *mechState) initGrowth() {
 // and PKN, are not reproduced yet: see the README), so a stage whose
 // dimensionless toughness 𝒦 = K′(E′³μ′q)^(−1/4) (Detournay 2004; hfref.KGD)
 // is below hfref.ToughnessBound, with q its rate per cluster and metre of
-// conduit height, gets an error rather than a length no check supports.
+// conduit height (under pressure control the stage's planned rate stands
+// in for the rate the pressure will drive), gets an error rather than a
+// length no check supports.
 func (m *model) checkGrowthRegime() error {
 	g, nu := m.s.Rock.ShearModulus, m.s.Rock.PoissonRatio
 	for k, ps := range m.order {
@@ -236,9 +239,12 @@ func (ms *mechState) grow(t float64, k int, p []float64, crossings []Crossing) (
 			next := tip + dir
 			if next < 0 || next >= len(g) {
 				tp.stopped[side] = true
-				warnings = append(warnings, Warning{Kind: WarnGrowthAtEnd, Stage: m.order[k].Name, Message: fmt.Sprintf(
-					"a fracture of stage %s reached conduit_half_length = %g m at t = %.0f s with its tip still able to grow: raise wells[%d].conduit_half_length",
-					m.order[k].Name, m.s.Wells[m.order[m.conduits[c].Stage].Well].ConduitHalfLength, t, m.order[m.conduits[c].Stage].Well)})
+				if own := m.order[m.conduits[c].Stage]; !tp.warned {
+					tp.warned = true
+					warnings = append(warnings, Warning{Kind: WarnGrowthAtEnd, Stage: m.order[k].Name, Message: fmt.Sprintf(
+						"the fracture of cluster %d of stage %s reached conduit_half_length = %g m at t = %.0f s with a tip still able to grow: raise wells[%d].conduit_half_length",
+						m.conduits[c].Cluster, own.Name, m.s.Wells[own.Well].ConduitHalfLength, t, own.Well)})
+				}
 				continue
 			}
 			j := g[next]
@@ -281,6 +287,12 @@ func (ms *mechState) meet(t float64, k, c, i, j int, fluid float64, crossings []
 	seen := map[int]bool{}
 	el := m.elements[i]
 	along := r2.Unit(r2.Sub(el.P1, el.P0))
+	// The meeting point: the end of the tip element that j shares.
+	at := el.P1
+	if nj := m.elements[j]; math.Min(r2.Norm(r2.Sub(el.P0, nj.P0)), r2.Norm(r2.Sub(el.P0, nj.P1))) <
+		math.Min(r2.Norm(r2.Sub(el.P1, nj.P0)), r2.Norm(r2.Sub(el.P1, nj.P1))) {
+		at = el.P0
+	}
 	for _, e := range mesh.NodeElems[mesh.NodeStart[node]:mesh.NodeStart[node+1]] {
 		tr := m.elements[e].Trace
 		if m.mesh.Elements[e].Path >= nt || seen[tr] {
@@ -298,10 +310,6 @@ func (ms *mechState) meet(t float64, k, c, i, j int, fluid float64, crossings []
 		outcome, err := ap.Decide()
 		if err != nil {
 			outcome = mechanics.Arrest // non-finite input: stop rather than cross blindly
-		}
-		at := mesh.Elements[e].P0
-		if r2.Norm(r2.Sub(mesh.Elements[e].P1, el.P1)) < r2.Norm(r2.Sub(at, el.P1)) {
-			at = mesh.Elements[e].P1
 		}
 		crossings = append(crossings, Crossing{Time: t, Stage: k, Conduit: c, Trace: tr, Fracture: other.Fracture,
 			X: at.X, Y: at.Y, Angle: angle, Outcome: outcome.String()})

@@ -131,6 +131,37 @@ func TestGrowthMeetsNaturalFracture(t *testing.T) {
 	}
 }
 
+// A meeting south of the cluster at 60° is recorded where the fracture
+// meets the natural one, 20 m south on the conduit (the end of the tip
+// element shared with the next, not a far end of the natural element),
+// with the angle between them.
+func TestGrowthMeetingPlace(t *testing.T) {
+	dir := t.TempDir()
+	src, err := os.ReadFile(filepath.Join("..", "testdata", "kgd-toughness", "scenario.toml"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	// Strike 150° (dip direction 240°): 30° off the conduit's north.
+	csv := "name,center_x_m,center_y_m,center_depth_m,dip_deg,dip_direction_deg,length_m,height_m\noblique,0,-20,2600,90,240,40,200\n"
+	for name, body := range map[string]string{"fractures.csv": csv, "scenario.toml": string(src)} {
+		if err := os.WriteFile(filepath.Join(dir, name), []byte(body), 0o644); err != nil {
+			t.Fatal(err)
+		}
+	}
+	s, err := scenarios.Load(filepath.Join(dir, "scenario.toml"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	_, res := runScenario(t, s)
+	if len(res.Crossings) != 1 {
+		t.Fatalf("%d crossings: %+v", len(res.Crossings), res.Crossings)
+	}
+	c := res.Crossings[0]
+	numtest.Abs(t, "meeting point east, m", c.X, 0, 1e-9)
+	numtest.Abs(t, "meeting point north, m", c.Y, -20, 1e-6)
+	numtest.Abs(t, "angle, rad", c.Angle, math.Pi/6, 1e-9)
+}
+
 // Growth is refused where viscosity governs, for the scheme is checked
 // against the toughness-dominated solution only: 100 cP in the KGD case
 // gives 𝒦 = 0.82.

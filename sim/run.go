@@ -75,7 +75,7 @@ type StageSummary struct {
 	Capped bool
 	Steps  int
 	// ClusterVolumes is the volume each cluster took, m³ (back-flow
-	// during shut-in counted against it).
+	// during shut-in counted against it); nil without limited entry.
 	ClusterVolumes []float64
 }
 
@@ -192,8 +192,11 @@ type runner struct {
 	// step, m³/s.
 	clusterRates []float64
 	// rate is the seismicity-rate model (nil without [seismicity_rate]).
-	rate      *rateModel
-	lastFrame float64 // time of the last frame, s
+	rate *rateModel
+	// contentCompressibility is the fluid compressibility the state's
+	// contents were computed with, 1/Pa.
+	contentCompressibility float64
+	lastFrame              float64 // time of the last frame, s
 	// massError sums |injected − leaked − stored| over the steps and moved
 	// the larger of |injected| and |stored| per step, m³.
 	massError, moved float64
@@ -250,7 +253,8 @@ func (r *runner) initialise() error {
 		r.next = sys.NewState(r.m.p0, r.ms.apertures)
 	}
 	r.eInit = append([]float64(nil), r.cur.Aperture...)
-	r.lastBHP = r.m.p0 // no well yet: the bottom hole sees the pore pressure
+	r.contentCompressibility = r.m.s.Fluids[r.m.order[0].Fluid].Compressibility
+	r.lastBHP = r.wellPressure(0) // no pumping yet: the bottom hole sees the pore pressure
 	r.res.Solver = sys.Solver().Method().String()
 	r.res.FactorEntries = sys.Solver().CholeskyEntries()
 	r.output = 0
@@ -323,14 +327,23 @@ func (r *runner) runStage(ctx context.Context, k int, ps scenarios.PlannedStage)
 	if err != nil {
 		return err
 	}
-	sys.Refresh(r.cur)
+	// Contents are h·L·e·(1 + c_f(p − p0)): only a fluid of another
+	// compressibility changes them. Recomputing them otherwise would undo
+	// the fluid a growing fracture's new tip took from the rest
+	// (fillOpened) and create it anew.
+	if c := r.m.s.Fluids[ps.Fluid].Compressibility; c != r.contentCompressibility {
+		sys.Refresh(r.cur)
+		r.contentCompressibility = c
+	}
 	r.cur.BHP = r.wellPressure(k)
 	r.cur.Capped = false
 	r.stage = k
 	r.shminAt = false
-	sum := StageSummary{Name: ps.Name, Start: r.t, MaxMagnitude: math.NaN(),
-		ClusterVolumes: make([]float64, len(r.m.clusterNodes[k]))}
-	r.clusterRates = make([]float64, len(sum.ClusterVolumes))
+	sum := StageSummary{Name: ps.Name, Start: r.t, MaxMagnitude: math.NaN()}
+	if ps.Perforations > 0 {
+		sum.ClusterVolumes = make([]float64, len(r.m.clusterNodes[k]))
+		r.clusterRates = make([]float64, len(sum.ClusterVolumes))
+	}
 	area0, events0 := r.stim.area(), len(r.res.Events)
 	ctl := flow.Control{Mode: flow.RateControl, Rate: ps.Rate, Cap: ps.PressureCap}
 	if r.m.s.Schedule.Control == "pressure" {
@@ -371,10 +384,14 @@ func (r *runner) runStage(ctx context.Context, k int, ps scenarios.PlannedStage)
 }
 
 // wellPressure is a start value for the bottom-hole pressure of stage k:
-// the highest pressure of the elements it feeds.
+// the highest pressure of the elements it feeds (not below the initial
+// pore pressure, unless production depleted the layer).
 func (r *runner) wellPressure(k int) float64 {
 	m := r.m.mesh
 	p := r.m.p0
+	if r.m.pInit != nil {
+		p = math.Inf(-1) // after production the well may sit below p0
+	}
 	for _, n := range r.m.wellNodes[k] {
 		for _, e := range m.NodeElems[m.NodeStart[n]:m.NodeStart[n+1]] {
 			p = math.Max(p, r.cur.Pressure[e])
@@ -531,9 +548,11 @@ func (r *runner) step(sys *flow.System, p *phase, sum *StageSummary, end float64
 	r.res.Steps++
 	sum.Steps++
 	sum.Injected += res.Injected
-	sys.ClusterRates(r.clusterRates, r.cur)
-	for c, q := range r.clusterRates {
-		sum.ClusterVolumes[c] += q * dt
+	if sum.ClusterVolumes != nil {
+		sys.ClusterRates(r.clusterRates, r.cur)
+		for c, q := range r.clusterRates {
+			sum.ClusterVolumes[c] += q * dt
+		}
 	}
 	sum.Capped = sum.Capped || res.Capped
 	if sys.HasWell() && p.ctl.Rate+p.ctl.Pressure > 0 {

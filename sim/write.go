@@ -310,7 +310,8 @@ func newDepletionJSON(s *scenarios.Scenario, d *Depletion) *depletionJSON {
 	dp := s.Depletion
 	out := &depletionJSON{Wells: dp.Wells, DurationS: dp.ProductionTime(),
 		PeriodsS: []float64{dp.Duration}, BottomholeMPa: []float64{dp.BottomholePressure / 1e6},
-		FractureHalfLengthM: dp.FractureHalfLength, CellSizeM: dp.CellSize, ProducedM3: d.Produced}
+		FractureHalfLengthM: dp.FractureHalfLength, CellSizeM: dp.CellSize, ProducedM3: d.Produced,
+		CriticalChangeMinMPa: math.Inf(1), CriticalChangeMaxMPa: math.Inf(-1)}
 	for _, p := range dp.Periods {
 		out.PeriodsS = append(out.PeriodsS, p.Duration)
 		out.BottomholeMPa = append(out.BottomholeMPa, p.BottomholePressure/1e6)
@@ -361,7 +362,7 @@ type stageJSON struct {
 	Capped       bool     `json:"pressure_cap_reached"`
 	Steps        int      `json:"time_steps"`
 	// ClusterVolumes: the volume each perforation cluster took, m³.
-	ClusterVolumes []float64 `json:"cluster_injected_volumes_m3"`
+	ClusterVolumes []float64 `json:"cluster_injected_volumes_m3,omitempty"`
 }
 
 // warningJSON is one Warning in summary.json.

@@ -33,7 +33,7 @@ func newExportCmd(g *globalOptions, stderr io.Writer) *cobra.Command {
 			"polygons: " + strings.Join(pipeline.VTKFractureFields, ", ") + ")\n" +
 			"and events_NNNN.vtp (the events so far as points: " + strings.Join(pipeline.VTKEventFields, ", ") + "),\n" +
 			"x and y in the CRS with the origin applied, z the elevation, all in the CRS's unit.\n\n" +
-			"Run layers: " + strings.Join(pipeline.LayerNames, ", ") + "\n" +
+			"Run layers: " + strings.Join(pipeline.LayerNames, ", ") + ", and " + pipeline.StressLayerName + " after production ([depletion])\n" +
 			"Run rasters: " + strings.Join(pipeline.RasterNames, ", ") + "\n" +
 			"Batch layers and rasters: probability_NNNN (one per sweep case)\n\n" + caution,
 		Example: "  slipfront export slipfront-demo --format gpkg --out demo.gpkg\n" +
