@@ -174,3 +174,92 @@ func TestLimitedEntryTangent(t *testing.T) {
 		numtest.Rel(t, "tangent slope", slope, want, 1e-12)
 	}
 }
+
+// Clusters whose nodes join several elements: cluster 0 feeds the middle
+// of fracture A (its two halves meet at the node), cluster 1 the middles
+// of fractures B and C (two nodes of one cluster), the halves 100 m long
+// (C's western one 50 m, so that the elements at the cluster's nodes are
+// not all at one pressure) and ending in sinks. The star–delta terms
+// between the elements of a cluster are then in play (zeroing them fails
+// this test); the steady rates must still satisfy
+// p_w − p0 = K q_k² + q_k/c_k, c_k the cubic-law conductance of the
+// cluster's halves in parallel (Crump & Conway 1988 in series with
+// Witherspoon et al. 1980), Σ q_k = Q, solved here by bisection.
+func TestLimitedEntryClustersOfSeveralElements(t *testing.T) {
+	const q, rho, half = 0.03, 1000.0, 100.0
+	e := [3]float64{4e-4, 5e-4, 3e-4} // A, B, C
+	var paths []Path
+	var junctions []Junction
+	// C reaches 50 m west and 100 m east, so its two halves (and so the
+	// elements at the three cluster nodes) are not at one pressure.
+	west := [3]float64{half, half, 50}
+	for k := range 3 {
+		y := 50 * float64(k)
+		paths = append(paths, Path{P0: r2.Vec{X: -west[k], Y: y}, P1: r2.Vec{X: half, Y: y}, Height: leHeight,
+			Cuts: []float64{west[k] / (west[k] + half)}})
+	}
+	for k := range 3 {
+		y := 50 * float64(k)
+		east := sinkPath(half, leHeight)
+		east.P0.Y, east.P1.Y = y, y
+		w := sinkPath(-west[k]-1, leHeight)
+		w.P0.Y, w.P1.Y = y, y
+		paths = append(paths, east, w)
+		junctions = append(junctions, Junction{A: k, B: 3 + 2*k, SA: 1, SB: 0}, Junction{A: k, B: 4 + 2*k, SA: 0, SB: 1})
+	}
+	m, err := BuildMesh(paths, junctions, MeshSettings{ElementLength: 10})
+	if err != nil {
+		t.Fatal(err)
+	}
+	mid := func(k int) float64 { return west[k] / (west[k] + half) }
+	clusters := [][]int{{m.Node(0, mid(0))}, {m.Node(1, mid(1)), m.Node(2, mid(2))}}
+	well := []int{clusters[0][0], clusters[1][0], clusters[1][1]}
+	p := Perforations{Count: 6, Diameter: 0.01, Discharge: 0.8}
+	le, err := NewLimitedEntry([]Perforations{p, p}, rho)
+	if err != nil {
+		t.Fatal(err)
+	}
+	s, err := NewSystem(m, well, Config{Fluid: testFluid, ReferencePressure: testP0, ClusterNodes: clusters, Perforations: le})
+	if err != nil {
+		t.Fatal(err)
+	}
+	ap := func(pr, a, dedp []float64) {
+		for i := range a {
+			path := m.Elements[i].Path
+			if path < 3 {
+				a[i] = e[path]
+			} else {
+				a[i] = e[(path-3)/2] * sinkScale
+			}
+			dedp[i] = 0
+		}
+	}
+	cur, next := s.NewState(testP0, ap), s.NewState(testP0, ap)
+	for dt := 1.0; dt < 5000; dt *= 2 {
+		if _, err := s.Step(cur, next, dt, Control{Mode: RateControl, Rate: q}, ap, StepSettings{}); err != nil {
+			t.Fatal(err)
+		}
+		cur, next = next, cur
+	}
+	rates := make([]float64, 2)
+	s.ClusterRates(rates, cur)
+	halfC := func(e, l float64) float64 { // one half: cubic law over l and the sink's half element
+		return 1 / (12*testMu*l/(leHeight*e*e*e) + sinkResistance(e, leHeight))
+	}
+	c := [2]float64{2 * halfC(e[0], half), 2*halfC(e[1], half) + halfC(e[2], 50) + halfC(e[2], half)}
+	k := p.Coefficient(rho)
+	rate := func(dp, c float64) float64 { return (-1/c + math.Sqrt(1/(c*c)+4*k*dp)) / (2 * k) }
+	lo, hi := 0.0, 1e9
+	for range 200 {
+		mid := 0.5 * (lo + hi)
+		if rate(mid, c[0])+rate(mid, c[1]) > q {
+			hi = mid
+		} else {
+			lo = mid
+		}
+	}
+	numtest.Rel(t, "bottom-hole pressure above p0, Pa", cur.BHP-testP0, lo, 1e-6)
+	for i := range 2 {
+		numtest.Rel(t, "cluster rate", rates[i], rate(lo, c[i]), 1e-6)
+	}
+}
