@@ -23,7 +23,7 @@ func (r *Run) MapPicture() (*report.Map, error) {
 	for i, el := range res.Elements {
 		a, b := rp(el.P0.X, el.P0.Y), rp(el.P1.X, el.P1.Y)
 		if el.Set == sim.ConduitSet {
-			if res.IsOpen(s, i) {
+			if res.IsOpen(i) {
 				m.Conduits = append(m.Conduits, report.Segment{A: a, B: b})
 			}
 			continue

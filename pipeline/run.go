@@ -170,7 +170,7 @@ func (r *Run) conduitLayer() gis.Layer {
 	l := gis.Layer{Name: "conduits", Description: "primary conduits from the perforation clusters (elements; of growing fractures, the opened part)",
 		Geometry: gis.LineString, Fields: []gis.Field{{Name: "element_id", Type: gis.Int32}, {Name: "aperture_mm", Type: gis.Real}}}
 	for i, el := range r.Result.Elements {
-		if el.Set != sim.ConduitSet || !r.Result.IsOpen(r.Scenario, i) {
+		if el.Set != sim.ConduitSet || !r.Result.IsOpen(i) {
 			continue
 		}
 		l.Features = append(l.Features, gis.Feature{Geometry: line(pt(el.P0.X, el.P0.Y), pt(el.P1.X, el.P1.Y)),

@@ -11,7 +11,6 @@ import (
 	"slipfront/internal/badinput"
 	"slipfront/internal/hfref"
 	"slipfront/mechanics"
-	"slipfront/scenarios"
 )
 
 // Growing fractures. A well with growth = "on" has its primary conduits
@@ -405,16 +404,8 @@ func (r *runner) fillOpened(sys *flow.System, st *flow.State, opened []opening) 
 }
 
 // IsOpen reports whether element i of a result is open: the intact rock
-// ahead of a growing fracture's tips is not. A result read back from a
-// snapshot does not record it; there an element of a scenario that grows
-// fractures counts as open when its aperture exceeds FlawAperture (the
-// closed part of an opened fracture then counts as not open).
-func (res *Result) IsOpen(s *scenarios.Scenario, i int) bool {
-	switch {
-	case res.Opened != nil:
-		return res.Opened[i]
-	case res.Elements[i].Set != ConduitSet || !Grows(s):
-		return true
-	}
-	return res.Aperture[i] > FlawAperture
+// ahead of a growing fracture's tips is not (Result.Opened, read back
+// from the frames' FlagIntact in a replayed result).
+func (res *Result) IsOpen(i int) bool {
+	return res.Opened == nil || res.Opened[i]
 }

@@ -1,6 +1,8 @@
 package sim
 
 import (
+	"bytes"
+	"context"
 	"math"
 	"os"
 	"path/filepath"
@@ -13,6 +15,7 @@ import (
 	"slipfront/internal/numtest"
 	"slipfront/mechanics"
 	"slipfront/scenarios"
+	"slipfront/snapshot"
 )
 
 // openedHalfLength is half the opened length of the run's growing
@@ -170,5 +173,43 @@ func TestGrowthRefusedWhereViscosityGoverns(t *testing.T) {
 	_, err := newModel(s, mustNetwork(t, s))
 	if err == nil || !strings.Contains(err.Error(), "toughness-dominated") || !strings.Contains(err.Error(), "𝒦 = 0.822") {
 		t.Errorf("error %v, want a refusal naming 𝒦", err)
+	}
+}
+
+// The opened extent of a growing fracture replays from the frames
+// (snapshot.FlagIntact) as the run left it, through a shut-in (a 1 cP
+// fluid against K_Ic = 3 MPa·√m: 𝒦 = 7.8).
+func TestGrowthExtentReplays(t *testing.T) {
+	s := loadCase(t, "kgd-toughness", "schedule.shut_in=10 min", "numerics.output_interval=1 min",
+		"fluids.thin.viscosity=1 cP", "rock.fracture_toughness=3 MPa.m^0.5")
+	net := mustNetwork(t, s)
+	var buf bytes.Buffer
+	rec := NewRecorder(&buf, s, 0)
+	res, err := Run(context.Background(), s, net, Options{Begin: rec.Begin, Frame: rec.Frame})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := rec.Close(); err != nil {
+		t.Fatal(err)
+	}
+	rd, err := snapshot.NewReader(bytes.NewReader(buf.Bytes()), int64(buf.Len()))
+	if err != nil {
+		t.Fatal(err)
+	}
+	back, _, err := Replay(rd, res.Duration)
+	if err != nil {
+		t.Fatal(err)
+	}
+	opened := 0
+	for i := range res.Elements {
+		if back.IsOpen(i) != res.IsOpen(i) {
+			t.Fatalf("element %d: replayed open %v, run %v", i, back.IsOpen(i), res.IsOpen(i))
+		}
+		if res.Elements[i].Set == ConduitSet && res.IsOpen(i) {
+			opened++
+		}
+	}
+	if opened < 10 || opened == len(res.Elements)-1 {
+		t.Errorf("%d conduit elements opened: the test needs a fracture that grew part of its path", opened)
 	}
 }

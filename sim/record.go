@@ -190,7 +190,11 @@ func Replay(rd *snapshot.Reader, t float64) (*Result, Replayed, error) {
 			return nil, rp, err
 		}
 		rp.Times = append(rp.Times, info.Time)
+		if res.Opened == nil {
+			res.Opened = make([]bool, n)
+		}
 		for j, flag := range fr.Flags {
+			res.Opened[j] = flag&snapshot.FlagIntact == 0
 			if flag&snapshot.FlagSlipped != 0 && math.IsNaN(res.FirstSlip[j]) {
 				res.FirstSlip[j], res.FirstSlipStage[j] = info.Time, int(info.Stage)
 			}

@@ -140,9 +140,10 @@ type Result struct {
 	// in time order.
 	Crossings []Crossing
 	// Opened marks the elements open at the end (the intact rock ahead of
-	// growing fractures' tips is not), and ConduitHalfLengths is the
-	// opened half-length of every conduit, m; both nil when nothing grows,
-	// and in a replayed result.
+	// growing fractures' tips is not; nil when nothing grows, read back
+	// from the frames in a replayed result), and ConduitHalfLengths is the
+	// opened half-length of every conduit, m (nil when nothing grows, and
+	// in a replayed result).
 	Opened             []bool
 	ConduitHalfLengths []float64
 	// Depletion is the state production left before the stimulation; nil
@@ -624,6 +625,9 @@ func (r *runner) record(final bool) error {
 		}
 		if r.stim.element[i] {
 			f |= snapshot.FlagStimulated
+		}
+		if !r.ms.opened[i] {
+			f |= snapshot.FlagIntact
 		}
 		r.flags[i] = f
 	}

@@ -10,7 +10,7 @@
 //
 // The package knows nothing of the simulator: it stores plain arrays. The
 // names [FieldPressure], [FieldAperture] and [FieldSlip] and the flag bits
-// [FlagSlipping], [FlagSlipped], [FlagOpen] and [FlagStimulated] are the
+// [FlagSlipping], [FlagSlipped], [FlagOpen], [FlagStimulated] and [FlagIntact] are the
 // conventions that [WriteFrameCSV] and the simulator share.
 //
 // # Robustness
@@ -136,7 +136,7 @@
 //	16      8     end magic: 89 53 46 45 4E 44 0D 0A ("\x89SFEND\r\n")
 //
 // A payload must be consumed exactly; trailing bytes are a format error.
-// Flag bits 4–7 are reserved: written as 0 by this version and ignored by
+// Flag bits 5–7 are reserved: written as 0 by this version and ignored by
 // readers.
 //
 // # Units

@@ -26,7 +26,7 @@ const (
 	FieldCoulombChange = "coulomb_change"
 )
 
-// Flag bits of the per-element state byte of a frame. Bits 4–7 are
+// Flag bits of the per-element state byte of a frame. Bits 5–7 are
 // reserved.
 const (
 	// FlagSlipping: the element slipped in the step that ended at the
@@ -40,6 +40,10 @@ const (
 	// FlagStimulated: the element's cumulative slip exceeds the
 	// stimulated-slip threshold of the run.
 	FlagStimulated byte = 1 << 3
+	// FlagIntact: the element is intact rock ahead of a growing
+	// fracture's tip, not opened yet (snapshots written before growth
+	// existed never set it).
+	FlagIntact byte = 1 << 4
 )
 
 // Header is the part of a snapshot written once, before the frames.

@@ -269,6 +269,7 @@ var flagNames = [...]struct {
 	{FlagSlipped, "slipped"},
 	{FlagOpen, "open"},
 	{FlagStimulated, "stimulated"},
+	{FlagIntact, "intact"},
 }
 
 // DescribeFrame writes a summary of the last frame at or before time t

@@ -223,7 +223,7 @@ func TestDescribeFrame(t *testing.T) {
 			"slip mm 0 2.5 1.25 0",
 			"pressure MPa 26 26 26 1",
 			"aperture mm 0.15 0.15 0.15 1",
-			"elements flagged: slipping 1, slipped 2, open 0, stimulated 1 (of 2)",
+			"elements flagged: slipping 1, slipped 2, open 0, stimulated 1, intact 0 (of 2)",
 		} {
 			if !strings.Contains(text, want) {
 				t.Errorf("%s: DescribeFrame output lacks %q:\n%s", tc.name, want, text)
