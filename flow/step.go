@@ -334,6 +334,7 @@ func (s *System) solve(it *iteration, ap ApertureFunc, set StepSettings) (StepRe
 func (s *System) linearSolve(it *iteration) error {
 	s.as.Reset()
 	clear(s.rhs)
+	s.quantum = 0
 	s.conductances(it.e)
 	s.sumClusters()
 	s.updatePerforations(it.p, it.pw)
@@ -343,6 +344,7 @@ func (s *System) linearSolve(it *iteration) error {
 		el := &s.mesh.Elements[i]
 		hl := el.Height * el.Length
 		storage := hl * (it.dedp[i]*(1+cf*(p[i]-pref)) + e[i]*cf)
+		s.quantum += storage * (math.Nextafter(math.Abs(p[i]), math.Inf(1)) - math.Abs(p[i]))
 		content := hl * e[i] * (1 + cf*(p[i]-pref))
 		// Matrix leak-off is linear in p_i: its slope joins the diagonal.
 		slope := s.leakSlope(i)
@@ -437,10 +439,15 @@ func (s *System) balance(cur *State, p, e []float64, injected float64, leak []fl
 // times the volume moved in the step, but not below the round-off of
 // summing the n contents, max(n, 256)·ε·Σ m (the bound of recursive summation;
 // Higham 2002, Accuracy and Stability of Numerical Algorithms, §4.2),
-// which governs during shut-in.
+// which governs during shut-in, nor below what the pressures can resolve:
+// an element's pressure moves by whole units of its last place, ulp(p),
+// and its content by its storage times that, so the contents cannot be
+// balanced more finely than Σ S_i·ulp(p_i) (s.quantum, from the last
+// assembly; times 16 for the iterations' round-off). That floor governs
+// where fractures are open wide and compliant at tens of MPa.
 func (s *System) massTolerance(rel, injected float64, leak []float64, stored float64, content []float64) float64 {
 	moved := math.Max(math.Max(math.Abs(injected), math.Abs(total(leak))), math.Abs(stored))
-	return math.Max(rel*moved, float64(max(len(content), 256))*epsilon*total(content))
+	return math.Max(rel*moved, math.Max(float64(max(len(content), 256))*epsilon*total(content), 16*s.quantum))
 }
 
 // epsilon is the float64 machine epsilon.

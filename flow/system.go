@@ -110,6 +110,9 @@ type System struct {
 	omega     float64
 	// per-element work arrays of Step
 	e, dedp, ePrev, leak []float64
+	// quantum is Σ S_i·ulp(p_i) of the last assembly, m³: the finest
+	// content balance the pressures can represent (massTolerance).
+	quantum float64
 	// mx is the matrix leak-off model (nil: Carter's or none).
 	mx *matrixLeak
 	// Clusters (Config.ClusterNodes): wellCluster[c] is the cluster of
