@@ -6,7 +6,6 @@ import (
 	"math"
 	"testing"
 
-	"slipfront/dfn"
 	"slipfront/scenarios"
 	"slipfront/snapshot"
 )
@@ -75,27 +74,7 @@ func TestCoulombChangeRecorded(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	net, err := dfn.Generate(s, 0)
-	if err != nil {
-		t.Fatal(err)
-	}
-	var buf bytes.Buffer
-	rec := NewRecorder(&buf, s, 0)
-	res, err := Run(context.Background(), s, net, Options{Begin: rec.Begin, Frame: rec.Frame})
-	if err != nil {
-		t.Fatal(err)
-	}
-	if err := rec.Close(); err != nil {
-		t.Fatal(err)
-	}
-	rd, err := snapshot.NewReader(bytes.NewReader(buf.Bytes()), int64(buf.Len()))
-	if err != nil {
-		t.Fatal(err)
-	}
-	back, _, err := Replay(rd, res.Duration)
-	if err != nil {
-		t.Fatal(err)
-	}
+	res, back := runAndReplay(t, s)
 	var changed int
 	for i, want := range res.CoulombChange {
 		if d := math.Abs(back.CoulombChange[i] - want); d > 1e-6*math.Abs(want)+1e-3 {
@@ -108,4 +87,27 @@ func TestCoulombChangeRecorded(t *testing.T) {
 	if changed == 0 {
 		t.Error("no element's Coulomb stress changed by more than 1 kPa")
 	}
+}
+
+// runAndReplay runs realization 0 of s with a recorder and returns the
+// result and the result replayed from the snapshot at its end.
+func runAndReplay(t *testing.T, s *scenarios.Scenario) (res, back *Result) {
+	t.Helper()
+	var buf bytes.Buffer
+	rec := NewRecorder(&buf, s, 0)
+	res, err := Run(context.Background(), s, mustNetwork(t, s), Options{Begin: rec.Begin, Frame: rec.Frame})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := rec.Close(); err != nil {
+		t.Fatal(err)
+	}
+	rd, err := snapshot.NewReader(bytes.NewReader(buf.Bytes()), int64(buf.Len()))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if back, _, err = Replay(rd, res.Duration); err != nil {
+		t.Fatal(err)
+	}
+	return res, back
 }

@@ -1,8 +1,6 @@
 package sim
 
 import (
-	"bytes"
-	"context"
 	"math"
 	"os"
 	"path/filepath"
@@ -15,7 +13,6 @@ import (
 	"slipfront/internal/numtest"
 	"slipfront/mechanics"
 	"slipfront/scenarios"
-	"slipfront/snapshot"
 )
 
 // openedHalfLength is half the opened length of the run's growing
@@ -183,24 +180,7 @@ func TestGrowthRefusedWhereViscosityGoverns(t *testing.T) {
 // allows (flow's mass tolerance now knows that floor).
 func TestGrowthExtentReplays(t *testing.T) {
 	s := loadCase(t, "kgd-toughness", "schedule.shut_in=10 min", "numerics.output_interval=1 min")
-	net := mustNetwork(t, s)
-	var buf bytes.Buffer
-	rec := NewRecorder(&buf, s, 0)
-	res, err := Run(context.Background(), s, net, Options{Begin: rec.Begin, Frame: rec.Frame})
-	if err != nil {
-		t.Fatal(err)
-	}
-	if err := rec.Close(); err != nil {
-		t.Fatal(err)
-	}
-	rd, err := snapshot.NewReader(bytes.NewReader(buf.Bytes()), int64(buf.Len()))
-	if err != nil {
-		t.Fatal(err)
-	}
-	back, _, err := Replay(rd, res.Duration)
-	if err != nil {
-		t.Fatal(err)
-	}
+	res, back := runAndReplay(t, s)
 	opened := 0
 	for i := range res.Elements {
 		if back.IsOpen(i) != res.IsOpen(i) {
