@@ -8,6 +8,7 @@
 #
 #   docs/scripts/fuzz-campaign.sh              # all targets, 1e6 each
 #   EXECS=100000 docs/scripts/fuzz-campaign.sh FuzzReader FuzzParse
+#   PARALLEL=1 nice docs/scripts/fuzz-campaign.sh   # one fuzz worker, beside other work
 set -uo pipefail
 cd "$(dirname "$0")/../.."
 execs=${EXECS:-1000000}
@@ -21,7 +22,7 @@ for target in "${targets[@]}"; do
   pkg=$(grep -rlE --include='*_test.go' "^func $target\(" . | head -1 | xargs dirname)
   log=$(mktemp)
   start=$(date +%s)
-  if go test -run '^$' -fuzz "^$target\$" -fuzztime "${execs}x" -fuzzminimizetime 10s "$pkg" >"$log" 2>&1; then
+  if go test -run '^$' -fuzz "^$target\$" -fuzztime "${execs}x" -fuzzminimizetime 10s ${PARALLEL:+-parallel "$PARALLEL"} "$pkg" >"$log" 2>&1; then
     result=ok
   elif grep -q 'Failing input written to' "$log"; then
     result="FINDING: $(grep -m1 'Failing input written to' "$log" | sed 's/.*written to //')"
