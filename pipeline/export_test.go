@@ -22,11 +22,19 @@ import (
 	"slipfront/snapshot"
 )
 
+// smallDemo cuts the demo down for the tests of folders and pictures: 30 bbl
+// stages on 30 m elements, and a slip-weakening distance of 1 mm so that
+// it ruptures (the demo's own 3 mm slips aseismically). Those elements do
+// not resolve the nucleation length, so the number of its events is set
+// by the mesh: these tests check how events are written and read, not how
+// many there are.
+var smallDemo = []string{"schedule.volume=30 bbl", "numerics.element_length=30 m", "rock.slip_weakening_distance=1 mm"}
+
 // runFolder simulates a small demo into a folder with Simulate, as the run
 // command does, and returns the in-memory run too.
 func runFolder(t *testing.T) (string, *Run) {
 	t.Helper()
-	ov, err := scenarios.ParseOverrides([]string{"schedule.volume=30 bbl", "numerics.element_length=30 m"})
+	ov, err := scenarios.ParseOverrides(smallDemo)
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -44,7 +44,7 @@ func sharedRun(t *testing.T) (string, *Run) {
 			return
 		}
 		sharedRunDir = filepath.Join(tmp, "run")
-		s := loadExample(t, "demo", "schedule.volume=30 bbl", "numerics.element_length=30 m")
+		s := loadExample(t, "demo", smallDemo...)
 		_, sharedRunErr = Simulate(context.Background(), s, SimulateOptions{Out: Folder{Dir: sharedRunDir}})
 	})
 	if sharedRunErr != nil {

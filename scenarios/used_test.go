@@ -171,7 +171,7 @@ func TestExampleWarnings(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if len(demo.Warnings) != 1 || !strings.HasPrefix(demo.Warnings[0], "demo.toml:118: fluids.linear_gel: no stage pumps this fluid") {
+	if len(demo.Warnings) != 1 || !strings.HasPrefix(demo.Warnings[0], "demo.toml:119: fluids.linear_gel: no stage pumps this fluid") {
 		t.Errorf("demo warnings %q", demo.Warnings)
 	}
 	if _, err := LoadExample("demo", Override{Key: "schedule.fluid", Value: "linear_gel"}); err != nil {

@@ -45,7 +45,7 @@ func TestExitCodes(t *testing.T) {
 		{"message units", []string{"scenario", "check", "demo", "--set", "schedule.pressure_cap=10MPa"}, exitBadInput, "initial pore pressure, 31.2 MPa"},
 		{"unknown example", []string{"scenario", "show", "dmeo", "--out", filepath.Join(dir, "dmeo")}, exitBadInput, `no example scenario "dmeo"; examples: demo, single-fracture`},
 		{"force without out", []string{"scenario", "show", "demo", "--force"}, exitBadInput, "--force replaces the folder of --out"},
-		{"check ok", []string{"scenario", "check", "demo"}, exitOK, "warning: demo.toml:118: fluids.linear_gel: no stage pumps this fluid"},
+		{"check ok", []string{"scenario", "check", "demo"}, exitOK, "warning: demo.toml:119: fluids.linear_gel: no stage pumps this fluid"},
 		{"mistyped fluid", []string{"scenario", "check", "demo", "--set", "fluids.slickwatr.viscosity=20cP"}, exitBadInput,
 			`--set fluids.slickwatr.viscosity=20cP: the scenario has no fluids.slickwatr (did you mean "fluids.slickwater"?) and nothing names it`},
 		{"unpumped fluid", []string{"scenario", "check", "demo", "--set", "fluids.linear_gel.viscosity=5cP"}, exitBadInput,
