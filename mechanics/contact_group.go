@@ -55,11 +55,12 @@ const (
 	maxNewton        = 30
 )
 
-// solveGroup solves group g's working elements with the others' increments
-// as loads, applies the change to the tractions of their neighbours, and
+// solveGroup solves the working elements elems of group g (or, with g =
+// mergedGroup, the whole working set) with the others' increments as
+// loads, applies the change to the tractions of their neighbours, and
 // returns the largest change of slip or opening, m.
-func (c *Contact) solveGroup(g int) (float64, error) {
-	s := c.newGroupSystem(g)
+func (c *Contact) solveGroup(g int, elems []int) (float64, error) {
+	s := c.newGroupSystem(g, elems)
 	err := s.settle()
 	var u *unstable
 	if errors.As(err, &u) {
@@ -75,15 +76,11 @@ func (c *Contact) solveGroup(g int) (float64, error) {
 	return s.apply(), nil
 }
 
-// newGroupSystem gathers the local problem of group g.
-func (c *Contact) newGroupSystem(g int) *groupSystem {
+// newGroupSystem gathers the local problem of the working elements elems
+// of group g.
+func (c *Contact) newGroupSystem(g int, elems []int) *groupSystem {
 	t := &c.trial
-	s := &groupSystem{c: c, group: g}
-	for _, i := range c.groups[g] {
-		if t.inWork[i] {
-			s.elems = append(s.elems, i)
-		}
-	}
+	s := &groupSystem{c: c, group: g, elems: elems}
 	m := len(s.elems)
 	s.m = m
 	s.cache = c.groupCache(g, s.elems)
@@ -347,7 +344,7 @@ func (s *groupSystem) updateStatus() bool {
 				t.status[i], changed = open, true
 			case math.Abs(tau) > str+tol:
 				t.status[i], t.sign[i], changed = sliding, int8(sign(tau)), true
-				if t.rupturing[s.group] {
+				if t.rupturing[c.elems[i].Group] {
 					t.ruptured[i] = true
 				}
 			}
@@ -433,15 +430,19 @@ func (s *groupSystem) patchMatrix(patch []int, slopes []float64, eff func(k int)
 // zero (linear between the start of the step and now).
 func (s *groupSystem) rupture(patch []int, lambda1 float64) {
 	t := &s.c.trial
-	t.rupturing[s.group] = true
 	nucleus := patch[0]
 	for _, k := range patch {
-		t.ruptured[s.elems[k]] = true
+		i := s.elems[k]
+		t.ruptured[i] = true
+		t.rupturing[s.c.elems[i].Group] = true
 		if math.Abs(s.z[k]) > math.Abs(s.z[nucleus]) {
 			nucleus = k
 		}
 	}
-	if _, ok := t.nucleations[s.group]; ok {
+	// The nucleation belongs to the nucleus's own group (the same as the
+	// system's unless the whole working set is solved at once).
+	g := s.c.elems[s.elems[nucleus]].Group
+	if _, ok := t.nucleations[g]; ok {
 		return
 	}
 	// The same patch at the start of the step: committed travel and
@@ -461,7 +462,7 @@ func (s *groupSystem) rupture(patch []int, lambda1 float64) {
 	} else if lambda0 <= 0 {
 		f = 0
 	}
-	t.nucleations[s.group] = nucleation{element: s.elems[nucleus], fraction: f}
+	t.nucleations[g] = nucleation{element: s.elems[nucleus], fraction: f}
 }
 
 // derivatives sets ∂D/∂p and ∂w/∂p of the group's elements for a uniform

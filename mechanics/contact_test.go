@@ -227,7 +227,9 @@ func TestContactNucleation(t *testing.T) {
 
 // The contact solution equals the direct solve of the same linear system
 // when every element slides at constant friction and interacts with every
-// other: a check of the Gauss–Seidel sweeps across two groups.
+// other: a check of the Gauss–Seidel sweeps across two groups, and of the
+// solve of the whole working set that takes over when the sweeps do not
+// settle (forced here by allowing a single sweep).
 func TestContactTwoGroups(t *testing.T) {
 	const sigma, p0 = 40e6, 10e6
 	f := SlipWeakening{Static: 0.4, Residual: 0.4, CriticalSlip: 1e-3}
@@ -243,20 +245,6 @@ func TestContactTwoGroups(t *testing.T) {
 	op, err := elastic.NewDense(elems, testRock, elastic.Settings{PlaneStrain: true})
 	if err != nil {
 		t.Fatal(err)
-	}
-	c, err := NewContact(op, ce, ContactSettings{NearRadius: 100, Tolerance: 1e-12})
-	if err != nil {
-		t.Fatal(err)
-	}
-	st := c.NewState()
-	p := uniform(len(elems), p0)
-	c.Begin(st, p)
-	res, err := c.Solve(p)
-	if err != nil {
-		t.Fatal(err)
-	}
-	if res.Sweeps < 2 {
-		t.Errorf("%d sweeps: the groups did not iterate", res.Sweeps)
 	}
 	// Direct: every element slides right-lateral at constant friction, so
 	// (K_ss − μ K_ns) Δs = −(τ0 − μ(σ0 − p)), openings zero.
@@ -274,8 +262,33 @@ func TestContactTwoGroups(t *testing.T) {
 	if err := want.SolveVec(a, b); err != nil {
 		t.Fatal(err)
 	}
-	for i := range n {
-		numtest.Rel(t, "slip against the direct solve", c.trial.ds[i], want.AtVec(i), 1e-8)
+	for _, c := range []struct {
+		name   string
+		sweeps int // ContactSettings.MaxIterations
+		merged bool
+	}{
+		{"block Gauss–Seidel", 0, false},
+		{"whole working set after one sweep", 1, true},
+	} {
+		t.Run(c.name, func(t *testing.T) {
+			ct, err := NewContact(op, ce, ContactSettings{NearRadius: 100, Tolerance: 1e-12, MaxIterations: c.sweeps})
+			if err != nil {
+				t.Fatal(err)
+			}
+			st := ct.NewState()
+			p := uniform(len(elems), p0)
+			ct.Begin(st, p)
+			res, err := ct.Solve(p)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if max := ct.set.MaxIterations; c.merged != (res.Sweeps > max) || res.Sweeps < 2 {
+				t.Errorf("%d sweeps (at most %d of Gauss–Seidel): want the whole set solved = %v", res.Sweeps, max, c.merged)
+			}
+			for i := range n {
+				numtest.Rel(t, "slip against the direct solve", ct.trial.ds[i], want.AtVec(i), 1e-8)
+			}
+		})
 	}
 }
 

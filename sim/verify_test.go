@@ -216,6 +216,28 @@ func TestMcGarrBoundRandomScenarios(t *testing.T) {
 	t.Logf("%d of 20 draws ruptured", ruptured)
 }
 
+// The demo at its own slip-weakening distance, on elements that resolve
+// the nucleation length (no warning), respects McGarr's (2014) bound with
+// its summed seismic moment: its fractures are below their residual
+// strength and slip stably (README, Convergence). 30 bbl stages on 15 m
+// elements keep the run short.
+func TestDemoRespectsMcGarr(t *testing.T) {
+	s, _, res := runExample(t, "demo", "schedule.volume=30 bbl", "numerics.element_length=15 m")
+	for _, w := range res.Warnings {
+		if w.Kind == WarnNucleationUnresolved {
+			t.Fatalf("the check needs resolved nucleation: %s", w.Message)
+		}
+	}
+	bound := mechanics.MaxInducedMoment(s.Rock.ShearModulus, res.Injected)
+	t.Logf("%d events, summed seismic M0 %.3g N·m, aseismic %.3g N·m, G·ΔV %.3g N·m", len(res.Events), res.SeismicMoment, res.AseismicMoment, bound)
+	if !(res.AseismicMoment > 0) {
+		t.Fatalf("aseismic moment %g N·m: the demo did not slip", res.AseismicMoment)
+	}
+	if !(res.SeismicMoment <= bound) {
+		t.Errorf("summed seismic M0 %.3g N·m exceeds McGarr's bound G·ΔV = %.3g N·m", res.SeismicMoment, bound)
+	}
+}
+
 // The rupture of testdata/runaway-rupture converges with the mesh: one
 // event at 10 m and at 5 m elements (steps refined with them), its moment
 // within 10 % (the convergence the README asks of a catalogue; common
