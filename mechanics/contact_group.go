@@ -62,8 +62,14 @@ const (
 func (c *Contact) solveGroup(g int, elems []int) (float64, error) {
 	s := c.newGroupSystem(g, elems)
 	err := s.settle()
-	var u *unstable
-	if errors.As(err, &u) {
+	// Each rupture leaves its patch at residual friction, so a further
+	// unstable patch (another group's, when the whole working set is
+	// solved at once) has other elements: at most one rupture per element.
+	for range elems {
+		var u *unstable
+		if !errors.As(err, &u) {
+			break
+		}
 		s.rupture(u.patch, u.lambda)
 		err = s.settle()
 	}
