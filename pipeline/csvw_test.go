@@ -108,7 +108,7 @@ func TestCSVFilesReadAndDescribed(t *testing.T) {
 
 	dir, mem := runFolder(t)
 	sameRows(t, "run", checkCSV(t, dir), map[string]int{TimelineFile: len(mem.Result.Timeline), EventsFile: len(mem.Result.Events),
-		FracturesFile: fractureCount(t, mem)})
+		RateEventsFile: len(mem.Result.RateEvents), FracturesFile: fractureCount(t, mem)})
 	if len(mem.Result.Events) == 0 {
 		t.Error("the run has no events: events.csv was checked empty")
 	}

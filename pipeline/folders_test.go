@@ -153,7 +153,7 @@ func TestSimulateFolderAndRealization(t *testing.T) {
 	dir, mem := runFolder(t)
 	// The demo's two wells have a section each.
 	pictures := []string{DistanceTimeFile, GrowthPictureFile, MagnitudeFrequencyFile, MapPictureFile, sectionPictureFile(0), sectionPictureFile(1)}
-	want := append([]string{ContentsFile, CSVMetadataFile, EventsFile, FracturesFile, MapsFile, SnapshotFile, ScenarioFile, StressChangeFile, SummaryFile, TimelineFile},
+	want := append([]string{ContentsFile, CSVMetadataFile, EventsFile, FracturesFile, MapsFile, RateEventsFile, SnapshotFile, ScenarioFile, StressChangeFile, SummaryFile, TimelineFile},
 		pictures...)
 	slices.Sort(want)
 	if got := folderFiles(t, dir); !slices.Equal(got, want) {
@@ -175,6 +175,19 @@ func TestSimulateFolderAndRealization(t *testing.T) {
 	slices.Sort(wantReport)
 	if got := folderFiles(t, rep); !slices.Equal(got, wantReport) {
 		t.Errorf("report folder holds %v, want %v", got, wantReport)
+	}
+	// The folder read back has the sub-resolution events of the run
+	// (the demo's [seismicity_rate]), and its map draws them.
+	back, err := LoadRun(dir, math.NaN())
+	if err != nil {
+		t.Fatal(err)
+	}
+	m, err := back.MapPicture()
+	if err != nil {
+		t.Fatal(err)
+	}
+	if n := len(mem.Result.RateEvents); n == 0 || len(back.Result.RateEvents) != n || len(m.SmallEvents) != n {
+		t.Errorf("%d sub-resolution events run, %d read back, %d on the map", n, len(back.Result.RateEvents), len(m.SmallEvents))
 	}
 }
 

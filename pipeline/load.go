@@ -39,7 +39,11 @@ func LoadRun(dir string, t float64) (*Run, error) {
 	if err != nil {
 		return nil, err
 	}
-	contents, note, err := openRunFolder(dir, s, ScenarioFile, EventsFile)
+	read := []string{ScenarioFile, EventsFile}
+	if s.SeismicityRate.Active() {
+		read = append(read, RateEventsFile)
+	}
+	contents, note, err := openRunFolder(dir, s, read...)
 	if err != nil {
 		return nil, err
 	}
@@ -123,8 +127,9 @@ const eventTimeSlack = 5e-4
 // shows reports whether an event at time t, s, belongs to the run's state.
 func (r *Run) shows(t float64) bool { return t <= r.Time+eventTimeSlack }
 
-// readEvents adds the events up to the run's time from EventsFile; a
-// stopped run has none to read.
+// readEvents adds the events up to the run's time from EventsFile, and
+// the sub-resolution events from RateEventsFile; a stopped run has none to
+// read.
 func (r *Run) readEvents(dir string) error {
 	f, err := os.Open(filepath.Join(dir, EventsFile))
 	if errors.Is(err, fs.ErrNotExist) && !r.Complete {
@@ -142,6 +147,34 @@ func (r *Run) readEvents(dir string) error {
 	for _, e := range events {
 		if r.shows(e.Time) {
 			r.Result.Events = append(r.Result.Events, e)
+		}
+	}
+	if !r.Scenario.SeismicityRate.Active() {
+		return nil
+	}
+	return r.readRateEvents(dir)
+}
+
+// readRateEvents adds the sub-resolution events up to the run's time from
+// RateEventsFile, written by a run with a [seismicity_rate] table; a
+// stopped run has none to read.
+func (r *Run) readRateEvents(dir string) error {
+	f, err := os.Open(filepath.Join(dir, RateEventsFile))
+	if errors.Is(err, fs.ErrNotExist) && !r.Complete {
+		r.Notes = append(r.Notes, "no "+RateEventsFile+": the stopped run wrote no sub-resolution events")
+		return nil
+	}
+	if err != nil {
+		return err
+	}
+	defer f.Close()
+	events, err := sim.ReadRateEvents(f, RateEventsFile, r.Scenario)
+	if err != nil {
+		return err
+	}
+	for _, e := range events {
+		if r.shows(e.Time) {
+			r.Result.RateEvents = append(r.Result.RateEvents, e)
 		}
 	}
 	return nil

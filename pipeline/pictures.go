@@ -47,6 +47,11 @@ func (r *Run) MapPicture() (*report.Map, error) {
 			m.Events = append(m.Events, report.Event{At: rp(e.X, e.Y), Magnitude: e.Magnitude})
 		}
 	}
+	for _, e := range res.RateEvents {
+		if r.shows(e.Time) {
+			m.SmallEvents = append(m.SmallEvents, rp(e.X, e.Y))
+		}
+	}
 	outlines, err := r.outlineLayer()
 	if err != nil {
 		return nil, err

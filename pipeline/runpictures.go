@@ -57,9 +57,10 @@ func writeRunPictures(dir string, r *Run) ([]picture, []string, error) {
 }
 
 // runPictures are the pictures of a run: the map; the growth chart when
-// the run has a timeline (a stopped run read back has none); with events,
-// the distance–time chart and, when the catalogue allows a b-value, the
-// magnitude–frequency chart; a section along each well. The notes say
+// the run has a timeline (a stopped run read back has none); with events
+// (ruptures or sub-resolution events), the distance–time chart; with
+// ruptures whose catalogue allows a b-value, the magnitude–frequency
+// chart; a section along each well. The notes say
 // which pictures were left out and why.
 func (r *Run) runPictures() (ps []picture, notes []string, err error) {
 	m, err := r.MapPicture()
@@ -68,6 +69,9 @@ func (r *Run) runPictures() (ps []picture, notes []string, err error) {
 	}
 	caption := "Map: where and when the natural fractures slipped (colour: first-slip time; grey: never), " +
 		"primary conduits dashed, events as rings sized by magnitude, the stimulated-area outline and the SHmax direction."
+	if len(m.SmallEvents) > 0 {
+		caption += " Blue dots: the sub-resolution events of the seismicity-rate model."
+	}
 	if len(m.StressTicks) > 0 {
 		caption += " Blue-grey ticks: SHmax as the parent wells' production left it."
 	}
@@ -76,16 +80,25 @@ func (r *Run) runPictures() (ps []picture, notes []string, err error) {
 		ps = append(ps, picture{GrowthPictureFile, "Growth: how fast the stimulated area grows in each stage, against the bottom-hole pressure.",
 			r.GrowthPicture()})
 	}
-	if len(r.Result.Events) == 0 {
-		notes = append(notes, "No events: no distance–time or magnitude–frequency chart.")
-	} else {
+	if len(r.Result.Events)+len(r.Result.RateEvents) > 0 {
 		dt, err := r.DistanceTimePicture()
 		if err != nil {
 			return nil, nil, err
 		}
-		ps = append(ps, picture{DistanceTimeFile, "Distance–time: whether the events follow the triggering front of pressure diffusion, r = √(4πDt) " +
+		caption := "Distance–time: whether the events follow the triggering front of pressure diffusion, r = √(4πDt) " +
 			"(Shapiro et al. 1997), with D from the initial apertures and the fluid; events far above it slipped on faster (dilated) " +
-			"paths or on fractures pressured by an earlier stage.", dt})
+			"paths or on fractures pressured by an earlier stage."
+		if len(dt.SmallEvents) > 0 {
+			caption += " Grey dots: the sub-resolution events of the seismicity-rate model."
+		}
+		ps = append(ps, picture{DistanceTimeFile, caption, dt})
+	}
+	if len(r.Result.Events) == 0 {
+		notes = append(notes, "No ruptures: no magnitude–frequency chart.")
+		if len(r.Result.RateEvents) == 0 {
+			notes = append(notes, "No events: no distance–time chart.")
+		}
+	} else {
 		mf, err := r.MagnitudeFrequencyPicture()
 		switch {
 		case errors.Is(err, errFewEvents):
@@ -128,18 +141,27 @@ func (r *Run) DistanceTimePicture() (*report.DistanceTime, error) {
 		Diffusivities: []float64{d},
 	}
 	for _, e := range r.Result.Events {
-		start, from := 0.0, clusters[-1]
-		if e.Stage >= 0 && e.Stage < len(r.Result.Stages) {
-			start, from = r.Result.Stages[e.Stage].Start, clusters[e.Stage]
-		}
-		dist := math.Inf(1)
-		at := r3.Vec{X: e.X, Y: e.Y, Z: -e.Depth}
-		for _, c := range from {
-			dist = math.Min(dist, r3.Norm(r3.Sub(at, c)))
-		}
-		dt.Events = append(dt.Events, report.DistanceEvent{Time: e.Time - start, Distance: dist, Magnitude: e.Magnitude})
+		dt.Events = append(dt.Events, r.distanceEvent(e, clusters))
+	}
+	for _, e := range r.Result.RateEvents {
+		dt.SmallEvents = append(dt.SmallEvents, r.distanceEvent(e, clusters))
 	}
 	return dt, nil
+}
+
+// distanceEvent places event e on the distance–time chart: time since the
+// start of its stage, distance from the nearest cluster of that stage.
+func (r *Run) distanceEvent(e sim.Event, clusters map[int][]r3.Vec) report.DistanceEvent {
+	start, from := 0.0, clusters[-1]
+	if e.Stage >= 0 && e.Stage < len(r.Result.Stages) {
+		start, from = r.Result.Stages[e.Stage].Start, clusters[e.Stage]
+	}
+	dist := math.Inf(1)
+	at := r3.Vec{X: e.X, Y: e.Y, Z: -e.Depth}
+	for _, c := range from {
+		dist = math.Min(dist, r3.Norm(r3.Sub(at, c)))
+	}
+	return report.DistanceEvent{Time: e.Time - start, Distance: dist, Magnitude: e.Magnitude}
 }
 
 // clusterPoints returns the perforation clusters of each stage (by

@@ -27,6 +27,10 @@ type DistanceTime struct {
 	Note  string // Printed under the chart, e.g. how distance is measured.
 	// Events: time, distance from the injection point and magnitude.
 	Events []DistanceEvent
+	// SmallEvents are events below the resolution of the fractures (a
+	// seismicity-rate catalogue), drawn as small dots beneath Events
+	// whatever their magnitude.
+	SmallEvents []DistanceEvent
 	// Start is the start of injection, s: the front is drawn from it.
 	Start float64
 	// Diffusivities D, m²/s, > 0: one front each.
@@ -56,9 +60,14 @@ func (d *DistanceTime) validate() error {
 	if !finite(d.Start) {
 		return fmt.Errorf("report: distance–time Start = %g s: must be finite", d.Start)
 	}
-	for i, e := range d.Events {
-		if !finite(e.Time) || !finite(e.Distance) || e.Distance < 0 || !finite(e.Magnitude) {
-			return fmt.Errorf("report: distance–time Events[%d] = (t %g s, r %g m, Mw %g): need finite values and r ≥ 0", i, e.Time, e.Distance, e.Magnitude)
+	for _, list := range []struct {
+		name   string
+		events []DistanceEvent
+	}{{"Events", d.Events}, {"SmallEvents", d.SmallEvents}} {
+		for i, e := range list.events {
+			if !finite(e.Time) || !finite(e.Distance) || e.Distance < 0 || !finite(e.Magnitude) {
+				return fmt.Errorf("report: distance–time %s[%d] = (t %g s, r %g m, Mw %g): need finite values and r ≥ 0", list.name, i, e.Time, e.Distance, e.Magnitude)
+			}
 		}
 	}
 	for i, D := range d.Diffusivities {
@@ -100,6 +109,9 @@ func (d *DistanceTime) render(s Size) (*page, chartFrame, error) {
 		tLo, tHi, rHi = math.Min(tLo, e.Time), math.Max(tHi, e.Time), math.Max(rHi, e.Distance)
 		mws[i] = e.Magnitude
 	}
+	for _, e := range d.SmallEvents {
+		tLo, tHi, rHi = math.Min(tLo, e.Time), math.Max(tHi, e.Time), math.Max(rHi, e.Distance)
+	}
 	lo, hi := timeRange([]float64{tLo, tHi})
 	setTimeAxis(p, lo, hi)
 	if rHi == 0 {
@@ -108,8 +120,14 @@ func (d *DistanceTime) render(s Size) (*page, chartFrame, error) {
 	p.Y.Min, p.Y.Max, p.Y.Padding = 0, 1.1*rHi, 0
 	p.Add(stageLines{marks: d.Stages, labels: true})
 	levels := magnitudeLevels(mws)
+	smallSty := draw.GlyphStyle{Color: fainter(colourEvent, len(d.SmallEvents), floorSmallEvent), Radius: radiusSmallEvent, Shape: draw.CircleGlyph{}}
+	p.Add(eventDots{events: d.SmallEvents, style: smallSty})
 	p.Add(eventRings{events: d.Events, levels: levels})
 	var rows []keyRow
+	if len(d.SmallEvents) > 0 {
+		smallSty.Color, smallSty.Radius = colourEvent, 2*radiusSmallEvent
+		rows = append(rows, keyRow{text: "Sub-resolution event", height: 4*radiusSmallEvent + 2, symbol: glyphSymbol(smallSty)})
+	}
 	for i, D := range d.Diffusivities {
 		st := styleOf(i + 1) // Blue is the events'.
 		p.Add(frontLine{D: D, start: d.Start, style: st.line})
@@ -143,6 +161,23 @@ func (er eventRings) Plot(c draw.Canvas, p *plot.Plot) {
 		if c.Contains(pt) {
 			sty.Radius = eventRadius(e.Magnitude, er.levels)
 			c.DrawGlyphNoClip(sty, pt)
+		}
+	}
+}
+
+// eventDots draws events as equal dots at (time in h, distance). It is a
+// plot.Plotter.
+type eventDots struct {
+	events []DistanceEvent
+	style  draw.GlyphStyle
+}
+
+// Plot implements plot.Plotter.
+func (ed eventDots) Plot(c draw.Canvas, p *plot.Plot) {
+	tx, ty := p.Transforms(&c)
+	for _, e := range ed.events {
+		if pt := (vg.Point{X: tx(e.Time / secondsPerHour), Y: ty(e.Distance)}); c.Contains(pt) {
+			c.DrawGlyphNoClip(ed.style, pt)
 		}
 	}
 }

@@ -85,6 +85,12 @@ func (m *Map) keyRows(l mapLayers) []keyRow {
 		rows = append(rows, keyRow{text: "Stimulated-area outline",
 			symbol: lineSymbol(styleOutline)})
 	}
+	if len(m.SmallEvents) > 0 {
+		rows = append(rows, keyRow{text: "Sub-resolution event", height: 4*radiusSmallEvent + 2,
+			symbol: func(c draw.Canvas, at vg.Point) {
+				c.DrawGlyphNoClip(draw.GlyphStyle{Color: colourSmallEvent, Radius: 2 * radiusSmallEvent, Shape: draw.CircleGlyph{}}, at)
+			}})
+	}
 	if len(l.levels) > 0 {
 		rows = append(rows, keyRow{text: "Synthetic events"})
 		for _, mw := range l.levels {

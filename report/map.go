@@ -89,7 +89,11 @@ type Map struct {
 	Wells    []Well
 	Clusters []Cluster
 	Events   []Event
-	Outline  []Polygon // Stimulated area, drawn as outlines.
+	// SmallEvents are the epicentres of events below the resolution of
+	// the fractures (a seismicity-rate catalogue): small dots beneath the
+	// rings of Events, fainter the more there are.
+	SmallEvents []Point
+	Outline     []Polygon // Stimulated area, drawn as outlines.
 	// Conduits are primary conduits (map-view segments), drawn as dashed
 	// dark lines above the traces.
 	Conduits []Segment
@@ -167,6 +171,11 @@ func (m *Map) validate() error {
 	if m.SHmax != nil && !finite(*m.SHmax) {
 		return fmt.Errorf("report: map SHmax azimuth = %g rad: must be finite", *m.SHmax)
 	}
+	for i, p := range m.SmallEvents {
+		if err := checkPoint("SmallEvents", i, "", p); err != nil {
+			return err
+		}
+	}
 	for i, e := range m.Events {
 		if err := checkPoint("Events", i, "At", e.At); err != nil {
 			return err
@@ -196,7 +205,11 @@ func (m *Map) validateScale() error { return checkColourRange("map", m.Colour) }
 // checkPoint returns an error when p has a NaN or infinite coordinate.
 func checkPoint(list string, i int, what string, p Point) error {
 	if !finite(p.East) || !finite(p.North) {
-		return fmt.Errorf("report: map %s[%d].%s = (%g, %g) m: coordinates must be finite", list, i, what, p.East, p.North)
+		field := fmt.Sprintf("%s[%d]", list, i)
+		if what != "" {
+			field += "." + what
+		}
+		return fmt.Errorf("report: map %s = (%g, %g) m: coordinates must be finite", field, p.East, p.North)
 	}
 	return nil
 }
@@ -285,6 +298,9 @@ func (m *Map) bounds() (Extent, bool) {
 	}
 	for _, e := range m.Events {
 		add(e.At)
+	}
+	for _, p := range m.SmallEvents {
+		add(p)
 	}
 	for _, poly := range m.Outline {
 		for _, ring := range poly {

@@ -196,6 +196,9 @@ func TestMapDegenerate(t *testing.T) {
 			[]probe{{fx: 2, fy: 2, colour: mid}, {fx: 5, fy: 8, colour: mid}}},
 		{"single point fitted", Map{Events: []Event{{At: Point{3, 4}, Magnitude: -1}}},
 			[]probe{{fx: 3, fy: 4, colour: white}, {fx: 3, fy: 4, colour: ring, r: ringRadius + 2}}},
+		{"sub-resolution event", Map{Extent: ext, SmallEvents: []Point{{30, 40}}},
+			// colourSmallEvent (0, 114, 178) at alpha 200 over white.
+			[]probe{{fx: 30, fy: 40, colour: color.NRGBA{55, 144, 195, 255}}, {fx: 60, fy: 40, colour: color.NRGBA{55, 144, 195, 255}, absent: true}}},
 		{"vertical well", Map{Wells: []Well{{Name: "V", Path: []Point{{0, 0}}}}},
 			[]probe{{fx: 0, fy: 0, colour: colourWell}}},
 		{"features outside", Map{Extent: ext, Traces: []Trace{{A: Point{-500, -500}, B: Point{-400, 900}, Value: 1}},
@@ -247,6 +250,7 @@ func TestMapErrors(t *testing.T) {
 		{"infinite well point", Map{Extent: ext, Wells: []Well{{Path: []Point{{0, 0}, {inf, 0}}}}}, Size{}, "Path[1]"},
 		{"NaN cluster", Map{Extent: ext, Clusters: []Cluster{{At: Point{0, nan}}}}, Size{}, "Clusters[0]"},
 		{"NaN magnitude", Map{Extent: ext, Events: []Event{{Magnitude: nan}}}, Size{}, "Magnitude"},
+		{"NaN small event", Map{Extent: ext, SmallEvents: []Point{{0, 0}, {nan, 1}}}, Size{}, "SmallEvents[1] ="},
 		{"short ring", Map{Extent: ext, Outline: []Polygon{{{{0, 0}, {1, 1}}}}}, Size{}, "at least 3"},
 		{"NaN stress tick", Map{Extent: ext, StressTicks: []StressTick{{At: Point{nan, 0}}}}, Size{}, "StressTicks[0].At"},
 		{"infinite tick azimuth", Map{Extent: ext, StressTicks: []StressTick{{At: Point{1, 1}, Azimuth: inf}}}, Size{}, "StressTicks[0].Azimuth"},

@@ -29,6 +29,9 @@ const (
 var (
 	colourWell  = color.NRGBA{26, 26, 26, 255}
 	colourEvent = color.NRGBA{96, 96, 96, 150}
+	// colourSmallEvent: Okabe–Ito blue, apart from the grey traces and
+	// rings and from the vermillion outline.
+	colourSmallEvent = color.NRGBA{0, 114, 178, 200}
 	// styleConduit: dark and dashed, so it differs from the solid well
 	// and from every viridis trace in greyscale too.
 	styleConduit = draw.LineStyle{Color: colourWell, Width: widthConduit, Dashes: []vg.Length{5, 2.5}}
@@ -36,7 +39,7 @@ var (
 )
 
 // mapLayers draws the features of a Map in order: stress ticks, grey
-// traces, events,
+// traces, small events, events,
 // coloured traces (latest first, so the earliest lie on top), conduits,
 // outlines, wells, clusters, the SHmax arrow and the labels. It is a
 // plot.Plotter.
@@ -60,6 +63,7 @@ func (l mapLayers) Plot(c draw.Canvas, p *plot.Plot) {
 	}
 	l.stressTicks(c, at)
 	l.traces(c, at, order[:split])
+	l.smallEvents(c, at)
 	l.events(c, at)
 	l.traces(c, at, order[split:])
 	l.conduits(c, at)
@@ -152,13 +156,32 @@ func (l mapLayers) conduits(c draw.Canvas, at func(Point) vg.Point) {
 // eventColour returns the circle colour for a catalogue of n events: the
 // key's colour up to fewEvents, then fainter as 1/√n (down to an alpha of
 // 40/255) so that dense catalogues do not hide the traces.
-func eventColour(n int) color.NRGBA {
+func eventColour(n int) color.NRGBA { return fainter(colourEvent, n, 40) }
+
+// fainter returns colour c for n marks: c up to fewEvents, then fainter as
+// 1/√n, down to an alpha of floor/255.
+func fainter(c color.NRGBA, n int, floor uint8) color.NRGBA {
 	const fewEvents = 200
-	c := colourEvent
 	if n > fewEvents {
-		c.A = uint8(math.Max(40, float64(colourEvent.A)*math.Sqrt(fewEvents/float64(n))))
+		c.A = uint8(math.Max(float64(floor), float64(c.A)*math.Sqrt(fewEvents/float64(n))))
 	}
 	return c
+}
+
+// floorSmallEvent is the least alpha of the sub-resolution dots, higher
+// than the rings' because a dot is a tenth of a ring's area.
+const floorSmallEvent = 90
+
+// radiusSmallEvent is the dot radius of a sub-resolution event, points.
+const radiusSmallEvent = 1.0
+
+func (l mapLayers) smallEvents(c draw.Canvas, at func(Point) vg.Point) {
+	sty := draw.GlyphStyle{Color: fainter(colourSmallEvent, len(l.m.SmallEvents), floorSmallEvent), Radius: radiusSmallEvent, Shape: draw.CircleGlyph{}}
+	for _, p := range l.m.SmallEvents {
+		if pt := at(p); c.Contains(pt) {
+			c.DrawGlyphNoClip(sty, pt)
+		}
+	}
 }
 
 // eventRadius returns the circle radius of magnitude mw, points: linear in

@@ -66,6 +66,31 @@ func TestDistanceTimePicture(t *testing.T) {
 	}
 }
 
+// Sub-resolution events are grey dots beneath the rings: 100 of them add
+// pixels of their colour that the chart without them does not have.
+func TestDistanceTimeSmallEvents(t *testing.T) {
+	dot := blendOverWhite(colourEvent)
+	count := func(d *DistanceTime) int {
+		t.Helper()
+		pg, _, err := d.render(DefaultSize)
+		if err != nil {
+			t.Fatal(err)
+		}
+		return countNear(decodeImage(t, pg), dot, 3)
+	}
+	d := demoDistanceTime()
+	without := count(d)
+	for k := range 100 {
+		tm := d.Start + 3600*(0.2+0.03*float64(k))
+		d.SmallEvents = append(d.SmallEvents, DistanceEvent{Time: tm, Distance: 0.5 * triggeringFront(0.5, d.Start, tm), Magnitude: -1.5})
+	}
+	with := count(d)
+	t.Logf("%d pixels of the dots' colour without them, %d with", without, with)
+	if with < without+300 {
+		t.Errorf("%d pixels of the dots' colour with 100 dots, %d without: want ≥ 300 more (a 1 pt dot covers about 15 px)", with, without)
+	}
+}
+
 func TestDistanceTimeErrors(t *testing.T) {
 	for _, tc := range []struct {
 		name string
@@ -73,6 +98,7 @@ func TestDistanceTimeErrors(t *testing.T) {
 		want string
 	}{
 		{"negative distance", DistanceTime{Events: []DistanceEvent{{Distance: -1}}}, "Events[0]"},
+		{"NaN small event", DistanceTime{SmallEvents: []DistanceEvent{{Time: math.NaN()}}}, "SmallEvents[0]"},
 		{"zero diffusivity", DistanceTime{Diffusivities: []float64{0}}, "Diffusivities[0] = 0"},
 		{"NaN start", DistanceTime{Start: math.NaN()}, "Start"},
 	} {

@@ -19,7 +19,23 @@ func ReadEvents(r io.Reader, name string, s *scenarios.Scenario) ([]Event, error
 	stages := stageIndex(s)
 	var out []Event
 	err := readRecords(r, name, EventsHeader, func(rec []string) error {
-		e, err := parseEvent(rec, stages)
+		e, err := parseEvent(rec, stages, false)
+		if err == nil {
+			out = append(out, e)
+		}
+		return err
+	})
+	return out, err
+}
+
+// ReadRateEvents reads a rate_events.csv written by WriteRateEvents for
+// scenario s: the columns of events.csv with slip and rupture area empty
+// (read as NaN). name is used in messages.
+func ReadRateEvents(r io.Reader, name string, s *scenarios.Scenario) ([]Event, error) {
+	stages := stageIndex(s)
+	var out []Event
+	err := readRecords(r, name, RateEventsHeader, func(rec []string) error {
+		e, err := parseEvent(rec, stages, true)
 		if err == nil {
 			out = append(out, e)
 		}
@@ -71,11 +87,20 @@ func noEOF(err error) error {
 	return err
 }
 
-// parseEvent converts one record; every number must be finite.
-func parseEvent(rec []string, stages map[string]int) (Event, error) {
+// parseEvent converts one record; every number must be finite, except
+// that a sub-resolution event (sub) has no slip or rupture area: those
+// fields must be empty and read as NaN.
+func parseEvent(rec []string, stages map[string]int, sub bool) (Event, error) {
 	var v [9]float64
 	cols := []int{0, 1, 2, 3, 4, 6, 7, 8, 9}
 	for k, c := range cols {
+		if sub && (c == 6 || c == 7) {
+			if rec[c] != "" {
+				return Event{}, fmt.Errorf("column %d = %q: a sub-resolution event has no slip or rupture area (want empty)", c+1, rec[c])
+			}
+			v[k] = math.NaN()
+			continue
+		}
 		x, err := strconv.ParseFloat(rec[c], 64)
 		if err != nil || math.IsNaN(x) || math.IsInf(x, 0) {
 			return Event{}, fmt.Errorf("column %d = %q: not a finite number", c+1, rec[c])

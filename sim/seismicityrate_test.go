@@ -1,8 +1,10 @@
 package sim
 
 import (
+	"bytes"
 	"math"
 	"slices"
+	"strings"
 	"testing"
 )
 
@@ -55,5 +57,28 @@ func TestSeismicityRateCatalogue(t *testing.T) {
 	}
 	if !slices.EqualFunc(again.RateEvents, res.RateEvents, same) || len(res.RateEvents) == 0 {
 		t.Error("the same seed drew another catalogue")
+	}
+	// rate_events.csv reads back to the same events, slip and area NaN.
+	var b bytes.Buffer
+	if err := WriteRateEvents(&b, s, res); err != nil {
+		t.Fatal(err)
+	}
+	read, err := ReadRateEvents(bytes.NewReader(b.Bytes()), "rate_events.csv", s)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(read) != len(res.RateEvents) {
+		t.Fatalf("%d sub-resolution events read, %d written", len(read), len(res.RateEvents))
+	}
+	for i, e := range read {
+		if !math.IsNaN(e.Slip) || !math.IsNaN(e.Area) {
+			t.Fatalf("event %d read back with slip %g m and area %g m²: want none", i, e.Slip, e.Area)
+		}
+		checkEventsEqual(t, i, e, res.RateEvents[i])
+	}
+	// A row with a slip is a rupture's, not a sub-resolution event's.
+	if _, err := ReadRateEvents(strings.NewReader(RateEventsHeader+"\n1,2,3,2600,5,1,0.1,,1e6,-1\n"), "rate_events.csv", s); err == nil ||
+		!strings.Contains(err.Error(), "rate_events.csv:2: column 7") {
+		t.Errorf("a slip in rate_events.csv: %v", err)
 	}
 }

@@ -98,7 +98,8 @@ var (
 
 // Headers of the run tables, comma-joined.
 var (
-	TimelineHeader  = strings.Join(TimelineTable.Header(), ",")
-	EventsHeader    = strings.Join(EventsTable.Header(), ",")
-	FracturesHeader = strings.Join(FracturesTable.Header(), ",")
+	TimelineHeader   = strings.Join(TimelineTable.Header(), ",")
+	EventsHeader     = strings.Join(EventsTable.Header(), ",")
+	RateEventsHeader = strings.Join(RateEventsTable.Header(), ",")
+	FracturesHeader  = strings.Join(FracturesTable.Header(), ",")
 )
