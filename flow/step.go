@@ -410,7 +410,7 @@ func (s *System) relax(x []float64, it int, maxChange float64) {
 func maxAbs(v []float64) float64 {
 	var m float64
 	for _, x := range v {
-		m = math.Max(m, math.Abs(x))
+		m = max(m, math.Abs(x))
 	}
 	return m
 }
@@ -478,7 +478,7 @@ func (s *System) leakoff(cur *State, dt float64) {
 func relChange(a, b []float64) float64 {
 	var d float64
 	for i := range a {
-		d = math.Max(d, math.Abs(a[i]-b[i])/math.Abs(b[i]))
+		d = max(d, math.Abs(a[i]-b[i])/math.Abs(b[i]))
 	}
 	return d
 }

@@ -420,7 +420,7 @@ func (s *System) ClusterRates(dst []float64, st *State) {
 func maxAbsDiff(a, b []float64) float64 {
 	var d float64
 	for i := range a {
-		d = math.Max(d, math.Abs(a[i]-b[i]))
+		d = max(d, math.Abs(a[i]-b[i]))
 	}
 	return d
 }

@@ -240,8 +240,8 @@ func (s *groupSystem) newton() error {
 		var step, zmax float64
 		for q, pos := range s.free {
 			s.z[pos] -= d[q]
-			step = math.Max(step, math.Abs(d[q]))
-			zmax = math.Max(zmax, math.Abs(s.z[pos]))
+			step = max(step, math.Abs(d[q]))
+			zmax = max(zmax, math.Abs(s.z[pos]))
 		}
 		if step <= 1e-13*(zmax+absScale) {
 			return nil
@@ -295,7 +295,7 @@ func (s *groupSystem) residual() {
 		switch t.status[i] {
 		case sliding:
 			sg := float64(t.sign[i])
-			travel := c.base.Travel[i] + math.Max(sg*s.z[k], 0)
+			travel := c.base.Travel[i] + max(sg*s.z[k], 0)
 			str, slope := c.strength(i, travel, eff, t.ruptured[i])
 			copy(row, s.a[k*n2:(k+1)*n2])
 			if eff > 0 {
@@ -527,7 +527,7 @@ func (s *groupSystem) apply() float64 {
 		if ds == 0 && dw == 0 {
 			continue
 		}
-		change = math.Max(change, math.Max(math.Abs(ds), math.Abs(dw)))
+		change = max(change, math.Abs(ds), math.Abs(dw))
 		t.ds[j], t.dw[j] = s.z[k], s.z[m+k]
 		c.loadNear(t.dt, t.dn, j, ds, dw)
 	}

@@ -76,7 +76,7 @@ func (t *trial) reset(c *Contact, pStart []float64) {
 // ∂μ/∂D (0 once weakened or ruptured).
 func (c *Contact) strength(i int, travel, eff float64, ruptured bool) (tau, slope float64) {
 	f := c.elems[i].Friction
-	eff = math.Max(eff, 0)
+	eff = max(eff, 0)
 	if ruptured {
 		return f.Cohesion + f.Residual*eff, 0
 	}

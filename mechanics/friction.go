@@ -56,14 +56,14 @@ func (f SlipWeakening) Onset() Coulomb {
 // Friction returns μ(D) = μs − (μs − μd)·min(D/Dc, 1) after slip D, m.
 // Negative slip counts as none.
 func (f SlipWeakening) Friction(slip float64) float64 {
-	w := math.Min(math.Max(slip, 0)/f.CriticalSlip, 1)
+	w := min(max(slip, 0)/f.CriticalSlip, 1)
 	return f.Static - (f.Static-f.Residual)*w
 }
 
 // Strength returns the shear strength τs = c + μ(D)·max(σn′, 0), Pa, after
 // slip D, m, at effective normal stress sigmaNEff = σn − p, Pa.
 func (f SlipWeakening) Strength(slip, sigmaNEff float64) float64 {
-	return f.Cohesion + f.Friction(slip)*math.Max(sigmaNEff, 0)
+	return f.Cohesion + f.Friction(slip)*max(sigmaNEff, 0)
 }
 
 // WeakeningRate returns W = (μs − μd)·max(σn′, 0)/Dc, Pa/m, the rate at
