@@ -101,9 +101,11 @@ var ErrContactNotConverged = errors.New("mechanics: friction contact did not con
 // that load each other strongly (crossing traces on short elements) can
 // make the sweeps stall or diverge; when they have not settled after
 // MaxIterations sweeps, a working set of up to 600 elements is solved as
-// one group, with every interaction within NearRadius in one Jacobian.
-// Elements outside the set are checked against their strength after every round,
-// and join it when they fail. Interactions between elements farther apart
+// one group, with every interaction within NearRadius in one Jacobian
+// (stability is still judged group by group, and ∂D/∂p is then the
+// response to a pressure change over the whole set). Elements outside
+// the set are checked against their strength after every round, and join
+// it when they fail. Interactions between elements farther apart
 // than NearRadius act through the committed tractions (the full operator
 // at every Commit): a within-step lag that vanishes as the step shrinks.
 //
@@ -281,7 +283,8 @@ func (c *Contact) Begin(st *ContactState, pStart []float64) {
 
 // SolveResult describes one solution of the trial.
 type SolveResult struct {
-	// Sweeps of the block Gauss–Seidel iterations; Active elements in the
+	// Sweeps of the block Gauss–Seidel iterations, with the solves of the
+	// whole working set that followed them if any; Active elements in the
 	// working set.
 	Sweeps, Active int
 	// MaxSlip is the largest slip increment of the step, m, outside
@@ -357,8 +360,8 @@ func (c *Contact) sweep(round int) (int, error) {
 	if len(t.work) <= mergedLimit {
 		return c.sweepMerged(round)
 	}
-	return c.set.MaxIterations, fmt.Errorf("%w in %d sweeps (round %d, %d elements active)", ErrContactNotConverged,
-		c.set.MaxIterations, round, len(t.work))
+	return c.set.MaxIterations, fmt.Errorf("%w in %d sweeps (round %d, %d elements active, more than the %d solved as one system)", ErrContactNotConverged,
+		c.set.MaxIterations, round, len(t.work), mergedLimit)
 }
 
 // settled reports whether the largest change of a sweep, m, is within the
@@ -400,6 +403,9 @@ const (
 func (c *Contact) sweepMerged(round int) (int, error) {
 	t := &c.trial
 	c.relaxation = 1
+	// The whole set's matrix (up to 1 200² numbers) is not kept for later
+	// rounds and steps, which start with the sweeps again.
+	defer delete(c.caches, mergedGroup)
 	const passes = 8
 	for k := 1; k <= passes; k++ {
 		change, err := c.solveGroup(mergedGroup, slices.Clone(t.work))

@@ -62,9 +62,10 @@ const (
 func (c *Contact) solveGroup(g int, elems []int) (float64, error) {
 	s := c.newGroupSystem(g, elems)
 	err := s.settle()
-	// Each rupture leaves its patch at residual friction, so a further
-	// unstable patch (another group's, when the whole working set is
-	// solved at once) has other elements: at most one rupture per element.
+	// Each rupture leaves its group's sliding patch at residual friction
+	// (no weakening, so stable), so a further unstable patch is another
+	// group's, when the whole working set is solved at once: at most one
+	// rupture per group.
 	for range elems {
 		var u *unstable
 		if !errors.As(err, &u) {
@@ -190,7 +191,15 @@ func (s *groupSystem) settle() error {
 			return nil
 		}
 	}
-	return fmt.Errorf("%w: group %d's element states kept changing", ErrContactNotConverged, s.group)
+	return fmt.Errorf("%w: %s's element states kept changing", ErrContactNotConverged, s.name())
+}
+
+// name names the system in messages: a group, or the whole working set.
+func (s *groupSystem) name() string {
+	if s.group == mergedGroup {
+		return "the whole working set"
+	}
+	return fmt.Sprintf("group %d", s.group)
 }
 
 // fix sets the fixed positions of z for the current statuses and lists
@@ -231,7 +240,7 @@ func (s *groupSystem) newton() error {
 		if refresh || !s.cache.ok || string(key) != string(s.cache.key) {
 			s.cache.key, s.cache.ok = key, s.cache.lu.factorize(slices.Clone(s.jac), nf)
 			if !s.cache.ok {
-				return fmt.Errorf("%w: singular system in group %d", ErrContactNotConverged, s.group)
+				return fmt.Errorf("%w: singular system in %s", ErrContactNotConverged, s.name())
 			}
 			refresh = false
 		}
@@ -387,24 +396,49 @@ func sign(v float64) float64 {
 // factorization exists). For an unstable patch it returns the smallest
 // eigenvalue of B, Pa·m (< 0), and the local indices of the sliding
 // elements; for a stable one +Inf.
+//
+// The patch is one group's (trace's) sliding elements: when the whole
+// working set is solved at once, each group's patch is checked in turn and
+// the first unstable one is returned, so that ruptures are judged, and
+// run, trace by trace whichever way the contact problem was solved.
 func (s *groupSystem) stability() (float64, []int) {
-	var patch []int
-	weakening := false
+	var groups []int
+	patches := map[int][]int{}
 	for k, i := range s.elems {
-		if s.c.trial.status[i] == sliding {
-			patch = append(patch, k)
-			weakening = weakening || s.slopes[k] != 0
+		if s.c.trial.status[i] != sliding {
+			continue
+		}
+		g := s.c.elems[i].Group
+		if _, ok := patches[g]; !ok {
+			groups = append(groups, g)
+		}
+		patches[g] = append(patches[g], k)
+	}
+	for _, g := range groups {
+		if lambda := s.patchStability(patches[g]); lambda < 0 {
+			return lambda, patches[g]
 		}
 	}
+	return math.Inf(1), nil
+}
+
+// patchStability returns the smallest eigenvalue of B for the sliding
+// elements patch (local indices) when it is not positive definite, else
+// +Inf; a patch with no weakening element is stable.
+func (s *groupSystem) patchStability(patch []int) float64 {
+	weakening := false
+	for _, k := range patch {
+		weakening = weakening || s.slopes[k] != 0
+	}
 	if !weakening {
-		return math.Inf(1), patch
+		return math.Inf(1)
 	}
 	b := s.patchMatrix(patch, s.slopes, s.effAt)
 	var ch mat.Cholesky
 	if ch.Factorize(mat.NewSymDense(len(patch), b)) {
-		return math.Inf(1), patch
+		return math.Inf(1)
 	}
-	return math.Min(smallestEigen(b, len(patch)), 0), patch
+	return math.Min(smallestEigen(b, len(patch)), 0)
 }
 
 // effAt returns σn′ of local element k at z.

@@ -375,3 +375,59 @@ func TestSlipFrontFactor(t *testing.T) {
 		}
 	}
 }
+
+// When the whole working set is solved as one system, instability is still
+// judged trace by trace: with every element of a long slip-weakening fault
+// (group 0, 80 m, four nucleation half-lengths) and of a far fault of
+// constant friction (group 1) sliding, the unstable patch is group 0's
+// sliding elements alone, not the stable fault's too (Uenishi & Rice 2003
+// for the first; a fault that does not weaken cannot become unstable).
+func TestContactStabilityByGroup(t *testing.T) {
+	const sigmaE = 20e6
+	weak := SlipWeakening{Static: 0.6, Residual: 0.5, CriticalSlip: 2e-3} // a_n ≈ 23 m
+	steady := SlipWeakening{Static: 0.4, Residual: 0.4, CriticalSlip: 2e-3}
+	var elems []elastic.Element
+	var ce []ContactElement
+	for g, fault := range []struct {
+		y, half float64
+		n       int
+		f       SlipWeakening
+	}{{0, 40, 80, weak}, {300, 10, 20, steady}} {
+		for i := range fault.n {
+			x0 := -fault.half + 2*fault.half*float64(i)/float64(fault.n)
+			x1 := -fault.half + 2*fault.half*float64(i+1)/float64(fault.n)
+			e := elastic.Element{P0: r2.Vec{X: x0, Y: fault.y}, P1: r2.Vec{X: x1, Y: fault.y}, Height: 1}
+			elems = append(elems, e)
+			ce = append(ce, ContactElement{Element: e, Group: g, Shear: fault.f.Static*sigmaE + 1e5, Normal: sigmaE, Friction: fault.f})
+		}
+	}
+	op, err := elastic.NewDense(elems, testRock, elastic.Settings{PlaneStrain: true})
+	if err != nil {
+		t.Fatal(err)
+	}
+	c, err := NewContact(op, ce, ContactSettings{NearRadius: 1000, Tolerance: 1e-10})
+	if err != nil {
+		t.Fatal(err)
+	}
+	c.Begin(c.NewState(), uniform(len(elems), 0))
+	all := make([]int, len(elems))
+	for i := range all {
+		all[i] = i
+		c.trial.status[i], c.trial.sign[i] = sliding, 1
+	}
+	s := c.newGroupSystem(mergedGroup, all)
+	s.fix()
+	s.residual()
+	lambda, patch := s.stability()
+	if !(lambda < 0) {
+		t.Fatalf("smallest eigenvalue %g: the 80 m weakening fault should be unstable", lambda)
+	}
+	if len(patch) != 80 {
+		t.Errorf("unstable patch of %d elements, want the weakening fault's 80", len(patch))
+	}
+	for _, k := range patch {
+		if g := ce[s.elems[k]].Group; g != 0 {
+			t.Fatalf("the unstable patch holds element %d of group %d, the fault of constant friction", s.elems[k], g)
+		}
+	}
+}
