@@ -128,56 +128,45 @@ const eventTimeSlack = 5e-4
 func (r *Run) shows(t float64) bool { return t <= r.Time+eventTimeSlack }
 
 // readEvents adds the events up to the run's time from EventsFile, and
-// the sub-resolution events from RateEventsFile; a stopped run has none to
-// read.
+// the sub-resolution events from RateEventsFile when the scenario has a
+// [seismicity_rate] table; a stopped run has none to read.
 func (r *Run) readEvents(dir string) error {
-	f, err := os.Open(filepath.Join(dir, EventsFile))
-	if errors.Is(err, fs.ErrNotExist) && !r.Complete {
-		r.Notes = append(r.Notes, "no "+EventsFile+": the stopped run wrote no events")
-		return nil
-	}
-	if err != nil {
+	events, err := r.readCatalogue(dir, EventsFile, "events", sim.ReadEvents)
+	if err != nil || events == nil {
 		return err
 	}
-	defer f.Close()
-	events, err := sim.ReadEvents(f, EventsFile, r.Scenario)
-	if err != nil {
-		return err
-	}
-	for _, e := range events {
-		if r.shows(e.Time) {
-			r.Result.Events = append(r.Result.Events, e)
-		}
-	}
+	r.Result.Events = events
 	if !r.Scenario.SeismicityRate.Active() {
 		return nil
 	}
-	return r.readRateEvents(dir)
+	r.Result.RateEvents, err = r.readCatalogue(dir, RateEventsFile, "sub-resolution events", sim.ReadRateEvents)
+	return err
 }
 
-// readRateEvents adds the sub-resolution events up to the run's time from
-// RateEventsFile, written by a run with a [seismicity_rate] table; a
-// stopped run has none to read.
-func (r *Run) readRateEvents(dir string) error {
-	f, err := os.Open(filepath.Join(dir, RateEventsFile))
+// readCatalogue reads the catalogue file of the folder dir with read and
+// returns its events up to the run's time (never nil); a stopped run that
+// wrote no such file returns nil and a note saying so.
+func (r *Run) readCatalogue(dir, file, what string, read func(io.Reader, string, *scenarios.Scenario) ([]sim.Event, error)) ([]sim.Event, error) {
+	f, err := os.Open(filepath.Join(dir, file))
 	if errors.Is(err, fs.ErrNotExist) && !r.Complete {
-		r.Notes = append(r.Notes, "no "+RateEventsFile+": the stopped run wrote no sub-resolution events")
-		return nil
+		r.Notes = append(r.Notes, "no "+file+": the stopped run wrote no "+what)
+		return nil, nil
 	}
 	if err != nil {
-		return err
+		return nil, err
 	}
 	defer f.Close()
-	events, err := sim.ReadRateEvents(f, RateEventsFile, r.Scenario)
+	all, err := read(f, file, r.Scenario)
 	if err != nil {
-		return err
+		return nil, err
 	}
-	for _, e := range events {
+	shown := []sim.Event{}
+	for _, e := range all {
 		if r.shows(e.Time) {
-			r.Result.RateEvents = append(r.Result.RateEvents, e)
+			shown = append(shown, e)
 		}
 	}
-	return nil
+	return shown, nil
 }
 
 func readScenario(path string) (*scenarios.Scenario, error) {

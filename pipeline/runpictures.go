@@ -89,7 +89,7 @@ func (r *Run) runPictures() (ps []picture, notes []string, err error) {
 			"(Shapiro et al. 1997), with D from the initial apertures and the fluid; events far above it slipped on faster (dilated) " +
 			"paths or on fractures pressured by an earlier stage."
 		if len(dt.SmallEvents) > 0 {
-			caption += " Grey dots: the sub-resolution events of the seismicity-rate model."
+			caption += " Small blue dots: the sub-resolution events of the seismicity-rate model."
 		}
 		ps = append(ps, picture{DistanceTimeFile, caption, dt})
 	}

@@ -120,12 +120,12 @@ func (d *DistanceTime) render(s Size) (*page, chartFrame, error) {
 	p.Y.Min, p.Y.Max, p.Y.Padding = 0, 1.1*rHi, 0
 	p.Add(stageLines{marks: d.Stages, labels: true})
 	levels := magnitudeLevels(mws)
-	smallSty := draw.GlyphStyle{Color: fainter(colourEvent, len(d.SmallEvents), floorSmallEvent), Radius: radiusSmallEvent, Shape: draw.CircleGlyph{}}
+	smallSty := draw.GlyphStyle{Color: fainter(colourSmallEvent, len(d.SmallEvents), floorSmallEvent), Radius: radiusSmallEvent, Shape: draw.CircleGlyph{}}
 	p.Add(eventDots{events: d.SmallEvents, style: smallSty})
 	p.Add(eventRings{events: d.Events, levels: levels})
 	var rows []keyRow
 	if len(d.SmallEvents) > 0 {
-		smallSty.Color, smallSty.Radius = colourEvent, 2*radiusSmallEvent
+		smallSty.Color, smallSty.Radius = colourSmallEvent, 2*radiusSmallEvent
 		rows = append(rows, keyRow{text: "Sub-resolution event", height: 4*radiusSmallEvent + 2, symbol: glyphSymbol(smallSty)})
 	}
 	for i, D := range d.Diffusivities {

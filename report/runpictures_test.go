@@ -66,10 +66,11 @@ func TestDistanceTimePicture(t *testing.T) {
 	}
 }
 
-// Sub-resolution events are grey dots beneath the rings: 100 of them add
-// pixels of their colour that the chart without them does not have.
+// Sub-resolution events are blue dots (as on the map) beneath the rings:
+// 100 of them add pixels of their colour that the chart without them does
+// not have.
 func TestDistanceTimeSmallEvents(t *testing.T) {
-	dot := blendOverWhite(colourEvent)
+	dot := blendOverWhite(colourSmallEvent)
 	count := func(d *DistanceTime) int {
 		t.Helper()
 		pg, _, err := d.render(DefaultSize)

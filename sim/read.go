@@ -16,26 +16,23 @@ import (
 // ReadEvents reads an events.csv written by WriteEvents for scenario s
 // (whose pumping order names the stages). name is used in messages.
 func ReadEvents(r io.Reader, name string, s *scenarios.Scenario) ([]Event, error) {
-	stages := stageIndex(s)
-	var out []Event
-	err := readRecords(r, name, EventsHeader, func(rec []string) error {
-		e, err := parseEvent(rec, stages, false)
-		if err == nil {
-			out = append(out, e)
-		}
-		return err
-	})
-	return out, err
+	return readCatalogue(r, name, s, EventsHeader, false)
 }
 
 // ReadRateEvents reads a rate_events.csv written by WriteRateEvents for
 // scenario s: the columns of events.csv with slip and rupture area empty
 // (read as NaN). name is used in messages.
 func ReadRateEvents(r io.Reader, name string, s *scenarios.Scenario) ([]Event, error) {
+	return readCatalogue(r, name, s, RateEventsHeader, true)
+}
+
+// readCatalogue reads a catalogue with the given header; sub marks
+// sub-resolution events (see parseEvent).
+func readCatalogue(r io.Reader, name string, s *scenarios.Scenario, header string, sub bool) ([]Event, error) {
 	stages := stageIndex(s)
 	var out []Event
-	err := readRecords(r, name, RateEventsHeader, func(rec []string) error {
-		e, err := parseEvent(rec, stages, true)
+	err := readRecords(r, name, header, func(rec []string) error {
+		e, err := parseEvent(rec, stages, sub)
 		if err == nil {
 			out = append(out, e)
 		}

@@ -223,8 +223,8 @@ func TestDemoInvariants(t *testing.T) {
 
 // checkMcGarr: the largest event's moment stays below G·ΔV, McGarr's
 // (2014) bound on the largest event induced by injecting ΔV
-// (mechanics.MaxInducedMoment). It returns the largest moment, N·m.
-func checkMcGarr(t *testing.T, s *scenarios.Scenario, res *Result) float64 {
+// (mechanics.MaxInducedMoment).
+func checkMcGarr(t *testing.T, s *scenarios.Scenario, res *Result) {
 	t.Helper()
 	var largest float64
 	for _, e := range res.Events {
@@ -233,7 +233,6 @@ func checkMcGarr(t *testing.T, s *scenarios.Scenario, res *Result) float64 {
 	if bound := mechanics.MaxInducedMoment(s.Rock.ShearModulus, res.Injected); !(largest <= bound) {
 		t.Errorf("largest event M0 = %.3g N·m exceeds McGarr's bound G·ΔV = %.3g N·m", largest, bound)
 	}
-	return largest
 }
 
 // Every stage whose bottom-hole pressure exceeded Shmin is named by one
