@@ -2,6 +2,7 @@ package sim
 
 import (
 	"bytes"
+	"fmt"
 	"math"
 	"slices"
 	"strings"
@@ -75,6 +76,19 @@ func TestSeismicityRateCatalogue(t *testing.T) {
 			t.Fatalf("event %d read back with slip %g m and area %g m²: want none", i, e.Slip, e.Area)
 		}
 		checkEventsEqual(t, i, e, res.RateEvents[i])
+	}
+	// The stage table printed for people counts them; without the model
+	// it says nothing of them.
+	var table bytes.Buffer
+	if err := WriteStageTable(&table, res); err != nil {
+		t.Fatal(err)
+	}
+	if want := fmt.Sprintf("sub-resolution events (seismicity-rate model): %d drawn, ", len(res.RateEvents)); !strings.Contains(table.String(), want) {
+		t.Errorf("stage table without %q:\n%s", want, table.String())
+	}
+	table.Reset()
+	if err := WriteStageTable(&table, &Result{}); err != nil || strings.Contains(table.String(), "sub-resolution") {
+		t.Errorf("stage table of a run without the model: %v\n%s", err, table.String())
 	}
 	// A row with a slip is a rupture's, not a sub-resolution event's.
 	if _, err := ReadRateEvents(strings.NewReader(RateEventsHeader+"\n1,2,3,2600,5,1,0.1,,1e6,-1\n"), "rate_events.csv", s); err == nil ||

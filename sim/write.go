@@ -483,6 +483,17 @@ func WriteStageTable(w io.Writer, res *Result) error {
 	fmt.Fprintf(&b, "total: %.4g m3 injected, stimulated area %.0f m2 (fracture surface %.0f m2), %s, peak BHP %.2f MPa\n",
 		res.Injected, res.StimulatedArea, res.FractureArea, plural.S(len(res.Events), "event"), res.PeakBHP/1e6)
 	fmt.Fprintf(&b, "slip moment: %.3g N·m seismic (the events), %.3g N·m aseismic\n", res.SeismicMoment, res.AseismicMoment)
+	if res.RateExpected > 0 { // a [seismicity_rate] table
+		largest := math.Inf(-1)
+		for _, e := range res.RateEvents {
+			largest = max(largest, e.Magnitude)
+		}
+		fmt.Fprintf(&b, "sub-resolution events (seismicity-rate model): %d drawn, %.4g expected", len(res.RateEvents), res.RateExpected)
+		if len(res.RateEvents) > 0 {
+			fmt.Fprintf(&b, ", largest Mw %.2f", largest)
+		}
+		b.WriteString("\n")
+	}
 	_, err := io.WriteString(w, b.String())
 	return err
 }
