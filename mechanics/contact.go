@@ -4,7 +4,6 @@ import (
 	"errors"
 	"fmt"
 	"math"
-	"slices"
 
 	"gonum.org/v1/gonum/spatial/r2"
 
@@ -408,7 +407,7 @@ func (c *Contact) sweepMerged(round int) (int, error) {
 	defer delete(c.caches, mergedGroup)
 	const passes = 8
 	for k := 1; k <= passes; k++ {
-		change, err := c.solveGroup(mergedGroup, slices.Clone(t.work))
+		change, err := c.solveGroup(mergedGroup, t.work)
 		if err != nil {
 			return c.set.MaxIterations + k, err
 		}

@@ -402,6 +402,15 @@ func sign(v float64) float64 {
 // the first unstable one is returned, so that ruptures are judged, and
 // run, trace by trace whichever way the contact problem was solved.
 func (s *groupSystem) stability() (float64, []int) {
+	if s.group != mergedGroup {
+		var patch []int
+		for k, i := range s.elems {
+			if s.c.trial.status[i] == sliding {
+				patch = append(patch, k)
+			}
+		}
+		return s.patchStability(patch), patch
+	}
 	var groups []int
 	patches := map[int][]int{}
 	for k, i := range s.elems {

@@ -127,6 +127,15 @@ func TestLoadRunMatchesMemory(t *testing.T) {
 			t.Fatalf("cell %d: first slip %.6g s read back, %.6g s in memory: not within the frame gap %g s", k, first.Data[k], want.Data[k], gap)
 		}
 	}
+	// The sub-resolution events of the run (the demo's [seismicity_rate])
+	// are read back, and the map draws them.
+	m, err := got.MapPicture()
+	if err != nil {
+		t.Fatal(err)
+	}
+	if n := len(mem.Result.RateEvents); n == 0 || len(got.Result.RateEvents) != n || len(m.SmallEvents) != n {
+		t.Errorf("%d sub-resolution events run, %d read back, %d on the map", n, len(got.Result.RateEvents), len(m.SmallEvents))
+	}
 	if _, err := LoadRun(dir, 1e9); err == nil {
 		t.Error("a time beyond the run was accepted")
 	}

@@ -176,19 +176,6 @@ func TestSimulateFolderAndRealization(t *testing.T) {
 	if got := folderFiles(t, rep); !slices.Equal(got, wantReport) {
 		t.Errorf("report folder holds %v, want %v", got, wantReport)
 	}
-	// The folder read back has the sub-resolution events of the run
-	// (the demo's [seismicity_rate]), and its map draws them.
-	back, err := LoadRun(dir, math.NaN())
-	if err != nil {
-		t.Fatal(err)
-	}
-	m, err := back.MapPicture()
-	if err != nil {
-		t.Fatal(err)
-	}
-	if n := len(mem.Result.RateEvents); n == 0 || len(back.Result.RateEvents) != n || len(m.SmallEvents) != n {
-		t.Errorf("%d sub-resolution events run, %d read back, %d on the map", n, len(back.Result.RateEvents), len(m.SmallEvents))
-	}
 }
 
 // An export the CRS cannot serve keeps its cause in the error chain.

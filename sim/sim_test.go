@@ -523,23 +523,10 @@ func TestCellsAlong(t *testing.T) {
 // events.csv reads back to the same events (at the printed precision).
 func TestEventsRoundTrip(t *testing.T) {
 	s, res := runSmallDemo(t)
-	var b bytes.Buffer
-	if err := WriteEvents(&b, s, res); err != nil {
-		t.Fatal(err)
-	}
-	got, err := ReadEvents(bytes.NewReader(b.Bytes()), "events.csv", s)
-	if err != nil {
-		t.Fatal(err)
-	}
 	if len(res.Events) == 0 {
 		t.Fatal("the small demo has no events: the round trip would compare nothing")
 	}
-	if len(got) != len(res.Events) {
-		t.Fatalf("%d events read, %d written", len(got), len(res.Events))
-	}
-	for i := range got {
-		checkEventsEqual(t, i, got[i], res.Events[i])
-	}
+	checkCatalogueRoundTrip(t, s, res, false)
 	for _, bad := range []string{"", "a,b\n", EventsHeader + "\n1,2,3,4,5,NOPE:1,7,8,9,10\n", EventsHeader + "\n1,2,3,4,x,W1:1,7,8,9,10\n"} {
 		if _, err := ReadEvents(strings.NewReader(bad), "events.csv", s); err == nil {
 			t.Errorf("accepted %q", bad)
@@ -558,34 +545,35 @@ func FuzzReadEvents(f *testing.F) {
 		// The sub-resolution reader (rate_events.csv, same columns) reads
 		// the same input: its events round-trip too.
 		if sub, err := ReadRateEvents(bytes.NewReader(data), "fuzz.csv", s); err == nil {
-			var b bytes.Buffer
-			if err := WriteRateEvents(&b, s, &Result{RateEvents: sub}); err != nil {
-				t.Fatal(err)
-			}
-			again, err := ReadRateEvents(bytes.NewReader(b.Bytes()), "again.csv", s)
-			if err != nil || len(again) != len(sub) {
-				t.Fatalf("written sub-resolution events do not read back: %v", err)
-			}
-			for i := range again {
-				checkEventsEqual(t, i, again[i], sub[i])
-			}
+			checkCatalogueRoundTrip(t, s, &Result{RateEvents: sub}, true)
 		}
-		events, err := ReadEvents(bytes.NewReader(data), "fuzz.csv", s)
-		if err != nil {
-			return
-		}
-		var b bytes.Buffer
-		if err := WriteEvents(&b, s, &Result{Events: events}); err != nil {
-			t.Fatal(err)
-		}
-		again, err := ReadEvents(bytes.NewReader(b.Bytes()), "again.csv", s)
-		if err != nil || len(again) != len(events) {
-			t.Fatalf("written events do not read back: %v", err)
-		}
-		for i := range again {
-			checkEventsEqual(t, i, again[i], events[i])
+		if events, err := ReadEvents(bytes.NewReader(data), "fuzz.csv", s); err == nil {
+			checkCatalogueRoundTrip(t, s, &Result{Events: events}, false)
 		}
 	})
+}
+
+// checkCatalogueRoundTrip writes res's ruptures (or, with sub, its
+// sub-resolution events) as the run does and reads them back: the same
+// events at the printed precision. It returns the events read.
+func checkCatalogueRoundTrip(t *testing.T, s *scenarios.Scenario, res *Result, sub bool) []Event {
+	t.Helper()
+	write, read, events := WriteEvents, ReadEvents, res.Events
+	if sub {
+		write, read, events = WriteRateEvents, ReadRateEvents, res.RateEvents
+	}
+	var b bytes.Buffer
+	if err := write(&b, s, res); err != nil {
+		t.Fatal(err)
+	}
+	again, err := read(bytes.NewReader(b.Bytes()), "again.csv", s)
+	if err != nil || len(again) != len(events) {
+		t.Fatalf("%d events written do not read back (%d read): %v", len(events), len(again), err)
+	}
+	for i := range again {
+		checkEventsEqual(t, i, again[i], events[i])
+	}
+	return again
 }
 
 // Tolerances of a value written to a CSV file and read back: printed with
