@@ -24,7 +24,9 @@
 // deterministic. Segments may be points, overlap, repeat or touch.
 // Consecutive segments that continue one another along a line (the
 // stimulated elements of one trace) are merged before the sweep, which
-// changes the union by at most 64ε of the coordinates across the run.
+// changes the union by at most 64ε of the coordinates across the run. If a
+// segment is within about √ε of horizontal but not horizontal, the sweep
+// works in a turned frame (the outline comes back in the map frame).
 //
 // # Method
 //

@@ -59,7 +59,7 @@ func Outline(segs []dfn.Segment, r float64, opt OutlineOptions) (orb.MultiPolygo
 	if !(s > 0 && s <= r) {
 		return nil, fmt.Errorf("footprint: sagitta = %g m: must be in (0, %g] (the radius)", opt.Sagitta, r)
 	}
-	tol := 8*math.Sqrt(epsilon*r*reg.scale) + 64*epsilon*reg.scale
+	tol := reg.mergeDistance()
 	// Strips in parallel, their edges joined in strip order.
 	parts := make([][]oedge, len(reg.sw.lines)-1)
 	reg.sw.eachStrip(func(k int, ws *workspace) {
@@ -68,7 +68,7 @@ func Outline(segs []dfn.Segment, r float64, opt OutlineOptions) (orb.MultiPolygo
 	})
 	edges := slices.Concat(parts...)
 	rings := chain(reg.sw, edges, 2*math.Acos(1-s/r))
-	return assemble(rings, reg.origin, tol), nil
+	return assemble(rings, reg.toMap, tol), nil
 }
 
 // corner is a cell of a slab with the open ends of its side edges: rs is

@@ -1,6 +1,7 @@
 package footprint
 
 import (
+	"fmt"
 	"math"
 	"math/rand/v2"
 	"runtime"
@@ -146,6 +147,46 @@ func TestOutlineSimple(t *testing.T) {
 			if d1*d2 < 0 && d3*d4 < 0 {
 				t.Fatalf("outline edges %v and %v cross", a, b)
 			}
+		}
+	}
+}
+
+// Segments of slopes from 1e-12 to 1e-6 (and 0, which the sweep takes
+// exactly) ending beside the end of a diagonal one: the outline must be whole and
+// inscribed. Slopes below about √ε take the frame turn (sweepTurn); a fuzz
+// input of this shape, slope 6e-10 at 10⁵ m coordinates, came out empty
+// before the turn. The inputs without a near-flat segment keep the map
+// frame.
+func TestOutlineNearlyHorizontal(t *testing.T) {
+	for _, c := range []struct {
+		slope, offset float64
+		turned        bool
+	}{
+		{0, 1e5, false},
+		{1e-12, 0, true},
+		{6e-10, 1e5, true},
+		{1e-8, 1e5, true},
+		{1e-6, 1e3, false},
+	} {
+		segs := []dfn.Segment{
+			seg(c.offset-7, c.offset-7, c.offset+48, c.offset+48),
+			seg(c.offset-30, c.offset+48, c.offset+48-78*c.slope, c.offset+48-78*c.slope),
+		}
+		name := fmt.Sprintf("slope %g at %g m", c.slope, c.offset)
+		mp, err := Outline(segs, 0.25, OutlineOptions{Sagitta: 0.0025})
+		if err != nil {
+			t.Fatalf("%s: %v", name, err)
+		}
+		if len(mp) != 1 {
+			t.Errorf("%s: %d polygons, want 1", name, len(mp))
+		}
+		checkOutline(t, name, segs, mp, 0.25, 0.0025)
+		reg, err := prepare(segs, 0.25)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if turned := reg.turn != (r2.Vec{X: 1}); turned != c.turned {
+			t.Errorf("%s: frame turned %v, want %v", name, turned, c.turned)
 		}
 	}
 }

@@ -197,9 +197,9 @@ type ring struct {
 // outer rings, clockwise ones holes of the smallest outer ring that holds
 // them (tested at the middle of the hole's longest side, which no other
 // ring touches). Rings thinner on average than tol (area ≤ tol·perimeter)
-// are slivers of the vertex merging and are dropped. Points move back by
-// origin.
-func assemble(rings [][]r2.Vec, origin r2.Vec, tol float64) orb.MultiPolygon {
+// are slivers of the vertex merging and are dropped. Points go back to
+// map coordinates by toMap.
+func assemble(rings [][]r2.Vec, toMap func(r2.Vec) r2.Vec, tol float64) orb.MultiPolygon {
 	var shells, holes []ring
 	for _, pts := range rings {
 		if len(pts) < 3 {
@@ -224,7 +224,7 @@ func assemble(rings [][]r2.Vec, origin r2.Vec, tol float64) orb.MultiPolygon {
 	}
 	mp := make(orb.MultiPolygon, len(shells))
 	for i, s := range shells {
-		mp[i] = orb.Polygon{toOrb(s.pts, origin)}
+		mp[i] = orb.Polygon{toOrb(s.pts, toMap)}
 	}
 	for _, h := range holes {
 		p := probe(h.pts)
@@ -239,7 +239,7 @@ func assemble(rings [][]r2.Vec, origin r2.Vec, tol float64) orb.MultiPolygon {
 			}
 		}
 		if best >= 0 {
-			mp[best] = append(mp[best], toOrb(h.pts, origin))
+			mp[best] = append(mp[best], toOrb(h.pts, toMap))
 		}
 	}
 	return mp
@@ -296,13 +296,14 @@ func probe(pts []r2.Vec) r2.Vec {
 	return best
 }
 
-// toOrb returns the ring as a closed orb.Ring moved back by origin.
+// toOrb returns the ring as a closed orb.Ring in map coordinates.
 // Points that become equal (a vanishing arc's chord point on a vertex, or
 // points closer than the rounding of large coordinates) are kept once.
-func toOrb(pts []r2.Vec, origin r2.Vec) orb.Ring {
+func toOrb(pts []r2.Vec, toMap func(r2.Vec) r2.Vec) orb.Ring {
 	out := make(orb.Ring, 0, len(pts)+1)
 	for _, p := range pts {
-		out = append(out, orb.Point{p.X + origin.X, p.Y + origin.Y})
+		q := toMap(p)
+		out = append(out, orb.Point{q.X, q.Y})
 	}
 	out = slices.Compact(out)
 	for len(out) > 1 && out[len(out)-1] == out[0] {
