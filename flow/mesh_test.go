@@ -144,7 +144,7 @@ func TestStarDeltaConservesFlux(t *testing.T) {
 	}
 	s.conductances(e)
 	s.as.Reset()
-	s.assembleFlux(Control{})
+	s.assembleFlux(Control{}, e)
 	a := s.as.Matrix()
 	ap := make([]float64, len(p))
 	a.MulVecTo(ap, p) // (A p)_i = Σ_j T_ij (p_i − p_j)

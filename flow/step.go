@@ -351,7 +351,7 @@ func (s *System) linearSolve(it *iteration) error {
 		s.as.AddDiagonal(i, (storage+slope)/dt)
 		s.rhs[i] = ((storage+slope)*p[i] - (content - it.cur.Content[i]) - it.leak[i]) / dt
 	}
-	s.assembleFlux(it.ctl)
+	s.assembleFlux(it.ctl, it.e)
 	a := s.as.Matrix()
 	if err := s.ls.Factor(a); err != nil {
 		return err

@@ -8,35 +8,43 @@ import (
 	"gonum.org/v1/gonum/spatial/r2"
 
 	"slipfront/flow"
-	"slipfront/internal/badinput"
-	"slipfront/internal/hfref"
 	"slipfront/mechanics"
 )
 
 // Growing fractures. A well with growth = "on" has its primary conduits
 // meshed to their largest extent (conduit_half_length each way of the
 // cluster) but open only over initial_half_length; the elements beyond
-// are intact rock: a flaw of FlawAperture that conducts nothing to speak
-// of, opens not at all and loads nothing. After every accepted step each
-// tip advances by one element where the stress intensity of the opened
-// fracture reaches the rock's toughness,
+// are intact rock: a flaw of FlawAperture that opens not at all and loads
+// nothing. After every accepted step each tip advances by one element
+// where the stress intensity of the opened fracture reaches the rock's
+// toughness,
 //
 //	K_I = p_net·√(π·a) ≥ K_Ic,  a = min(ℓ, h/2),
 //
 // with p_net the net pressure (p − σn) of the tip element, ℓ the
-// fracture's half-length and h its height: Irwin's (1957) K of a crack of half-length
-// a under a uniform net pressure, which is exact for the toughness-
-// dominated plane-strain fracture (KGD-K: Detournay 2004, whose pressure
-// is uniform) and takes the height as the crack's size once the fracture
-// is longer than high, as the opening compliance does (Sneddon 1946, from
-// the smaller of length and height; a height-contained blade, Perkins &
-// Kern 1961). The opened part's compliance follows its length as it
-// grows, and each element opens under its own pressure as the conduits
-// always do. A new element takes the pressure of the element behind it,
-// the fluid to fill it at that pressure moving in from the rest of the
-// fracture (in proportion to what each element holds), so mass is
-// conserved exactly and the new tip conducts at once: a closed flaw
-// would let no fluid in.
+// fracture's half-length and h its height: Irwin's (1957) K of a crack of
+// half-length a under a uniform net pressure, which is exact for the
+// toughness-dominated plane-strain fracture (KGD-K: Detournay 2004, whose
+// pressure is uniform) and takes the height as the crack's size once the
+// fracture is longer than high, as the opening compliance does (Sneddon
+// 1946, from the smaller of length and height; a height-contained blade,
+// Perkins & Kern 1961). The opened part's compliance follows its length as
+// it grows, and each element opens under its own pressure as the
+// conduits always do.
+//
+// The fluid reaches a new tip element by the flow alone: the element
+// starts at no net pressure with the content it had as a flaw
+// (startOpened), and the faces along a growing conduit conduct with the
+// mean of the cubes of the two apertures (flow.Config.CubeMean: the exact
+// face flux of a fracture whose opening follows its pressure, so an open
+// element passes e³/4 to the closed one ahead). Where toughness governs,
+// the tip waits for K_I; where viscosity governs, K_I is reached as soon
+// as fluid arrives, and the front moves as fast as the flow fills the tip
+// element: the viscosity-dominated plane-strain (KGD-M) and height-
+// contained (Nordgren's PKN) solutions are followed as well as KGD-K (see
+// the tests), and the front converges at first order in the element length
+// (it leads by one or two elements: an element counts as open from the
+// step it starts to fill).
 //
 // Where a tip meets a natural fracture (a mesh junction between the
 // conduit and a trace) the criterion of Renshaw & Pollard (1995), in the
@@ -47,14 +55,11 @@ import (
 // at the natural fracture's end is not modelled). Every meeting is a
 // Crossing of the result.
 //
-// Only the toughness-dominated regime is supported (checkGrowthRegime):
-// where viscosity governs, the front of this scheme runs ahead of the
-// fluid. Left out (see the README): the path is straight along the local SHmax
+// Left out (see the README): the path is straight along the local SHmax
 // at the cluster (the stress shadows of neighbours do not curve it), the
-// two tips are advanced by the tip elements' own pressure but the front
-// moves by whole elements, and a tip advances at most one element per
-// step (the pressure-change control of the time step shortens the steps
-// while fluid enters new elements).
+// front moves by whole elements, and a tip advances at most one element
+// per step (the pressure-change control of the time step shortens the
+// steps while fluid enters new elements).
 
 // FlawAperture is the aperture of the intact rock ahead of a growing
 // fracture's tip, m: a closed flaw whose transmissivity is ~10⁻¹⁸ of an
@@ -107,6 +112,12 @@ func (ms *mechState) initGrowth() {
 		if !m.growing(cd) {
 			continue
 		}
+		if ms.growingEl == nil {
+			ms.growingEl = make([]bool, len(m.elements))
+		}
+		for _, i := range g {
+			ms.growingEl[i] = true
+		}
 		w := m.s.Wells[m.order[cd.Stage].Well]
 		half := ms.groupLength[nt+c] / 2
 		lo, hi := len(g), -1
@@ -131,37 +142,6 @@ func (ms *mechState) initGrowth() {
 		ms.tips[c] = tipState{lo: lo, hi: hi, stopped: [2]bool{lo == 0, hi == len(g)-1}}
 		ms.resizeConduit(c)
 	}
-}
-
-// checkGrowthRegime refuses a growing stage whose fractures would not be
-// toughness-dominated: the growth above is verified against the KGD-K
-// solution only (its viscosity-dominated and height-contained limits, KGD-M
-// and PKN, are not reproduced yet: see the README), so a stage whose
-// dimensionless toughness 𝒦 = K′(E′³μ′q)^(−1/4) (Detournay 2004; hfref.KGD)
-// is below hfref.ToughnessBound, with q its rate per cluster and metre of
-// conduit height (under pressure control the stage's planned rate stands
-// in for the rate the pressure will drive), gets an error rather than a
-// length no check supports.
-func (m *model) checkGrowthRegime() error {
-	g, nu := m.s.Rock.ShearModulus, m.s.Rock.PoissonRatio
-	for k, ps := range m.order {
-		w := m.s.Wells[ps.Well]
-		if w.ConduitHalfLength <= 0 || w.Growth != "on" {
-			continue
-		}
-		h := w.ConduitHeight
-		if h == 0 {
-			h = m.s.Layer.Thickness
-		}
-		clusters := len(w.Stages[ps.Stage].Clusters)
-		kgd := hfref.KGD{PlaneModulus: 2 * g / (1 - nu), Viscosity: m.s.Fluids[ps.Fluid].Viscosity,
-			Toughness: m.s.Rock.FractureToughness, Rate: ps.Rate / float64(clusters) / h}
-		if kk := kgd.DimensionlessToughness(); !(kk >= hfref.ToughnessBound) {
-			return badinput.Errorf("stage %s (pumping order %d): wells[%d].growth = \"on\" grows fractures only in the toughness-dominated regime, dimensionless toughness 𝒦 ≥ %g (Detournay 2004); this stage has 𝒦 = %.3g (rate %.3g m³/s over %d clusters and %.3g m of height, viscosity %.3g cP, K_Ic %.3g MPa·√m): use growth = \"off\" with a conduit_half_length, a thinner fluid, a lower rate or a tougher rock",
-				ps.Name, k+1, ps.Well, hfref.ToughnessBound, kk, ps.Rate, clusters, h, m.s.Fluids[ps.Fluid].Viscosity*1e3, m.s.Rock.FractureToughness/1e6)
-		}
-	}
-	return nil
 }
 
 // anyGrowth reports whether some conduit grows.
@@ -364,42 +344,17 @@ func planeNormalStresses(s mechanics.Stress, t r2.Vec) (along, across float64) {
 	return quad(t), quad(n)
 }
 
-// fillOpened gives every element just opened at a tip the pressure of the
-// element behind it in the state st, and the fluid that takes at the
-// opened element's aperture there, moved from the other opened elements
-// of its fracture in proportion to their contents (mass is conserved to
-// round-off; their pressures fall a little in the next step's solve).
-func (r *runner) fillOpened(sys *flow.System, st *flow.State, opened []opening) {
-	if len(opened) == 0 {
-		return
-	}
-	ms := r.ms
+// startOpened starts every element just opened at a tip, in the state
+// st, at no net pressure: its pressure, until now that of a closed flaw
+// filled from behind, becomes at most the crack's normal stress, so that
+// the next step starts from the aperture its content holds (the content
+// is untouched: mass is conserved exactly). Fluid then enters it through
+// the mean-of-cubes face with the element behind (flow.Config.CubeMean)
+// at the rate the fracture's flow delivers, which sets how fast a front
+// where viscosity governs can move.
+func (r *runner) startOpened(st *flow.State, opened []opening) {
 	for _, o := range opened {
-		st.Pressure[o.tip] = st.Pressure[o.behind]
-	}
-	e, dedp := make([]float64, len(st.Pressure)), make([]float64, len(st.Pressure))
-	ms.restart()
-	ms.apertures(st.Pressure, e, dedp)
-	ms.restart()
-	for _, o := range opened {
-		j := o.tip
-		need := sys.Content(j, e[j], st.Pressure[j]) - st.Content[j]
-		st.Aperture[j], st.Content[j] = e[j], st.Content[j]+need
-		var held float64
-		g := ms.groups[r.m.group[j]]
-		for _, i := range g {
-			if ms.opened[i] && i != j {
-				held += st.Content[i]
-			}
-		}
-		if held <= 0 {
-			continue
-		}
-		for _, i := range g {
-			if ms.opened[i] && i != j {
-				st.Content[i] -= need * st.Content[i] / held
-			}
-		}
+		st.Pressure[o.tip] = math.Min(st.Pressure[o.tip], r.ms.crackNormal[o.tip])
 	}
 }
 

@@ -5,7 +5,6 @@ import (
 	"os"
 	"path/filepath"
 	"strconv"
-	"strings"
 	"testing"
 
 	"slipfront/dfn"
@@ -162,14 +161,87 @@ func TestGrowthMeetingPlace(t *testing.T) {
 	numtest.Abs(t, "angle, rad", c.Angle, math.Pi/6, 1e-9)
 }
 
-// Growth is refused where viscosity governs, for the scheme is checked
-// against the toughness-dominated solution only: 100 cP in the KGD case
-// gives 𝒦 = 0.82.
-func TestGrowthRefusedWhereViscosityGoverns(t *testing.T) {
-	s := loadCase(t, "kgd-toughness", "fluids.thin.viscosity=100 cP")
-	_, err := newModel(s, mustNetwork(t, s))
-	if err == nil || !strings.Contains(err.Error(), "toughness-dominated") || !strings.Contains(err.Error(), "𝒦 = 0.822") {
-		t.Errorf("error %v, want a refusal naming 𝒦", err)
+// Where viscosity governs, a growing fracture follows the similarity
+// solutions of the viscosity-dominated limits, on elements of 4, 2 and 1 m
+// at two times each:
+//
+//   - testdata/kgd-viscosity (plane strain, 𝒦 = 0): the M-vertex
+//     ℓ = 0.6152·(E′q³t⁴/μ′)^(1/6) (Adachi & Detournay 2002, as quoted; see
+//     internal/hfref), at 20 s and 60 s;
+//   - testdata/pkn-viscous (10 m high, growing to 16 heights): Nordgren's
+//     (1972) equation for the model's channel, hfref.Channel (Perkins–Kern
+//     stiffness, slot flow of the mean opening: its front lies 0.962 of
+//     Nordgren's elliptical channel's), at 100 s and 300 s.
+//
+// The front moves by whole elements and counts an element open from the
+// step it starts to fill, so it leads the solution by one to two and a
+// half elements (observed) plus a sawtooth of one element; the lead
+// shrinks with the element (first order: errors +30, +17, +4.0 % at 20 s
+// and +17, +4.0, +2.0 % at 60 s for KGD-M; +12, +6.4, +3.4 % at 100 s and
+// +5.5, +3.0, +1.2 % at 300 s for PKN). Checked: every mesh within 2.5
+// elements + 1 %, the 1 m mesh within 5 % and closer than the 4 m one, and
+// the length exponent between the two times on the 1 m mesh within 0.03
+// of 2/3 and 4/5 (observed 0.649 and 0.780: the lead weighs more at the
+// earlier time). The net pressure at the well on 1 m elements at the
+// later time: PKN's k·e(0) within 1 % (observed −0.5 %); the M-vertex's
+// within 10 % (observed +5 %: each element opens under its own pressure
+// with the crack's mean compliance, Kachanov's average-traction
+// approximation, not by Sneddon's integral over the whole pressure
+// profile, which the M-vertex's pressure feels). Mass balance ≤ 1e-8.
+func TestGrowthViscosityDominated(t *testing.T) {
+	for _, tc := range []struct {
+		name        string
+		times       [2]float64
+		exponent    float64
+		pressureTol float64
+		solution    func(s *scenarios.Scenario, t float64) hfref.Solution
+	}{
+		{"kgd-viscosity", [2]float64{20, 60}, 2.0 / 3, 0.10, func(s *scenarios.Scenario, t float64) hfref.Solution {
+			g, nu := s.Rock.ShearModulus, s.Rock.PoissonRatio
+			kgd := hfref.KGD{PlaneModulus: 2 * g / (1 - nu), Viscosity: s.Fluids["gel"].Viscosity, Rate: s.Schedule.Rate / s.Layer.Thickness}
+			return kgd.ViscosityDominated(t)
+		}},
+		{"pkn-viscous", [2]float64{100, 300}, 0.8, 0.01, func(s *scenarios.Scenario, t float64) hfref.Solution {
+			// Perkins & Kern's mean opening π(1−ν)h·p/(4G) (Sneddon's
+			// plane-strain crack of height h, its mean π/4 of 2h·p/E′).
+			h := s.Layer.Thickness
+			k := 4 * s.Rock.ShearModulus / (math.Pi * (1 - s.Rock.PoissonRatio) * h)
+			return hfref.Channel{Stiffness: k, Viscosity: s.Fluids["gel"].Viscosity, Height: h, Rate: s.Schedule.Rate}.Similarity(t)
+		}},
+	} {
+		var finest [2]float64
+		for it, tt := range tc.times {
+			var coarsest float64
+			for _, el := range []float64{4, 2, 1} {
+				s := loadCase(t, tc.name, "numerics.element_length="+ftoa(el)+" m", "schedule.duration="+ftoa(tt)+" s")
+				_, res := runScenario(t, s)
+				want := tc.solution(s, tt)
+				got := openedHalfLength(res)
+				t.Logf("%s, element %g m, t = %g s: half-length %.2f m, solution %.2f m (%+.1f %%)", tc.name, el, tt, got, want.HalfLength, 100*(got/want.HalfLength-1))
+				numtest.Abs(t, tc.name+": half-length, m", got, want.HalfLength, 2.5*el+0.01*want.HalfLength)
+				if res.MassBalanceError > 1e-8 {
+					t.Errorf("%s: mass-balance error %.3g", tc.name, res.MassBalanceError)
+				}
+				switch el {
+				case 4:
+					coarsest = got
+				case 1:
+					finest[it] = got
+					numtest.Rel(t, tc.name+": half-length on 1 m elements", got, want.HalfLength, 0.05)
+					if !(math.Abs(got-want.HalfLength) < math.Abs(coarsest-want.HalfLength)) {
+						t.Errorf("%s, t = %g s: the front's error did not shrink from 4 m to 1 m elements (%g m, %g m)", tc.name, tt, coarsest, got)
+					}
+					if it == 1 {
+						shmin := s.Stress.ShminGradient * s.Layer.Depth
+						end := res.Timeline[len(res.Timeline)-1]
+						numtest.Rel(t, tc.name+": net pressure at the well", end.BHP-shmin, want.NetPressure, tc.pressureTol)
+					}
+				}
+			}
+		}
+		exponent := math.Log(finest[1]/finest[0]) / math.Log(tc.times[1]/tc.times[0])
+		t.Logf("%s: length exponent %.4f (solution %.4f)", tc.name, exponent, tc.exponent)
+		numtest.Abs(t, tc.name+": length exponent", exponent, tc.exponent, 0.03)
 	}
 }
 

@@ -76,11 +76,14 @@ type mechState struct {
 	// Growth (growth.go): opened marks the elements open to flow and
 	// opening (all but the intact rock ahead of growing conduits' tips);
 	// tips and openedLength (m) are each conduit's opened extent;
-	// elementNodes the mesh nodes of every element, built on first use.
+	// elementNodes the mesh nodes of every element, built on first use;
+	// growingEl marks the elements of growing conduits (nil when none
+	// grows), whose faces conduct by the mean of cubes (flow.Config.CubeMean).
 	opened       []bool
 	tips         []tipState
 	openedLength []float64
 	elementNodes [][2]int
+	growingEl    []bool
 }
 
 // contactNearRadius is the reach, in element lengths or layer

@@ -277,6 +277,7 @@ func (r *runner) system(k int) (*flow.System, error) {
 		Matrix:            matrixLeakoff(r.m.s),
 		ClusterNodes:      r.m.clusterNodes[k],
 		Perforations:      perfs,
+		CubeMean:          r.ms.growingEl,
 	})
 }
 
@@ -329,9 +330,9 @@ func (r *runner) runStage(ctx context.Context, k int, ps scenarios.PlannedStage)
 		return err
 	}
 	// Contents are h·L·e·(1 + c_f(p − p0)): only a fluid of another
-	// compressibility changes them. Recomputing them otherwise would undo
-	// the fluid a growing fracture's new tip took from the rest
-	// (fillOpened) and create it anew.
+	// compressibility changes them. Recomputing them otherwise would
+	// change the content of a growing fracture's just-opened tip, whose
+	// pressure, not content, was reset (startOpened).
 	if c := r.m.s.Fluids[ps.Fluid].Compressibility; c != r.contentCompressibility {
 		sys.Refresh(r.cur)
 		r.contentCompressibility = c
@@ -533,7 +534,7 @@ func (r *runner) step(sys *flow.System, p *phase, sum *StageSummary, end float64
 	var opened []opening
 	r.res.Crossings, opened, grown = r.ms.grow(end, r.stage, r.next.Pressure, r.res.Crossings)
 	r.res.Warnings = append(r.res.Warnings, grown...)
-	r.fillOpened(sys, r.next, opened)
+	r.startOpened(r.next, opened)
 	r.t = end
 	r.next.Time = end
 	r.cur, r.next = r.next, r.cur

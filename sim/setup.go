@@ -95,9 +95,6 @@ func newModel(s *scenarios.Scenario, net *dfn.Network) (*model, error) {
 			m.shmin = p.Value
 		}
 	}
-	if err := m.checkGrowthRegime(); err != nil {
-		return nil, err
-	}
 	if m.depletion, err = Deplete(s); err != nil {
 		return nil, err
 	}

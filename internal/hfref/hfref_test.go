@@ -100,6 +100,27 @@ func TestNordgren(t *testing.T) {
 	numtest.Rel(t, "volume = Q t", volume, q*tt, 1e-6)
 }
 
+// A channel of slot flow and the Perkins–Kern stiffness k = 4G/(π(1−ν)h)
+// (mean width π/4 of the ellipse's maximum 2h·p/E′) has its front at
+// (π²/12)^(1/5) of Nordgren's and its inlet mean width at
+// (π/4)·(12/π²)^(1/5) of his maximum (both derived from the scales of
+// nordgren: ℓ ∝ D^(1/5) c^(−3/5), w ∝ D^(−1/5) c^(−2/5)); its volume is Qt
+// by the same integral as Nordgren's.
+func TestChannelAgainstNordgren(t *testing.T) {
+	f := PKN{PlaneModulus: 20e9, Viscosity: 0.1, Height: 30, Rate: 0.05}
+	c := Channel{Stiffness: 2 * f.PlaneModulus / (math.Pi * f.Height), Viscosity: f.Viscosity, Height: f.Height, Rate: f.Rate}
+	const tt = 600.0
+	n, s := f.Nordgren(tt), c.Similarity(tt)
+	numtest.Rel(t, "front against Nordgren's", s.HalfLength/n.HalfLength, math.Pow(math.Pi*math.Pi/12, 0.2), 1e-12)
+	numtest.Rel(t, "inlet mean width against Nordgren's", s.InletWidth/n.InletWidth, math.Pi/4*math.Pow(12/(math.Pi*math.Pi), 0.2), 1e-12)
+	numtest.Rel(t, "net pressure = k·e", s.NetPressure, c.Stiffness*s.InletWidth, 1e-15)
+	_, i0 := nordgrenProfile(100000, 1e-6)
+	lam := math.Pow(i0, -0.6)
+	a := s.InletWidth / (NordgrenWidth * math.Pow(tt, 0.2))
+	b := s.HalfLength / (NordgrenLength * math.Pow(tt, 0.8))
+	numtest.Rel(t, "volume = Q t", 2*c.Height*a*b*tt*math.Pow(lam, 5.0/3)*i0, c.Rate*tt, 1e-6)
+}
+
 // The K-vertex is Sneddon's uniformly pressurised crack at the
 // toughness: K_I = p√(πℓ) = K_Ic (Sneddon 1946; Irwin 1957), volume
 // 2πpℓ²/E′ = Qt, w(0) = 4pℓ/E′; γ_k0 = 2/π^(2/3) = 0.9324 (Garagash

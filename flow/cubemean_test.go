@@ -1,0 +1,56 @@
+package flow
+
+import (
+	"testing"
+
+	"gonum.org/v1/gonum/spatial/r2"
+
+	"slipfront/internal/numtest"
+)
+
+// The faces between marked elements conduct with the mean of the cubes
+// (Config.CubeMean): where p = σ + k·e on both sides, T·(p_j − p_i) is the
+// Kirchhoff flux (hk/(48μ))·(e_j⁴ − e_i⁴)/Δx exactly (derived in System's
+// documentation); for equal apertures it is the series of the halves; an
+// open element passes e³/4 to a closed one ahead, where the series of
+// halves passes almost nothing; unmarked faces are unchanged.
+func TestCubeMeanFaces(t *testing.T) {
+	const h, mu, k, sigma = 5.0, 1e-2, 4e9, 40e6
+	m, err := BuildMesh([]Path{{P1: r2.Vec{X: 40}, Height: h}}, nil, MeshSettings{ElementLength: 10})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(m.Elements) != 4 {
+		t.Fatalf("%d elements, want 4", len(m.Elements))
+	}
+	e := []float64{2e-3, 1e-3, 1e-3, 1e-6}
+	// transmissibility returns T_ij of the assembled matrix: (A u_j)_i = −T_ij.
+	transmissibility := func(mask []bool, i, j int) float64 {
+		s, err := NewSystem(m, nil, Config{Fluid: Fluid{Viscosity: mu, Compressibility: 4.5e-10}, CubeMean: mask})
+		if err != nil {
+			t.Fatal(err)
+		}
+		s.conductances(e)
+		s.as.Reset()
+		s.assembleFlux(Control{}, e)
+		u, au := make([]float64, len(e)), make([]float64, len(e))
+		u[j] = 1
+		s.as.Matrix().MulVecTo(au, u)
+		return -au[i]
+	}
+	mask := []bool{true, true, true, true}
+	dx := 10.0
+	t01 := transmissibility(mask, 0, 1)
+	p0, p1 := sigma+k*e[0], sigma+k*e[1]
+	numtest.Rel(t, "face flux against Kirchhoff's", t01*(p0-p1), h*k/(48*mu)*(e[0]*e[0]*e[0]*e[0]-e[1]*e[1]*e[1]*e[1])/dx, 1e-12)
+	numtest.Rel(t, "equal apertures: mean = series of halves", transmissibility(mask, 1, 2), transmissibility(nil, 1, 2), 1e-12)
+	front := transmissibility(mask, 2, 3)
+	numtest.Rel(t, "open to closed: e³/4 (within e_j/e_i)", front, h*(e[2]*e[2]*e[2]/4)/(12*mu*dx), 2*e[3]/e[2])
+	if series := transmissibility(nil, 2, 3); !(series < 1e-8*front) {
+		t.Errorf("series of halves %g against the mean's %g: want almost nothing", series, front)
+	}
+	numtest.Rel(t, "unmarked face unchanged", transmissibility([]bool{true, false, false, true}, 0, 1), transmissibility(nil, 0, 1), 1e-15)
+	if _, err := NewSystem(m, nil, Config{Fluid: Fluid{Viscosity: mu, Compressibility: 4.5e-10}, CubeMean: []bool{true}}); err == nil {
+		t.Error("a mask of the wrong length was accepted")
+	}
+}
