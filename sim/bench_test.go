@@ -18,6 +18,17 @@ func BenchmarkDemo(b *testing.B) {
 	benchmarkRun(b, s)
 }
 
+// BenchmarkFieldStage runs the field-stage example: two stages of 3 000
+// bbl at 80 bbl/min, five growing fractures each through limited entry,
+// matrix leak-off, elastic interaction.
+func BenchmarkFieldStage(b *testing.B) {
+	s, err := scenarios.LoadExample("field-stage")
+	if err != nil {
+		b.Fatal(err)
+	}
+	benchmarkRun(b, s)
+}
+
 // BenchmarkGrowthKGD runs testdata/kgd-toughness: one fracture growing
 // from 4 m to 120 m over 60 s on 2 m elements (30 openings per tip).
 func BenchmarkGrowthKGD(b *testing.B) {

@@ -7,7 +7,6 @@ import (
 
 	"gonum.org/v1/gonum/spatial/r2"
 
-	"slipfront/flow"
 	"slipfront/mechanics"
 )
 
@@ -33,9 +32,9 @@ import (
 // conduits always do.
 //
 // The fluid reaches a new tip element by the flow alone: the element
-// starts at no net pressure with the content it had as a flaw
-// (startOpened), and the faces along a growing conduit conduct with the
-// mean of the cubes of the two apertures (flow.Config.CubeMean: the exact
+// keeps the content it had as a flaw (at the pressure of the fracture
+// behind, which filled it through their face), and the faces along a
+// growing conduit conduct with the mean of the cubes of the two apertures (flow.Config.CubeMean: the exact
 // face flux of a fracture whose opening follows its pressure, so an open
 // element passes e³/4 to the closed one ahead). Where toughness governs,
 // the tip waits for K_I; where viscosity governs, K_I is reached as soon
@@ -178,22 +177,17 @@ func (ms *mechState) resizeConduit(c int) {
 	ms.averageNormal()
 }
 
-// opening is an element opened at a growing fracture's tip: the new tip
-// and the element behind it, indices of the model's elements.
-type opening struct{ tip, behind int }
-
 // grow advances the tips of every growing conduit whose stress intensity
 // reaches the toughness at the pressures p of the step that ended at t in
 // stage k, by one element each, deciding the meetings with natural
-// fractures; it returns the crossings with the new ones appended, the
-// elements it opened and a warning for each conduit that reached the end
-// of its path with a tip still able to grow.
-func (ms *mechState) grow(t float64, k int, p []float64, crossings []Crossing) ([]Crossing, []opening, []Warning) {
+// fractures; it returns the crossings with the new ones appended and a
+// warning for each conduit that reached the end of its path with a tip
+// still able to grow.
+func (ms *mechState) grow(t float64, k int, p []float64, crossings []Crossing) ([]Crossing, []Warning) {
 	m := ms.m
 	nt := len(m.net.Traces)
 	kic := m.s.Rock.FractureToughness
 	var warnings []Warning
-	var opened []opening
 	for c := range ms.tips {
 		tp := &ms.tips[c]
 		if tp.stopped[0] && tp.stopped[1] {
@@ -234,7 +228,6 @@ func (ms *mechState) grow(t float64, k int, p []float64, crossings []Crossing) (
 				continue
 			}
 			ms.opened[j] = true
-			opened = append(opened, opening{tip: j, behind: i})
 			if dir > 0 {
 				tp.hi = next
 			} else {
@@ -246,7 +239,7 @@ func (ms *mechState) grow(t float64, k int, p []float64, crossings []Crossing) (
 			ms.resizeConduit(c)
 		}
 	}
-	return crossings, opened, warnings
+	return crossings, warnings
 }
 
 // meet decides, for conduit c whose tip element i is about to open its
@@ -342,20 +335,6 @@ func planeNormalStresses(s mechanics.Stress, t r2.Vec) (along, across float64) {
 		return v.X*(ts[0][0]*v.X+ts[0][1]*v.Y) + v.Y*(ts[1][0]*v.X+ts[1][1]*v.Y)
 	}
 	return quad(t), quad(n)
-}
-
-// startOpened starts every element just opened at a tip, in the state
-// st, at no net pressure: its pressure, until now that of a closed flaw
-// filled from behind, becomes at most the crack's normal stress, so that
-// the next step starts from the aperture its content holds (the content
-// is untouched: mass is conserved exactly). Fluid then enters it through
-// the mean-of-cubes face with the element behind (flow.Config.CubeMean)
-// at the rate the fracture's flow delivers, which sets how fast a front
-// where viscosity governs can move.
-func (r *runner) startOpened(st *flow.State, opened []opening) {
-	for _, o := range opened {
-		st.Pressure[o.tip] = math.Min(st.Pressure[o.tip], r.ms.crackNormal[o.tip])
-	}
 }
 
 // IsOpen reports whether element i of a result is open: the intact rock

@@ -186,7 +186,8 @@ func ReadSummary(r io.Reader, name string) (stages []StageSummary, warnings []Wa
 		}
 		out[i] = StageSummary{Name: st.Name, Start: st.StartS, PumpEnd: st.PumpEndS, End: st.EndS,
 			Injected: st.InjectedM3, PeakBHP: st.PeakBHPMPa * 1e6, NewArea: st.NewAreaM2, Events: st.Events,
-			MaxMagnitude: mw, Capped: st.Capped, Steps: st.Steps, ClusterVolumes: st.ClusterVolumes}
+			MaxMagnitude: mw, Capped: st.Capped, Steps: st.Steps, ClusterVolumes: st.ClusterVolumes,
+			HeldNatural: st.HeldNaturalM3, HeldConduits: st.HeldConduitsM3}
 	}
 	for _, w := range sj.Warnings {
 		warnings = append(warnings, Warning{Kind: w.Kind, Stage: w.Stage, Message: w.Message})

@@ -77,6 +77,11 @@ type StageSummary struct {
 	// ClusterVolumes is the volume each cluster took, m³ (back-flow
 	// during shut-in counted against it); nil without limited entry.
 	ClusterVolumes []float64
+	// HeldNatural and HeldConduits are the fluid the natural fractures
+	// and the primary conduits hold at the end of pumping above what they
+	// held at the start of the run, m³ (all stages so far: the rest of
+	// what was injected has leaked off).
+	HeldNatural, HeldConduits float64
 }
 
 // Result is what a run produced, complete or up to a failure.
@@ -330,9 +335,9 @@ func (r *runner) runStage(ctx context.Context, k int, ps scenarios.PlannedStage)
 		return err
 	}
 	// Contents are h·L·e·(1 + c_f(p − p0)): only a fluid of another
-	// compressibility changes them. Recomputing them otherwise would
-	// change the content of a growing fracture's just-opened tip, whose
-	// pressure, not content, was reset (startOpened).
+	// compressibility changes them. Recomputing them otherwise would give
+	// a growing fracture's just-opened tip the content of its aperture at
+	// its pressure, fluid that never entered it.
 	if c := r.m.s.Fluids[ps.Fluid].Compressibility; c != r.contentCompressibility {
 		sys.Refresh(r.cur)
 		r.contentCompressibility = c
@@ -370,6 +375,7 @@ func (r *runner) runStage(ctx context.Context, k int, ps scenarios.PlannedStage)
 			ps.Name, pump.injected, ps.Volume, r.t-sum.Start, maxStretch, why)})
 	}
 	sum.PumpEnd = r.t
+	sum.HeldNatural, sum.HeldConduits = r.held()
 	if err := r.record(false); err != nil {
 		return err
 	}
@@ -383,6 +389,19 @@ func (r *runner) runStage(ctx context.Context, k int, ps scenarios.PlannedStage)
 	sum.MaxMagnitude = MaxMagnitude(r.res.Events[events0:])
 	r.res.Stages = append(r.res.Stages, sum)
 	return r.record(false)
+}
+
+// held returns the fluid the natural fractures and the conduits hold now
+// above their content at the start of the run, m³.
+func (r *runner) held() (natural, conduits float64) {
+	for i, c := range r.cur.Content {
+		if r.m.conduitEl[i] {
+			conduits += c - r.cur.InitialContent[i]
+		} else {
+			natural += c - r.cur.InitialContent[i]
+		}
+	}
+	return natural, conduits
 }
 
 // wellPressure is a start value for the bottom-hole pressure of stage k:
@@ -531,10 +550,8 @@ func (r *runner) step(sys *flow.System, p *phase, sum *StageSummary, end float64
 		r.res.RateExpected += n
 	}
 	var grown []Warning
-	var opened []opening
-	r.res.Crossings, opened, grown = r.ms.grow(end, r.stage, r.next.Pressure, r.res.Crossings)
+	r.res.Crossings, grown = r.ms.grow(end, r.stage, r.next.Pressure, r.res.Crossings)
 	r.res.Warnings = append(r.res.Warnings, grown...)
-	r.startOpened(r.next, opened)
 	r.t = end
 	r.next.Time = end
 	r.cur, r.next = r.next, r.cur

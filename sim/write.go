@@ -363,6 +363,9 @@ type stageJSON struct {
 	Steps        int      `json:"time_steps"`
 	// ClusterVolumes: the volume each perforation cluster took, m³.
 	ClusterVolumes []float64 `json:"cluster_injected_volumes_m3,omitempty"`
+	// Held*: fluid held at the end of pumping above the start of the run.
+	HeldNaturalM3  float64 `json:"held_in_natural_fractures_m3"`
+	HeldConduitsM3 float64 `json:"held_in_conduits_m3"`
 }
 
 // warningJSON is one Warning in summary.json.
@@ -456,7 +459,7 @@ func WriteSummary(w io.Writer, s *scenarios.Scenario, net *dfn.Network, res *Res
 			Name: st.Name, StartS: st.Start, PumpEndS: st.PumpEnd, EndS: st.End, InjectedM3: st.Injected,
 			PeakBHPMPa: st.PeakBHP / 1e6, NewAreaM2: st.NewArea, Events: st.Events,
 			MaxMagnitude: optional(st.MaxMagnitude), Capped: st.Capped, Steps: st.Steps,
-			ClusterVolumes: st.ClusterVolumes,
+			ClusterVolumes: st.ClusterVolumes, HeldNaturalM3: st.HeldNatural, HeldConduitsM3: st.HeldConduits,
 		})
 	}
 	if failure != nil {
