@@ -43,7 +43,7 @@ func TestExitCodes(t *testing.T) {
 		{"too many fractures", []string{"generate", "demo", "--set", "numerics.max_fractures=10", "--out", filepath.Join(dir, "cap")}, exitBadInput, "max_fractures"},
 		{"bare viscosity", []string{"scenario", "check", "demo", "--set", "fluids.slickwater.viscosity=20"}, exitBadInput, `needs a unit: write "20 cP" or "20 mPa.s"`},
 		{"message units", []string{"scenario", "check", "demo", "--set", "schedule.pressure_cap=10MPa"}, exitBadInput, "initial pore pressure, 31.2 MPa"},
-		{"unknown example", []string{"scenario", "show", "dmeo", "--out", filepath.Join(dir, "dmeo")}, exitBadInput, `no example scenario "dmeo"; examples: demo, single-fracture`},
+		{"unknown example", []string{"scenario", "show", "dmeo", "--out", filepath.Join(dir, "dmeo")}, exitBadInput, `no example scenario "dmeo"; examples: demo, field-stage, single-fracture`},
 		{"force without out", []string{"scenario", "show", "demo", "--force"}, exitBadInput, "--force replaces the folder of --out"},
 		{"check ok", []string{"scenario", "check", "demo"}, exitOK, "warning: demo.toml:119: fluids.linear_gel: no stage pumps this fluid"},
 		{"mistyped fluid", []string{"scenario", "check", "demo", "--set", "fluids.slickwatr.viscosity=20cP"}, exitBadInput,
