@@ -13,7 +13,11 @@
 // whose transmissibility follows the star–delta rule of Karimi-Fard,
 // Durlofsky & Aziz (2004), T_ij = α_i α_j / Σ_k α_k, with the cubic-law
 // half-element conductance α = h e³ / (12 μ L/2) (Witherspoon et al. 1980);
-// along a path this is the harmonic mean of the two halves.
+// along a path this is the harmonic mean of the two halves. Elements marked
+// in Config.CubeMean (a growing fracture's) meet one another through the
+// mean of their apertures' cubes instead, the exact face flux where the
+// aperture follows the pressure linearly, which lets a fluid front enter a
+// closed element (see System).
 //
 // # Time step
 //
