@@ -281,8 +281,15 @@ func TestRuptureConvergesWithMesh(t *testing.T) {
 
 // numerics.coupling_tolerance governs the flow–mechanics iterations:
 // tightening it by decades lowers the mass-balance error of the run each
-// time, and the peak bottom-hole pressure moves less from one decade to
-// the next (the iterations converge; common practice, no source).
+// time, and the peak bottom-hole pressure stays within 1 kPa across the
+// three decades (the iterations converge; common practice, no source).
+// Observed: 0.08 Pa and 0.03 Pa between decades, far below the bound (even
+// the loosest tolerances, 0.1 and 0.5, print the same peak to 10 kPa: on
+// this case the tolerance buys mass balance, and the pressure bound guards
+// against a coupling that stops iterating). The peak's round-off floor is
+// larger than those changes (a reordered small LU in the contact solve
+// once moved it by 420 Pa at 1e-4), so whether the second change is
+// smaller than the first is noise, not convergence, and is not asserted.
 func TestCouplingToleranceConverges(t *testing.T) {
 	var bhp, mass []float64
 	for _, tol := range []string{"1e-2", "1e-3", "1e-4"} {
@@ -293,9 +300,8 @@ func TestCouplingToleranceConverges(t *testing.T) {
 	if !(mass[0] > mass[1] && mass[1] > mass[2]) {
 		t.Errorf("mass-balance errors %.3g, did not fall with the tolerance", mass)
 	}
-	d1, d2 := math.Abs(bhp[1]-bhp[0]), math.Abs(bhp[2]-bhp[1])
-	if !(d1 > 0 && d2 < d1) {
-		t.Errorf("peak BHP changes %.3g Pa then %.3g Pa: want a change that shrinks as the tolerance tightens", d1, d2)
+	for k := 1; k < len(bhp); k++ {
+		numtest.Abs(t, "peak BHP between decades of coupling_tolerance, Pa", bhp[k], bhp[k-1], 1e3)
 	}
 }
 
