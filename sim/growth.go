@@ -34,9 +34,10 @@ import (
 // The fluid reaches a new tip element by the flow alone: the element
 // keeps the content it had as a flaw (at the pressure of the fracture
 // behind, which filled it through their face), and the faces along a
-// growing conduit conduct with the mean of the cubes of the two apertures (flow.Config.CubeMean: the exact
-// face flux of a fracture whose opening follows its pressure, so an open
-// element passes e³/4 to the closed one ahead). Where toughness governs,
+// growing conduit conduct with the mean of the cubes of the two
+// apertures (flow.Config.CubeMean: the exact face flux of a fracture
+// whose opening follows its pressure, so an open element passes e³/4 to
+// the closed one ahead). Where toughness governs,
 // the tip waits for K_I; where viscosity governs, K_I is reached as soon
 // as fluid arrives, and the front moves as fast as the flow fills the tip
 // element: the viscosity-dominated plane-strain (KGD-M) and height-
