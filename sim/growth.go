@@ -7,6 +7,7 @@ import (
 
 	"gonum.org/v1/gonum/spatial/r2"
 
+	"slipfront/flow"
 	"slipfront/mechanics"
 )
 
@@ -336,6 +337,38 @@ func planeNormalStresses(s mechanics.Stress, t r2.Vec) (along, across float64) {
 		return v.X*(ts[0][0]*v.X+ts[0][1]*v.Y) + v.Y*(ts[1][0]*v.X+ts[1][1]*v.Y)
 	}
 	return quad(t), quad(n)
+}
+
+// startConsistent sets the pressure of every opened element of a growing
+// conduit that starts the next step closed (at or below the crack's normal
+// stress) while its content fills more than the closed aperture e₀, in the
+// state st, to what its content holds: the normal stress plus the net
+// pressure k·(e − e₀) for the aperture e its content fills, where that
+// is above 1 Pa (contents are untouched, so mass is conserved exactly). A
+// growing fracture's closure stress and stiffness move with its length and
+// shadows, so an element can end a step open and start the next one below
+// its new closure stress with the content of an open one. Started closed,
+// its first iteration saw no compliance, moved the pressure by the whole
+// iteration cap and opened the element by millimetres; the field-stage
+// example on 5 m elements stalled so (realizations 0 and 1, 23 and 32 s
+// into the first stage). Elements already open are left alone: their
+// iterations see the compliance.
+func (r *runner) startConsistent(sys *flow.System, st *flow.State) {
+	ms := r.ms
+	if ms.growingEl == nil {
+		return
+	}
+	for j, growing := range ms.growingEl {
+		if !growing || !ms.opened[j] || st.Pressure[j] > ms.crackNormal[j] {
+			continue
+		}
+		e := st.Content[j] / sys.Content(j, 1, st.Pressure[j]) // the aperture its content fills
+		// Above the flow's pressure tolerance (1 Pa): a closed element's
+		// own content gives e = e₀ but for rounding.
+		if net := ms.crackStiffness[j] * (e - ms.conduitAperture0[j]); net > 1 {
+			st.Pressure[j] = ms.crackNormal[j] + net
+		}
+	}
 }
 
 // IsOpen reports whether element i of a result is open: the intact rock

@@ -552,6 +552,7 @@ func (r *runner) step(sys *flow.System, p *phase, sum *StageSummary, end float64
 	var grown []Warning
 	r.res.Crossings, grown = r.ms.grow(end, r.stage, r.next.Pressure, r.res.Crossings)
 	r.res.Warnings = append(r.res.Warnings, grown...)
+	r.startConsistent(sys, r.next)
 	r.t = end
 	r.next.Time = end
 	r.cur, r.next = r.next, r.cur
