@@ -1,6 +1,8 @@
 package flow
 
 import (
+	"fmt"
+	"math"
 	"testing"
 
 	"gonum.org/v1/gonum/spatial/r2"
@@ -52,5 +54,79 @@ func TestCubeMeanFaces(t *testing.T) {
 	numtest.Rel(t, "unmarked face unchanged", transmissibility([]bool{true, false, false, true}, 0, 1), transmissibility(nil, 0, 1), 1e-15)
 	if _, err := NewSystem(m, nil, Config{Fluid: Fluid{Viscosity: mu, Compressibility: 4.5e-10}, CubeMean: []bool{true}}); err == nil {
 		t.Error("a mask of the wrong length was accepted")
+	}
+}
+
+// At a junction of four elements (a marked path crossing an unmarked one)
+// the two marked elements meet through the mean of cubes and every pair
+// with an unmarked element through the star–delta term over all four
+// halves; at a well node no two elements exchange directly, marked or not.
+func TestCubeMeanAtJunctions(t *testing.T) {
+	const mu = 1e-3
+	paths := []Path{
+		{P0: r2.Vec{X: -30}, P1: r2.Vec{X: 30}, Height: 4},
+		{P0: r2.Vec{X: 10, Y: -30}, P1: r2.Vec{X: 10, Y: 20}, Height: 7},
+	}
+	m, err := BuildMesh(paths, []Junction{{A: 0, B: 1, SA: 40.0 / 60, SB: 0.6}}, MeshSettings{ElementLength: 10})
+	if err != nil {
+		t.Fatal(err)
+	}
+	mask := make([]bool, len(m.Elements))
+	e := make([]float64, len(m.Elements))
+	for k := range m.Elements {
+		mask[k] = m.Elements[k].Path == 0
+		e[k] = 1e-4 * (1 + 0.3*math.Sin(float64(k)))
+	}
+	junction := -1
+	for n := range m.NumNodes() {
+		if m.NodeStart[n+1]-m.NodeStart[n] == 4 {
+			junction = n
+		}
+	}
+	if junction < 0 {
+		t.Fatal("no junction of four elements")
+	}
+	el := m.NodeElems[m.NodeStart[junction]:m.NodeStart[junction+1]]
+	transmissibility := func(wellNodes []int, i, j int32) float64 {
+		s, err := NewSystem(m, wellNodes, Config{Fluid: Fluid{Viscosity: mu, Compressibility: 4.5e-10}, CubeMean: mask})
+		if err != nil {
+			t.Fatal(err)
+		}
+		s.conductances(e)
+		s.as.Reset()
+		s.assembleFlux(Control{}, e)
+		u, au := make([]float64, s.as.Matrix().N), make([]float64, s.as.Matrix().N)
+		u[j] = 1
+		s.as.Matrix().MulVecTo(au, u)
+		return -au[i]
+	}
+	s, err := NewSystem(m, nil, Config{Fluid: Fluid{Viscosity: mu, Compressibility: 4.5e-10}, CubeMean: mask})
+	if err != nil {
+		t.Fatal(err)
+	}
+	s.conductances(e)
+	var sumA float64
+	for _, k := range el {
+		sumA += s.alpha[k]
+	}
+	checked := 0
+	for a := range el {
+		for b := a + 1; b < len(el); b++ {
+			i, j := el[a], el[b]
+			want := s.alpha[i] * s.alpha[j] / sumA
+			if mask[i] && mask[j] {
+				ei, ej := e[i], e[j]
+				li, lj := m.Elements[i].Length, m.Elements[j].Length
+				want = m.Elements[i].Height * (ei*ei*ei + ei*ei*ej + ei*ej*ej + ej*ej*ej) / 4 / (6 * mu * (li + lj))
+				checked++
+			}
+			numtest.Rel(t, fmt.Sprintf("T between elements %d and %d at the junction", i, j), transmissibility(nil, i, j), want, 1e-12)
+			if got := transmissibility([]int{junction}, i, j); got != 0 {
+				t.Errorf("elements %d and %d exchange %g at a well node", i, j, got)
+			}
+		}
+	}
+	if checked != 1 {
+		t.Fatalf("%d marked pairs at the junction, want 1", checked)
 	}
 }

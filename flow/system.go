@@ -80,9 +80,14 @@ type Config struct {
 // transformation; derived here). It matters at a fluid front: a closed
 // element ahead of it (e_j → 0) takes e_i³/4 through the face, where the
 // series of halves lets nothing in and the front of a growing fracture
-// could never move by the flow. For equal apertures mean and series
-// agree. Only conductances change: contents, and so the mass balance, do
-// not.
+// could never move by the flow. For equal apertures and heights mean and
+// series agree. At a node of three or more elements (a growing fracture
+// meeting a trace) the marked pair takes the mean of cubes while every
+// pair with an unmarked element keeps the star–delta term over all the
+// node's halves: symmetric and conservative, though no longer the star's
+// exact elimination. At a well node no two elements exchange directly,
+// marked or not. Only conductances change: contents, and so the mass
+// balance, do not.
 //
 // # Well
 //

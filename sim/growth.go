@@ -41,11 +41,12 @@ import (
 // the closed one ahead). Where toughness governs,
 // the tip waits for K_I; where viscosity governs, K_I is reached as soon
 // as fluid arrives, and the front moves as fast as the flow fills the tip
-// element: the viscosity-dominated plane-strain (KGD-M) and height-
-// contained (Nordgren's PKN) solutions are followed as well as KGD-K (see
-// the tests), and the front converges at first order in the element length
-// (it leads by one or two elements: an element counts as open from the
-// step it starts to fill).
+// element: the viscosity-dominated plane-strain solution (KGD-M) and the
+// height-contained one (Nordgren's equation for the model's slot channel,
+// hfref.Channel) are followed as well as KGD-K (see the tests), and the
+// front converges at first order in the element length (it leads by one to
+// two and a half elements: an element counts as open from the step it
+// starts to fill).
 //
 // Where a tip meets a natural fracture (a mesh junction between the
 // conduit and a trace) the criterion of Renshaw & Pollard (1995), in the
@@ -63,9 +64,10 @@ import (
 // steps while fluid enters new elements).
 
 // FlawAperture is the aperture of the intact rock ahead of a growing
-// fracture's tip, m: a closed flaw whose transmissivity is ~10⁻¹⁸ of an
-// open fracture's (common practice, no source: only its smallness
-// matters).
+// fracture's tip, m: a closed flaw whose own transmissivity is ~10⁻⁹ of a
+// 1 mm fracture's and whose storage is negligible (common practice, no
+// source); fluid reaches it from an open neighbour through their
+// mean-of-cubes face, not through its own aperture.
 const FlawAperture = 1e-6
 
 // Crossing is what a growing fracture did where its tip met a natural
@@ -349,10 +351,12 @@ func planeNormalStresses(s mechanics.Stress, t r2.Vec) (along, across float64) {
 // shadows, so an element can end a step open and start the next one below
 // its new closure stress with the content of an open one. Started closed,
 // its first iteration saw no compliance, moved the pressure by the whole
-// iteration cap and opened the element by millimetres; the field-stage
-// example on 5 m elements stalled so (realizations 0 and 1, 23 and 32 s
-// into the first stage). Elements already open are left alone: their
-// iterations see the compliance.
+// iteration cap and opened the element by millimetres: realization 1 of
+// the field-stage example on 5 m elements stalled so, 23 s into its first
+// stage (TestGrowthFieldStageFineMesh). Elements already open are left
+// alone: their iterations see the compliance. The state is the accepted
+// step's, so the frames recorded after it and the next step's leak-off
+// see the adjusted pressures (a closed element's, by at most its net).
 func (r *runner) startConsistent(sys *flow.System, st *flow.State) {
 	ms := r.ms
 	if ms.growingEl == nil {

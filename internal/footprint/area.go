@@ -64,11 +64,10 @@ func prepare(segs []dfn.Segment, r float64) (*region, error) {
 	reg.origin = r2.Scale(0.5, r2.Add(lo, hi))
 	reg.scale = 0.5*max(hi.X-lo.X, hi.Y-lo.Y) + r
 	pairs := mergeCollinear(segs, 64*epsilon*mag)
-	turn, ok := sweepTurn(pairs, 32*epsilon*reg.scale/reg.mergeDistance())
-	if !ok {
-		return nil, fmt.Errorf("footprint: %d segments: too many are nearly horizontal in every frame tried", len(pairs))
-	}
-	if turn != reg.turn {
+	// Without a frame free of nearly horizontal segments (many segments at
+	// a radius tiny for the map) the map frame stays: Area does not need
+	// the turn, only Outline's vertex matching does.
+	if turn, ok := sweepTurn(pairs, 32*epsilon*reg.scale/reg.mergeDistance()); ok && turn != reg.turn {
 		reg.turn = turn
 		reg.scale = math.Sqrt2*0.5*max(hi.X-lo.X, hi.Y-lo.Y) + r
 	}
@@ -115,11 +114,13 @@ func (reg *region) toMap(p r2.Vec) r2.Vec {
 // whose outline vertices then missed each other by 2 µm, more than the
 // merge distance, and the outline came out empty. Exactly horizontal
 // segments are handled exactly (their long edges are flat), so only
-// slopes in (0, minSlope) need a turn; then the frame turns by multiples
-// of the golden angle π(√5 − 1)/2 until every segment's slope is 0 or at
-// least minSlope away from 0 (for n segments the bad angles cover at most
-// about 4n·minSlope of the half turn). Inputs without such a segment keep
-// the map frame, bit for bit.
+// slopes in (0, minSlope) need a turn (minSlope = 32ε·L over the merge
+// distance, about 4√(ε·L/r)); then the frame turns by multiples of π/φ
+// (φ the golden ratio: the multiples never repeat and spread evenly over
+// the half turn) until every segment's slope is 0 or at least minSlope
+// away from 0 (for n segments the bad angles cover at most about
+// 4n·minSlope of the half turn). Inputs without such a segment keep the
+// map frame, bit for bit.
 func sweepTurn(pairs [][2]r2.Vec, minSlope float64) (r2.Vec, bool) {
 	bad := func(c, s float64) bool {
 		for _, p := range pairs {
@@ -131,12 +132,9 @@ func sweepTurn(pairs [][2]r2.Vec, minSlope float64) (r2.Vec, bool) {
 		}
 		return false
 	}
-	const golden = math.Pi * 0.6180339887498949 // π(√5 − 1)/2
+	const step = math.Pi * 0.6180339887498949 // π/φ = π(√5 − 1)/2
 	for k := range 64 {
-		s, c := math.Sincos(float64(k) * golden)
-		if k == 0 {
-			s, c = 0, 1
-		}
+		s, c := math.Sincos(float64(k) * step) // k = 0: exactly (0, 1), the map frame
 		if !bad(c, s) {
 			return r2.Vec{X: c, Y: s}, true
 		}

@@ -25,8 +25,8 @@
 // Consecutive segments that continue one another along a line (the
 // stimulated elements of one trace) are merged before the sweep, which
 // changes the union by at most 64ε of the coordinates across the run. If a
-// segment is within about √ε of horizontal but not horizontal, the sweep
-// works in a turned frame (the outline comes back in the map frame).
+// segment's slope is nonzero but below about 4√(ε·L/r) (L the extent), the
+// sweep works in a turned frame (the outline comes back in the map frame).
 //
 // # Method
 //

@@ -5,6 +5,7 @@ import (
 	"math"
 	"math/rand/v2"
 	"runtime"
+	"slices"
 	"testing"
 
 	"github.com/paulmach/orb"
@@ -12,6 +13,7 @@ import (
 	"gonum.org/v1/gonum/spatial/r2"
 
 	"slipfront/dfn"
+	"slipfront/internal/numtest"
 )
 
 // checkOutline checks that mp is a well-formed outline of the region of
@@ -152,10 +154,11 @@ func TestOutlineSimple(t *testing.T) {
 }
 
 // Segments of slopes from 1e-12 to 1e-6 (and 0, which the sweep takes
-// exactly) ending beside the end of a diagonal one: the outline must be whole and
-// inscribed. Slopes below about √ε take the frame turn (sweepTurn); a fuzz
-// input of this shape, slope 6e-10 at 10⁵ m coordinates, came out empty
-// before the turn. The inputs without a near-flat segment keep the map
+// exactly) ending beside the end of a diagonal one: the outline must be
+// whole and inscribed. Slopes below about 4√(ε·L/r) take the frame turn
+// (sweepTurn); without it the slope 1e-12 case comes out empty (the fuzz
+// seed 325c9b0001952ff4, a pile of segments ending in one of slope 6e-10
+// at 10⁵ m, did too). The inputs without a near-flat segment keep the map
 // frame.
 func TestOutlineNearlyHorizontal(t *testing.T) {
 	for _, c := range []struct {
@@ -253,4 +256,36 @@ func TestOutlineDeterministic(t *testing.T) {
 	if len(many) < 2 || !many.Equal(one) {
 		t.Errorf("%d polygons with GOMAXPROCS workers, %d with one; equal: %v", len(many), len(one), many.Equal(one))
 	}
+}
+
+// When every frame tried has a nearly horizontal segment (20 000 random
+// segments at a radius of 0.1 mm on a 10 km map, and one of slope 1e-11)
+// the map frame stays and Area answers as before the frame turn existed:
+// within rounding of the area with that segment made exactly flat.
+func TestAreaWithoutFreeFrame(t *testing.T) {
+	rng := rand.New(rand.NewPCG(7, 8))
+	segs := make([]dfn.Segment, 0, 20001)
+	for range 20000 {
+		x, y, a := 1e4*rng.Float64(), 1e4*rng.Float64(), math.Pi*rng.Float64()
+		segs = append(segs, seg(x, y, x+20*math.Cos(a), y+20*math.Sin(a)))
+	}
+	const r = 1e-4
+	flat := append(slices.Clone(segs), seg(5000, 5000, 5020, 5000))
+	segs = append(segs, seg(5000, 5000, 5020, 5000+20e-11))
+	reg, err := prepare(segs, r)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if reg.turn != (r2.Vec{X: 1}) {
+		t.Fatalf("frame turned by %v: the test needs an input no frame frees", reg.turn)
+	}
+	got, err := Area(segs, r)
+	if err != nil {
+		t.Fatal(err)
+	}
+	want, err := Area(flat, r)
+	if err != nil {
+		t.Fatal(err)
+	}
+	numtest.Rel(t, "area with a segment of slope 1e-11 against it flat", got, want, 1e-9)
 }

@@ -14,7 +14,10 @@
 //     2002), with the dimensionless toughness 𝒦 that says which applies;
 //   - [PKN], a height-contained fracture without toughness (Perkins & Kern
 //     1961; Nordgren 1972), from the similarity solution of Nordgren's
-//     equation, whose constants this package's tests recompute.
+//     equation, whose constants this package's tests recompute; and
+//     [Channel], the same equation for a fracture tracked by its mean
+//     opening with the slot's cubic law, as the simulator tracks its
+//     conduits (front 0.962 of Nordgren's).
 //
 // It is a package of its own, internal to the module, because it is
 // neither simulator physics (mechanics and flow hold what runs) nor a
