@@ -334,10 +334,8 @@ func (r *runner) runStage(ctx context.Context, k int, ps scenarios.PlannedStage)
 	if err != nil {
 		return err
 	}
-	// Contents are h·L·e·(1 + c_f(p − p0)): only a fluid of another
-	// compressibility changes them. Recomputing them otherwise would give
-	// a growing fracture's just-opened tip the content of its aperture at
-	// its pressure, fluid that never entered it.
+	// Contents are h·L·e·(1 + c_f(p − p0)) at the apertures of the last
+	// step: only a fluid of another compressibility changes them.
 	if c := r.m.s.Fluids[ps.Fluid].Compressibility; c != r.contentCompressibility {
 		sys.Refresh(r.cur)
 		r.contentCompressibility = c
