@@ -26,32 +26,19 @@ func TestCubeMeanFaces(t *testing.T) {
 		t.Fatalf("%d elements, want 4", len(m.Elements))
 	}
 	e := []float64{2e-3, 1e-3, 1e-3, 1e-6}
-	// transmissibility returns T_ij of the assembled matrix: (A u_j)_i = −T_ij.
-	transmissibility := func(mask []bool, i, j int) float64 {
-		s, err := NewSystem(m, nil, Config{Fluid: Fluid{Viscosity: mu, Compressibility: 4.5e-10}, CubeMean: mask})
-		if err != nil {
-			t.Fatal(err)
-		}
-		s.conductances(e)
-		s.as.Reset()
-		s.assembleFlux(Control{}, e)
-		u, au := make([]float64, len(e)), make([]float64, len(e))
-		u[j] = 1
-		s.as.Matrix().MulVecTo(au, u)
-		return -au[i]
-	}
+	tr := func(mask []bool, i, j int32) float64 { return transmissibility(t, m, nil, mu, mask, e, i, j) }
 	mask := []bool{true, true, true, true}
 	dx := 10.0
-	t01 := transmissibility(mask, 0, 1)
+	t01 := tr(mask, 0, 1)
 	p0, p1 := sigma+k*e[0], sigma+k*e[1]
 	numtest.Rel(t, "face flux against Kirchhoff's", t01*(p0-p1), h*k/(48*mu)*(e[0]*e[0]*e[0]*e[0]-e[1]*e[1]*e[1]*e[1])/dx, 1e-12)
-	numtest.Rel(t, "equal apertures: mean = series of halves", transmissibility(mask, 1, 2), transmissibility(nil, 1, 2), 1e-12)
-	front := transmissibility(mask, 2, 3)
+	numtest.Rel(t, "equal apertures: mean = series of halves", tr(mask, 1, 2), tr(nil, 1, 2), 1e-12)
+	front := tr(mask, 2, 3)
 	numtest.Rel(t, "open to closed: e³/4 (within e_j/e_i)", front, h*(e[2]*e[2]*e[2]/4)/(12*mu*dx), 2*e[3]/e[2])
-	if series := transmissibility(nil, 2, 3); !(series < 1e-8*front) {
+	if series := tr(nil, 2, 3); !(series < 1e-8*front) {
 		t.Errorf("series of halves %g against the mean's %g: want almost nothing", series, front)
 	}
-	numtest.Rel(t, "unmarked face unchanged", transmissibility([]bool{true, false, false, true}, 0, 1), transmissibility(nil, 0, 1), 1e-15)
+	numtest.Rel(t, "unmarked face unchanged", tr([]bool{true, false, false, true}, 0, 1), tr(nil, 0, 1), 1e-15)
 	if _, err := NewSystem(m, nil, Config{Fluid: Fluid{Viscosity: mu, Compressibility: 4.5e-10}, CubeMean: []bool{true}}); err == nil {
 		t.Error("a mask of the wrong length was accepted")
 	}
@@ -63,14 +50,7 @@ func TestCubeMeanFaces(t *testing.T) {
 // halves; at a well node no two elements exchange directly, marked or not.
 func TestCubeMeanAtJunctions(t *testing.T) {
 	const mu = 1e-3
-	paths := []Path{
-		{P0: r2.Vec{X: -30}, P1: r2.Vec{X: 30}, Height: 4},
-		{P0: r2.Vec{X: 10, Y: -30}, P1: r2.Vec{X: 10, Y: 20}, Height: 7},
-	}
-	m, err := BuildMesh(paths, []Junction{{A: 0, B: 1, SA: 40.0 / 60, SB: 0.6}}, MeshSettings{ElementLength: 10})
-	if err != nil {
-		t.Fatal(err)
-	}
+	m := crossingMesh(t)
 	mask := make([]bool, len(m.Elements))
 	e := make([]float64, len(m.Elements))
 	for k := range m.Elements {
@@ -87,19 +67,6 @@ func TestCubeMeanAtJunctions(t *testing.T) {
 		t.Fatal("no junction of four elements")
 	}
 	el := m.NodeElems[m.NodeStart[junction]:m.NodeStart[junction+1]]
-	transmissibility := func(wellNodes []int, i, j int32) float64 {
-		s, err := NewSystem(m, wellNodes, Config{Fluid: Fluid{Viscosity: mu, Compressibility: 4.5e-10}, CubeMean: mask})
-		if err != nil {
-			t.Fatal(err)
-		}
-		s.conductances(e)
-		s.as.Reset()
-		s.assembleFlux(Control{}, e)
-		u, au := make([]float64, s.as.Matrix().N), make([]float64, s.as.Matrix().N)
-		u[j] = 1
-		s.as.Matrix().MulVecTo(au, u)
-		return -au[i]
-	}
 	s, err := NewSystem(m, nil, Config{Fluid: Fluid{Viscosity: mu, Compressibility: 4.5e-10}, CubeMean: mask})
 	if err != nil {
 		t.Fatal(err)
@@ -120,8 +87,8 @@ func TestCubeMeanAtJunctions(t *testing.T) {
 				want = m.Elements[i].Height * (ei*ei*ei + ei*ei*ej + ei*ej*ej + ej*ej*ej) / 4 / (6 * mu * (li + lj))
 				checked++
 			}
-			numtest.Rel(t, fmt.Sprintf("T between elements %d and %d at the junction", i, j), transmissibility(nil, i, j), want, 1e-12)
-			if got := transmissibility([]int{junction}, i, j); got != 0 {
+			numtest.Rel(t, fmt.Sprintf("T between elements %d and %d at the junction", i, j), transmissibility(t, m, nil, mu, mask, e, i, j), want, 1e-12)
+			if got := transmissibility(t, m, []int{junction}, mu, mask, e, i, j); got != 0 {
 				t.Errorf("elements %d and %d exchange %g at a well node", i, j, got)
 			}
 		}
@@ -129,4 +96,23 @@ func TestCubeMeanAtJunctions(t *testing.T) {
 	if checked != 1 {
 		t.Fatalf("%d marked pairs at the junction, want 1", checked)
 	}
+}
+
+// transmissibility returns T_ij of the flux matrix that a system of mesh m
+// (well at wellNodes, viscosity mu, faces marked by mask) assembles at the
+// apertures e: (A u_j)_i = −T_ij.
+func transmissibility(t *testing.T, m *Mesh, wellNodes []int, mu float64, mask []bool, e []float64, i, j int32) float64 {
+	t.Helper()
+	s, err := NewSystem(m, wellNodes, Config{Fluid: Fluid{Viscosity: mu, Compressibility: 4.5e-10}, CubeMean: mask})
+	if err != nil {
+		t.Fatal(err)
+	}
+	s.conductances(e)
+	s.as.Reset()
+	s.assembleFlux(Control{}, e)
+	a := s.as.Matrix()
+	u, au := make([]float64, a.N), make([]float64, a.N)
+	u[j] = 1
+	a.MulVecTo(au, u)
+	return -au[i]
 }

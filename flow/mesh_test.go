@@ -124,14 +124,7 @@ func TestBuildMeshErrors(t *testing.T) {
 // node at its equilibrium pressure p_n = Σα_k p_k / Σα_k (Karimi-Fard,
 // Durlofsky & Aziz 2004, eqs. 9–11).
 func TestStarDeltaConservesFlux(t *testing.T) {
-	paths := []Path{
-		{P0: r2.Vec{X: -30}, P1: r2.Vec{X: 30}, Height: 4},
-		{P0: r2.Vec{X: 10, Y: -30}, P1: r2.Vec{X: 10, Y: 20}, Height: 7},
-	}
-	m, err := BuildMesh(paths, []Junction{{A: 0, B: 1, SA: 40.0 / 60, SB: 0.6}}, MeshSettings{ElementLength: 10})
-	if err != nil {
-		t.Fatal(err)
-	}
+	m := crossingMesh(t)
 	s, err := NewSystem(m, nil, Config{Fluid: Fluid{Viscosity: 1e-3, Compressibility: 4.5e-10}})
 	if err != nil {
 		t.Fatal(err)
@@ -168,6 +161,21 @@ func TestStarDeltaConservesFlux(t *testing.T) {
 		return
 	}
 	t.Fatal("no junction node found")
+}
+
+// crossingMesh is two paths of heights 4 m and 7 m crossing at a node of
+// four elements, on 10 m elements.
+func crossingMesh(t *testing.T) *Mesh {
+	t.Helper()
+	paths := []Path{
+		{P0: r2.Vec{X: -30}, P1: r2.Vec{X: 30}, Height: 4},
+		{P0: r2.Vec{X: 10, Y: -30}, P1: r2.Vec{X: 10, Y: 20}, Height: 7},
+	}
+	m, err := BuildMesh(paths, []Junction{{A: 0, B: 1, SA: 40.0 / 60, SB: 0.6}}, MeshSettings{ElementLength: 10})
+	if err != nil {
+		t.Fatal(err)
+	}
+	return m
 }
 
 // otherNodeFlux returns the flux out of element k through its node other

@@ -1,7 +1,6 @@
 package sim
 
 import (
-	"context"
 	"math"
 	"os"
 	"path/filepath"
@@ -286,23 +285,9 @@ func TestGrowthExtentReplays(t *testing.T) {
 // realization 1 must run, conserve mass and hold what was injected
 // (leak-off aside) in its fractures; without startConsistent it stops.
 func TestGrowthFieldStageFineMesh(t *testing.T) {
-	ov, err := scenarios.ParseOverrides([]string{"numerics.element_length=5 m", "schedule.volume=66 bbl",
-		"wells[0].stages[1].volume=0.1 bbl", "schedule.shut_in=0 s", "numerics.output_interval=10 s"})
-	if err != nil {
-		t.Fatal(err)
-	}
-	s, err := scenarios.LoadExample("field-stage", ov...)
-	if err != nil {
-		t.Fatal(err)
-	}
-	net, err := dfn.Generate(s, 1)
-	if err != nil {
-		t.Fatal(err)
-	}
-	res, err := Run(context.Background(), s, net, Options{})
-	if err != nil {
-		t.Fatal(err)
-	}
+	s := loadExample(t, "field-stage", "numerics.element_length=5 m", "schedule.volume=66 bbl",
+		"wells[0].stages[1].volume=0.1 bbl", "schedule.shut_in=0 s", "numerics.output_interval=10 s")
+	_, res := runRealization(t, s, 1)
 	if got := res.Stages[0].PumpEnd - res.Stages[0].Start; got < 45 {
 		t.Fatalf("stage 1 pumped for %.1f s, want about 50 s", got)
 	}

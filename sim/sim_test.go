@@ -23,8 +23,8 @@ import (
 	"slipfront/scenarios"
 )
 
-// runExample runs an embedded example with overrides.
-func runExample(t testing.TB, name string, overrides ...string) (*scenarios.Scenario, *dfn.Network, *Result) {
+// loadExample loads an embedded example with overrides.
+func loadExample(t testing.TB, name string, overrides ...string) *scenarios.Scenario {
 	t.Helper()
 	ov, err := scenarios.ParseOverrides(overrides)
 	if err != nil {
@@ -34,6 +34,13 @@ func runExample(t testing.TB, name string, overrides ...string) (*scenarios.Scen
 	if err != nil {
 		t.Fatal(err)
 	}
+	return s
+}
+
+// runExample runs realization 0 of an embedded example with overrides.
+func runExample(t testing.TB, name string, overrides ...string) (*scenarios.Scenario, *dfn.Network, *Result) {
+	t.Helper()
+	s := loadExample(t, name, overrides...)
 	net, res := runScenario(t, s)
 	return s, net, res
 }
@@ -41,7 +48,13 @@ func runExample(t testing.TB, name string, overrides ...string) (*scenarios.Scen
 // runScenario draws realization 0 of the scenario's network and runs it.
 func runScenario(t testing.TB, s *scenarios.Scenario) (*dfn.Network, *Result) {
 	t.Helper()
-	net, err := dfn.Generate(s, 0)
+	return runRealization(t, s, 0)
+}
+
+// runRealization draws realization r of the scenario's network and runs it.
+func runRealization(t testing.TB, s *scenarios.Scenario, r int) (*dfn.Network, *Result) {
+	t.Helper()
+	net, err := dfn.Generate(s, r)
 	if err != nil {
 		t.Fatal(err)
 	}
