@@ -39,7 +39,8 @@ type ContactSettings struct {
 	// (default 1e-6).
 	Tolerance float64
 	// MaxIterations of the block Gauss–Seidel sweeps (default 200), after
-	// which a small enough working set is solved whole.
+	// which a small enough working set is solved whole (and, while the
+	// solves keep needing that, after retrySweeps).
 	MaxIterations int
 	// DetachRadius, m: elements of different groups do not load each
 	// other when the centre of either is closer than this to the other
@@ -99,10 +100,16 @@ var ErrContactNotConverged = errors.New("mechanics: friction contact did not con
 // group the tractions of its neighbours are brought up to date. Groups
 // that load each other strongly (crossing traces on short elements) can
 // make the sweeps stall or diverge; when they have not settled after
-// MaxIterations sweeps, a working set of up to 600 elements is solved as
+// MaxIterations sweeps, a working set of up to 1 500 elements is solved as
 // one group, with every interaction within NearRadius in one Jacobian
 // (stability is still judged group by group, and ∂D/∂p is then the
-// response to a pressure change over the whole set). Elements outside
+// response to a pressure change over the whole set). Its Jacobian keeps
+// every element's row, so that the many rounds in which a few elements
+// change status update its factorization by those rows (Sherman–Morrison–
+// Woodbury) instead of factoring it again. Once a solve has
+// needed that, the following ones (coupling iterations, later steps) try
+// only retrySweeps sweeps before it and keep the whole set's matrix while
+// the set is unchanged, until the sweeps settle again. Elements outside
 // the set are checked against their strength after every round, and join
 // it when they fail. Interactions between elements farther apart
 // than NearRadius act through the committed tractions (the full operator
@@ -150,6 +157,9 @@ type Contact struct {
 	// relaxation is the fraction of a group solve's change that the
 	// sweep applies (1 at first, less if the sweeps do not settle).
 	relaxation float64
+	// merging tells that the last solve needed the whole working set
+	// solved at once.
+	merging bool
 	// The slip and opening not yet transferred to the far field, m, and
 	// their largest magnitude; work arrays of the far-field product.
 	pendS, pendW []float64
@@ -336,7 +346,11 @@ func (c *Contact) Solve(p []float64) (SolveResult, error) {
 func (c *Contact) sweep(round int) (int, error) {
 	t := &c.trial
 	c.relaxation = 1
-	for k := 1; k <= c.set.MaxIterations; k++ {
+	budget := c.set.MaxIterations
+	if c.merging && len(t.work) <= mergedLimit {
+		budget = min(budget, retrySweeps)
+	}
+	for k := 1; k <= budget; k++ {
 		if k > c.set.MaxIterations/4 {
 			// Groups that load each other strongly (through the coupling
 			// of slip and normal stress of crossing traces) can make
@@ -353,13 +367,19 @@ func (c *Contact) sweep(round int) (int, error) {
 			change = math.Max(change, dc)
 		}
 		if c.settled(change) {
+			if c.merging {
+				c.merging = false
+				delete(c.caches, mergedGroup)
+			}
 			return k, nil
 		}
 	}
 	if len(t.work) <= mergedLimit {
-		return c.sweepMerged(round)
+		c.merging = true
+		k, err := c.sweepMerged(round)
+		return budget + k, err
 	}
-	return c.set.MaxIterations, fmt.Errorf("%w in %d sweeps (round %d, %d elements active, more than the %d solved as one system)", ErrContactNotConverged,
+	return budget, fmt.Errorf("%w in %d sweeps (round %d, %d elements active, more than the %d solved as one system)", ErrContactNotConverged,
 		c.set.MaxIterations, round, len(t.work), mergedLimit)
 }
 
@@ -386,11 +406,15 @@ func (c *Contact) working(g int) []int {
 }
 
 // mergedGroup is the key of the system of the whole working set, and
-// mergedLimit the largest working set solved so (a dense system of 2m
-// unknowns: 600 elements factor in about a tenth of a second).
+// mergedLimit the largest working set solved so: its matrix is dense, 2m ×
+// 2m (72 MB at 1 500 elements), and the Jacobian of its sliding elements
+// is factored once per change of their states (about 25 ms for 700 of
+// them on one core). retrySweeps is the sweeps tried before it once a
+// solve has needed it: sweeps that settle so fast cost no more than it.
 const (
 	mergedGroup = -1
-	mergedLimit = 600
+	mergedLimit = 1500
+	retrySweeps = 10
 )
 
 // sweepMerged solves the whole working set as one group, when block
@@ -398,25 +422,23 @@ const (
 // strongly enough (crossing traces on short elements) make the sweeps
 // diverge or stall, while the coupled system has a solution. Every
 // interaction within NearRadius is then in one Jacobian, so the second
-// solve normally finds nothing left to change.
+// solve normally finds nothing left to change. It returns the solves it
+// made.
 func (c *Contact) sweepMerged(round int) (int, error) {
 	t := &c.trial
 	c.relaxation = 1
-	// The whole set's matrix (up to 1 200² numbers) is not kept for later
-	// rounds and steps, which start with the sweeps again.
-	defer delete(c.caches, mergedGroup)
 	const passes = 8
 	for k := 1; k <= passes; k++ {
 		change, err := c.solveGroup(mergedGroup, t.work)
 		if err != nil {
-			return c.set.MaxIterations + k, err
+			return k, err
 		}
 		if c.settled(change) {
-			return c.set.MaxIterations + k, nil
+			return k, nil
 		}
 	}
-	return c.set.MaxIterations + passes, fmt.Errorf("%w in %d sweeps and %d solves of the whole working set (round %d, %d elements active)",
-		ErrContactNotConverged, c.set.MaxIterations, passes, round, len(t.work))
+	return passes, fmt.Errorf("%w after %d solves of the whole working set (round %d, %d elements active)",
+		ErrContactNotConverged, passes, round, len(t.work))
 }
 
 // absTolerance is the change of slip or opening, m, below which the

@@ -21,6 +21,9 @@ type groupCache struct {
 	key []byte
 	lu  denseLU
 	ok  bool
+	// The factorization of the whole set's full Jacobian, updated row by
+	// row (see groupSystem.full).
+	rows rowUpdatedLU
 }
 
 // groupSystem is the local problem of one group's working elements: the
@@ -30,6 +33,12 @@ type groupCache struct {
 // positions of z are solved for: the slip of sliding and open elements and
 // the opening of open ones; the others are fixed (no slip increment, a
 // closed element's opening zero).
+//
+// The whole working set's system (mergedGroup) is large, and its statuses
+// change a few elements at a time over many rounds; it keeps every
+// position that can be free in its Jacobian (full), a fixed one with the
+// row z_pos = its value, so that a change of status replaces rows and the
+// factorization is updated (rowUpdatedLU) instead of made again.
 type groupSystem struct {
 	c      *Contact
 	group  int
@@ -45,6 +54,9 @@ type groupSystem struct {
 	slopes []float64 // ∂μ/∂D of each element at z (0 unless sliding and weakening)
 	// monotone forbids sliding elements to stick again (see settle).
 	monotone bool
+	full     bool
+	fixed    []bool  // per position, in full mode
+	rowKeys  []uint8 // per row of jac, in full mode
 }
 
 // maxStatusChanges bounds the active-set iterations of a group solve, and
@@ -87,7 +99,7 @@ func (c *Contact) solveGroup(g int, elems []int) (float64, error) {
 // of group g.
 func (c *Contact) newGroupSystem(g int, elems []int) *groupSystem {
 	t := &c.trial
-	s := &groupSystem{c: c, group: g, elems: elems}
+	s := &groupSystem{c: c, group: g, elems: elems, full: g == mergedGroup}
 	m := len(s.elems)
 	s.m = m
 	s.cache = c.groupCache(g, s.elems)
@@ -203,17 +215,33 @@ func (s *groupSystem) name() string {
 }
 
 // fix sets the fixed positions of z for the current statuses and lists
-// the free ones.
+// the free ones, or in full mode every position that can be free (the
+// openings only without ShearOnly) and which of them are fixed.
 func (s *groupSystem) fix() {
 	c, t := s.c, &s.c.trial
 	m := s.m
 	s.free = s.free[:0]
+	if s.full && s.fixed == nil {
+		s.fixed = make([]bool, 2*m)
+	}
 	for k, i := range s.elems {
-		switch t.status[i] {
+		st := t.status[i]
+		switch st {
 		case stuck:
 			s.z[k], s.z[m+k] = 0, -c.base.Opening[i]
 		case sliding:
 			s.z[m+k] = -c.base.Opening[i]
+		}
+		if s.full {
+			s.fixed[k], s.fixed[m+k] = st == stuck, st != open
+			s.free = append(s.free, k)
+			if !c.set.ShearOnly {
+				s.free = append(s.free, m+k)
+			}
+			continue
+		}
+		switch st {
+		case sliding:
 			s.free = append(s.free, k)
 		case open:
 			s.free = append(s.free, k, m+k)
@@ -225,42 +253,64 @@ func (s *groupSystem) fix() {
 // newton solves the equations of the current statuses. The equations are
 // piecewise linear, so the Jacobian changes only where an element crosses
 // a kink (Dc, σn′ = 0): a factorization is kept while the states and
-// slopes it was made for hold, and made again when Newton stalls.
+// slopes it was made for hold, and made again when Newton stalls. Newton
+// stops when its step falls below 1e-13 of the increments, or when two
+// steps in a row with the exact Jacobian do not halve it: the step is then
+// round-off (a large system's), or crosses kinks back and forth, which no
+// further iteration mends.
 func (s *groupSystem) newton() error {
 	s.fix()
 	nf := len(s.free)
 	if nf == 0 {
 		return nil
 	}
-	refresh := false
+	refresh, exactPrev := false, false
 	prev := math.Inf(1)
 	for it := range maxNewton {
 		s.residual()
-		key := s.key()
-		if refresh || !s.cache.ok || string(key) != string(s.cache.key) {
-			s.cache.key, s.cache.ok = key, s.cache.lu.factorize(slices.Clone(s.jac), nf)
-			if !s.cache.ok {
-				return fmt.Errorf("%w: singular system in %s", ErrContactNotConverged, s.name())
-			}
-			refresh = false
+		if !s.factor(refresh) {
+			return fmt.Errorf("%w: singular system in %s", ErrContactNotConverged, s.name())
 		}
+		exact := refresh
+		refresh = false
 		d := slices.Clone(s.res)
-		s.cache.lu.solve(d)
+		if s.full {
+			s.cache.rows.solve(d)
+		} else {
+			s.cache.lu.solve(d)
+		}
 		var step, zmax float64
 		for q, pos := range s.free {
 			s.z[pos] -= d[q]
 			step = max(step, math.Abs(d[q]))
 			zmax = max(zmax, math.Abs(s.z[pos]))
 		}
-		if step <= 1e-13*(zmax+absScale) {
+		if step <= 1e-13*(zmax+absScale) || exact && exactPrev && step > 0.5*prev {
 			return nil
 		}
+		exactPrev = exact
 		if step > 0.5*prev || it > 2 {
 			refresh = true // a kink or a changed slope: use the exact Jacobian
 		}
 		prev = step
 	}
 	return nil
+}
+
+// factor readies the factorization of the Jacobian of s.jac: kept while
+// its key holds (reduced), updated by the rows whose key changed (full);
+// with refactor made exact again. It reports whether the Jacobian is
+// nonsingular.
+func (s *groupSystem) factor(refactor bool) bool {
+	nf := len(s.free)
+	if s.full {
+		return s.cache.rows.update(s.jac, s.rowKeys, nf, refactor)
+	}
+	key := s.key()
+	if refactor || !s.cache.ok || string(key) != string(s.cache.key) {
+		s.cache.key, s.cache.ok = key, s.cache.lu.factorize(slices.Clone(s.jac), nf)
+	}
+	return s.cache.ok
 }
 
 // key describes what the reduced Jacobian depends on: the free positions,
@@ -296,6 +346,14 @@ func (s *groupSystem) residual() {
 	}
 	s.jac, s.res = s.jac[:nf*nf], s.res[:nf]
 	clear(s.jac)
+	if s.full {
+		for r, pos := range s.free {
+			if s.fixed[pos] {
+				s.jac[r*nf+r] = 1 // z_pos stays at its value: residual 0
+				s.res[r] = 0
+			}
+		}
+	}
 	row := make([]float64, n2)
 	for k, i := range s.elems {
 		tau, sigma := s.tractions(k)
@@ -321,6 +379,27 @@ func (s *groupSystem) residual() {
 			s.setRow(s.rowOf(m+k), s.a[(m+k)*n2:(m+k+1)*n2], eff)
 		}
 	}
+	if s.full {
+		s.rowKeys = slices.Grow(s.rowKeys[:0], nf)[:nf]
+		for r, pos := range s.free {
+			k := pos % m
+			i := s.elems[k]
+			s.rowKeys[r] = rowKey(t.status[i], t.sign[i], t.ruptured[i], s.slopes[k] != 0, pos >= m)
+		}
+	}
+}
+
+// rowKey packs what a row of the full Jacobian depends on: the element's
+// status, sign of sliding, rupture and weakening, and whether the row is
+// its slip's or its opening's.
+func rowKey(st elementStatus, sign int8, ruptured, weakening, opening bool) uint8 {
+	k := uint8(st) | uint8(sign+1)<<2
+	for b, f := range []bool{ruptured, weakening, opening} {
+		if f {
+			k |= 1 << (4 + b)
+		}
+	}
+	return k
 }
 
 // rowOf returns the row of free position pos.

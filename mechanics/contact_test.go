@@ -229,7 +229,8 @@ func TestContactNucleation(t *testing.T) {
 // when every element slides at constant friction and interacts with every
 // other: a check of the Gauss–Seidel sweeps across two groups, and of the
 // solve of the whole working set that takes over when the sweeps do not
-// settle (forced here by allowing a single sweep).
+// settle (forced here by allowing a single sweep), also when a step is
+// repeated with the whole set's matrix kept.
 func TestContactTwoGroups(t *testing.T) {
 	const sigma, p0 = 40e6, 10e6
 	f := SlipWeakening{Static: 0.4, Residual: 0.4, CriticalSlip: 1e-3}
@@ -287,6 +288,24 @@ func TestContactTwoGroups(t *testing.T) {
 			}
 			for i := range n {
 				numtest.Rel(t, "slip against the direct solve", ct.trial.ds[i], want.AtVec(i), 1e-8)
+			}
+			if !c.merged {
+				return
+			}
+			// The step repeated (as after a rejected step): the whole set
+			// is solved again with the matrix kept from the first solve.
+			if ct.caches[mergedGroup] == nil {
+				t.Fatal("the whole working set's matrix was not kept")
+			}
+			ct.Begin(st, p)
+			if res, err = ct.Solve(p); err != nil {
+				t.Fatal(err)
+			}
+			if res.Sweeps <= ct.set.MaxIterations {
+				t.Errorf("repeated step: %d sweeps, want the whole set solved again", res.Sweeps)
+			}
+			for i := range n {
+				numtest.Rel(t, "slip of the repeated step against the direct solve", ct.trial.ds[i], want.AtVec(i), 1e-8)
 			}
 		})
 	}
