@@ -380,7 +380,7 @@ func (c *Contact) sweep(round int) (int, error) {
 		return budget + k, err
 	}
 	return budget, fmt.Errorf("%w in %d sweeps (round %d, %d elements active, more than the %d solved as one system)", ErrContactNotConverged,
-		c.set.MaxIterations, round, len(t.work), mergedLimit)
+		budget, round, len(t.work), mergedLimit)
 }
 
 // settled reports whether the largest change of a sweep, m, is within the

@@ -394,10 +394,14 @@ func (s *groupSystem) residual() {
 // its slip's or its opening's.
 func rowKey(st elementStatus, sign int8, ruptured, weakening, opening bool) uint8 {
 	k := uint8(st) | uint8(sign+1)<<2
-	for b, f := range []bool{ruptured, weakening, opening} {
-		if f {
-			k |= 1 << (4 + b)
-		}
+	if ruptured {
+		k |= 1 << 4
+	}
+	if weakening {
+		k |= 1 << 5
+	}
+	if opening {
+		k |= 1 << 6
 	}
 	return k
 }
