@@ -13,6 +13,14 @@ import (
 // fuzzSize is the smallest accepted picture, to keep each fuzz run cheap.
 var fuzzSize = Size{Width: MinWidth, Height: MinHeight}
 
+// encodeFast makes the fuzz targets encode without compression: the
+// property checked is the drawing's, and deflate would take half the time.
+func encodeFast(f *testing.F) {
+	saved := pngEncoder
+	pngEncoder = &png.Encoder{CompressionLevel: png.NoCompression}
+	f.Cleanup(func() { pngEncoder = saved })
+}
+
 // checkFuzzOutput requires that a successful write produced a decodable
 // PNG of fuzzSize.
 func checkFuzzOutput(t *testing.T, err error, buf *bytes.Buffer) {
@@ -35,6 +43,7 @@ func checkFuzzOutput(t *testing.T, err error, buf *bytes.Buffer) {
 // FuzzMap draws maps from arbitrary numbers: any input must give either an
 // error or a valid PNG, never a panic.
 func FuzzMap(f *testing.F) {
+	encodeFast(f)
 	nan, inf := math.NaN(), math.Inf(1)
 	f.Add(0.0, 0.0, 100.0, 100.0, 1.0, -1.0, 0.0, 0.0, 0.0, 0.0)
 	f.Add(-5.0, 3.0, 5.0, 3.0, nan, 2.0, -10.0, 10.0, -10.0, 10.0)
@@ -59,6 +68,7 @@ func FuzzMap(f *testing.F) {
 
 // FuzzCharts draws the three charts from arbitrary numbers.
 func FuzzCharts(f *testing.F) {
+	encodeFast(f)
 	f.Add(0.0, 3600.0, 0.0, 1e5, 1e6, 2e6)
 	f.Add(0.0, 0.0, 0.0, 0.0, 0.0, 0.0)
 	f.Add(-1e300, 1e300, -1.0, 1e300, math.NaN(), 5.0)
@@ -85,6 +95,7 @@ func FuzzCharts(f *testing.F) {
 // arbitrary numbers: any input must give either an error or a valid PNG,
 // never a panic.
 func FuzzScreeningAndRunCharts(f *testing.F) {
+	encodeFast(f)
 	f.Add(1.0, 2.0, 40e6, 25e6, 18e6, 0.6, 600.0, 0.5, -1.5, 0.1)
 	f.Add(0.0, 0.0, 0.0, 0.0, 0.0, 0.0, 0.0, 0.0, 0.0, 0.0)
 	f.Add(math.NaN(), 1e300, -1.0, 1e300, math.Inf(1), 1e-300, -1e300, 1e-300, 9.9, 1e-9)
@@ -109,6 +120,7 @@ func FuzzScreeningAndRunCharts(f *testing.F) {
 // FuzzBatchPictures draws the raster maps, the fan panels and the ratio
 // distribution from arbitrary numbers.
 func FuzzBatchPictures(f *testing.F) {
+	encodeFast(f)
 	f.Add(0.5, 10.0, 0.0, 0.0, 3600.0, 1e5, 0.8)
 	f.Add(0.0, 0.0, 0.0, 0.0, 0.0, 0.0, 0.0)
 	f.Add(math.NaN(), 1e-300, 1e300, -1e300, math.Inf(-1), -1.0, 1e300)
