@@ -47,8 +47,10 @@ type ContactSettings struct {
 	// element (any point of it). Where two traces cross or one ends on
 	// another, the constant-element collocation puts one element's centre
 	// next to the other's end or on its face, where the influence is
-	// singular and meaningless; such pairs are left out (0 keeps every
-	// pair). It must not exceed NearRadius less half the longest element.
+	// singular and meaningless; such pairs are left out, their coupling
+	// added to the two self-influences so that the elastic energy stays
+	// positive (see compensation; 0 keeps every pair). It must not exceed
+	// NearRadius less half the longest element.
 	DetachRadius float64
 	// FarRefresh, m: the stress that slip and opening transfer beyond
 	// NearRadius is added to the committed tractions once some element's
@@ -143,9 +145,12 @@ type Contact struct {
 	near      [][]int32
 	nearBlock [][]elastic.Block
 	// detached[j] are the receivers that source j does not load, and
-	// detachedBlock their influence, subtracted from the full operator's.
+	// detachedBlock their influence, subtracted from the full operator's;
+	// compensated is what each element's self-influence gains for them
+	// (see compensation), included in self.
 	detached      [][]int32
 	detachedBlock [][]elastic.Block
+	compensated   []elastic.Block
 	groups        [][]int
 
 	// The committed state of the step and its tractions.
@@ -221,6 +226,9 @@ func NewContact(op elastic.Operator, elems []ContactElement, s ContactSettings) 
 		c.groups[e.Group] = append(c.groups[e.Group], i)
 	}
 	c.findNear()
+	for i := range c.self {
+		c.self[i] = addBlock(c.self[i], c.compensated[i])
+	}
 	c.trial = newTrial(n)
 	c.caches = map[int]*groupCache{}
 	c.pendS, c.pendW, c.tsAll, c.tnAll = make([]float64, n), make([]float64, n), make([]float64, n), make([]float64, n)
@@ -240,6 +248,7 @@ func (c *Contact) findNear() {
 	c.nearBlock = make([][]elastic.Block, n)
 	c.detached = make([][]int32, n)
 	c.detachedBlock = make([][]elastic.Block, n)
+	c.compensated = make([]elastic.Block, n)
 	r2max := c.set.NearRadius * c.set.NearRadius
 	for j := range n { // source j
 		g.visit(centres[j], func(i int) {
@@ -248,8 +257,14 @@ func (c *Contact) findNear() {
 			}
 			d := r2.Sub(centres[i], centres[j])
 			if c.elems[i].Group != c.elems[j].Group && c.touching(i, j) {
+				aij := c.op.At(i, j)
 				c.detached[j] = append(c.detached[j], int32(i))
-				c.detachedBlock[j] = append(c.detachedBlock[j], c.op.At(i, j))
+				c.detachedBlock[j] = append(c.detachedBlock[j], aij)
+				if i > j { // each pair once: it is visited from both ends
+					ci, cj := compensation(aij, c.weight[i], c.weight[j], c.set.ShearOnly)
+					c.compensated[i] = addBlock(c.compensated[i], ci)
+					c.compensated[j] = addBlock(c.compensated[j], cj)
+				}
 				return
 			}
 			if r2.Dot(d, d) <= r2max {
@@ -568,13 +583,17 @@ func (c *Contact) refreshFar(st *ContactState) {
 
 // Influence overwrites ts and tn with the shear and normal traction
 // changes, Pa, that slip ds and opening dw, m, of the elements cause: the
-// operator's product without the detached pairs (see DetachRadius).
+// operator's product without the detached pairs, and with their
+// compensation (see DetachRadius and compensation).
 func (c *Contact) Influence(ts, tn, ds, dw []float64) {
 	c.op.MulVecTo(ts, tn, ds, dw)
 	for j, list := range c.detached {
 		if ds[j] == 0 && dw[j] == 0 {
 			continue
 		}
+		b := &c.compensated[j]
+		ts[j] += b.ShearSlip*ds[j] + b.ShearOpening*dw[j]
+		tn[j] += b.NormalSlip*ds[j] + b.NormalOpening*dw[j]
 		for q, i := range list {
 			b := &c.detachedBlock[j][q]
 			ts[i] -= b.ShearSlip*ds[j] + b.ShearOpening*dw[j]
