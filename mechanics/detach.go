@@ -6,13 +6,16 @@ import (
 	"slipfront/elastic"
 )
 
-// Detaching a pair of elements (see ContactSettings.DetachRadius) removes
-// two off-diagonal blocks from the operator, and removing entries from a
-// positive definite matrix can make it indefinite: on a network of
-// crossing traces the sliding elements' stiffness then has negative
-// eigenvalues, the contact problem a direction of unbounded slip, and its
-// iterations cycle or run away. Each removed pair is therefore compensated
-// on the two diagonal blocks, which keeps the elastic energy positive.
+// At crossings the collocated influences are meaningless, and both ways
+// of using the operator there fail: kept, they make the elastic energy of
+// slip indefinite (on the test's random crossing networks the full
+// operator has negative eigenvalues), and detaching the pairs (see
+// ContactSettings.DetachRadius), which removes two off-diagonal blocks,
+// can leave it indefinite too (the field-stage example's realization 3
+// on 5 m elements, and those networks in plane strain). The contact
+// problem then has directions of unbounded slip, and its iterations cycle
+// or run away. Each removed pair is therefore compensated on the two
+// diagonal blocks.
 //
 // With E = J W A, J = diag(−1, 1) (the energy matrix: U = ½ zᵀ E z, see
 // the elastic package), the pair's block E_ij = J W_i A_ij removed, and
@@ -22,13 +25,16 @@ import (
 //	[ D_i     −E_ij ]   [  U ]     [  U ]ᵀ
 //	[ −E_ijᵀ   D_j  ] = [ −V ] Σ  [ −V ]     ⪰ 0   (E_ij = U Σ Vᵀ),
 //
-// so the detached operator's energy is at least the full operator's. This
-// is diagonal compensation of dropped entries, as in modified incomplete
-// factorizations (Gustafsson 1978; Axelsson & Kolotilina 1994, from
-// memory); the proof above is elementary. It stiffens the elements at
-// crossings by the coupling they lose (a median of 12 % of an element's
-// own shear stiffness per detached pair on the field-stage example's 5 m
-// mesh), where the constant-element collocation is meaningless anyway.
+// so the energy of any slip is raised by a positive semidefinite term,
+// never lowered. This is diagonal compensation of dropped entries, as in
+// modified incomplete factorizations (Gustafsson 1978; Axelsson &
+// Kolotilina 1994, from memory); the identity above is elementary. It does
+// not prove the result definite (the full operator is not), but on every
+// network tried it was, where the detached one was not (the tests). It
+// stiffens the elements at crossings by the coupling they lose (a median
+// of 12 % of an element's own shear stiffness per detached pair on the
+// field-stage example's 5 m mesh): crossings pin the slip around them, over
+// the DetachRadius, a band that narrows as the elements do.
 //
 // Without openings as unknowns (ContactSettings.ShearOnly) only the
 // slip–slip part of E_ij is compensated (D = |e_ss| on the slip

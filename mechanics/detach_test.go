@@ -85,10 +85,11 @@ func energyMatrix(n int, weight []float64, shearOnly bool, block func(i, j int) 
 
 // Detached pairs are compensated so that the contact problem's elastic
 // energy is never below the full operator's: E_contact − E_full ⪰ 0
-// (the identity in compensation). Without the compensation the
-// slip–slip energy of these crossing networks is indefinite in plane
-// strain, the failure that made the whole-set solves of crossing traces
-// cycle (common practice, no source: checked here).
+// (the identity in compensation), and on these crossing networks it is
+// positive definite. Neither alternative is: the full operator's slip
+// energy is indefinite on them, and so is the detached operator's without
+// compensation in plane strain, the failure that made the whole-set
+// solves of crossing traces cycle (checked here; no source).
 func TestDetachCompensation(t *testing.T) {
 	for seed := range uint64(4) {
 		for _, planeStrain := range []bool{true, false} {
@@ -126,6 +127,9 @@ func TestDetachCompensation(t *testing.T) {
 					}
 					if l := smallestEigen(contact, nn); !(l > 0) {
 						t.Errorf("contact energy has eigenvalue %.3g ≤ 0", l)
+					}
+					if l := smallestEigen(full, nn); l >= 0 {
+						t.Errorf("the full operator's energy has smallest eigenvalue %.3g ≥ 0: this network does not show why pairs are detached", l)
 					}
 					if planeStrain && shearOnly {
 						if l := smallestEigen(uncompensated, nn); l >= 0 {

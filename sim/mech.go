@@ -100,7 +100,9 @@ const contactNearRadius = 3
 // (mechanics.ContactSettings.DetachRadius): at crossings and where traces
 // run within an element or two of each other, constant elements give
 // influences far too large (the stress next to an element's end is
-// singular), and the slip they drive grows without bound.
+// singular), and the slip they drive grows without bound. The contact
+// problem adds each such pair's coupling to the two elements' own
+// stiffness, so crossings stiffen the slip around them instead.
 const detachRadius = 2
 
 // farRefresh is the slip or opening, as a fraction of numerics.slip_max,
