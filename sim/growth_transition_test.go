@@ -1,0 +1,60 @@
+package sim
+
+import (
+	"math"
+	"testing"
+
+	"slipfront/internal/hfref"
+)
+
+// Between the two limits (1 < 𝒦 < 4) no similarity solution is in
+// internal/hfref, so the transition is checked by what holds for any
+// fracture that spends energy both in viscous flow and in breaking rock
+// (Detournay 2004, from memory: the solution moves monotonically from the
+// M-vertex to the K-vertex as 𝒦 grows): at fixed viscosity, rate and time
+// a tougher rock gives a fracture no longer and a net pressure at the well
+// no lower, and its length stays below both limits' lengths (within the
+// lead of 2.5 elements + 1 % that TestGrowthViscosityDominated measures
+// for the M-vertex). testdata/kgd-viscosity, 60 s on 1 m elements, with
+// the toughness set for 𝒦 = 0, 1.5, 2.5, 3.5 and 6.
+func TestGrowthTransitionRegime(t *testing.T) {
+	const duration, element = 60.0, 1.0
+	base := loadCase(t, "kgd-viscosity")
+	g, nu := base.Rock.ShearModulus, base.Rock.PoissonRatio
+	kgd := hfref.KGD{PlaneModulus: 2 * g / (1 - nu), Viscosity: base.Fluids["gel"].Viscosity, Rate: base.Schedule.Rate / base.Layer.Thickness}
+	// K_Ic for a given 𝒦 = K′(E′³μ′Q)^(−1/4), K′ = 4√(2/π)K_Ic.
+	scale := math.Pow(math.Pow(kgd.PlaneModulus, 3)*12*kgd.Viscosity*kgd.Rate, 0.25) / (4 * math.Sqrt(2/math.Pi))
+	lm := kgd.ViscosityDominated(duration).HalfLength
+	prevLength, prevPressure := math.Inf(1), math.Inf(-1)
+	for _, dimless := range []float64{0, 1.5, 2.5, 3.5, 6} {
+		kic := dimless * scale
+		s := loadCase(t, "kgd-viscosity", "rock.fracture_toughness="+ftoa(kic/1e6)+" MPa.m^0.5",
+			"numerics.element_length="+ftoa(element)+" m", "schedule.duration="+ftoa(duration)+" s")
+		kgd.Toughness = s.Rock.FractureToughness
+		if got := kgd.DimensionlessToughness(); math.Abs(got-dimless) > 1e-9 {
+			t.Fatalf("test bug: 𝒦 = %g, want %g", got, dimless)
+		}
+		_, res := runScenario(t, s)
+		length := openedHalfLength(res)
+		shmin := s.Stress.ShminGradient * s.Layer.Depth
+		net := res.Timeline[len(res.Timeline)-1].BHP - shmin
+		bound := lm
+		if dimless > 0 {
+			bound = math.Min(bound, kgd.ToughnessDominated(duration).HalfLength)
+		}
+		t.Logf("𝒦 = %g: half-length %.2f m (M-vertex %.2f m, bound %.2f m), net pressure %.3f MPa", dimless, length, lm, bound, net/1e6)
+		if length > bound+2.5*element+0.01*bound {
+			t.Errorf("𝒦 = %g: half-length %.2f m beyond both limits' %.2f m (+ the lead)", dimless, length, bound)
+		}
+		if length > prevLength {
+			t.Errorf("𝒦 = %g: half-length %.2f m longer than at the smaller 𝒦 (%.2f m)", dimless, length, prevLength)
+		}
+		if net < prevPressure {
+			t.Errorf("𝒦 = %g: net pressure %.4g Pa below that at the smaller 𝒦 (%.4g Pa)", dimless, net, prevPressure)
+		}
+		if res.MassBalanceError > 1e-8 {
+			t.Errorf("𝒦 = %g: mass-balance error %.3g", dimless, res.MassBalanceError)
+		}
+		prevLength, prevPressure = length, net
+	}
+}
