@@ -54,6 +54,9 @@ type groupSystem struct {
 	slopes []float64 // ∂μ/∂D of each element at z (0 unless sliding and weakening)
 	// monotone forbids sliding elements to stick again (see settle).
 	monotone bool
+	// stall is set when the last Newton solve stopped short of
+	// convergence (see stalled): an error once the statuses hold.
+	stall error
 	full     bool
 	fixed    []bool  // per position, in full mode
 	rowKeys  []uint8 // per row of jac, in full mode
@@ -200,7 +203,7 @@ func (s *groupSystem) settle() error {
 			return &unstable{patch: patch, lambda: lambda}
 		}
 		if !s.updateStatus() {
-			return nil
+			return s.stall
 		}
 	}
 	return fmt.Errorf("%w: %s's element states kept changing", ErrContactNotConverged, s.name())
@@ -259,13 +262,14 @@ func (s *groupSystem) fix() {
 // round-off (a large system's), or crosses kinks back and forth, which no
 // further iteration mends.
 func (s *groupSystem) newton() error {
+	s.stall = nil
 	s.fix()
 	nf := len(s.free)
 	if nf == 0 {
 		return nil
 	}
 	refresh, exactPrev := false, false
-	prev := math.Inf(1)
+	prev, zmax := math.Inf(1), 0.0
 	for it := range maxNewton {
 		s.residual()
 		if !s.factor(refresh) {
@@ -279,13 +283,18 @@ func (s *groupSystem) newton() error {
 		} else {
 			s.cache.lu.solve(d)
 		}
-		var step, zmax float64
+		step := 0.0
+		zmax = 0
 		for q, pos := range s.free {
 			s.z[pos] -= d[q]
 			step = max(step, math.Abs(d[q]))
 			zmax = max(zmax, math.Abs(s.z[pos]))
 		}
-		if step <= 1e-13*(zmax+absScale) || exact && exactPrev && step > 0.5*prev {
+		if step <= 1e-13*(zmax+absScale) {
+			return nil
+		}
+		if exact && exactPrev && step > 0.5*prev {
+			s.stall = s.stalled(step, zmax)
 			return nil
 		}
 		exactPrev = exact
@@ -294,7 +303,22 @@ func (s *groupSystem) newton() error {
 		}
 		prev = step
 	}
+	s.stall = s.stalled(prev, zmax)
 	return nil
+}
+
+// stalled accepts a Newton solve that stopped with a last step of step
+// (largest |z| zmax) when that step is within the contact tolerance (the
+// same test that ends the sweeps), and reports a failure otherwise. In
+// the middle of the active-set rounds a stalled solve is normal (wrong
+// statuses, an unstable patch not yet ruptured) and the next round
+// mends it; the solve that the statuses hold for must not pass for a
+// converged one.
+func (s *groupSystem) stalled(step, zmax float64) error {
+	if step <= s.c.set.Tolerance*zmax || step <= absTolerance {
+		return nil
+	}
+	return fmt.Errorf("%w: Newton's steps in %s stalled at %.3g m", ErrContactNotConverged, s.name(), step)
 }
 
 // factor readies the factorization of the Jacobian of s.jac: kept while

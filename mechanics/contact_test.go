@@ -450,3 +450,27 @@ func TestContactStabilityByGroup(t *testing.T) {
 		}
 	}
 }
+
+// A Newton solve that stops without converging, in the round whose
+// statuses hold, is accepted only when its last step is within the contact
+// tolerance; otherwise the solve fails (and the simulator cuts the step)
+// instead of passing a wrong slip on.
+func TestContactNewtonStall(t *testing.T) {
+	c := &Contact{set: ContactSettings{Tolerance: 1e-6}}
+	s := &groupSystem{c: c, group: 3}
+	for _, tc := range []struct {
+		step, zmax float64
+		ok         bool
+	}{
+		{1e-9, 1e-2, true},   // within 1e-6 of the largest increment
+		{1e-13, 0, true},     // below the absolute tolerance
+		{1e-7, 1e-2, false},  // 1e-5 of it
+		{7.9e3, 341, false},  // a diverging step (seen before crossings were compensated)
+		{1e-12, 1e-12, true}, // round-off of a tiny increment
+	} {
+		err := s.stalled(tc.step, tc.zmax)
+		if (err == nil) != tc.ok || err != nil && !errors.Is(err, ErrContactNotConverged) {
+			t.Errorf("stalled(%g, %g) = %v, want ok = %v", tc.step, tc.zmax, err, tc.ok)
+		}
+	}
+}
