@@ -56,10 +56,10 @@ type groupSystem struct {
 	monotone bool
 	// stall is set when the last Newton solve stopped short of
 	// convergence (see stalled): an error once the statuses hold.
-	stall error
-	full     bool
-	fixed    []bool  // per position, in full mode
-	rowKeys  []uint8 // per row of jac, in full mode
+	stall   error
+	full    bool
+	fixed   []bool  // per position, in full mode
+	rowKeys []uint8 // per row of jac, in full mode
 }
 
 // maxStatusChanges bounds the active-set iterations of a group solve, and
