@@ -31,10 +31,11 @@ import (
 // Kolotilina 1994, from memory); the identity above is elementary. It does
 // not prove the result definite (the full operator is not), but on every
 // network tried it was, where the detached one was not (the tests). It
-// stiffens the elements at crossings by the coupling they lose (a median
-// of 12 % of an element's own shear stiffness per detached pair on the
-// field-stage example's 5 m mesh): crossings pin the slip around them, over
-// the DetachRadius, a band that narrows as the elements do.
+// stiffens the elements at crossings by the coupling they lose (on the
+// field-stage example's 5 m mesh a detached pair's block has a largest
+// singular value of a median 12 %, at most 5.9 times, of an element's own
+// shear stiffness): crossings pin the slip around them, over the
+// DetachRadius, a band that narrows as the elements do.
 //
 // Without openings as unknowns (ContactSettings.ShearOnly) only the
 // slip–slip part of E_ij is compensated (D = |e_ss| on the slip
