@@ -2,6 +2,7 @@ package report
 
 import (
 	"fmt"
+	"math"
 	"testing"
 
 	"gonum.org/v1/plot/vg"
@@ -50,6 +51,11 @@ func TestNiceTicks(t *testing.T) {
 	}
 	if ts := (niceTicks{n: 5}).Ticks(3, 3); ts != nil {
 		t.Errorf("ticks of an empty range = %v, want none", ts)
+	}
+	// A range one ulp wide (a fuzz finding: min/step ≈ 3·10¹⁶, where k++
+	// no longer advanced and the loop never ended) has no ticks.
+	if ts := (niceTicks{n: 5}).Ticks(10.0/3, math.Nextafter(10.0/3, 4)); ts != nil {
+		t.Errorf("ticks of a one-ulp range = %v, want none", ts)
 	}
 	if got := tickLabel(3e9, 0); got != "3e+09" {
 		t.Errorf("tickLabel(3e9) = %q, want exponent form", got)

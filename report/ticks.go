@@ -20,11 +20,14 @@ func (t niceTicks) Ticks(min, max float64) []plot.Tick {
 	decimals := max0(-int(math.Floor(math.Log10(step))))
 	first := math.Ceil(min/step - 1e-9)
 	last := math.Floor(max/step + 1e-9)
-	if last-first > 1000 {
-		return nil // Cannot happen for a finite range and a step from niceStep; a guard.
+	// A range of a few ulps (min/step beyond 2⁵²) has no ticks to
+	// resolve, and k++ would no longer advance a float that large.
+	if last-first > 1000 || math.Abs(first) > 1<<52 || math.Abs(last) > 1<<52 {
+		return nil
 	}
 	var ticks []plot.Tick
-	for k := first; k <= last; k++ {
+	for i := range int(last-first) + 1 {
+		k := first + float64(i)
 		v := k * step
 		if math.Abs(v) < step*1e-9 {
 			v = 0 // Avoid "−0" and round-off such as 1e-17.
