@@ -42,12 +42,12 @@ func ExampleParseShard() {
 }
 
 func ExampleGridFor() {
-	s, err := scenarios.LoadExample("demo")
+	s, err := scenarios.LoadExample("zipper-pad")
 	if err != nil {
 		fmt.Println(err)
 		return
 	}
-	// The demo's domain is x −800…800 m, y −500…500 m with 10 m cells:
+	// The zipper pad's domain is x −800…800 m, y −500…500 m with 10 m cells:
 	// 160 × 100. (15, −125) is column ⌊815/10⌋ = 81, row ⌊375/10⌋ = 37,
 	// index 37·160 + 81 = 6001. Its six stages of 200 bbl at 10 bbl/min
 	// (1200 s) and 20 min shut-ins last 6 × 2400 s = 14400 s: 48
@@ -89,7 +89,7 @@ func ExampleRun() {
 	}
 	sum, err := batch.Run(context.Background(), batch.Options{
 		Load: func(extra ...scenarios.Override) (*scenarios.Scenario, error) {
-			return scenarios.LoadExample("demo", extra...)
+			return scenarios.LoadExample("zipper-pad", extra...)
 		},
 		Realizations: 3, Sweeps: []batch.Sweep{visc}, Workers: 2, Out: dir, Run: run,
 	})

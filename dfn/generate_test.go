@@ -293,11 +293,11 @@ func meanSD(v []float64) (mean, sd float64) {
 	return mean, math.Sqrt(sd / float64(len(v)-1))
 }
 
-// Estimate knows the demo network's size before it is drawn: the expected
+// Estimate knows the zipper pad network's size before it is drawn: the expected
 // fracture count, the trace length within the scatter of one realization,
 // and an upper estimate of the intersections.
-func TestEstimateDemo(t *testing.T) {
-	s, err := scenarios.LoadExample("demo")
+func TestEstimateZipperPad(t *testing.T) {
+	s, err := scenarios.LoadExample("zipper-pad")
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -324,7 +324,7 @@ func TestEstimateDemo(t *testing.T) {
 	// four realizations by 0.7 %: 3 % is over four standard errors.
 	numtest.Rel(t, "expected fractures", mean(float64(fractures)), e.Fractures, 0.03)
 	// The trace length is an estimate through P21 ≤ P32 over an enlarged
-	// map (the demo's sets are near-vertical, so the bound is tight).
+	// map (the zipper pad's sets are near-vertical, so the bound is tight).
 	numtest.Rel(t, "trace length", mean(length), e.TraceLength, 0.15)
 	if got := mean(float64(intersections)); got > e.Intersections {
 		t.Errorf("%.0f intersections on average, more than the upper estimate %.0f", got, e.Intersections)

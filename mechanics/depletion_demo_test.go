@@ -10,7 +10,7 @@ import (
 	"slipfront/scenarios"
 )
 
-// The motivating numbers of the depletion work, on the demo scenario's
+// The motivating numbers of the depletion work, on the zipper pad scenario's
 // network (depth 2600 m: Sv 65, SHmax 72.8 at N75E, Shmin 48.1 MPa, pore
 // pressure 31.2 MPa; μ = 0.6, c = 0; ν = 0.22) with 10 MPa of uniform
 // depletion and α = 1. Holding the total stresses (the screening before
@@ -19,8 +19,8 @@ import (
 // Engelder & Fischer 1994; Zoback 2007) it is 8.067 MPa and 64.3 % of the
 // fractures slip at +10 MPa (the request that started this work quoted
 // 15.2 MPa and 0 % against 8.0 MPa and 65 %).
-func TestDemoDepletionScreening(t *testing.T) {
-	s, err := scenarios.LoadExample("demo")
+func TestZipperPadDepletionScreening(t *testing.T) {
+	s, err := scenarios.LoadExample("zipper-pad")
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -62,7 +62,7 @@ func TestDemoDepletionScreening(t *testing.T) {
 	const (
 		mu = 0.6
 		// near is how far above the optimal plane's Δp_c the best of the
-		// network's planes may lie: the demo's sets scatter about
+		// network's planes may lie: the zipper pad's sets scatter about
 		// orientations 30° from SHmax, next to the optimal 29.5°, and
 		// thousands of planes come within 0.05 MPa of it (observed
 		// 0.0005 MPa).
@@ -86,7 +86,7 @@ func TestDemoDepletionScreening(t *testing.T) {
 		// The least critical increase of any plane is that of the
 		// optimally oriented plane (Jaeger, Cook & Zimmerman 2007, ch. 4):
 		// Δp_c* = (S1 + S3)/2 − p − ((S1 − S3)/2)·√(1 + μ²)/μ, with S1 =
-		// SHmax, S3 = Shmin and p from the demo's gradients plus the
+		// SHmax, S3 = Shmin and p from the zipper pad's gradients plus the
 		// change (isotropic, so the axes stay).
 		s1 := 28e3*2600 + tc.change.XX
 		s3 := 18.5e3*2600 + tc.change.YY

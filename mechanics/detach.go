@@ -11,7 +11,7 @@ import (
 // slip indefinite (on the test's random crossing networks the full
 // operator has negative eigenvalues), and detaching the pairs (see
 // ContactSettings.DetachRadius), which removes two off-diagonal blocks,
-// can leave it indefinite too (the field-stage example's realization 3
+// can leave it indefinite too (the demo's realization 3
 // on 5 m elements, and those networks in plane strain). The contact
 // problem then has directions of unbounded slip, and its iterations cycle
 // or run away. Each removed pair is therefore compensated on the two
@@ -32,7 +32,7 @@ import (
 // not prove the result definite (the full operator is not), but on every
 // network tried it was, where the detached one was not (the tests). It
 // stiffens the elements at crossings by the coupling they lose (on the
-// field-stage example's 5 m mesh a detached pair's block has a largest
+// demo example's 5 m mesh a detached pair's block has a largest
 // singular value of a median 12 %, at most 5.9 times, of an element's own
 // shear stiffness): crossings pin the slip around them, over the
 // DetachRadius, a band that narrows as the elements do.

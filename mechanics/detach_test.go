@@ -154,7 +154,7 @@ func countDetached(c *Contact) int {
 // the compensation every solve converges and the slip stays small
 // (0.12–0.15 mm here; Δτ·L/G for the whole 16 m traces is about 0.75 mm).
 // Without it, the same solves failed at every seed and pressure tried
-// (Newton stalled, with slips up to 1 m), which is how the field-stage
+// (Newton stalled, with slips up to 1 m), which is how the demo
 // example's realization 3 stopped.
 func TestContactCrossingNetworkConverges(t *testing.T) {
 	for seed := range uint64(4) {

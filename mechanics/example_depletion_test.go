@@ -10,7 +10,7 @@ import (
 // inMPa returns v, Pa, in MPa rounded to 1 kPa, with −0 printed as 0.
 func inMPa(v float64) float64 { return math.Round(v/1e3)/1e3 + 0 }
 
-// The uniaxial-strain stress path of the demo's rock (ν = 0.22) with
+// The uniaxial-strain stress path of the zipper pad's rock (ν = 0.22) with
 // α = 1: 10 MPa of depletion lowers both horizontal stresses by 7.18 MPa
 // and leaves Sv.
 func ExamplePoroelastic_Uniaxial() {
@@ -84,7 +84,7 @@ func ExampleGridResponse_Change() {
 	// cell (2, 2): ΔSxx  0.176 ΔSyy -0.847 ΔSxy  0.000 ΔSzz  0.671 Δp  0.000 MPa
 }
 
-// The demo's stress at 2600 m after 10 MPa of uniform depletion along the
+// The zipper pad's stress at 2600 m after 10 MPa of uniform depletion along the
 // uniaxial-strain path: SHmax and Shmin fall by 7.18 MPa, Sv stays, and
 // the state is still strike-slip, just.
 func ExampleStress_Changed() {

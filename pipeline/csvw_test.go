@@ -90,7 +90,7 @@ func sameRows(t *testing.T, what string, got, want map[string]int) {
 // fracture, trace, event, case, realization… A "#" comment line would
 // break all three readers.
 func TestCSVFilesReadAndDescribed(t *testing.T) {
-	s := loadExample(t, "demo")
+	s := loadExample(t, "zipper-pad")
 	gen := t.TempDir()
 	net, _, err := Generate(s, Folder{Dir: gen}, Limits{})
 	if err != nil {

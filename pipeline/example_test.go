@@ -11,7 +11,7 @@ import (
 // The resolved scenario as the report page lists it: dotted keys, values
 // in the trade's units, defaults filled in.
 func ExampleInputsTable() {
-	s, err := scenarios.LoadExample("demo")
+	s, err := scenarios.LoadExample("zipper-pad")
 	if err != nil {
 		panic(err)
 	}

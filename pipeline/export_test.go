@@ -22,23 +22,23 @@ import (
 	"slipfront/snapshot"
 )
 
-// smallDemo cuts the demo down for the tests of folders and pictures: 30 bbl
+// smallPad cuts the zipper pad down for the tests of folders and pictures: 30 bbl
 // stages on 30 m elements, and a slip-weakening distance of 1 mm so that
-// it ruptures (the demo's own 3 mm slips aseismically). Those elements do
+// it ruptures (the zipper pad's own 3 mm slips aseismically). Those elements do
 // not resolve the nucleation length, so the number of its events is set
 // by the mesh: these tests check how events are written and read, not how
 // many there are.
-var smallDemo = []string{"schedule.volume=30 bbl", "numerics.element_length=30 m", "rock.slip_weakening_distance=1 mm"}
+var smallPad = []string{"schedule.volume=30 bbl", "numerics.element_length=30 m", "rock.slip_weakening_distance=1 mm"}
 
-// runFolder simulates a small demo into a folder with Simulate, as the run
+// runFolder simulates a small zipper pad into a folder with Simulate, as the run
 // command does, and returns the in-memory run too.
 func runFolder(t *testing.T) (string, *Run) {
 	t.Helper()
-	ov, err := scenarios.ParseOverrides(smallDemo)
+	ov, err := scenarios.ParseOverrides(smallPad)
 	if err != nil {
 		t.Fatal(err)
 	}
-	s, err := scenarios.LoadExample("demo", ov...)
+	s, err := scenarios.LoadExample("zipper-pad", ov...)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -127,7 +127,7 @@ func TestLoadRunMatchesMemory(t *testing.T) {
 			t.Fatalf("cell %d: first slip %.6g s read back, %.6g s in memory: not within the frame gap %g s", k, first.Data[k], want.Data[k], gap)
 		}
 	}
-	// The sub-resolution events of the run (the demo's [seismicity_rate])
+	// The sub-resolution events of the run (the zipper pad's [seismicity_rate])
 	// are read back, and the map draws them.
 	m, err := got.MapPicture()
 	if err != nil {

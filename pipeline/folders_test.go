@@ -123,7 +123,7 @@ func checkFolderReports(t *testing.T, gen, scr string) {
 		}
 	}
 	// A generate folder whose scenario was swapped is refused.
-	other := loadExample(t, "demo")
+	other := loadExample(t, "zipper-pad")
 	if err := writeFiles(gen, scenarioWriter(other)); err != nil {
 		t.Fatal(err)
 	}
@@ -151,7 +151,7 @@ func checkFolderReports(t *testing.T, gen, scr string) {
 // the batch runner gives the same totals as the run for realization 0.
 func TestSimulateFolderAndRealization(t *testing.T) {
 	dir, mem := runFolder(t)
-	// The demo's two wells have a section each.
+	// The zipper pad's two wells have a section each.
 	pictures := []string{DistanceTimeFile, GrowthPictureFile, MagnitudeFrequencyFile, MapPictureFile, sectionPictureFile(0), sectionPictureFile(1)}
 	want := append([]string{ContentsFile, CSVMetadataFile, EventsFile, FracturesFile, MapsFile, RateEventsFile, SnapshotFile, ScenarioFile, StressChangeFile, SummaryFile, TimelineFile},
 		pictures...)
@@ -180,7 +180,7 @@ func TestSimulateFolderAndRealization(t *testing.T) {
 
 // An export the CRS cannot serve keeps its cause in the error chain.
 func TestExportKeepsCause(t *testing.T) {
-	dir, _ := runFolder(t) // the demo's CRS is a UTM zone: GeoJSON works
+	dir, _ := runFolder(t) // the zipper pad's CRS is a UTM zone: GeoJSON works
 	_, err := Export(context.Background(), dir, ExportOptions{Format: "geojson", Layer: "wells", Out: filepath.Join(t.TempDir(), "w.geojson")})
 	if err != nil {
 		t.Fatalf("geojson of a UTM run: %v", err)

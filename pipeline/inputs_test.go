@@ -8,7 +8,7 @@ import (
 // The inputs table shows the resolved scenario in the trade's units, by
 // the dotted keys of --set, with the defaults filled in.
 func TestInputsTable(t *testing.T) {
-	s := loadExample(t, "demo")
+	s := loadExample(t, "zipper-pad")
 	rows := map[string]string{}
 	for _, r := range InputsTable(s).Rows {
 		if _, dup := rows[r[0]]; dup {
@@ -16,10 +16,10 @@ func TestInputsTable(t *testing.T) {
 		}
 		rows[r[0]] = r[1]
 	}
-	// The demo's own values (scenarios/examples/demo.toml) and two
+	// The zipper pad's own values (scenarios/examples/zipper-pad.toml) and two
 	// defaults (scenarios.Rock and FractureSet tags).
 	for key, want := range map[string]string{
-		"name":                             `"Demo pad (invented)"`,
+		"name":                             `"Zipper pad (invented)"`,
 		"layer.depth":                      "2600 m",
 		"stress.sv_gradient":               "25 kPa/m",
 		"stress.shmax_azimuth":             "75 ° from north",

@@ -34,7 +34,7 @@ var (
 	sharedRunErr  error
 )
 
-// sharedRun returns the small demo run of runFolder, simulated once for
+// sharedRun returns the small zipper pad run of runFolder, simulated once for
 // the tests that only read its folder, read back with LoadRun.
 func sharedRun(t *testing.T) (string, *Run) {
 	t.Helper()
@@ -44,7 +44,7 @@ func sharedRun(t *testing.T) (string, *Run) {
 			return
 		}
 		sharedRunDir = filepath.Join(tmp, "run")
-		s := loadExample(t, "demo", smallDemo...)
+		s := loadExample(t, "zipper-pad", smallPad...)
 		_, sharedRunErr = Simulate(context.Background(), s, SimulateOptions{Out: Folder{Dir: sharedRunDir}})
 	})
 	if sharedRunErr != nil {
@@ -69,7 +69,7 @@ func TestMain(m *testing.M) {
 // curve, and each set's line meets the screening's per-set shares at the
 // reported increases: the chart counts what the screening counts.
 func TestSlipSharesMatchScreening(t *testing.T) {
-	s := loadExample(t, "demo")
+	s := loadExample(t, "zipper-pad")
 	_, sc, _, err := screen(s)
 	if err != nil {
 		t.Fatal(err)
@@ -427,7 +427,7 @@ func TestBatchMapsWells(t *testing.T) {
 	if !strings.Contains(string(page), "Resolved scenario") || !strings.Contains(string(page), "<td>schedule.injection_pressure</td><td>43 MPa</td>") {
 		t.Error("the batch page does not list the scenario's inputs")
 	}
-	if err := writeFiles(out, scenarioWriter(loadExample(t, "demo"))); err != nil {
+	if err := writeFiles(out, scenarioWriter(loadExample(t, "zipper-pad"))); err != nil {
 		t.Fatal(err)
 	}
 	if _, err := batch.ReadScenario(out, m); !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), "mixes two scenarios") {

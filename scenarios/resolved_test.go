@@ -9,7 +9,7 @@ import (
 )
 
 func TestResolvedRoundTrip(t *testing.T) {
-	s, err := LoadExample("demo")
+	s, err := LoadExample("zipper-pad")
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -67,7 +67,7 @@ func TestResolvedWithoutSource(t *testing.T) {
 
 // resolvedSeed returns a small scenario.json: the scenario written as the
 // JSON body (only the keys it sets; the others read as zero) under the
-// digest of what it decodes to. A large seed (the full demo writes 2.5 kB)
+// digest of what it decodes to. A large seed (the full zipper pad writes 2.5 kB)
 // makes the fuzzer spend its few seconds in CI minimising inputs.
 func resolvedSeed(t testing.TB, body string) []byte {
 	t.Helper()

@@ -184,7 +184,7 @@ func TestDepletionTable(t *testing.T) {
 
 func TestExamplesParse(t *testing.T) {
 	names := Examples()
-	if len(names) == 0 || !strings.Contains(strings.Join(names, " "), "demo") {
+	if len(names) == 0 || !strings.Contains(strings.Join(names, " "), "zipper-pad") {
 		t.Fatalf("examples %v, want demo among them", names)
 	}
 	for _, name := range names {
@@ -197,7 +197,7 @@ func TestExamplesParse(t *testing.T) {
 			t.Errorf("%s: no stages to pump", name)
 		}
 	}
-	demo, err := LoadExample("demo")
+	demo, err := LoadExample("zipper-pad")
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -482,7 +482,7 @@ func FuzzParse(f *testing.F) {
 
 func FuzzReadKnownFractures(f *testing.F) {
 	f.Add([]byte(knownCSV))
-	src, err := examples.ReadFile("examples/demo-faults.csv")
+	src, err := examples.ReadFile("examples/zipper-pad-faults.csv")
 	if err != nil {
 		f.Fatal(err)
 	}

@@ -164,17 +164,17 @@ func TestWhenTagsNameSiblings(t *testing.T) {
 	}
 }
 
-// The demo keeps a second fluid for --set schedule.fluid=linear_gel; it
+// The zipper pad keeps a second fluid for --set schedule.fluid=linear_gel; it
 // is named in a warning with its line.
 func TestExampleWarnings(t *testing.T) {
-	demo, err := LoadExample("demo")
+	demo, err := LoadExample("zipper-pad")
 	if err != nil {
 		t.Fatal(err)
 	}
-	if len(demo.Warnings) != 1 || !strings.HasPrefix(demo.Warnings[0], "demo.toml:119: fluids.linear_gel: no stage pumps this fluid") {
+	if len(demo.Warnings) != 1 || !strings.HasPrefix(demo.Warnings[0], "zipper-pad.toml:122: fluids.linear_gel: no stage pumps this fluid") {
 		t.Errorf("demo warnings %q", demo.Warnings)
 	}
-	if _, err := LoadExample("demo", Override{Key: "schedule.fluid", Value: "linear_gel"}); err != nil {
+	if _, err := LoadExample("zipper-pad", Override{Key: "schedule.fluid", Value: "linear_gel"}); err != nil {
 		t.Error(err)
 	}
 }

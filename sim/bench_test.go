@@ -9,7 +9,9 @@ import (
 	"slipfront/scenarios"
 )
 
-// BenchmarkDemo runs the whole embedded demo (the README's performance table).
+// BenchmarkDemo runs the whole embedded demo (the README's performance
+// table): two stages of 3 000 bbl at 80 bbl/min, five growing fractures
+// each through limited entry, matrix leak-off, elastic interaction.
 func BenchmarkDemo(b *testing.B) {
 	s, err := scenarios.LoadExample("demo")
 	if err != nil {
@@ -18,11 +20,11 @@ func BenchmarkDemo(b *testing.B) {
 	benchmarkRun(b, s)
 }
 
-// BenchmarkFieldStage runs the field-stage example: two stages of 3 000
-// bbl at 80 bbl/min, five growing fractures each through limited entry,
-// matrix leak-off, elastic interaction.
-func BenchmarkFieldStage(b *testing.B) {
-	s, err := scenarios.LoadExample("field-stage")
+// BenchmarkZipperPad runs the whole zipper-pad example: two wells of three
+// 200 bbl stages pumped in zipper order into a natural network with a
+// mapped fault (the demo before growth and field-size stages existed).
+func BenchmarkZipperPad(b *testing.B) {
+	s, err := scenarios.LoadExample("zipper-pad")
 	if err != nil {
 		b.Fatal(err)
 	}
@@ -56,18 +58,18 @@ func benchmarkRun(b *testing.B, s *scenarios.Scenario) {
 	}
 }
 
-// BenchmarkDepleteDemo computes the depletion of the demo pad after two
+// BenchmarkDepleteZipperPad computes the depletion of the zipper pad after two
 // years of production from well W1 (its six stages' clusters) and the
 // stress change it leaves, on the default 10 m grid over the 1.6 × 1 km
 // map: the cost the depletion work must keep below one stimulation run
-// (BenchmarkDemo).
-func BenchmarkDepleteDemo(b *testing.B) {
+// (BenchmarkZipperPad).
+func BenchmarkDepleteZipperPad(b *testing.B) {
 	ov, err := scenarios.ParseOverrides([]string{`depletion.wells=["W1"]`, "depletion.bottomhole_pressure=15 MPa",
 		"depletion.duration=2 yr", "matrix.permeability=1.5 uD"})
 	if err != nil {
 		b.Fatal(err)
 	}
-	s, err := scenarios.LoadExample("demo", ov...)
+	s, err := scenarios.LoadExample("zipper-pad", ov...)
 	if err != nil {
 		b.Fatal(err)
 	}
@@ -82,14 +84,14 @@ func BenchmarkDepleteDemo(b *testing.B) {
 }
 
 // benchmarkCoupledStep times one coupled step (flow ⇄ mechanics, all
-// Picard iterations, factorizations included) of the demo's first stage on
+// Picard iterations, factorizations included) of the zipper pad's first stage on
 // a map enlarged by the given overrides, from the initial state.
 func benchmarkCoupledStep(b *testing.B, overrides ...string) {
 	ov, err := scenarios.ParseOverrides(overrides)
 	if err != nil {
 		b.Fatal(err)
 	}
-	s, err := scenarios.LoadExample("demo", ov...)
+	s, err := scenarios.LoadExample("zipper-pad", ov...)
 	if err != nil {
 		b.Fatal(err)
 	}
@@ -134,10 +136,10 @@ func benchmarkCoupledStep(b *testing.B, overrides ...string) {
 	b.ReportMetric(float64(sys.Solver().CholeskyEntries()), "nnz(L)")
 }
 
-// About 1.1·10⁵ elements: the demo's network over a 4 km × 4 km map.
+// About 1.1·10⁵ elements: the zipper pad's network over a 4 km × 4 km map.
 func BenchmarkCoupledStep1e5(b *testing.B) {
 	benchmarkCoupledStep(b, "domain.x_min=-2000 m", "domain.x_max=2000 m", "domain.y_min=-2000 m", "domain.y_max=2000 m")
 }
 
-// About 1.1·10⁴ elements: the demo as it is.
+// About 1.1·10⁴ elements: the zipper pad as it is.
 func BenchmarkCoupledStep1e4(b *testing.B) { benchmarkCoupledStep(b) }

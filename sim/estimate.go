@@ -22,7 +22,7 @@ type RunEstimate struct {
 // the flow system with its Cholesky factor, the elastic operator (dense
 // or hierarchical) with the near-field blocks of the contact problem, the
 // mechanical state and the snapshot frames in flight. Measured with the
-// maximum resident set size of the demo at element lengths 10 m and 5 m
+// maximum resident set size of the zipper pad at element lengths 10 m and 5 m
 // (10 751 and 19 688 elements: 260 MB and 415 MB, 17 kB per element
 // beyond the program itself), rounded up.
 const bytesPerElement = 20 << 10
@@ -30,7 +30,7 @@ const bytesPerElement = 20 << 10
 // bytesPerFieldObject is the memory of the stress-change map at the end
 // of a run (CoulombChangeMap) per map cell and per element: its
 // hierarchical field evaluator grows as (cells + elements)·log. Measured
-// with the maximum resident set size of the demo with its map (10 751
+// with the maximum resident set size of the zipper pad with its map (10 751
 // elements, 16 000 cells: 507 MB in all, about 250 MB more than the run
 // without the map), rounded up.
 const bytesPerFieldObject = 10 << 10

@@ -352,8 +352,8 @@ func planeNormalStresses(s mechanics.Stress, t r2.Vec) (along, across float64) {
 // its new closure stress with the content of an open one. Started closed,
 // its first iteration saw no compliance, moved the pressure by the whole
 // iteration cap and opened the element by millimetres: realization 1 of
-// the field-stage example on 5 m elements stalled so, 23 s into its first
-// stage (TestGrowthFieldStageFineMesh). Elements already open are left
+// the demo on 5 m elements stalled so, 23 s into its first
+// stage (TestGrowthDemoFineMesh). Elements already open are left
 // alone: their iterations see the compliance. The state is the accepted
 // step's, so the frames recorded after it and the next step's leak-off
 // see the adjusted pressures (a closed element's, by at most its net).

@@ -5,6 +5,7 @@ import (
 	"os"
 	"path/filepath"
 	"strconv"
+	"strings"
 	"testing"
 
 	"slipfront/dfn"
@@ -159,6 +160,19 @@ func TestGrowthMeetingPlace(t *testing.T) {
 	numtest.Abs(t, "meeting point east, m", c.X, 0, 1e-9)
 	numtest.Abs(t, "meeting point north, m", c.Y, -20, 1e-6)
 	numtest.Abs(t, "angle, rad", c.Angle, math.Pi/6, 1e-9)
+	// The stage table printed for people says what grew and where the
+	// fluid went.
+	var table strings.Builder
+	if err := WriteStageTable(&table, s, res); err != nil {
+		t.Fatal(err)
+	}
+	for _, want := range []string{"growth: 1 fracture, half-length mean ", "meetings with natural fractures: " + map[string]string{
+		"cross": "1 crossed, 0 arrested", "arrest": "0 crossed, 1 arrested", "divert": "0 crossed, 0 arrested, 1 diverted"}[c.Outcome],
+		"m3 in the conduits, "} {
+		if !strings.Contains(table.String(), want) {
+			t.Errorf("stage table without %q:\n%s", want, table.String())
+		}
+	}
 }
 
 // Where viscosity governs, a growing fracture follows the similarity
@@ -273,7 +287,7 @@ func TestGrowthExtentReplays(t *testing.T) {
 	}
 }
 
-// The field-stage example on 5 m elements: growth through limited entry,
+// the demo on 5 m elements: growth through limited entry,
 // matrix leak-off, interaction and the natural network. A growing
 // fracture's closure stress and stiffness move with its length and
 // shadows, so an element can start a step below its new closure stress
@@ -284,8 +298,8 @@ func TestGrowthExtentReplays(t *testing.T) {
 // such elements at the pressure their content holds. The first 50 s of
 // realization 1 must run, conserve mass and hold what was injected
 // (leak-off aside) in its fractures; without startConsistent it stops.
-func TestGrowthFieldStageFineMesh(t *testing.T) {
-	s := loadExample(t, "field-stage", "numerics.element_length=5 m", "schedule.volume=66 bbl",
+func TestGrowthDemoFineMesh(t *testing.T) {
+	s := loadExample(t, "demo", "numerics.element_length=5 m", "schedule.volume=66 bbl",
 		"wells[0].stages[1].volume=0.1 bbl", "schedule.shut_in=0 s", "numerics.output_interval=10 s")
 	_, res := runRealization(t, s, 1)
 	if got := res.Stages[0].PumpEnd - res.Stages[0].Start; got < 45 {

@@ -68,14 +68,14 @@ func TestSeismicityRateCatalogue(t *testing.T) {
 	// The stage table printed for people counts them; without the model
 	// it says nothing of them.
 	var table bytes.Buffer
-	if err := WriteStageTable(&table, res); err != nil {
+	if err := WriteStageTable(&table, s, res); err != nil {
 		t.Fatal(err)
 	}
 	if want := fmt.Sprintf("sub-resolution events (seismicity-rate model): %d drawn, ", len(res.RateEvents)); !strings.Contains(table.String(), want) {
 		t.Errorf("stage table without %q:\n%s", want, table.String())
 	}
 	table.Reset()
-	if err := WriteStageTable(&table, &Result{}); err != nil || strings.Contains(table.String(), "sub-resolution") {
+	if err := WriteStageTable(&table, s, &Result{}); err != nil || strings.Contains(table.String(), "sub-resolution") {
 		t.Errorf("stage table of a run without the model: %v\n%s", err, table.String())
 	}
 	// A row with a slip is a rupture's, not a sub-resolution event's.

@@ -151,33 +151,33 @@ func TestDilationCarriesSlipFarther(t *testing.T) {
 	}
 }
 
-// smallDemo is the demo with smaller stages and a coarser mesh, quick
+// smallPad is the zipper pad with smaller stages and a coarser mesh, quick
 // enough for every test run; it runs once and is shared.
-// smallDemo cuts the demo down for the tests of run invariants: 50 bbl
+// smallPad cuts the zipper pad down for the tests of run invariants: 50 bbl
 // stages on 20 m elements, and a slip-weakening distance of 1 mm so that it
-// ruptures (with the demo's own 3 mm it slips aseismically). Those
+// ruptures (with the zipper pad's own 3 mm it slips aseismically). Those
 // elements do not resolve the nucleation length, so the number of events
 // is the mesh's: the tests check how events are accounted, not how many.
-var smallDemo = []string{"schedule.volume=50 bbl", "numerics.element_length=20 m", "rock.slip_weakening_distance=1 mm"}
+var smallPad = []string{"schedule.volume=50 bbl", "numerics.element_length=20 m", "rock.slip_weakening_distance=1 mm"}
 
 var (
-	smallDemoOnce   sync.Once
-	smallDemoResult *Result
-	smallDemoInput  *scenarios.Scenario
+	smallPadOnce   sync.Once
+	smallPadResult *Result
+	smallPadInput  *scenarios.Scenario
 )
 
-func runSmallDemo(t *testing.T) (*scenarios.Scenario, *Result) {
-	smallDemoOnce.Do(func() { smallDemoInput, _, smallDemoResult = runExample(t, "demo", smallDemo...) })
-	if smallDemoResult == nil {
+func runSmallPad(t *testing.T) (*scenarios.Scenario, *Result) {
+	smallPadOnce.Do(func() { smallPadInput, _, smallPadResult = runExample(t, "zipper-pad", smallPad...) })
+	if smallPadResult == nil {
 		t.Fatal("the small demo failed in an earlier test")
 	}
-	return smallDemoInput, smallDemoResult
+	return smallPadInput, smallPadResult
 }
 
-// TestDemoInvariants checks the run invariants on the small demo: mass
+// TestZipperPadInvariants checks the run invariants on the small zipper pad: mass
 // balance, a growing stimulated area, events that account for all slip.
-func TestDemoInvariants(t *testing.T) {
-	s, res := runSmallDemo(t)
+func TestZipperPadInvariants(t *testing.T) {
+	s, res := runSmallPad(t)
 	if res.MassBalanceError > 1e-8 {
 		t.Errorf("mass balance error %.3g > 1e-8 relative", res.MassBalanceError)
 	}
@@ -252,7 +252,7 @@ func checkMcGarr(t *testing.T, s *scenarios.Scenario, res *Result) {
 // warning of kind WarnBHPAboveShmin, and no other stage is: a user must
 // see every stage that entered the tensile regime, not only the first.
 func TestShminWarningPerStage(t *testing.T) {
-	s, res := runSmallDemo(t)
+	s, res := runSmallPad(t)
 	stress, err := mechanics.StressFromScenario(s.Stress, s.Layer.Depth)
 	if err != nil {
 		t.Fatal(err)
@@ -352,7 +352,7 @@ func checkGainOnlyWhereSlipped(t *testing.T, s *scenarios.Scenario, res *Result)
 // slip, relative to the same without slip: no gain without slip, more
 // with it.
 func TestRetainedPermeabilityGain(t *testing.T) {
-	s, res := runSmallDemo(t)
+	s, res := runSmallPad(t)
 	model, stress, net := apertureSetting(t, s)
 	fractures, err := Fractures(s, net, res)
 	if err != nil {
@@ -399,8 +399,8 @@ func TestDeterministic(t *testing.T) {
 		}
 		return tl.Bytes(), ev.Bytes()
 	}
-	tl1, ev1 := write(runSmallDemo(t))
-	s, _, res := runExample(t, "demo", smallDemo...)
+	tl1, ev1 := write(runSmallPad(t))
+	s, _, res := runExample(t, "zipper-pad", smallPad...)
 	tl2, ev2 := write(s, res)
 	if !bytes.Equal(tl1, tl2) || !bytes.Equal(ev1, ev2) {
 		t.Error("two runs of the same scenario and seed differ")
@@ -437,7 +437,7 @@ func TestStageTouchingNoFracture(t *testing.T) {
 // stimulation times, and the stimulated cells kept for maps are the cells
 // those elements pass through.
 func TestStimulatedAreaMatchesRun(t *testing.T) {
-	s, res := runSmallDemo(t)
+	s, res := runSmallPad(t)
 	stimulated := func(i int) bool { return !math.IsNaN(res.StimulatedAt[i]) }
 	if got := StimulatedArea(res.Elements, stimulated, s.Numerics.StimulatedReach); got != res.StimulatedArea || got <= 0 {
 		t.Errorf("rebuilt stimulated area %g m², the run reported %g m²", got, res.StimulatedArea)
@@ -535,7 +535,7 @@ func TestCellsAlong(t *testing.T) {
 
 // events.csv reads back to the same events (at the printed precision).
 func TestEventsRoundTrip(t *testing.T) {
-	s, res := runSmallDemo(t)
+	s, res := runSmallPad(t)
 	if len(res.Events) == 0 {
 		t.Fatal("the small demo has no events: the round trip would compare nothing")
 	}
@@ -548,7 +548,7 @@ func TestEventsRoundTrip(t *testing.T) {
 }
 
 func FuzzReadEvents(f *testing.F) {
-	s, err := scenarios.LoadExample("demo")
+	s, err := scenarios.LoadExample("zipper-pad")
 	if err != nil {
 		f.Fatal(err)
 	}
@@ -676,7 +676,7 @@ func checkSamplesEqual(t *testing.T, i int, got, want Sample) {
 
 // timeline.csv and the stages of summary.json read back.
 func TestTimelineAndStagesRoundTrip(t *testing.T) {
-	s, res := runSmallDemo(t)
+	s, res := runSmallPad(t)
 	var b bytes.Buffer
 	if err := WriteTimeline(&b, s, res); err != nil {
 		t.Fatal(err)
@@ -713,7 +713,7 @@ func TestTimelineAndStagesRoundTrip(t *testing.T) {
 }
 
 func FuzzReadTimeline(f *testing.F) {
-	s, err := scenarios.LoadExample("demo")
+	s, err := scenarios.LoadExample("zipper-pad")
 	if err != nil {
 		f.Fatal(err)
 	}

@@ -230,13 +230,13 @@ func TestMcGarrBoundRandomScenarios(t *testing.T) {
 	}
 }
 
-// The demo at its own slip-weakening distance, on elements that resolve
+// The zipper pad at its own slip-weakening distance, on elements that resolve
 // the nucleation length (no warning), respects McGarr's (2014) bound with
 // its summed seismic moment: its fractures are below their residual
 // strength and slip stably (README, Convergence). 30 bbl stages on 15 m
 // elements keep the run short.
-func TestDemoRespectsMcGarr(t *testing.T) {
-	s, _, res := runExample(t, "demo", "schedule.volume=30 bbl", "numerics.element_length=15 m")
+func TestZipperPadRespectsMcGarr(t *testing.T) {
+	s, _, res := runExample(t, "zipper-pad", "schedule.volume=30 bbl", "numerics.element_length=15 m")
 	for _, w := range res.Warnings {
 		if w.Kind == WarnNucleationUnresolved {
 			t.Fatalf("the check needs resolved nucleation: %s", w.Message)
@@ -250,7 +250,7 @@ func TestDemoRespectsMcGarr(t *testing.T) {
 	if !(res.SeismicMoment <= bound) {
 		t.Errorf("summed seismic M0 %.3g N·m exceeds McGarr's bound G·ΔV = %.3g N·m", res.SeismicMoment, bound)
 	}
-	// The README's claim: resolved, the demo's fractures slip stably.
+	// The README's claim: resolved, the zipper pad's fractures slip stably.
 	if len(res.Events) > 0 {
 		t.Errorf("%d ruptures on resolved elements: the demo's fractures, below their residual strength, should slip stably", len(res.Events))
 	}

@@ -471,9 +471,9 @@ func WriteSummary(w io.Writer, s *scenarios.Scenario, net *dfn.Network, res *Res
 	return enc.Encode(sj)
 }
 
-// WriteStageTable prints the per-stage summary for people (warnings are
-// the caller's to print).
-func WriteStageTable(w io.Writer, res *Result) error {
+// WriteStageTable prints the per-stage summary of a run of s for people
+// (warnings are the caller's to print).
+func WriteStageTable(w io.Writer, s *scenarios.Scenario, res *Result) error {
 	var b strings.Builder
 	fmt.Fprintf(&b, "%-10s %12s %14s %16s %8s %9s\n", "stage", "injected m3", "peak BHP MPa", "new area m2", "events", "max Mw")
 	for _, st := range res.Stages {
@@ -486,6 +486,13 @@ func WriteStageTable(w io.Writer, res *Result) error {
 	fmt.Fprintf(&b, "total: %.4g m3 injected, stimulated area %.0f m2 (fracture surface %.0f m2), %s, peak BHP %.2f MPa\n",
 		res.Injected, res.StimulatedArea, res.FractureArea, plural.S(len(res.Events), "event"), res.PeakBHP/1e6)
 	fmt.Fprintf(&b, "slip moment: %.3g N·m seismic (the events), %.3g N·m aseismic\n", res.SeismicMoment, res.AseismicMoment)
+	if g := newGrowthJSON(s, res); g != nil && len(res.Stages) > 0 {
+		last := res.Stages[len(res.Stages)-1]
+		fmt.Fprintf(&b, "growth: %s, half-length mean %.0f m, largest %.0f m; meetings with natural fractures: %d crossed, %d arrested, %d diverted\n",
+			plural.S(g.Fractures, "fracture"), g.MeanHalfLengthM, g.LargestHalfLength, g.Crossings["cross"], g.Crossings["arrest"], g.Crossings["divert"])
+		fmt.Fprintf(&b, "fluid at the end of pumping: %.4g m3 in the conduits, %.3g m3 in the natural fractures; %.4g m3 leaked off in the whole run\n",
+			last.HeldConduits, last.HeldNatural, res.Leaked)
+	}
 	if res.RateExpected > 0 { // a [seismicity_rate] table
 		largest := math.Inf(-1)
 		for _, e := range res.RateEvents {

@@ -48,7 +48,7 @@ func intColumn(t *testing.T, head []string, rows [][]string, name string) []int 
 // printedWarning matches the line batch prints per kind of warning.
 var printedWarning = regexp.MustCompile(`(?m)^warning: (\d+) × bhp_above_shmin in (\d+) realizations, e\.g\. stage W1:1: bottom-hole pressure .* exceeded Shmin`)
 
-// The demo crosses Shmin in every stage: a small batch of it counts the
+// The zipper pad crosses Shmin in every stage: a small batch of it counts the
 // warnings per realization and per case in its tables, the case's count
 // being the sum over its realizations, and prints them at the end with an
 // example message, so that no batch hides a warning its runs gave.
@@ -59,7 +59,7 @@ func TestBatchWarnings(t *testing.T) {
 	dir := filepath.Join(t.TempDir(), "b")
 	// Dc = 10 mm gives a nucleation half-length of 55 m, which 30 m
 	// elements resolve: the runs give the Shmin warnings only.
-	code, out, stderr := runCLI(t, "batch", "demo", "-n", "2", "--set", "schedule.volume=10 bbl", "--set", "schedule.shut_in=2 min",
+	code, out, stderr := runCLI(t, "batch", "zipper-pad", "-n", "2", "--set", "schedule.volume=10 bbl", "--set", "schedule.shut_in=2 min",
 		"--set", "numerics.element_length=30 m", "--set", "rock.slip_weakening_distance=10 mm", "--out", dir)
 	if code != exitOK {
 		t.Fatalf("batch: exit %d: %s", code, stderr)

@@ -21,8 +21,9 @@ func newDemoCmd(g *globalOptions, stdout, stderr io.Writer) *cobra.Command {
 	cmd := &cobra.Command{
 		Use:   "demo [--out DIR]",
 		Short: "Run the embedded demo scenario end to end",
-		Long: "demo runs scenarios/examples/demo.toml (an invented two-well pad) and writes every output of\n" +
-			"a run into --out (default slipfront-demo). Show the scenario with: slipfront scenario show demo\n\n" + caution,
+		Long: "demo runs scenarios/examples/demo.toml (an invented well pumping two field-size stages whose\n" +
+			"fractures grow from their clusters) and writes every output of a run into --out (default\n" +
+			"slipfront-demo); it takes about a minute. Show the scenario with: slipfront scenario show demo\n\n" + caution,
 		Example: "  slipfront demo\n  slipfront demo --out /tmp/demo --force",
 		Args:    cobra.NoArgs,
 		RunE: func(cmd *cobra.Command, _ []string) error {
@@ -43,7 +44,11 @@ func runDemo(ctx context.Context, o *demoOptions, g *globalOptions, stdout, stde
 	if err := out.Check(); err != nil { // before the first line is printed
 		return err
 	}
-	fmt.Fprintf(stdout, "%s: %s, %s, %s and %s\n", s.Name, plural.S(len(s.Wells), "well"), plural.S(len(s.PumpingOrder()), "stage"),
-		plural.S(len(s.Sets), "fracture set"), plural.S(len(s.KnownFractures.Fractures), "mapped fault"))
+	fmt.Fprintf(stdout, "%s: %s, %s, %s", s.Name, plural.S(len(s.Wells), "well"), plural.S(len(s.PumpingOrder()), "stage"),
+		plural.S(len(s.Sets), "fracture set"))
+	if n := len(s.KnownFractures.Fractures); n > 0 {
+		fmt.Fprintf(stdout, ", %s", plural.S(n, "mapped fault"))
+	}
+	fmt.Fprintln(stdout)
 	return simulate(ctx, s, out, 0, g, stdout, stderr)
 }

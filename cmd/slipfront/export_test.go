@@ -11,7 +11,7 @@ import (
 // output with --out - (and no status line there), and writes a VTK
 // folder; the report command reads a screen folder.
 func TestExportStdoutVTKAndScreenReport(t *testing.T) {
-	dir := runQuickDemo(t)
+	dir := runQuickPad(t)
 	code, out, stderr := runCLI(t, "export", dir, "--format", "GeoJSON", "--layer", "wells", "--out", "-")
 	if code != exitOK || !strings.HasPrefix(out, `{"type":"FeatureCollection"`) || strings.Contains(stderr, "wrote") {
 		t.Errorf("geojson to stdout: exit %d, stdout %.60q, stderr %q", code, out, stderr)
@@ -29,7 +29,7 @@ func TestExportStdoutVTKAndScreenReport(t *testing.T) {
 		t.Errorf("vtk to stdout: exit %d, %s", code, stderr)
 	}
 	scr := filepath.Join(t.TempDir(), "screen")
-	if code, _, stderr := runCLI(t, "screen", "demo", "--out", scr); code != exitOK {
+	if code, _, stderr := runCLI(t, "screen", "zipper-pad", "--out", scr); code != exitOK {
 		t.Fatalf("screen: exit %d: %s", code, stderr)
 	}
 	rep := filepath.Join(t.TempDir(), "report")

@@ -30,7 +30,7 @@ func TestForceReplacesOnlyOurFolders(t *testing.T) {
 		{"screen", append([]string{"screen", "single-fracture"}, quick...), "which slipfront did not write"},
 		{"run", append([]string{"run", "single-fracture"}, quick...), "which slipfront did not write"},
 		{"batch", append([]string{"batch", "single-fracture", "-n", "1"}, quick...), "--force replaces only a batch folder"},
-		{"scenario show", []string{"scenario", "show", "demo"}, "which slipfront did not write"},
+		{"scenario show", []string{"scenario", "show", "zipper-pad"}, "which slipfront did not write"},
 	}
 	for _, tc := range commands {
 		t.Run(tc.name, func(t *testing.T) {

@@ -36,23 +36,23 @@ func TestExitCodes(t *testing.T) {
 	}{
 		{"version", []string{"version"}, exitOK, ""},
 		{"unknown command", []string{"bogus"}, exitBadInput, "unknown command"},
-		{"missing flag", []string{"generate", "demo"}, exitBadInput, `"out" not set`},
-		{"bad override", []string{"scenario", "check", "demo", "--set", "sets[1].orientation.kappa=-3"}, exitBadInput, "--set sets[1].orientation.kappa=-3: must be within (0, 1e6]"},
-		{"unknown key", []string{"scenario", "check", "demo", "--set", "rock.fricton_static=0.5"}, exitBadInput, `did you mean "friction_static"?`},
+		{"missing flag", []string{"generate", "zipper-pad"}, exitBadInput, `"out" not set`},
+		{"bad override", []string{"scenario", "check", "zipper-pad", "--set", "sets[1].orientation.kappa=-3"}, exitBadInput, "--set sets[1].orientation.kappa=-3: must be within (0, 1e6]"},
+		{"unknown key", []string{"scenario", "check", "zipper-pad", "--set", "rock.fricton_static=0.5"}, exitBadInput, `did you mean "friction_static"?`},
 		{"missing file", []string{"scenario", "check", filepath.Join(dir, "none.toml")}, exitBadInput, "no such file"},
-		{"too many fractures", []string{"generate", "demo", "--set", "numerics.max_fractures=10", "--out", filepath.Join(dir, "cap")}, exitBadInput, "max_fractures"},
-		{"bare viscosity", []string{"scenario", "check", "demo", "--set", "fluids.slickwater.viscosity=20"}, exitBadInput, `needs a unit: write "20 cP" or "20 mPa.s"`},
-		{"message units", []string{"scenario", "check", "demo", "--set", "schedule.pressure_cap=10MPa"}, exitBadInput, "initial pore pressure, 31.2 MPa"},
-		{"unknown example", []string{"scenario", "show", "dmeo", "--out", filepath.Join(dir, "dmeo")}, exitBadInput, `no example scenario "dmeo"; examples: demo, field-stage, single-fracture`},
-		{"force without out", []string{"scenario", "show", "demo", "--force"}, exitBadInput, "--force replaces the folder of --out"},
-		{"check ok", []string{"scenario", "check", "demo"}, exitOK, "warning: demo.toml:119: fluids.linear_gel: no stage pumps this fluid"},
-		{"mistyped fluid", []string{"scenario", "check", "demo", "--set", "fluids.slickwatr.viscosity=20cP"}, exitBadInput,
+		{"too many fractures", []string{"generate", "zipper-pad", "--set", "numerics.max_fractures=10", "--out", filepath.Join(dir, "cap")}, exitBadInput, "max_fractures"},
+		{"bare viscosity", []string{"scenario", "check", "zipper-pad", "--set", "fluids.slickwater.viscosity=20"}, exitBadInput, `needs a unit: write "20 cP" or "20 mPa.s"`},
+		{"message units", []string{"scenario", "check", "zipper-pad", "--set", "schedule.pressure_cap=10MPa"}, exitBadInput, "initial pore pressure, 31.2 MPa"},
+		{"unknown example", []string{"scenario", "show", "dmeo", "--out", filepath.Join(dir, "dmeo")}, exitBadInput, `no example scenario "dmeo"; examples: demo, single-fracture, zipper-pad`},
+		{"force without out", []string{"scenario", "show", "zipper-pad", "--force"}, exitBadInput, "--force replaces the folder of --out"},
+		{"check ok", []string{"scenario", "check", "zipper-pad"}, exitOK, "warning: zipper-pad.toml:122: fluids.linear_gel: no stage pumps this fluid"},
+		{"mistyped fluid", []string{"scenario", "check", "zipper-pad", "--set", "fluids.slickwatr.viscosity=20cP"}, exitBadInput,
 			`--set fluids.slickwatr.viscosity=20cP: the scenario has no fluids.slickwatr (did you mean "fluids.slickwater"?) and nothing names it`},
-		{"unpumped fluid", []string{"scenario", "check", "demo", "--set", "fluids.linear_gel.viscosity=5cP"}, exitBadInput,
+		{"unpumped fluid", []string{"scenario", "check", "zipper-pad", "--set", "fluids.linear_gel.viscosity=5cP"}, exitBadInput,
 			"--set fluids.linear_gel.viscosity=5cP: changes nothing a run uses: no stage pumps fluids.linear_gel (the stages pump slickwater)"},
-		{"declared fluid", []string{"scenario", "check", "demo", "--set", "+fluids.gel.viscosity=5cP"}, exitOK,
+		{"declared fluid", []string{"scenario", "check", "zipper-pad", "--set", "+fluids.gel.viscosity=5cP"}, exitOK,
 			"warning: --set +fluids.gel.viscosity=5cP: no stage pumps this fluid"},
-		{"key of another law", []string{"scenario", "check", "demo", "--set", "sets[0].size.mean=30m"}, exitBadInput,
+		{"key of another law", []string{"scenario", "check", "zipper-pad", "--set", "sets[0].size.mean=30m"}, exitBadInput,
 			"--set sets[0].size.mean=30m: changes nothing a run uses: sets[0].size.mean is read only when"},
 		{"geographic CRS", []string{"run", "single-fracture", "--set", "domain.crs=EPSG:4326", "--out", filepath.Join(dir, "geo")}, exitBadInput, "projected CRS"},
 		{"negative inspect time", []string{"inspect", "../../snapshot/testdata/small.snap", "--time", "-5s"}, exitBadInput, "--time"},
@@ -72,12 +72,12 @@ func TestTemplateAndShow(t *testing.T) {
 	if code != exitOK || !strings.Contains(out, "[numerics]") || !strings.Contains(out, "Caution") {
 		t.Errorf("template: exit %d, output %.200q", code, out)
 	}
-	code, out, stderr := runCLI(t, "scenario", "show", "demo")
-	if code != exitOK || !strings.Contains(out, `name = "Demo pad (invented)"`) {
-		t.Errorf("show demo: exit %d", code)
+	code, out, stderr := runCLI(t, "scenario", "show", "zipper-pad")
+	if code != exitOK || !strings.Contains(out, `name = "Zipper pad (invented)"`) {
+		t.Errorf("show zipper-pad: exit %d", code)
 	}
-	if want := "demo.toml reads demo-faults.csv beside it; write them together with: slipfront scenario show demo --out DIR"; !strings.Contains(stderr, want) {
-		t.Errorf("show demo: stderr %q, want %q", stderr, want)
+	if want := "zipper-pad.toml reads zipper-pad-faults.csv beside it; write them together with: slipfront scenario show zipper-pad --out DIR"; !strings.Contains(stderr, want) {
+		t.Errorf("show zipper-pad: stderr %q, want %q", stderr, want)
 	}
 }
 
@@ -143,7 +143,7 @@ func TestGenerateDeterministic(t *testing.T) {
 		return files
 	}
 	for _, sub := range []string{"a", "b"} {
-		if code, _, stderr := runCLI(t, "generate", "demo", "--seed", "11", "--out", filepath.Join(dir, sub)); code != exitOK {
+		if code, _, stderr := runCLI(t, "generate", "zipper-pad", "--seed", "11", "--out", filepath.Join(dir, sub)); code != exitOK {
 			t.Fatalf("generate: exit %d: %s", code, stderr)
 		}
 	}
@@ -153,23 +153,23 @@ func TestGenerateDeterministic(t *testing.T) {
 			t.Errorf("%s differs between two runs with the same seed", name)
 		}
 	}
-	runCLI(t, "generate", "demo", "--seed", "12", "--out", filepath.Join(dir, "c"))
+	runCLI(t, "generate", "zipper-pad", "--seed", "12", "--out", filepath.Join(dir, "c"))
 	if bytes.Equal(a["fractures.csv"], read("c")["fractures.csv"]) {
 		t.Error("seed 12 gave the same fractures as seed 11")
 	}
 	// The output folder is not overwritten without --force.
-	code, _, stderr := runCLI(t, "generate", "demo", "--seed", "11", "--out", filepath.Join(dir, "a"))
+	code, _, stderr := runCLI(t, "generate", "zipper-pad", "--seed", "11", "--out", filepath.Join(dir, "a"))
 	if code != exitBadInput || !strings.Contains(stderr, "--force") {
 		t.Errorf("rewrite without --force: exit %d, %q", code, stderr)
 	}
-	if code, _, _ := runCLI(t, "generate", "demo", "--seed", "11", "--force", "--out", filepath.Join(dir, "a")); code != exitOK {
+	if code, _, _ := runCLI(t, "generate", "zipper-pad", "--seed", "11", "--force", "--out", filepath.Join(dir, "a")); code != exitOK {
 		t.Errorf("rewrite with --force: exit %d", code)
 	}
 }
 
 func TestScreen(t *testing.T) {
 	dir := t.TempDir()
-	code, out, stderr := runCLI(t, "screen", "demo", "--out", dir)
+	code, out, stderr := runCLI(t, "screen", "zipper-pad", "--out", dir)
 	if code != exitOK {
 		t.Fatalf("exit %d: %s", code, stderr)
 	}
@@ -191,55 +191,55 @@ func TestScreen(t *testing.T) {
 	}
 }
 
-// quickRun are overrides that make the demo fast enough for tests.
+// quickRun are overrides that make the zipper pad fast enough for tests.
 var quickRun = []string{"--set", "schedule.volume=30 bbl", "--set", "numerics.element_length=30 m"}
 
 var (
-	quickDemoOnce sync.Once
-	quickDemoDir  string
-	quickDemoErr  string
+	quickPadOnce sync.Once
+	quickPadDir  string
+	quickPadErr  string
 )
 
-// runQuickDemo runs the quick demo once into a shared folder and returns
+// runQuickPad runs the quick zipper pad once into a shared folder and returns
 // it; tests only read it.
-func runQuickDemo(t *testing.T) string {
+func runQuickPad(t *testing.T) string {
 	t.Helper()
-	quickDemoOnce.Do(func() {
+	quickPadOnce.Do(func() {
 		dir, err := os.MkdirTemp("", "slipfront-quick-demo-")
 		if err != nil {
-			quickDemoErr = err.Error()
+			quickPadErr = err.Error()
 			return
 		}
-		quickDemoDir = filepath.Join(dir, "run")
-		code, out, stderr := runCLI(t, append([]string{"run", "demo", "--out", quickDemoDir}, quickRun...)...)
+		quickPadDir = filepath.Join(dir, "run")
+		code, out, stderr := runCLI(t, append([]string{"run", "zipper-pad", "--out", quickPadDir}, quickRun...)...)
 		switch {
 		case code != exitOK:
-			quickDemoErr = fmt.Sprintf("run: exit %d: %s", code, stderr)
+			quickPadErr = fmt.Sprintf("run: exit %d: %s", code, stderr)
 		case !strings.Contains(out, "W2:3") || !strings.Contains(out, "Caution"):
-			quickDemoErr = "stage table lacks a stage or the caution:\n" + out
+			quickPadErr = "stage table lacks a stage or the caution:\n" + out
 		case strings.Count(stderr, "\nsimulating: ") < 9 || !strings.Contains(stderr, "h simulated), "):
 			// stderr is no terminal here, as in a Slurm log: a line per tenth.
-			quickDemoErr = "no progress line per tenth of the run on stderr:\n" + stderr
+			quickPadErr = "no progress line per tenth of the run on stderr:\n" + stderr
 		case !strings.Contains(stderr, "network: ") || strings.Contains(stderr, " 1 fractures"):
-			quickDemoErr = "status lines:\n" + stderr
+			quickPadErr = "status lines:\n" + stderr
 		}
 	})
-	if quickDemoErr != "" {
-		t.Fatal(quickDemoErr)
+	if quickPadErr != "" {
+		t.Fatal(quickPadErr)
 	}
-	return quickDemoDir
+	return quickPadDir
 }
 
 func TestMain(m *testing.M) {
 	code := m.Run()
-	if quickDemoDir != "" {
-		os.RemoveAll(filepath.Dir(quickDemoDir))
+	if quickPadDir != "" {
+		os.RemoveAll(filepath.Dir(quickPadDir))
 	}
 	os.Exit(code)
 }
 
 func TestRunOutputs(t *testing.T) {
-	dir := runQuickDemo(t)
+	dir := runQuickPad(t)
 	for _, name := range []string{"summary.json", "timeline.csv", "events.csv", "fractures.csv", "run.snap", "maps.gpkg", "map.png", "growth.png", "scenario.json"} {
 		info, err := os.Stat(filepath.Join(dir, name))
 		if err != nil || info.Size() == 0 {
@@ -352,7 +352,7 @@ func TestBatchAndMerge(t *testing.T) {
 // Every export format from a run folder; GDAL reads them back in the
 // scenario's CRS when it is installed (CI installs gdal-bin).
 func TestExportRun(t *testing.T) {
-	dir := runQuickDemo(t)
+	dir := runQuickPad(t)
 	out := t.TempDir()
 	files := map[string][]string{
 		"all.gpkg":        {"--format", "gpkg"},
@@ -458,8 +458,8 @@ func TestUnsafeInputs(t *testing.T) {
 		{"device as scenario", []string{"run", "/dev/zero", "--out", out}, "not a regular file (a device)"},
 		{"output is a file", []string{"run", "single-fracture", "--out", afile}, "is a file, not a folder"},
 		{"empty output", []string{"run", "single-fracture", "--out", ""}, "no output folder"},
-		{"network beyond memory", []string{"generate", "demo", "--memory-limit", "1MB", "--out", out}, "more than the memory limit of 1 MB"},
-		{"a set of 1.9 million fractures", []string{"run", "demo", "--set", "sets[0].intensity.measure=count", "--set", "sets[0].intensity.count=1900000",
+		{"network beyond memory", []string{"generate", "zipper-pad", "--memory-limit", "1MB", "--out", out}, "more than the memory limit of 1 MB"},
+		{"a set of 1.9 million fractures", []string{"run", "zipper-pad", "--set", "sets[0].intensity.measure=count", "--set", "sets[0].intensity.count=1900000",
 			"--memory-limit", "256MB", "--out", out}, "more than the memory limit of 256 MB: lower sets[0].intensity.count = 1900000 (the densest set)"},
 		{"run beyond memory", []string{"run", "single-fracture", "--set", "numerics.element_length=1 cm", "--memory-limit", "50MB", "--out", out},
 			"the simulation would take about"},

@@ -62,7 +62,7 @@ func simulate(ctx context.Context, s *scenarios.Scenario, out pipeline.Folder, r
 	if res == nil {
 		return runErr
 	}
-	if err := sim.WriteStageTable(stdout, res); err != nil {
+	if err := sim.WriteStageTable(stdout, s, res); err != nil {
 		return err
 	}
 	for _, w := range res.Warnings {

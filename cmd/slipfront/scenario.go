@@ -39,11 +39,11 @@ func newShowCmd(g *globalOptions, stdout, stderr io.Writer) *cobra.Command {
 	cmd := &cobra.Command{
 		Use:   "show NAME [--out DIR]",
 		Short: "Print an embedded example scenario (" + strings.Join(scenarios.Examples(), ", ") + "), or write it with the files it reads into a folder",
-		Long: "show prints the example's TOML. An example that reads other files (demo reads its mapped faults\n" +
-			"from demo-faults.csv) checks and runs only beside them: --out DIR writes the TOML and those files\n" +
+		Long: "show prints the example's TOML. An example that reads other files (zipper-pad reads its mapped\n" +
+			"faults from zipper-pad-faults.csv) checks and runs only beside them: --out DIR writes the TOML and those files\n" +
 			"into DIR, ready to edit and to run.",
 		Example: "  slipfront scenario show demo\n" +
-			"  slipfront scenario show demo --out my-demo && slipfront scenario check my-demo/demo.toml",
+			"  slipfront scenario show zipper-pad --out my-pad && slipfront scenario check my-pad/zipper-pad.toml",
 		Args: cobra.ExactArgs(1),
 		RunE: func(_ *cobra.Command, args []string) error {
 			return runShow(args[0], &o, g, stdout, stderr)
