@@ -318,3 +318,39 @@ func TestGrowthDemoFineMesh(t *testing.T) {
 		t.Errorf("%d meetings with natural fractures: the test needs growth through the network", len(res.Crossings))
 	}
 }
+
+// A cap on the bottom-hole pressure at or below Shmin leaves a growing
+// fracture no net pressure: testdata/kgd-toughness (Shmin 48.1 MPa) capped
+// at 45 MPa does not grow past its initial half-length (rounded up to
+// whole elements), and the run says
+// why in a warning of its stage; capped above Shmin it grows and does not
+// warn. (Growth needs p > σn at the tip: common practice, no source.)
+func TestGrowthCapBelowClosure(t *testing.T) {
+	for _, tc := range []struct {
+		cap  string
+		warn bool
+	}{{"45 MPa", true}, {"100 MPa", false}} {
+		s, err := scenarios.Load(filepath.Join("..", "testdata", "kgd-toughness", "scenario.toml"), scenarios.Override{Key: "schedule.pressure_cap", Value: tc.cap})
+		if err != nil {
+			t.Fatal(err)
+		}
+		_, res := runScenario(t, s)
+		var warned int
+		for _, w := range res.Warnings {
+			if w.Kind == WarnCapBelowClosure {
+				warned++
+				if !strings.Contains(w.Message, "45.00 MPa") || !strings.Contains(w.Message, "48.10 MPa") {
+					t.Errorf("cap %s: warning without the cap and Shmin: %q", tc.cap, w.Message)
+				}
+			}
+		}
+		if want := map[bool]int{true: 1, false: 0}[tc.warn]; warned != want {
+			t.Errorf("cap %s: %d cap_below_closure warnings, want %d: %v", tc.cap, warned, want, res.Warnings)
+		}
+		// The initial part opens by whole elements: up to one more.
+		initial := s.Wells[0].InitialHalfLength + s.Numerics.ElementLength
+		if grew := openedHalfLength(res) > initial; grew == tc.warn {
+			t.Errorf("cap %s: opened half-length %.1f m from %.1f m", tc.cap, openedHalfLength(res), initial)
+		}
+	}
+}

@@ -344,6 +344,7 @@ func (r *runner) runStage(ctx context.Context, k int, ps scenarios.PlannedStage)
 	r.cur.Capped = false
 	r.stage = k
 	r.shminAt = false
+	r.warnCapBelowClosure(ps)
 	sum := StageSummary{Name: ps.Name, Start: r.t, MaxMagnitude: math.NaN()}
 	if ps.Perforations > 0 {
 		sum.ClusterVolumes = make([]float64, len(r.m.clusterNodes[k]))
@@ -603,6 +604,27 @@ func (r *runner) warnTensile(stage string, bhp float64) {
 	r.res.Warnings = append(r.res.Warnings, Warning{Kind: WarnBHPAboveShmin, Stage: stage, Message: fmt.Sprintf(
 		"stage %s: bottom-hole pressure %.2f MPa exceeded Shmin %.2f MPa at t = %.0f s: the run entered the tensile-fracturing regime, which this model treats only approximately (existing fractures open; no new fractures grow unless wells[].growth = \"on\")",
 		stage, bhp/1e6, r.m.shmin/1e6, r.t)})
+}
+
+// warnCapBelowClosure records that stage ps, whose fractures grow, may
+// not raise the bottom-hole pressure above Shmin, their closure stress:
+// growth needs a net pressure, so its fractures cannot open or grow. A
+// schedule the model represents, but rarely the one meant.
+func (r *runner) warnCapBelowClosure(ps scenarios.PlannedStage) {
+	w := r.m.s.Wells[ps.Well]
+	if w.ConduitHalfLength == 0 || w.Growth != "on" {
+		return
+	}
+	limit, what := ps.PressureCap, "pressure cap"
+	if sc := r.m.s.Schedule; sc.Control == "pressure" && sc.InjectionPressure < limit {
+		limit, what = sc.InjectionPressure, "injection pressure"
+	}
+	if limit > r.m.shmin {
+		return
+	}
+	r.res.Warnings = append(r.res.Warnings, Warning{Kind: WarnCapBelowClosure, Stage: ps.Name, Message: fmt.Sprintf(
+		"stage %s: the %s, %.2f MPa, is not above Shmin, %.2f MPa, the closure stress of its fractures: they cannot open or grow, and the stage pumps only what the natural fractures take",
+		ps.Name, what, limit/1e6, r.m.shmin/1e6)})
 }
 
 // record appends a timeline row at the current time (replacing a row at

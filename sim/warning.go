@@ -24,6 +24,11 @@ const (
 	// WarnGrowthAtEnd: a growing fracture reached the end of the path
 	// meshed for it (conduit_half_length) with a tip still able to grow.
 	WarnGrowthAtEnd = "growth_reached_end"
+	// WarnCapBelowClosure: a stage whose fractures grow may not raise its
+	// pressure above Shmin, their closure stress (the pressure cap, or
+	// the injection pressure under pressure control), so they cannot
+	// open or grow and the stage pumps only what the network takes.
+	WarnCapBelowClosure = "cap_below_closure"
 	// WarnRateOverflow: the seismicity-rate model met a stress step
 	// beyond any finite rate on some element.
 	WarnRateOverflow = "seismicity_rate_overflow"
