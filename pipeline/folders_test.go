@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"context"
 	"errors"
+	"fmt"
 	"math"
 	"os"
 	"path/filepath"
@@ -272,5 +273,46 @@ func TestMixedFileRefused(t *testing.T) {
 	_, err = LoadRun(dir, math.NaN())
 	if !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), "events.csv differs from the file the run wrote") {
 		t.Errorf("mixed folder: error %v", err)
+	}
+}
+
+// The report page of a run whose fractures grow says what they grew to,
+// where they met natural fractures, and where each stage's fluid was; a
+// run without growth has none of it (the zipper pad).
+func TestReportGrowth(t *testing.T) {
+	s, err := scenarios.Load(filepath.Join("..", "testdata", "kgd-toughness", "scenario.toml"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	grown := filepath.Join(t.TempDir(), "run")
+	res, err := Simulate(context.Background(), s, SimulateOptions{Out: Folder{Dir: grown}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	plain, _ := runFolder(t)
+	for _, c := range []struct {
+		dir  string
+		want []string
+	}{
+		{grown, []string{"growing fractures", "1, half-length mean", "meetings with natural fractures", "0 crossed, 0 arrested, 0 diverted",
+			"held in the fractures m³", fmt.Sprintf("<td>%.1f</td>", res.Stages[0].HeldConduits)}},
+		{plain, nil},
+	} {
+		rep := filepath.Join(t.TempDir(), "report")
+		if err := WriteReport(context.Background(), c.dir, Folder{Dir: rep}); err != nil {
+			t.Fatal(err)
+		}
+		page, err := os.ReadFile(filepath.Join(rep, ReportPageFile))
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, want := range c.want {
+			if !strings.Contains(string(page), want) {
+				t.Errorf("%s: report page without %q", c.dir, want)
+			}
+		}
+		if c.want == nil && strings.Contains(string(page), "growing fractures") {
+			t.Errorf("%s: report page of a run without growth speaks of growing fractures", c.dir)
+		}
 	}
 }

@@ -177,7 +177,8 @@ func TestDistanceTime(t *testing.T) {
 func withStages(t *testing.T, r *Run) {
 	t.Helper()
 	if err := readFile(filepath.Join(sharedRunDir, SummaryFile), func(f io.Reader) (err error) {
-		r.Result.Stages, _, err = sim.ReadSummary(f, SummaryFile)
+		sum, err := sim.ReadSummary(f, SummaryFile)
+		r.Result.Stages = sum.Stages
 		return err
 	}); err != nil {
 		t.Fatal(err)

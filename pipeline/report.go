@@ -71,6 +71,7 @@ func writeRunReport(dir, out string) error {
 		return err
 	}
 	warnings := r.Notes
+	var sum sim.Summary
 	if r.Complete {
 		if _, _, err := openRunFolder(dir, r.Scenario, TimelineFile, SummaryFile); err != nil {
 			return err
@@ -81,20 +82,20 @@ func writeRunReport(dir, out string) error {
 		}); err != nil {
 			return err
 		}
-		var runWarnings []sim.Warning
 		if err := readFile(filepath.Join(dir, SummaryFile), func(f io.Reader) (err error) {
-			r.Result.Stages, runWarnings, err = sim.ReadSummary(f, SummaryFile)
+			sum, err = sim.ReadSummary(f, SummaryFile)
 			return err
 		}); err != nil {
 			return err
 		}
-		warnings = append(warnings, warningNotes(runWarnings)...)
+		r.Result.Stages = sum.Stages
+		warnings = append(warnings, warningNotes(sum.Warnings)...)
 	}
 	ps, notes, err := r.runPictures()
 	if err != nil {
 		return err
 	}
-	return writePage(out, r.page(append(warnings, notes...)), ps)
+	return writePage(out, r.page(append(warnings, notes...), sum.Growth), ps)
 }
 
 func readFile(path string, read func(io.Reader) error) error {
@@ -106,8 +107,9 @@ func readFile(path string, read func(io.Reader) error) error {
 	return read(f)
 }
 
-// page is the HTML page of a run.
-func (r *Run) page(warnings []string) *report.Page {
+// page is the HTML page of a run, with what its fractures did when they
+// grew (growth nil otherwise).
+func (r *Run) page(warnings []string, growth *sim.GrowthSummary) *report.Page {
 	s, res := r.Scenario, r.Result
 	var last sim.Sample
 	if n := len(res.Timeline); n > 0 {
@@ -122,11 +124,23 @@ func (r *Run) page(warnings []string) *report.Page {
 		{"stimulated fracture area", fmt.Sprintf("%.0f m²", last.FractureArea)},
 		{"events", fmt.Sprintf("%d (largest Mw %s)", len(res.Events), optionalMw(maxMw))},
 	}
+	if g := growth; g != nil {
+		p.Facts = append(p.Facts,
+			[2]string{"growing fractures", fmt.Sprintf("%d, half-length mean %.0f m, largest %.0f m", g.Fractures, g.MeanHalfLength, g.LargestHalfLength)},
+			[2]string{"meetings with natural fractures", fmt.Sprintf("%d crossed, %d arrested, %d diverted", g.Crossings["cross"], g.Crossings["arrest"], g.Crossings["divert"])})
+	}
 	p.Notes = warnings
 	t := report.Table{Caption: "Stages in pumping order", Header: []string{"stage", "injected m³", "peak BHP MPa", "new area m²", "events", "max Mw"}}
+	if growth != nil {
+		t.Header = append(t.Header, "held in the fractures m³", "held in natural fractures m³")
+	}
 	for _, st := range res.Stages {
-		t.Rows = append(t.Rows, []string{st.Name, fmt.Sprintf("%.1f", st.Injected), fmt.Sprintf("%.2f", st.PeakBHP/1e6),
-			fmt.Sprintf("%.0f", st.NewArea), fmt.Sprint(st.Events), optionalMw(st.MaxMagnitude)})
+		row := []string{st.Name, fmt.Sprintf("%.1f", st.Injected), fmt.Sprintf("%.2f", st.PeakBHP/1e6),
+			fmt.Sprintf("%.0f", st.NewArea), fmt.Sprint(st.Events), optionalMw(st.MaxMagnitude)}
+		if growth != nil { // at the end of the stage's pumping, all stages so far
+			row = append(row, fmt.Sprintf("%.1f", st.HeldConduits), fmt.Sprintf("%.2f", st.HeldNatural))
+		}
+		t.Rows = append(t.Rows, row)
 	}
 	p.Tables = []report.Table{t}
 	return p

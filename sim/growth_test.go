@@ -1,6 +1,8 @@
 package sim
 
 import (
+	"bytes"
+	"maps"
 	"math"
 	"os"
 	"path/filepath"
@@ -152,7 +154,7 @@ func TestGrowthMeetingPlace(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	_, res := runScenario(t, s)
+	net, res := runScenario(t, s)
 	if len(res.Crossings) != 1 {
 		t.Fatalf("%d crossings: %+v", len(res.Crossings), res.Crossings)
 	}
@@ -172,6 +174,20 @@ func TestGrowthMeetingPlace(t *testing.T) {
 		if !strings.Contains(table.String(), want) {
 			t.Errorf("stage table without %q:\n%s", want, table.String())
 		}
+	}
+	// summary.json keeps the same summary, and ReadSummary reads it back.
+	var b bytes.Buffer
+	if err := WriteSummary(&b, s, net, res, nil); err != nil {
+		t.Fatal(err)
+	}
+	sum, err := ReadSummary(&b, "summary.json")
+	if err != nil {
+		t.Fatal(err)
+	}
+	want := summarizeGrowth(s, res)
+	if g := sum.Growth; g == nil || g.Fractures != 1 || g.Fractures != want.Fractures || g.MeanHalfLength != want.MeanHalfLength ||
+		g.LargestHalfLength != want.LargestHalfLength || !maps.Equal(g.Crossings, want.Crossings) || g.Crossings[c.Outcome] != 1 {
+		t.Errorf("growth read back %+v, want %+v", sum.Growth, want)
 	}
 }
 

@@ -171,26 +171,34 @@ func parseSample(rec []string, stages map[string]int) (Sample, error) {
 		SeismicMoment: v[9], AseismicMoment: v[10]}, nil
 }
 
-// ReadSummary reads the per-stage summaries and the warnings from a
-// summary.json written by WriteSummary.
-func ReadSummary(r io.Reader, name string) (stages []StageSummary, warnings []Warning, err error) {
+// Summary is what ReadSummary reads back from a summary.json.
+type Summary struct {
+	Stages   []StageSummary
+	Warnings []Warning
+	// Growth is nil unless the run's fractures grew.
+	Growth *GrowthSummary
+}
+
+// ReadSummary reads the per-stage summaries, the warnings and the growth
+// from a summary.json written by WriteSummary.
+func ReadSummary(r io.Reader, name string) (Summary, error) {
 	var sj summaryJSON
 	if err := json.NewDecoder(r).Decode(&sj); err != nil {
-		return nil, nil, fmt.Errorf("%s: %w", name, err)
+		return Summary{}, fmt.Errorf("%s: %w", name, err)
 	}
-	out := make([]StageSummary, len(sj.Stages))
+	out := Summary{Stages: make([]StageSummary, len(sj.Stages)), Growth: sj.Growth}
 	for i, st := range sj.Stages {
 		mw := math.NaN()
 		if st.MaxMagnitude != nil {
 			mw = *st.MaxMagnitude
 		}
-		out[i] = StageSummary{Name: st.Name, Start: st.StartS, PumpEnd: st.PumpEndS, End: st.EndS,
+		out.Stages[i] = StageSummary{Name: st.Name, Start: st.StartS, PumpEnd: st.PumpEndS, End: st.EndS,
 			Injected: st.InjectedM3, PeakBHP: st.PeakBHPMPa * 1e6, NewArea: st.NewAreaM2, Events: st.Events,
 			MaxMagnitude: mw, Capped: st.Capped, Steps: st.Steps, ClusterVolumes: st.ClusterVolumes,
 			HeldNatural: st.HeldNaturalM3, HeldConduits: st.HeldConduitsM3}
 	}
 	for _, w := range sj.Warnings {
-		warnings = append(warnings, Warning{Kind: w.Kind, Stage: w.Stage, Message: w.Message})
+		out.Warnings = append(out.Warnings, Warning{Kind: w.Kind, Stage: w.Stage, Message: w.Message})
 	}
-	return out, warnings, nil
+	return out, nil
 }

@@ -702,11 +702,14 @@ func TestTimelineAndStagesRoundTrip(t *testing.T) {
 	if err := WriteSummary(&b, s, net, res, nil); err != nil {
 		t.Fatal(err)
 	}
-	stages, _, err := ReadSummary(bytes.NewReader(b.Bytes()), "summary.json")
-	if err != nil || len(stages) != len(res.Stages) {
-		t.Fatalf("stages: %v, %d of %d", err, len(stages), len(res.Stages))
+	sum, err := ReadSummary(bytes.NewReader(b.Bytes()), "summary.json")
+	if err != nil || len(sum.Stages) != len(res.Stages) {
+		t.Fatalf("stages: %v, %d of %d", err, len(sum.Stages), len(res.Stages))
 	}
-	numtest.Abs(t, "stage start", stages[1].Start, res.Stages[1].Start, 0)
+	numtest.Abs(t, "stage start", sum.Stages[1].Start, res.Stages[1].Start, 0)
+	if sum.Growth != nil {
+		t.Errorf("growth %+v read back from a run whose fractures do not grow", sum.Growth)
+	}
 	if _, err := ReadTimeline(strings.NewReader(TimelineHeader+"\n5,,0,0,,0,0,0,0,0,31\n1,,0,0,,0,0,0,0,0,31\n"), "t.csv", s); err == nil {
 		t.Error("a timeline going back in time was accepted")
 	}

@@ -226,7 +226,7 @@ type summaryJSON struct {
 	Warnings    []warningJSON  `json:"warnings"`
 	Numerics    numericsJSON   `json:"numerics"`
 	Depletion   *depletionJSON `json:"depletion,omitempty"`
-	Growth      *growthJSON    `json:"growth,omitempty"`
+	Growth      *GrowthSummary `json:"growth,omitempty"`
 	Rate        *rateJSON      `json:"seismicity_rate,omitempty"`
 	Failure     *string        `json:"failure,omitempty"`
 }
@@ -266,23 +266,28 @@ func newRateJSON(s *scenarios.Scenario, res *Result) *rateJSON {
 		MaxMagnitude: optional(MaxMagnitude(res.RateEvents)), MinMagnitude: s.SeismicityRate.MinMagnitude}
 }
 
-// growthJSON is what the growing fractures did, in summary.json.
-type growthJSON struct {
-	Fractures         int            `json:"growing_fractures"`
-	MeanHalfLengthM   float64        `json:"mean_half_length_m"`
-	LargestHalfLength float64        `json:"largest_half_length_m"`
-	Crossings         map[string]int `json:"crossings"`
+// GrowthSummary is what the growing fractures of a run did, as
+// summary.json holds it ("growth").
+type GrowthSummary struct {
+	// Fractures counts the growing conduits.
+	Fractures int `json:"growing_fractures"`
+	// MeanHalfLength and LargestHalfLength of their opened parts, m.
+	MeanHalfLength    float64 `json:"mean_half_length_m"`
+	LargestHalfLength float64 `json:"largest_half_length_m"`
+	// Crossings counts the meetings with natural fractures by outcome
+	// ("cross", "arrest", "divert").
+	Crossings map[string]int `json:"crossings"`
 }
 
-// newGrowthJSON summarises the growth of a run (nil when nothing grows,
+// summarizeGrowth summarises the growth of a run (nil when nothing grows,
 // and for a replayed result): the opened half-length of the growing
 // conduits and the meetings by outcome.
-func newGrowthJSON(s *scenarios.Scenario, res *Result) *growthJSON {
+func summarizeGrowth(s *scenarios.Scenario, res *Result) *GrowthSummary {
 	if !Grows(s) || res.ConduitHalfLengths == nil {
 		return nil
 	}
 	order := s.PumpingOrder()
-	out := &growthJSON{Crossings: map[string]int{"cross": 0, "arrest": 0, "divert": 0}}
+	out := &GrowthSummary{Crossings: map[string]int{"cross": 0, "arrest": 0, "divert": 0}}
 	half := res.ConduitHalfLengths
 	var sum float64
 	for c, cd := range res.Conduits {
@@ -294,7 +299,7 @@ func newGrowthJSON(s *scenarios.Scenario, res *Result) *growthJSON {
 		out.LargestHalfLength = math.Max(out.LargestHalfLength, half[c])
 	}
 	if out.Fractures > 0 {
-		out.MeanHalfLengthM = sum / float64(out.Fractures)
+		out.MeanHalfLength = sum / float64(out.Fractures)
 	}
 	for _, c := range res.Crossings {
 		out.Crossings[c.Outcome]++
@@ -433,7 +438,7 @@ func WriteSummary(w io.Writer, s *scenarios.Scenario, net *dfn.Network, res *Res
 		},
 		Warnings:  []warningJSON{},
 		Depletion: newDepletionJSON(s, res.Depletion),
-		Growth:    newGrowthJSON(s, res),
+		Growth:    summarizeGrowth(s, res),
 		Rate:      newRateJSON(s, res),
 		Numerics: numericsJSON{Elements: len(res.Elements), Conduits: len(res.Conduits), Solver: res.Solver,
 			FactorEntries: res.FactorEntries, Steps: res.Steps, CutSteps: res.CutSteps},
@@ -486,10 +491,10 @@ func WriteStageTable(w io.Writer, s *scenarios.Scenario, res *Result) error {
 	fmt.Fprintf(&b, "total: %.4g m3 injected, stimulated area %.0f m2 (fracture surface %.0f m2), %s, peak BHP %.2f MPa\n",
 		res.Injected, res.StimulatedArea, res.FractureArea, plural.S(len(res.Events), "event"), res.PeakBHP/1e6)
 	fmt.Fprintf(&b, "slip moment: %.3g N·m seismic (the events), %.3g N·m aseismic\n", res.SeismicMoment, res.AseismicMoment)
-	if g := newGrowthJSON(s, res); g != nil && len(res.Stages) > 0 {
+	if g := summarizeGrowth(s, res); g != nil && len(res.Stages) > 0 {
 		last := res.Stages[len(res.Stages)-1]
 		fmt.Fprintf(&b, "growth: %s, half-length mean %.0f m, largest %.0f m; meetings with natural fractures: %d crossed, %d arrested, %d diverted\n",
-			plural.S(g.Fractures, "fracture"), g.MeanHalfLengthM, g.LargestHalfLength, g.Crossings["cross"], g.Crossings["arrest"], g.Crossings["divert"])
+			plural.S(g.Fractures, "fracture"), g.MeanHalfLength, g.LargestHalfLength, g.Crossings["cross"], g.Crossings["arrest"], g.Crossings["divert"])
 		fmt.Fprintf(&b, "fluid at the end of pumping: %.4g m3 in the conduits, %.3g m3 in the natural fractures; %.4g m3 leaked off in the whole run\n",
 			last.HeldConduits, last.HeldNatural, res.Leaked)
 	}
