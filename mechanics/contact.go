@@ -139,11 +139,15 @@ type Contact struct {
 	// operator reciprocal.
 	weight []float64
 	// self is each element's self-influence block; near[i] the elements
-	// within NearRadius of i and nearBlock[i][k] the influence of element i
-	// on near[i][k] (the receiver).
-	self      []elastic.Block
-	near      [][]int32
-	nearBlock [][]elastic.Block
+	// within NearRadius of i, nearSlip[i][k] the shear and normal traction
+	// change of near[i][k] (the receiver) per unit slip of element i and
+	// nearOpening[i][k] per unit opening. Kept apart, the slip halves are
+	// all a sliding element that does not open reads when it loads its
+	// neighbours (loadNear is bound by the memory it reads).
+	self        []elastic.Block
+	near        [][]int32
+	nearSlip    [][][2]float64
+	nearOpening [][][2]float64
 	// detached[j] are the receivers that source j does not load, and
 	// detachedBlock their influence, subtracted from the full operator's;
 	// compensated is what each element's self-influence gains for them
@@ -245,7 +249,8 @@ func (c *Contact) findNear() {
 	}
 	g := newCentreGrid(centres, c.set.NearRadius)
 	c.near = make([][]int32, n)
-	c.nearBlock = make([][]elastic.Block, n)
+	c.nearSlip = make([][][2]float64, n)
+	c.nearOpening = make([][][2]float64, n)
 	c.detached = make([][]int32, n)
 	c.detachedBlock = make([][]elastic.Block, n)
 	c.compensated = make([]elastic.Block, n)
@@ -268,8 +273,10 @@ func (c *Contact) findNear() {
 				return
 			}
 			if r2.Dot(d, d) <= r2max {
+				b := c.op.At(i, j)
 				c.near[j] = append(c.near[j], int32(i))
-				c.nearBlock[j] = append(c.nearBlock[j], c.op.At(i, j))
+				c.nearSlip[j] = append(c.nearSlip[j], [2]float64{b.ShearSlip, b.NormalSlip})
+				c.nearOpening[j] = append(c.nearOpening[j], [2]float64{b.ShearOpening, b.NormalOpening})
 			}
 		})
 	}
@@ -555,10 +562,26 @@ func (c *Contact) loadNear(ts, tn []float64, j int, ds, dw float64) {
 	b := c.self[j]
 	ts[j] += b.ShearSlip*ds + b.ShearOpening*dw
 	tn[j] += b.NormalSlip*ds + b.NormalOpening*dw
-	for q, i := range c.near[j] {
-		b := &c.nearBlock[j][q]
-		ts[i] += b.ShearSlip*ds + b.ShearOpening*dw
-		tn[i] += b.NormalSlip*ds + b.NormalOpening*dw
+	near := c.near[j]
+	switch {
+	case dw == 0:
+		for q, b := range c.nearSlip[j][:len(near)] {
+			i := near[q]
+			ts[i] += b[0] * ds
+			tn[i] += b[1] * ds
+		}
+	case ds == 0:
+		for q, b := range c.nearOpening[j][:len(near)] {
+			i := near[q]
+			ts[i] += b[0] * dw
+			tn[i] += b[1] * dw
+		}
+	default:
+		slip, opening := c.nearSlip[j][:len(near)], c.nearOpening[j][:len(near)]
+		for q, i := range near {
+			ts[i] += slip[q][0]*ds + opening[q][0]*dw
+			tn[i] += slip[q][1]*ds + opening[q][1]*dw
+		}
 	}
 }
 

@@ -153,7 +153,8 @@ func (c *Contact) influence(i, j int) (elastic.Block, bool) {
 	if !ok {
 		return elastic.Block{}, false
 	}
-	return c.nearBlock[j][k], true
+	sl, op := c.nearSlip[j][k], c.nearOpening[j][k]
+	return elastic.Block{ShearSlip: sl[0], NormalSlip: sl[1], ShearOpening: op[0], NormalOpening: op[1]}, true
 }
 
 // tractions returns τ and σn of local element k at z.
