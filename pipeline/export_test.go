@@ -23,12 +23,13 @@ import (
 )
 
 // smallPad cuts the zipper pad down for the tests of folders and pictures: 30 bbl
-// stages on 30 m elements, and a slip-weakening distance of 1 mm so that
-// it ruptures (the zipper pad's own 3 mm slips aseismically). Those elements do
+// stages on 30 m elements, and a slip-weakening distance of 0.5 mm so that
+// it ruptures often enough for a magnitude–frequency chart (114 events;
+// the zipper pad's own 3 mm slips aseismically). Those elements do
 // not resolve the nucleation length, so the number of its events is set
 // by the mesh: these tests check how events are written and read, not how
 // many there are.
-var smallPad = []string{"schedule.volume=30 bbl", "numerics.element_length=30 m", "rock.slip_weakening_distance=1 mm"}
+var smallPad = []string{"schedule.volume=30 bbl", "numerics.element_length=30 m", "rock.slip_weakening_distance=0.5 mm"}
 
 // runFolder simulates a small zipper pad into a folder with Simulate, as the run
 // command does, and returns the in-memory run too.

@@ -95,15 +95,22 @@ type mechState struct {
 // must be solved together or their slip would grow step after step.
 const contactNearRadius = 3
 
-// detachRadius, in element lengths, is how close an element of another
-// trace may come to an element before the two stop loading each other
-// (mechanics.ContactSettings.DetachRadius): at crossings and where traces
-// run within an element or two of each other, constant elements give
-// influences far too large (the stress next to an element's end is
-// singular), and the slip they drive grows without bound. The contact
-// problem adds each such pair's coupling to the two elements' own
-// stiffness, so crossings stiffen the slip around them instead.
-const detachRadius = 2
+// detachRadius, in element lengths, is how close the centre of an
+// element of another trace may come to an element before the two stop
+// loading each other (mechanics.ContactSettings.DetachRadius): at a
+// crossing, the elements that touch it (centres half an element length
+// from the other trace), and traces that run closer than that. There
+// constant elements give influences far too large (the stress next to an
+// element's end is singular), and the slip they drive grows without bound.
+// The contact problem adds each such pair's coupling to the two elements'
+// own stiffness, so the elements at a crossing are stiffened instead. A
+// wider band (two element lengths, the earlier choice) converged falsely:
+// the zipper pad's area held within 0.3 % from 10 to 5 m elements and
+// then grew 13 % at 2.5 m, and the demo's pressure was 4.4 MPa low on 10 m
+// elements, whose band detached conduits 15 m apart. With the touching
+// elements only, area and pressure hold from 10 m on (README,
+// Convergence).
+const detachRadius = 0.6
 
 // farRefresh is the slip or opening, as a fraction of numerics.slip_max,
 // that some element may gather before the stress it transfers beyond the
