@@ -6,6 +6,7 @@ import (
 	"math"
 	"slices"
 
+	"gonum.org/v1/gonum/floats"
 	"gonum.org/v1/gonum/mat"
 
 	"slipfront/elastic"
@@ -193,7 +194,9 @@ func (u *unstable) Error() string { return "mechanics: unstable sliding patch" }
 // tolerance of the next rounds' solves), so each element changes at most
 // once more and the rounds end. This is the usual guard of active-set
 // methods against cycling (common practice, no source); results that
-// converge within maxStatusChanges are untouched.
+// converge within maxStatusChanges are untouched. When the statuses hold
+// but Newton stalled for them, they are solved again with damped steps
+// (dampedNewton) before the solve is given up.
 func (s *groupSystem) settle() error {
 	for round := range maxStatusChanges + 2*s.m {
 		s.monotone = round >= maxStatusChanges
@@ -204,7 +207,17 @@ func (s *groupSystem) settle() error {
 			return &unstable{patch: patch, lambda: lambda}
 		}
 		if !s.updateStatus() {
-			return s.stall
+			if s.stall == nil {
+				return nil
+			}
+			// Newton cycled across a kink of the friction law for the
+			// statuses that hold: retry them with damped steps.
+			if err := s.dampedNewton(); err != nil {
+				return err
+			}
+			if !s.updateStatus() {
+				return nil
+			}
 		}
 	}
 	return fmt.Errorf("%w: %s's element states kept changing", ErrContactNotConverged, s.name())
@@ -306,6 +319,55 @@ func (s *groupSystem) newton() error {
 	}
 	s.stall = s.stalled(prev, zmax)
 	return nil
+}
+
+// dampedNewton solves the equations of the current statuses again from
+// where Newton stalled, with exact Jacobians and steps halved until the
+// residual falls (backtracking on the residual's Euclidean norm with the
+// sufficient-decrease factor 1 − 10⁻⁴α, the usual globalization of
+// Newton's method: Nocedal & Wright 2006, §11.5, from memory). Plain
+// Newton can cycle between the two sides of a kink (the end of
+// weakening, the turn of sliding) with steps as large as the solution
+// itself; damped steps settle onto the kink. It returns the stall error
+// when it cannot reduce the residual either.
+func (s *groupSystem) dampedNewton() error {
+	z0 := make([]float64, len(s.z))
+	for range maxNewton {
+		s.residual()
+		r0 := floats.Norm(s.res, 2)
+		if !s.factor(true) {
+			return fmt.Errorf("%w: singular system in %s", ErrContactNotConverged, s.name())
+		}
+		d := slices.Clone(s.res)
+		if s.full {
+			s.cache.rows.solve(d)
+		} else {
+			s.cache.lu.solve(d)
+		}
+		copy(z0, s.z)
+		step, zmax := floats.Norm(d, math.Inf(1)), 0.0
+		for alpha := 1.0; ; alpha /= 2 {
+			if alpha < 1.0/(1<<20) {
+				copy(s.z, z0)
+				return s.stall
+			}
+			zmax = 0
+			for q, pos := range s.free {
+				s.z[pos] = z0[pos] - alpha*d[q]
+				zmax = max(zmax, math.Abs(s.z[pos]))
+			}
+			s.residual()
+			if floats.Norm(s.res, 2) <= (1-1e-4*alpha)*r0 {
+				break
+			}
+		}
+		// Converged when the full Newton step is within the tolerance.
+		if s.stalled(step, zmax) == nil {
+			s.stall = nil
+			return nil
+		}
+	}
+	return s.stall
 }
 
 // stalled accepts a Newton solve that stopped with a last step of step

@@ -361,3 +361,23 @@ func loadCase(t *testing.T, dir string, overrides ...string) *scenarios.Scenario
 	}
 	return s
 }
+
+// On the zipper pad with 50 bbl stages and 1 mm of slip weakening on its
+// 10 m elements (nucleation unresolved, so warned), Newton cycled across
+// the kink of a weakening element's friction law in a group of five
+// elements in the fourth stage, with steps as large as the slip itself,
+// and the run stopped at 5 521 s ("Newton's steps in group 673 stalled").
+// The damped retry of a stalled status set (mechanics, dampedNewton) lets
+// it run to its end, conserving mass.
+func TestContactStallRecovered(t *testing.T) {
+	if testing.Short() {
+		t.Skip("a whole run of the zipper pad (10 s)")
+	}
+	_, _, res := runExample(t, "zipper-pad", "schedule.volume=50 bbl", "rock.slip_weakening_distance=1 mm")
+	if len(res.Stages) != 6 {
+		t.Fatalf("%d stages run, want all 6", len(res.Stages))
+	}
+	if res.MassBalanceError > 1e-8 {
+		t.Errorf("mass-balance error %.3g > 1e-8", res.MassBalanceError)
+	}
+}
