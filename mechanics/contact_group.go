@@ -215,6 +215,9 @@ func (s *groupSystem) settle() error {
 			if err := s.dampedNewton(); err != nil {
 				return err
 			}
+			if lambda, patch := s.stability(); lambda < 0 {
+				return &unstable{patch: patch, lambda: lambda}
+			}
 			if !s.updateStatus() {
 				return nil
 			}
