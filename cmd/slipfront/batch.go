@@ -45,9 +45,9 @@ func newBatchCmd(g *globalOptions, stdout, stderr io.Writer) *cobra.Command {
 			"with its reference case (the sweep's first value, or --reference) realization by realization.\n" +
 			"Each finished realization is a file of its own: --resume continues an interrupted batch,\n" +
 			"--shard i/n runs a share of the realizations (e.g. one Slurm array task) for \"slipfront merge\".\n\n" + caution,
-		Example: "  slipfront batch demo --realizations 20 --sweep fluids.slickwater.viscosity=1cP,5cP,20cP --out visc\n" +
-			"  slipfront batch demo --realizations 20 --sweep fluids.slickwater.viscosity=1cP,5cP,20cP --reference 5cP --out visc\n" +
-			"  slipfront batch demo --realizations 200 --shard $SLURM_ARRAY_TASK_ID/$SLURM_ARRAY_TASK_COUNT --resume --out shard-$SLURM_ARRAY_TASK_ID",
+		Example: "  slipfront batch demo --realizations 4 --sweep schedule.fluid=slickwater,linear_gel --out fluids\n" +
+			"  slipfront batch zipper-pad --realizations 20 --sweep fluids.slickwater.viscosity=1cP,5cP,20cP --reference 5cP --out visc\n" +
+			"  slipfront batch zipper-pad --realizations 200 --shard $SLURM_ARRAY_TASK_ID/$SLURM_ARRAY_TASK_COUNT --resume --out shard-$SLURM_ARRAY_TASK_ID",
 		Args: cobra.ExactArgs(1),
 		RunE: func(cmd *cobra.Command, args []string) error {
 			o.scenario = args[0]
