@@ -565,23 +565,25 @@ func (c *Contact) loadNear(ts, tn []float64, j int, ds, dw float64) {
 	near := c.near[j]
 	switch {
 	case dw == 0:
-		for q, b := range c.nearSlip[j][:len(near)] {
-			i := near[q]
-			ts[i] += b[0] * ds
-			tn[i] += b[1] * ds
-		}
+		scatter(ts, tn, near, c.nearSlip[j], ds)
 	case ds == 0:
-		for q, b := range c.nearOpening[j][:len(near)] {
-			i := near[q]
-			ts[i] += b[0] * dw
-			tn[i] += b[1] * dw
-		}
-	default:
+		scatter(ts, tn, near, c.nearOpening[j], dw)
+	default: // slip and opening summed before they are added, one rounding per receiver
 		slip, opening := c.nearSlip[j][:len(near)], c.nearOpening[j][:len(near)]
 		for q, i := range near {
 			ts[i] += slip[q][0]*ds + opening[q][0]*dw
 			tn[i] += slip[q][1]*ds + opening[q][1]*dw
 		}
+	}
+}
+
+// scatter adds v times per[q], the shear and normal traction change per
+// unit of receiver near[q], to ts and tn.
+func scatter(ts, tn []float64, near []int32, per [][2]float64, v float64) {
+	for q, b := range per[:len(near)] {
+		i := near[q]
+		ts[i] += b[0] * v
+		tn[i] += b[1] * v
 	}
 }
 

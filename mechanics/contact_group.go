@@ -294,12 +294,7 @@ func (s *groupSystem) newton() error {
 		}
 		exact := refresh
 		refresh = false
-		d := slices.Clone(s.res)
-		if s.full {
-			s.cache.rows.solve(d)
-		} else {
-			s.cache.lu.solve(d)
-		}
+		d := s.newtonStep()
 		step := 0.0
 		zmax = 0
 		for q, pos := range s.free {
@@ -341,12 +336,7 @@ func (s *groupSystem) dampedNewton() error {
 		if !s.factor(true) {
 			return fmt.Errorf("%w: singular system in %s", ErrContactNotConverged, s.name())
 		}
-		d := slices.Clone(s.res)
-		if s.full {
-			s.cache.rows.solve(d)
-		} else {
-			s.cache.lu.solve(d)
-		}
+		d := s.newtonStep()
 		copy(z0, s.z)
 		step, zmax := floats.Norm(d, math.Inf(1)), 0.0
 		for alpha := 1.0; ; alpha /= 2 {
@@ -371,6 +361,18 @@ func (s *groupSystem) dampedNewton() error {
 		}
 	}
 	return s.stall
+}
+
+// newtonStep returns J⁻¹ r for the factorized Jacobian and the residual
+// of the last residual call.
+func (s *groupSystem) newtonStep() []float64 {
+	d := slices.Clone(s.res)
+	if s.full {
+		s.cache.rows.solve(d)
+	} else {
+		s.cache.lu.solve(d)
+	}
+	return d
 }
 
 // stalled accepts a Newton solve that stopped with a last step of step
