@@ -94,15 +94,7 @@ func TestReportPageInChromium(t *testing.T) {
 	runDir, _ := sharedRun(t)
 	batchDir, _ := singleFractureBatch(t)
 	for _, c := range []struct{ kind, dir string }{{"run", runDir}, {"batch", batchDir}} {
-		rep := filepath.Join(t.TempDir(), "report")
-		if err := WriteReport(context.Background(), c.dir, Folder{Dir: rep}); err != nil {
-			t.Fatal(err)
-		}
-		page, err := os.ReadFile(filepath.Join(rep, ReportPageFile))
-		if err != nil {
-			t.Fatal(err)
-		}
-		html := string(page)
+		rep, html := reportPage(t, c.dir)
 		if u := externalURL.FindString(html); u != "" {
 			t.Errorf("%s page names %q: it must load nothing from elsewhere", c.kind, u)
 		}
@@ -129,7 +121,7 @@ func TestReportPageInChromium(t *testing.T) {
 		// The page alone, and a copy with the pictures taken out.
 		alone := filepath.Join(t.TempDir(), ReportPageFile)
 		bare := filepath.Join(t.TempDir(), ReportPageFile)
-		if err := os.WriteFile(alone, page, 0o644); err != nil {
+		if err := os.WriteFile(alone, []byte(html), 0o644); err != nil {
 			t.Fatal(err)
 		}
 		if err := os.WriteFile(bare, []byte(imgSource.ReplaceAllString(html, `<img src=""`)), 0o644); err != nil {

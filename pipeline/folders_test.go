@@ -298,21 +298,29 @@ func TestReportGrowth(t *testing.T) {
 			"held in the fractures m³", fmt.Sprintf("<td>%.1f</td>", res.Stages[0].HeldConduits)}},
 		{plain, nil},
 	} {
-		rep := filepath.Join(t.TempDir(), "report")
-		if err := WriteReport(context.Background(), c.dir, Folder{Dir: rep}); err != nil {
-			t.Fatal(err)
-		}
-		page, err := os.ReadFile(filepath.Join(rep, ReportPageFile))
-		if err != nil {
-			t.Fatal(err)
-		}
+		_, page := reportPage(t, c.dir)
 		for _, want := range c.want {
-			if !strings.Contains(string(page), want) {
+			if !strings.Contains(page, want) {
 				t.Errorf("%s: report page without %q", c.dir, want)
 			}
 		}
-		if c.want == nil && strings.Contains(string(page), "growing fractures") {
+		if c.want == nil && strings.Contains(page, "growing fractures") {
 			t.Errorf("%s: report page of a run without growth speaks of growing fractures", c.dir)
 		}
 	}
+}
+
+// reportPage writes the report of folder dir into a new folder and
+// returns that folder and its page.
+func reportPage(t *testing.T, dir string) (rep, page string) {
+	t.Helper()
+	rep = filepath.Join(t.TempDir(), "report")
+	if err := WriteReport(context.Background(), dir, Folder{Dir: rep}); err != nil {
+		t.Fatal(err)
+	}
+	b, err := os.ReadFile(filepath.Join(rep, ReportPageFile))
+	if err != nil {
+		t.Fatal(err)
+	}
+	return rep, string(b)
 }

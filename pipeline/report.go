@@ -124,14 +124,12 @@ func (r *Run) page(warnings []string, growth *sim.GrowthSummary) *report.Page {
 		{"stimulated fracture area", fmt.Sprintf("%.0f m²", last.FractureArea)},
 		{"events", fmt.Sprintf("%d (largest Mw %s)", len(res.Events), optionalMw(maxMw))},
 	}
-	if g := growth; g != nil {
-		p.Facts = append(p.Facts,
-			[2]string{"growing fractures", fmt.Sprintf("%d, half-length mean %.0f m, largest %.0f m", g.Fractures, g.MeanHalfLength, g.LargestHalfLength)},
-			[2]string{"meetings with natural fractures", fmt.Sprintf("%d crossed, %d arrested, %d diverted", g.Crossings["cross"], g.Crossings["arrest"], g.Crossings["divert"])})
-	}
 	p.Notes = warnings
 	t := report.Table{Caption: "Stages in pumping order", Header: []string{"stage", "injected m³", "peak BHP MPa", "new area m²", "events", "max Mw"}}
 	if growth != nil {
+		p.Facts = append(p.Facts,
+			[2]string{"growing fractures", fmt.Sprintf("%d, %s", growth.Fractures, growth.HalfLengths())},
+			[2]string{"meetings with natural fractures", growth.Meetings()})
 		t.Header = append(t.Header, "held in the fractures m³", "held in natural fractures m³")
 	}
 	for _, st := range res.Stages {

@@ -131,7 +131,7 @@ func (d *decoder) validateWells(s *Scenario) {
 			}
 		}
 		d.validateWellPlace(s, p, w)
-		if w.Growth == "on" && w.ConduitHalfLength > 0 && w.InitialHalfLength > w.ConduitHalfLength {
+		if w.Grows() && w.InitialHalfLength > w.ConduitHalfLength {
 			d.failKey(p+".initial_half_length", "must not exceed %s.conduit_half_length = %s, the farthest a fracture may grow",
 				p, formatQuantity(w.ConduitHalfLength, kindLength))
 		}
@@ -195,6 +195,10 @@ func (d *decoder) checkNames(path string, names []string) {
 		seen[name] = i
 	}
 }
+
+// Grows reports whether the well's primary conduits grow from their
+// clusters (growth = "on" on conduits that exist).
+func (w Well) Grows() bool { return w.ConduitHalfLength > 0 && w.Growth == "on" }
 
 // PathLength is the map-view length of the well path, m.
 func (w Well) PathLength() float64 {

@@ -154,7 +154,7 @@ func (m *model) anyGrowth() bool {
 
 // growing reports whether conduit cd grows (its well's growth is on).
 func (m *model) growing(cd Conduit) bool {
-	return m.s.Wells[m.order[cd.Stage].Well].Growth == "on"
+	return m.s.Wells[m.order[cd.Stage].Well].Grows()
 }
 
 // resizeConduit sets the compliance, the opening shape and the crack

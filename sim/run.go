@@ -597,7 +597,7 @@ func (r *runner) warnTensile(stage string, bhp float64) {
 	if r.shminAt || bhp <= r.m.shmin {
 		return
 	}
-	if w := r.m.s.Wells[r.m.order[r.stage].Well]; w.ConduitHalfLength > 0 && w.Growth == "on" {
+	if r.m.s.Wells[r.m.order[r.stage].Well].Grows() {
 		return
 	}
 	r.shminAt = true
@@ -611,8 +611,7 @@ func (r *runner) warnTensile(stage string, bhp float64) {
 // growth needs a net pressure, so its fractures cannot open or grow. A
 // schedule the model represents, but rarely the one meant.
 func (r *runner) warnCapBelowClosure(ps scenarios.PlannedStage) {
-	w := r.m.s.Wells[ps.Well]
-	if w.ConduitHalfLength == 0 || w.Growth != "on" {
+	if !r.m.s.Wells[ps.Well].Grows() {
 		return
 	}
 	limit, what := ps.PressureCap, "pressure cap"

@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"io"
 	"math"
+	"slices"
 	"strconv"
 	"strings"
 
@@ -98,14 +99,7 @@ func WriteCrossings(w io.Writer, s *scenarios.Scenario, res *Result) error {
 
 // Grows reports whether a scenario grows fractures (some well with
 // conduits has growth = "on"), so that a run writes crossings.csv.
-func Grows(s *scenarios.Scenario) bool {
-	for _, w := range s.Wells {
-		if w.ConduitHalfLength > 0 && w.Growth == "on" {
-			return true
-		}
-	}
-	return false
-}
+func Grows(s *scenarios.Scenario) bool { return slices.ContainsFunc(s.Wells, scenarios.Well.Grows) }
 
 // FractureResult is the final state of one fracture that crosses the
 // layer, summed over its elements.
@@ -279,6 +273,17 @@ type GrowthSummary struct {
 	Crossings map[string]int `json:"crossings"`
 }
 
+// HalfLengths says how long the growing fractures became, for people.
+func (g *GrowthSummary) HalfLengths() string {
+	return fmt.Sprintf("half-length mean %.0f m, largest %.0f m", g.MeanHalfLength, g.LargestHalfLength)
+}
+
+// Meetings counts the meetings with natural fractures by outcome, for
+// people.
+func (g *GrowthSummary) Meetings() string {
+	return fmt.Sprintf("%d crossed, %d arrested, %d diverted", g.Crossings["cross"], g.Crossings["arrest"], g.Crossings["divert"])
+}
+
 // summarizeGrowth summarises the growth of a run (nil when nothing grows,
 // and for a replayed result): the opened half-length of the growing
 // conduits and the meetings by outcome.
@@ -291,7 +296,7 @@ func summarizeGrowth(s *scenarios.Scenario, res *Result) *GrowthSummary {
 	half := res.ConduitHalfLengths
 	var sum float64
 	for c, cd := range res.Conduits {
-		if w := s.Wells[order[cd.Stage].Well]; w.Growth != "on" {
+		if !s.Wells[order[cd.Stage].Well].Grows() {
 			continue
 		}
 		out.Fractures++
@@ -493,8 +498,7 @@ func WriteStageTable(w io.Writer, s *scenarios.Scenario, res *Result) error {
 	fmt.Fprintf(&b, "slip moment: %.3g N·m seismic (the events), %.3g N·m aseismic\n", res.SeismicMoment, res.AseismicMoment)
 	if g := summarizeGrowth(s, res); g != nil && len(res.Stages) > 0 {
 		last := res.Stages[len(res.Stages)-1]
-		fmt.Fprintf(&b, "growth: %s, half-length mean %.0f m, largest %.0f m; meetings with natural fractures: %d crossed, %d arrested, %d diverted\n",
-			plural.S(g.Fractures, "fracture"), g.MeanHalfLength, g.LargestHalfLength, g.Crossings["cross"], g.Crossings["arrest"], g.Crossings["divert"])
+		fmt.Fprintf(&b, "growth: %s, %s; meetings with natural fractures: %s\n", plural.S(g.Fractures, "fracture"), g.HalfLengths(), g.Meetings())
 		fmt.Fprintf(&b, "fluid at the end of pumping: %.4g m3 in the conduits, %.3g m3 in the natural fractures; %.4g m3 leaked off in the whole run\n",
 			last.HeldConduits, last.HeldNatural, res.Leaked)
 	}
