@@ -91,55 +91,62 @@ func energyMatrix(n int, weight []float64, shearOnly bool, block func(i, j int) 
 // compensation in plane strain, the failure that made the whole-set
 // solves of crossing traces cycle (checked here; no source).
 func TestDetachCompensation(t *testing.T) {
-	for seed := range uint64(4) {
-		for _, planeStrain := range []bool{true, false} {
-			for _, shearOnly := range []bool{true, false} {
-				t.Run(fmt.Sprintf("seed%d/planeStrain=%v/shearOnly=%v", seed, planeStrain, shearOnly), func(t *testing.T) {
-					elems, ce := crossingNetwork(seed)
-					op, err := elastic.NewDense(elems, testRock, elastic.Settings{PlaneStrain: planeStrain})
-					if err != nil {
-						t.Fatal(err)
-					}
-					c, err := NewContact(op, ce, ContactSettings{NearRadius: 100, DetachRadius: 1, ShearOnly: shearOnly})
-					if err != nil {
-						t.Fatal(err)
-					}
-					n := len(elems)
-					if c.NearPairs()+countDetached(c) != n*(n-1) {
-						t.Fatalf("near and detached pairs %d + %d, want every pair of %d elements", c.NearPairs(), countDetached(c), n)
-					}
-					contact, nn := energyMatrix(n, c.weight, shearOnly, c.influence)
-					full, _ := energyMatrix(n, c.weight, shearOnly, func(i, j int) (elastic.Block, bool) { return op.At(i, j), true })
-					uncompensated, _ := energyMatrix(n, c.weight, shearOnly, func(i, j int) (elastic.Block, bool) {
-						if i == j {
-							return op.At(i, i), true // the self-influence before compensation
+	for _, radius := range detachRadii {
+		for seed := range uint64(4) {
+			for _, planeStrain := range []bool{true, false} {
+				for _, shearOnly := range []bool{true, false} {
+					t.Run(fmt.Sprintf("radius%g/seed%d/planeStrain=%v/shearOnly=%v", radius, seed, planeStrain, shearOnly), func(t *testing.T) {
+						elems, ce := crossingNetwork(seed)
+						op, err := elastic.NewDense(elems, testRock, elastic.Settings{PlaneStrain: planeStrain})
+						if err != nil {
+							t.Fatal(err)
 						}
-						return c.influence(i, j)
+						c, err := NewContact(op, ce, ContactSettings{NearRadius: 100, DetachRadius: radius, ShearOnly: shearOnly})
+						if err != nil {
+							t.Fatal(err)
+						}
+						n := len(elems)
+						if c.NearPairs()+countDetached(c) != n*(n-1) {
+							t.Fatalf("near and detached pairs %d + %d, want every pair of %d elements", c.NearPairs(), countDetached(c), n)
+						}
+						contact, nn := energyMatrix(n, c.weight, shearOnly, c.influence)
+						full, _ := energyMatrix(n, c.weight, shearOnly, func(i, j int) (elastic.Block, bool) { return op.At(i, j), true })
+						uncompensated, _ := energyMatrix(n, c.weight, shearOnly, func(i, j int) (elastic.Block, bool) {
+							if i == j {
+								return op.At(i, i), true // the self-influence before compensation
+							}
+							return c.influence(i, j)
+						})
+						scale := -c.weight[0] * c.self[0].ShearSlip
+						diff := make([]float64, len(full))
+						for k := range diff {
+							diff[k] = contact[k] - full[k]
+						}
+						if l := smallestEigen(diff, nn); l < -1e-9*scale {
+							t.Errorf("E_contact − E_full has eigenvalue %.3g < 0 (scale %.3g)", l, scale)
+						}
+						if l := smallestEigen(contact, nn); !(l > 0) {
+							t.Errorf("contact energy has eigenvalue %.3g ≤ 0", l)
+						}
+						if l := smallestEigen(full, nn); l >= 0 {
+							t.Errorf("the full operator's energy has smallest eigenvalue %.3g ≥ 0: this network does not show why pairs are detached", l)
+						}
+						if planeStrain && shearOnly {
+							if l := smallestEigen(uncompensated, nn); l >= 0 {
+								t.Errorf("without compensation the slip energy's smallest eigenvalue is %.3g ≥ 0: this network does not show the failure", l)
+							}
+						}
 					})
-					scale := -c.weight[0] * c.self[0].ShearSlip
-					diff := make([]float64, len(full))
-					for k := range diff {
-						diff[k] = contact[k] - full[k]
-					}
-					if l := smallestEigen(diff, nn); l < -1e-9*scale {
-						t.Errorf("E_contact − E_full has eigenvalue %.3g < 0 (scale %.3g)", l, scale)
-					}
-					if l := smallestEigen(contact, nn); !(l > 0) {
-						t.Errorf("contact energy has eigenvalue %.3g ≤ 0", l)
-					}
-					if l := smallestEigen(full, nn); l >= 0 {
-						t.Errorf("the full operator's energy has smallest eigenvalue %.3g ≥ 0: this network does not show why pairs are detached", l)
-					}
-					if planeStrain && shearOnly {
-						if l := smallestEigen(uncompensated, nn); l >= 0 {
-							t.Errorf("without compensation the slip energy's smallest eigenvalue is %.3g ≥ 0: this network does not show the failure", l)
-						}
-					}
-				})
+				}
 			}
 		}
 	}
 }
+
+// detachRadii are the detach radii the crossing tests run with, m, on
+// their 1 m elements: the touching elements only (sim's 0.6 element
+// lengths) and a wider band.
+var detachRadii = []float64{0.6, 1}
 
 func countDetached(c *Contact) int {
 	var k int
@@ -157,31 +164,33 @@ func countDetached(c *Contact) int {
 // (Newton stalled, with slips up to 1 m), which is how the demo
 // example's realization 3 stopped.
 func TestContactCrossingNetworkConverges(t *testing.T) {
-	for seed := range uint64(4) {
-		elems, ce := crossingNetwork(seed)
-		for i := range ce {
-			ce[i].Friction = SlipWeakening{Static: 0.6, Residual: 0.5, CriticalSlip: 1e-3}
-		}
-		op, err := elastic.NewDense(elems, testRock, elastic.Settings{PlaneStrain: true})
-		if err != nil {
-			t.Fatal(err)
-		}
-		c, err := NewContact(op, ce, ContactSettings{NearRadius: 100, DetachRadius: 1, ShearOnly: true, MaxIterations: 8})
-		if err != nil {
-			t.Fatal(err)
-		}
-		n := len(elems)
-		c.Begin(c.NewState(), make([]float64, n))
-		for _, p := range []float64{1.86e7, 1.9e7} { // strength 0.6(σn − p) < τ = 1 MPa from p = 18.3 MPa
-			res, err := c.Solve(uniform(n, p))
+	for _, radius := range detachRadii {
+		for seed := range uint64(4) {
+			elems, ce := crossingNetwork(seed)
+			for i := range ce {
+				ce[i].Friction = SlipWeakening{Static: 0.6, Residual: 0.5, CriticalSlip: 1e-3}
+			}
+			op, err := elastic.NewDense(elems, testRock, elastic.Settings{PlaneStrain: true})
 			if err != nil {
-				t.Fatalf("seed %d, p = %g Pa: %v", seed, p, err)
+				t.Fatal(err)
 			}
-			if res.Active != n {
-				t.Errorf("seed %d, p = %g Pa: %d elements in the working set, want all %d", seed, p, res.Active, n)
+			c, err := NewContact(op, ce, ContactSettings{NearRadius: 100, DetachRadius: radius, ShearOnly: true, MaxIterations: 8})
+			if err != nil {
+				t.Fatal(err)
 			}
-			if !(res.MaxSlip > 0 && res.MaxSlip < 1e-3) {
-				t.Errorf("seed %d, p = %g Pa: largest slip %.3g m, want in (0, 1 mm)", seed, p, res.MaxSlip)
+			n := len(elems)
+			c.Begin(c.NewState(), make([]float64, n))
+			for _, p := range []float64{1.86e7, 1.9e7} { // strength 0.6(σn − p) < τ = 1 MPa from p = 18.3 MPa
+				res, err := c.Solve(uniform(n, p))
+				if err != nil {
+					t.Fatalf("radius %g m, seed %d, p = %g Pa: %v", radius, seed, p, err)
+				}
+				if res.Active != n {
+					t.Errorf("seed %d, p = %g Pa: %d elements in the working set, want all %d", seed, p, res.Active, n)
+				}
+				if !(res.MaxSlip > 0 && res.MaxSlip < 1e-3) {
+					t.Errorf("seed %d, p = %g Pa: largest slip %.3g m, want in (0, 1 mm)", seed, p, res.MaxSlip)
+				}
 			}
 		}
 	}
