@@ -25,6 +25,11 @@ type ContactElement struct {
 	Shear, Normal float64
 	// Friction of the element's surfaces.
 	Friction SlipWeakening
+	// Intact marks intact rock (ahead of a growing fracture's tip): it
+	// neither slips nor opens, and where it touches another element
+	// (DetachRadius) the two are detached without compensation, since
+	// one of them cannot move, until Release.
+	Intact bool
 }
 
 // ContactSettings control the solution of the contact problem.
@@ -265,10 +270,8 @@ func (c *Contact) findNear() {
 				aij := c.op.At(i, j)
 				c.detached[j] = append(c.detached[j], int32(i))
 				c.detachedBlock[j] = append(c.detachedBlock[j], aij)
-				if i > j { // each pair once: it is visited from both ends
-					ci, cj := compensation(aij, c.weight[i], c.weight[j], c.set.ShearOnly)
-					c.compensated[i] = addBlock(c.compensated[i], ci)
-					c.compensated[j] = addBlock(c.compensated[j], cj)
+				if i > j && !c.elems[i].Intact && !c.elems[j].Intact { // each pair once: it is visited from both ends
+					c.compensatePair(i, j, aij)
 				}
 				return
 			}
@@ -280,6 +283,36 @@ func (c *Contact) findNear() {
 			}
 		})
 	}
+}
+
+// compensatePair adds the compensation of the detached pair of receiver
+// i and source j, whose block A_ij is aij, to the two elements'
+// compensated blocks and returns it.
+func (c *Contact) compensatePair(i, j int, aij elastic.Block) (ci, cj elastic.Block) {
+	ci, cj = compensation(aij, c.weight[i], c.weight[j], c.set.ShearOnly)
+	c.compensated[i] = addBlock(c.compensated[i], ci)
+	c.compensated[j] = addBlock(c.compensated[j], cj)
+	return ci, cj
+}
+
+// Release makes intact element i an ordinary one (the fracture has
+// reached it): from the next Begin it may slip and open, and its detached
+// pairs with ordinary elements are compensated from then on (the
+// tractions already committed are not changed).
+func (c *Contact) Release(i int) {
+	if !c.elems[i].Intact {
+		return
+	}
+	c.elems[i].Intact = false
+	for q, j := range c.detached[i] { // receivers of source i
+		if c.elems[j].Intact {
+			continue
+		}
+		cj, ci := c.compensatePair(int(j), i, c.detachedBlock[i][q])
+		c.self[j] = addBlock(c.self[j], cj)
+		c.self[i] = addBlock(c.self[i], ci)
+	}
+	clear(c.caches) // their matrices hold the self-influences
 }
 
 // NearPairs returns the number of element pairs that interact implicitly

@@ -96,7 +96,7 @@ const failTolerance = 1e-12
 func (t *trial) enlist(c *Contact) bool {
 	added := false
 	for i := range c.elems {
-		if t.inWork[i] {
+		if t.inWork[i] || c.elems[i].Intact {
 			continue
 		}
 		b := c.base

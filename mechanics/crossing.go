@@ -76,9 +76,8 @@ func (a Approach) Validate() error {
 
 // Decide returns what the hydraulic fracture does at the natural
 // fracture: Cross when [Approach.Crosses]; otherwise Divert when the
-// fluid pressure reaches the total normal stress on the natural fracture,
-// σn = S∥ sin²β + S⊥ cos²β (the pressure that holds it open; common
-// practice, no source), and Arrest when it does not.
+// fluid pressure reaches [Approach.OpeningPressure], and Arrest when it
+// does not.
 func (a Approach) Decide() (Crossing, error) {
 	if err := a.Validate(); err != nil {
 		return Arrest, err
@@ -86,11 +85,18 @@ func (a Approach) Decide() (Crossing, error) {
 	if a.Crosses() {
 		return Cross, nil
 	}
-	s, c := math.Sincos(a.Angle)
-	if a.FluidPressure >= a.ParallelStress*s*s+a.NormalStress*c*c {
+	if a.FluidPressure >= a.OpeningPressure() {
 		return Divert, nil
 	}
 	return Arrest, nil
+}
+
+// OpeningPressure is the total normal stress on the natural fracture,
+// σn = S∥ sin²β + S⊥ cos²β, Pa: the pressure that holds it open (common
+// practice, no source).
+func (a Approach) OpeningPressure() float64 {
+	s, c := math.Sincos(a.Angle)
+	return a.ParallelStress*s*s + a.NormalStress*c*c
 }
 
 // Crosses reports whether the tip re-initiates across the natural

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math"
 	"math/rand/v2"
+	"slices"
 	"testing"
 
 	"gonum.org/v1/gonum/spatial/r2"
@@ -194,4 +195,79 @@ func TestContactCrossingNetworkConverges(t *testing.T) {
 			}
 		}
 	}
+}
+
+// Intact rock (the path ahead of a growing fracture's tip) cannot move:
+// overloaded with the rest, it does not slip, and the pairs it touches are
+// not compensated (no slip of it can make the energy indefinite). Once
+// Release has freed every element of the intact trace, each element's
+// self-influence is the one all its pairs give (within rounding), as if
+// it had been ordinary from the start, and it slips.
+func TestContactIntactRelease(t *testing.T) {
+	elems, ce := crossingNetwork(1)
+	op, err := elastic.NewDense(elems, testRock, elastic.Settings{PlaneStrain: true})
+	if err != nil {
+		t.Fatal(err)
+	}
+	set := ContactSettings{NearRadius: 100, DetachRadius: 0.6, ShearOnly: true}
+	ordinary, err := NewContact(op, slices.Clone(ce), set)
+	if err != nil {
+		t.Fatal(err)
+	}
+	var intact []int
+	for i := range ce {
+		if ce[i].Group == 0 {
+			ce[i].Intact = true
+			intact = append(intact, i)
+		}
+	}
+	c, err := NewContact(op, ce, set)
+	if err != nil {
+		t.Fatal(err)
+	}
+	n := len(elems)
+	slipOf := func(c *Contact) []float64 {
+		st := c.NewState()
+		c.Begin(st, uniform(n, 0))
+		if _, err := c.Solve(uniform(n, 1.9e7)); err != nil {
+			t.Fatal(err)
+		}
+		return slices.Clone(c.trial.ds)
+	}
+	ds := slipOf(c)
+	for _, i := range intact {
+		if ds[i] != 0 {
+			t.Fatalf("intact element %d slipped %g m", i, ds[i])
+		}
+	}
+	differ := 0
+	for i := range n {
+		if c.self[i] != ordinary.self[i] {
+			differ++
+		}
+	}
+	if differ == 0 {
+		t.Fatal("no self-influence lacks a compensation: the intact trace touches nothing")
+	}
+	for _, i := range intact {
+		c.Release(i)
+		c.Release(i) // a second release changes nothing
+	}
+	for i := range n {
+		got, want := c.self[i].ShearSlip, ordinary.self[i].ShearSlip
+		if math.Abs(got-want) > 1e-12*math.Abs(want) {
+			t.Errorf("element %d: self-influence %.15g after release, %.15g ordinary", i, got, want)
+		}
+	}
+	ds = slipOf(c)
+	moved := 0
+	for _, i := range intact {
+		if ds[i] != 0 {
+			moved++
+		}
+	}
+	if moved == 0 {
+		t.Error("no released element slipped")
+	}
+	t.Logf("%d self-influences lacked a compensation; %d of %d released elements slipped", differ, moved, len(intact))
 }

@@ -7,7 +7,9 @@ import (
 
 	"gonum.org/v1/gonum/spatial/r2"
 
+	"slipfront/dfn"
 	"slipfront/flow"
+	"slipfront/internal/orient"
 	"slipfront/mechanics"
 )
 
@@ -53,9 +55,40 @@ import (
 // non-orthogonal form of mechanics.Approach (after Gu et al. 2012), decides
 // whether it crosses and goes on, is arrested, or opens the natural
 // fracture (diverted; the fluid then follows the natural fracture through
-// the junction and the conduit stops growing on that side: re-initiation
-// at the natural fracture's end is not modelled). Every meeting is a
-// Crossing of the result.
+// the junction and the conduit stops growing on that side). Every meeting
+// is a Crossing of the result.
+//
+// A diverted fracture may re-initiate at the end of the natural fracture
+// it was diverted into (the usual picture of an offset crossing; common
+// practice, no source: the form here is ours). Its branches are meshed
+// before the run, like the conduits, so no element joins the mesh during
+// it. Wherever a growing conduit's path meets a natural fracture that it
+// would not cross (the crossing criterion does not depend on the fluid's
+// pressure, so it is decided before the run, under the stresses before
+// injection) and that the fluid could open (its normal stress is below the
+// highest bottom-hole pressure the schedule allows; the fluid's pressure
+// is highest at the well), a branch starts at each end of the natural
+// fracture that does not lie behind the meeting as seen from the
+// travelling tip. It strikes along the local SHmax, onward from the side
+// of the well the tip came from, and is as long as the path left beyond
+// the meeting. Branches meet natural fractures as the conduits do, and
+// may branch in turn.
+//
+// A branch stays intact rock, cut off from its natural fracture (their
+// face conducts as the series of the two halves, the branch's a flaw),
+// until a tip travelling its way is diverted into that natural fracture.
+// Then the face takes the mean of the cubes, as a growing conduit's do,
+// so the flaw fills with the natural fracture's fluid, and the branch
+// re-initiates when the natural fracture's net pressure at its end gives
+// that crack the toughness,
+//
+//	(p − σn)·√(π·a) ≥ K_Ic,  a = min(L, h)/2
+//
+// (Irwin 1957, as above; L and h the natural fracture's trace length and
+// height). From then on it grows from its free end as a conduit does; it
+// opens, and its tip's K is taken, as one crack with the natural
+// fracture, of length ℓ + L with ℓ its opened length. Each re-initiation
+// is a Crossing with the outcome Reinitiated.
 //
 // Left out (see the README): the path is straight along the local SHmax
 // at the cluster (the stress shadows of neighbours do not curve it), the
@@ -71,7 +104,7 @@ import (
 const FlawAperture = 1e-6
 
 // Crossing is what a growing fracture did where its tip met a natural
-// fracture.
+// fracture, or where a branch re-initiated at a natural fracture's end.
 type Crossing struct {
 	// Time of the meeting, s, and the stage index.
 	Time  float64
@@ -83,23 +116,115 @@ type Crossing struct {
 	X, Y float64
 	// Angle between the two fractures in map view, radians in (0, π/2].
 	Angle float64
-	// Outcome is "cross", "arrest" or "divert" (mechanics.Crossing).
+	// Outcome is "cross", "arrest" or "divert" (mechanics.Crossing), or
+	// Reinitiated (Conduit is then the branch, Trace the natural fracture
+	// at whose end it started, X, Y that end).
 	Outcome string
 }
 
+// Reinitiated is the Crossing.Outcome of a branch re-initiating at the
+// end of a natural fracture.
+const Reinitiated = "reinitiate"
+
 // tipState is a growing conduit's opened extent: the indices of its first
 // and last opened elements in its group (ms.groups), and whether each
-// side has stopped (arrested, diverted or at the end of its path).
+// side has stopped (arrested, diverted or at the end of its path). A
+// branch is dormant until it re-initiates, armed once a tip was diverted
+// into its natural fracture its way; source is the element of that
+// natural fracture at the branch's start.
 type tipState struct {
 	lo, hi  int
 	stopped [2]bool
 	warned  bool // reached the end of its path: warned once
+	dormant bool
+	armed   bool
+	source  int
+}
+
+// branchKey names a branch: its natural trace, the end it starts at (0
+// at P0, 1 at P1) and the sense along SHmax it grows in (±1).
+type branchKey struct{ trace, end, sense int }
+
+// branches returns the new branches that conduit c may re-initiate along
+// where its path crosses a natural fracture at x (see the top of this
+// file), recording them in seen so that each is meshed once: none unless
+// c grows with reinitiation on, has at least one element length of path
+// left beyond x, would not cross the natural fracture there and could
+// open it.
+func (m *model) branches(seen map[branchKey]bool, c int, x dfn.PathCrossing) []Conduit {
+	cd := m.conduits[c]
+	if !m.growing(cd) || m.s.Wells[m.order[cd.Stage].Well].Reinitiation != "on" {
+		return nil
+	}
+	length := r2.Norm(r2.Sub(cd.P1, cd.P0))
+	along := r2.Scale(1/length, r2.Sub(cd.P1, cd.P0))
+	// A cluster's conduit grows both ways from its middle, a branch from P0.
+	travel, left := along, length-x.Distance
+	if !cd.IsBranch() && x.Distance < length/2 {
+		travel, left = r2.Scale(-1, along), x.Distance
+	}
+	if left < m.s.Numerics.ElementLength {
+		return nil
+	}
+	stress := m.stressAt(x.Point)
+	if ap, _ := m.approach(stress, along, x.Segment, stress.PorePressure(), 0); ap.Crosses() || ap.OpeningPressure() > m.highestPressure() {
+		return nil
+	}
+	tr := m.net.Traces[x.Segment]
+	var out []Conduit
+	for end, p := range [2]r2.Vec{tr.P0, tr.P1} {
+		if r2.Dot(r2.Sub(p, x.Point), travel) < -dfn.GeomTol {
+			continue // behind the meeting
+		}
+		strike := orient.Line(m.shmaxAzimuth(p), 0)
+		dir, sense := r2.Vec{X: strike.X, Y: strike.Y}, 1
+		if r2.Dot(dir, travel) < 0 {
+			dir, sense = r2.Scale(-1, dir), -1
+		}
+		key := branchKey{trace: x.Segment, end: end, sense: sense}
+		if seen[key] {
+			continue
+		}
+		seen[key] = true
+		out = append(out, Conduit{Stage: cd.Stage, Cluster: cd.Cluster, Aperture: cd.Aperture, Height: cd.Height,
+			Source: x.Segment, P0: p, P1: r2.Add(p, r2.Scale(left, dir))})
+	}
+	return out
+}
+
+// highestPressure is the highest bottom-hole pressure the schedule lets
+// any stage reach, Pa: the fluid's pressure is highest at the well, so a
+// natural fracture whose normal stress is above it cannot be diverted
+// into.
+func (m *model) highestPressure() float64 {
+	var p float64
+	for _, ps := range m.order {
+		limit, _ := pressureLimit(m.s, ps)
+		p = math.Max(p, limit)
+	}
+	return p
+}
+
+// approach is a tip travelling along the unit map direction along that
+// meets natural trace tr under the stress state stress, with the rock's
+// pore pressure and the fluid's pressure there, Pa; it returns the angle
+// between the two fractures in map view too, radians in [0, π/2].
+func (m *model) approach(stress mechanics.Stress, along r2.Vec, tr int, pore, fluid float64) (mechanics.Approach, float64) {
+	other := m.net.Traces[tr]
+	dir := r2.Unit(r2.Sub(other.P1, other.P0))
+	angle := math.Acos(math.Min(1, math.Abs(r2.Dot(along, dir))))
+	parallel, normal := planeNormalStresses(stress, along)
+	return mechanics.Approach{Angle: math.Max(angle, 1e-6), ParallelStress: parallel, NormalStress: normal,
+		PorePressure: pore, FluidPressure: fluid, TensileStrength: m.s.Rock.TensileStrength,
+		Friction: m.s.Rock.FrictionStatic, Cohesion: m.s.Rock.Cohesion}, angle
 }
 
 // initGrowth marks every element opened or not: natural elements and the
 // conduits of wells without growth whole, growing conduits within
 // initial_half_length of their cluster (at least the element on each side
-// of it).
+// of it), branches not at all. The elements not opened are intact rock:
+// flaws to the flow, and to the contact problem elements that cannot move
+// (mechanics.ContactElement.Intact) until a tip opens them.
 func (ms *mechState) initGrowth() {
 	m := ms.m
 	nt := len(m.net.Traces)
@@ -120,6 +245,14 @@ func (ms *mechState) initGrowth() {
 		}
 		for _, i := range g {
 			ms.growingEl[i] = true
+		}
+		if cd.IsBranch() {
+			for _, i := range g {
+				ms.opened[i], ms.conduitAperture0[i], ms.openingShape[i] = false, FlawAperture, 0
+			}
+			ms.tips[c] = tipState{lo: 0, hi: -1, stopped: [2]bool{true, true}, dormant: true, source: ms.sourceElement(c)}
+			ms.openedLength[c] = 0
+			continue
 		}
 		w := m.s.Wells[m.order[cd.Stage].Well]
 		half := ms.groupLength[nt+c] / 2
@@ -143,8 +276,48 @@ func (ms *mechState) initGrowth() {
 			}
 		}
 		ms.tips[c] = tipState{lo: lo, hi: hi, stopped: [2]bool{lo == 0, hi == len(g)-1}}
-		ms.resizeConduit(c)
 	}
+	ms.cubeMean = slices.Clone(ms.growingEl)
+}
+
+// sizeGrowing sets the compliance and opening shape of the opened part of
+// every growing conduit (once the contact state exists).
+func (ms *mechState) sizeGrowing() {
+	for c, cd := range ms.m.conduits {
+		if ms.m.growing(cd) && !ms.tips[c].dormant {
+			ms.resizeConduit(c)
+		}
+	}
+}
+
+// open opens element i ahead of a tip: to the flow, and to slip and
+// opening in the contact problem.
+func (ms *mechState) open(i int) {
+	ms.opened[i] = true
+	ms.contact.Release(i)
+}
+
+// sourceElement is the element of branch c's natural fracture at the
+// branch's start.
+func (ms *mechState) sourceElement(c int) int {
+	g := ms.groups[ms.m.conduits[c].Source]
+	first, last := g[0], g[len(g)-1]
+	start := ms.m.conduits[c].P0
+	if r2.Norm(r2.Sub(ms.m.elements[first].P0, start)) <= r2.Norm(r2.Sub(ms.m.elements[last].P1, start)) {
+		return first
+	}
+	return last
+}
+
+// crackLength is the length of the crack that conduit c's opened part
+// belongs to, m: its opened length, and for a branch that of its natural
+// fracture too.
+func (ms *mechState) crackLength(c int) float64 {
+	l := ms.openedLength[c]
+	if cd := ms.m.conduits[c]; cd.IsBranch() {
+		l += ms.m.net.Traces[cd.Source].Length
+	}
+	return l
 }
 
 // anyGrowth reports whether some conduit grows.
@@ -167,8 +340,9 @@ func (ms *mechState) resizeConduit(c int) {
 	for _, i := range g[tp.lo : tp.hi+1] {
 		length += m.elements[i].Length
 	}
+	ms.openedLength[c] = length
 	crack := mechanics.PlaneStrainCrack{ShearModulus: m.s.Rock.ShearModulus, PoissonRatio: m.s.Rock.PoissonRatio}
-	k := crack.OpeningStiffness(mechanics.Patch{Length: length, Height: m.conduits[c].Height})
+	k := crack.OpeningStiffness(mechanics.Patch{Length: ms.crackLength(c), Height: m.conduits[c].Height})
 	var s float64
 	for _, i := range g[tp.lo : tp.hi+1] {
 		l := m.elements[i].Length
@@ -177,7 +351,6 @@ func (ms *mechState) resizeConduit(c int) {
 		ms.crackStiffness[i] = k
 		s += l
 	}
-	ms.openedLength[c] = length
 	ms.averageNormal()
 }
 
@@ -194,12 +367,18 @@ func (ms *mechState) grow(t float64, k int, p []float64, crossings []Crossing) (
 	var warnings []Warning
 	for c := range ms.tips {
 		tp := &ms.tips[c]
+		if tp.dormant {
+			if tp.armed && ms.reinitiates(c, p) {
+				crossings = append(crossings, ms.reinitiate(t, k, c))
+			}
+			continue
+		}
 		if tp.stopped[0] && tp.stopped[1] {
 			continue
 		}
 		g := ms.groups[nt+c]
 		h := m.conduits[c].Height
-		a := math.Min(ms.openedLength[c]/2, h/2)
+		a := math.Min(ms.crackLength(c)/2, h/2)
 		grew := false
 		for side, dir := range [2]int{-1, 1} {
 			if tp.stopped[side] {
@@ -218,9 +397,13 @@ func (ms *mechState) grow(t float64, k int, p []float64, crossings []Crossing) (
 				tp.stopped[side] = true
 				if own := m.order[m.conduits[c].Stage]; !tp.warned {
 					tp.warned = true
+					what := "the fracture"
+					if cd := m.conduits[c]; cd.IsBranch() {
+						what = fmt.Sprintf("the branch re-initiated at the end of natural fracture %d from the fracture", m.net.Traces[cd.Source].Fracture)
+					}
 					warnings = append(warnings, Warning{Kind: WarnGrowthAtEnd, Stage: m.order[k].Name, Message: fmt.Sprintf(
-						"the fracture of cluster %d of stage %s reached conduit_half_length = %g m at t = %.0f s with a tip still able to grow: raise wells[%d].conduit_half_length",
-						m.conduits[c].Cluster, own.Name, m.s.Wells[own.Well].ConduitHalfLength, t, own.Well)})
+						"%s of cluster %d of stage %s reached conduit_half_length = %g m at t = %.0f s with a tip still able to grow: raise wells[%d].conduit_half_length",
+						what, m.conduits[c].Cluster, own.Name, m.s.Wells[own.Well].ConduitHalfLength, t, own.Well)})
 				}
 				continue
 			}
@@ -231,7 +414,7 @@ func (ms *mechState) grow(t float64, k int, p []float64, crossings []Crossing) (
 				tp.stopped[side] = true
 				continue
 			}
-			ms.opened[j] = true
+			ms.open(j)
 			if dir > 0 {
 				tp.hi = next
 			} else {
@@ -269,31 +452,68 @@ func (ms *mechState) meet(t float64, k, c, i, j int, fluid float64, crossings []
 		math.Min(r2.Norm(r2.Sub(el.P1, nj.P0)), r2.Norm(r2.Sub(el.P1, nj.P1))) {
 		at = el.P0
 	}
+	mid := r2.Scale(0.5, r2.Add(el.P0, el.P1))
+	travel := r2.Unit(r2.Sub(at, mid))
 	for _, e := range mesh.NodeElems[mesh.NodeStart[node]:mesh.NodeStart[node+1]] {
 		tr := m.elements[e].Trace
 		if m.mesh.Elements[e].Path >= nt || seen[tr] {
 			continue
 		}
 		seen[tr] = true
-		other := m.net.Traces[tr]
-		dir := r2.Unit(r2.Sub(other.P1, other.P0))
-		angle := math.Acos(math.Min(1, math.Abs(r2.Dot(along, dir))))
-		stress := ms.m.stressAt(r2.Scale(0.5, r2.Add(el.P0, el.P1)))
-		parallel, normal := planeNormalStresses(stress, along)
-		ap := mechanics.Approach{Angle: math.Max(angle, 1e-6), ParallelStress: parallel, NormalStress: normal,
-			PorePressure: m.initialPressure(i), FluidPressure: fluid, TensileStrength: m.s.Rock.TensileStrength,
-			Friction: m.s.Rock.FrictionStatic, Cohesion: m.s.Rock.Cohesion}
+		ap, angle := m.approach(m.stressAt(mid), along, tr, m.initialPressure(i), fluid)
 		outcome, err := ap.Decide()
 		if err != nil {
 			outcome = mechanics.Arrest // non-finite input: stop rather than cross blindly
 		}
-		crossings = append(crossings, Crossing{Time: t, Stage: k, Conduit: c, Trace: tr, Fracture: other.Fracture,
+		crossings = append(crossings, Crossing{Time: t, Stage: k, Conduit: c, Trace: tr, Fracture: m.net.Traces[tr].Fracture,
 			X: at.X, Y: at.Y, Angle: angle, Outcome: outcome.String()})
 		if outcome != mechanics.Cross {
 			result = outcome
 		}
+		if outcome == mechanics.Divert {
+			ms.arm(tr, travel)
+		}
 	}
 	return crossings, result
+}
+
+// arm makes ready to re-initiate the branches at the ends of natural
+// trace tr that grow the way a tip diverted into it travelled: their first
+// face with the natural fracture now conducts as a growing fracture's
+// (the flow system reads ms.cubeMean as it assembles).
+func (ms *mechState) arm(tr int, travel r2.Vec) {
+	for b, cd := range ms.m.conduits {
+		if tp := &ms.tips[b]; cd.Source == tr && tp.dormant && !tp.armed && r2.Dot(r2.Sub(cd.P1, cd.P0), travel) > 0 {
+			tp.armed = true
+			ms.cubeMean[tp.source] = true
+		}
+	}
+}
+
+// reinitiates reports whether armed branch c re-initiates at the pressures
+// p: the net pressure of its natural fracture's end element gives that
+// crack the toughness (see the top of this file).
+func (ms *mechState) reinitiates(c int, p []float64) bool {
+	tr := ms.m.net.Traces[ms.m.conduits[c].Source]
+	s := ms.tips[c].source
+	a := math.Min(tr.Length, tr.Height) / 2
+	net := p[s] - ms.crackNormal[s]
+	return net > 0 && net*math.Sqrt(math.Pi*a) >= ms.m.s.Rock.FractureToughness
+}
+
+// reinitiate opens the first element of branch c at time t of stage k and
+// returns the record of it.
+func (ms *mechState) reinitiate(t float64, k, c int) Crossing {
+	m := ms.m
+	g := ms.groups[len(m.net.Traces)+c]
+	ms.open(g[0])
+	ms.tips[c] = tipState{lo: 0, hi: 0, stopped: [2]bool{true, len(g) == 1}, source: ms.tips[c].source}
+	ms.resizeConduit(c)
+	cd := m.conduits[c]
+	tr := m.net.Traces[cd.Source]
+	angle := math.Acos(math.Min(1, math.Abs(r2.Dot(r2.Unit(r2.Sub(cd.P1, cd.P0)), r2.Unit(r2.Sub(tr.P1, tr.P0))))))
+	return Crossing{Time: t, Stage: k, Conduit: c, Trace: cd.Source, Fracture: tr.Fracture,
+		X: cd.P0.X, Y: cd.P0.Y, Angle: angle, Outcome: Reinitiated}
 }
 
 // sharedNode returns the mesh node elements i and j share, or −1.

@@ -2,6 +2,7 @@ package sim
 
 import (
 	"bytes"
+	"context"
 	"maps"
 	"math"
 	"os"
@@ -9,6 +10,8 @@ import (
 	"strconv"
 	"strings"
 	"testing"
+
+	"gonum.org/v1/gonum/spatial/r2"
 
 	"slipfront/dfn"
 	"slipfront/internal/hfref"
@@ -368,5 +371,130 @@ func TestGrowthCapBelowClosure(t *testing.T) {
 		if grew := openedHalfLength(res) > initial; grew == tc.warn {
 			t.Errorf("cap %s: opened half-length %.1f m from %.1f m", tc.cap, openedHalfLength(res), initial)
 		}
+	}
+}
+
+// A fracture diverted into a natural fracture re-initiates at its end
+// (growth.go). On testdata/kgd-toughness with SHmax lowered to
+// 48.88 MPa (Shmin 48.1 MPa, pore pressure 31.2 MPa, T0 = 5 MPa, μ = 0.6)
+// neither natural fracture below is crossed: Renshaw & Pollard's (1995)
+// ratio (48.88 − 31.2)/(5 + 48.1 − 31.2) = 0.81 is below
+// (1 + 1/μ)/3 = 0.89 (mechanics.OrthogonalCrossingRatio), and a shallower
+// approach crosses less. The north tip meets an east–west fracture 6 m
+// from the cluster, whose normal stress SHmax it cannot reach: arrested.
+// The south tip meets one striking 15° off north 20 m from the cluster,
+// whose normal stress S∥ sin²β + S⊥ cos²β = 48.15 MPa is below the
+// fluid's: diverted. Both tips stopped, the pressure rises until the
+// natural fracture's end reaches the toughness,
+// p ≥ σn + K_Ic/√(π·L/2) = 48.15 + 0.126 MPa (Irwin 1957, L = 40 m), and a
+// branch re-initiates at its southern end (5.2, −39.3) m and grows south
+// along SHmax. Branches are meshed only where a meeting does not cross
+// (two at the ends of the east–west fracture, one at the southern end of
+// the other), and the arrested fracture's never opens. Mass balance
+// ≤ 1e-8.
+func TestGrowthReinitiatesAfterDiversion(t *testing.T) {
+	dir := t.TempDir()
+	src, err := os.ReadFile(filepath.Join("..", "testdata", "kgd-toughness", "scenario.toml"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	csv := "name,center_x_m,center_y_m,center_depth_m,dip_deg,dip_direction_deg,length_m,height_m\n" +
+		"arrests,0,6,2600,90,0,40,200\noblique,0,-20,2600,90,255,40,200\n"
+	for name, body := range map[string]string{"fractures.csv": csv, "scenario.toml": string(src)} {
+		if err := os.WriteFile(filepath.Join(dir, name), []byte(body), 0o644); err != nil {
+			t.Fatal(err)
+		}
+	}
+	// A frame at every step (they last at least time_step_initial).
+	ov, err := scenarios.ParseOverrides([]string{"stress.shmax_gradient=18.8 kPa/m", "numerics.output_interval=0.01 s"})
+	if err != nil {
+		t.Fatal(err)
+	}
+	s, err := scenarios.Load(filepath.Join(dir, "scenario.toml"), ov...)
+	if err != nil {
+		t.Fatal(err)
+	}
+	net := mustNetwork(t, s)
+	end := r2.Vec{X: 20 * math.Sin(15*math.Pi/180), Y: -20 - 20*math.Cos(15*math.Pi/180)}
+	source := -1 // the natural element at that end
+	type atTime struct{ time, pressure float64 }
+	var atEnd []atTime
+	res, err := Run(context.Background(), s, net, Options{
+		Begin: func(els []Element) error {
+			for i, e := range els {
+				if e.Set != ConduitSet && (r2.Norm(r2.Sub(e.P0, end)) < 1e-9 || r2.Norm(r2.Sub(e.P1, end)) < 1e-9) {
+					source = i
+				}
+			}
+			return nil
+		},
+		Frame: func(f *Frame) error {
+			atEnd = append(atEnd, atTime{f.Time, f.Pressure[source]})
+			return nil
+		}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(res.Conduits) != 4 {
+		t.Fatalf("%d conduits, want the cluster's and 3 branches: %+v", len(res.Conduits), res.Conduits)
+	}
+	outcomes := map[string]Crossing{}
+	for _, c := range res.Crossings {
+		outcomes[net.Fractures[c.Fracture].Name+" "+c.Outcome] = c
+	}
+	if len(res.Crossings) != 3 || len(outcomes) != 3 {
+		t.Fatalf("crossings %+v, want the arrest, the diversion and the re-initiation", res.Crossings)
+	}
+	arrest, divert, again := outcomes["arrests arrest"], outcomes["oblique divert"], outcomes["oblique "+Reinitiated]
+	numtest.Abs(t, "arrest north, m", arrest.Y, 6, 1e-6)
+	numtest.Abs(t, "diversion north, m", divert.Y, -20, 1e-6)
+	numtest.Abs(t, "re-initiation east, m", again.X, end.X, 1e-6)
+	numtest.Abs(t, "re-initiation north, m", again.Y, end.Y, 1e-6)
+	numtest.Abs(t, "re-initiation angle, rad", again.Angle, 15*math.Pi/180, 1e-9)
+	// The branch re-initiated at the end of the first step after the
+	// diversion that gave the natural fracture's end the toughness.
+	beta := 15 * math.Pi / 180
+	sigmaN := s.Layer.Depth * (s.Stress.SHmaxGradient*math.Pow(math.Sin(beta), 2) + s.Stress.ShminGradient*math.Pow(math.Cos(beta), 2))
+	need := sigmaN + s.Rock.FractureToughness/math.Sqrt(math.Pi*20)
+	var seen bool
+	for _, f := range atEnd {
+		switch {
+		case f.time <= divert.Time:
+		case f.time < again.Time && f.pressure >= need+1:
+			t.Errorf("t = %g s: %.4f MPa at the natural fracture's end, enough to re-initiate, before %g s", f.time, f.pressure/1e6, again.Time)
+		case f.time == again.Time:
+			seen = true
+			if f.pressure < need-1 {
+				t.Errorf("re-initiated at %g s at %.4f MPa, below the %.4f MPa it needs", f.time, f.pressure/1e6, need/1e6)
+			}
+		}
+	}
+	if !seen || !(again.Time > divert.Time) {
+		t.Errorf("diverted at %g s, re-initiated at %g s: no frame then", divert.Time, again.Time)
+	}
+	// The branch opened south of the end, along SHmax; nothing else did
+	// beyond the meetings.
+	var branch float64
+	for i, e := range res.Elements {
+		if e.Set != ConduitSet || !res.Opened[i] {
+			continue
+		}
+		mid := r2.Scale(0.5, r2.Add(e.P0, e.P1))
+		switch {
+		case math.Abs(mid.X-end.X) < 1e-6 && mid.Y < end.Y:
+			branch += e.Length
+		case math.Abs(mid.X) > 1e-6 || mid.Y > 6 || mid.Y < -20:
+			t.Errorf("opened conduit element at (%.2f, %.2f) m", mid.X, mid.Y)
+		}
+	}
+	if branch < 2*s.Numerics.ElementLength {
+		t.Errorf("the branch opened %.1f m", branch)
+	}
+	t.Logf("diverted at %.2f s, re-initiated at %.2f s (%.4f MPa needed), branch %.0f m", divert.Time, again.Time, need/1e6, branch)
+	if g := summarizeGrowth(s, res); g.Fractures != 1 || g.BranchLength != branch || !strings.Contains(g.Meetings(), "re-initiated 1×") {
+		t.Errorf("growth summary %+v: %s", g, g.Meetings())
+	}
+	if res.MassBalanceError > 1e-8 {
+		t.Errorf("mass-balance error %.3g", res.MassBalanceError)
 	}
 }

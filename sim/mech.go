@@ -78,12 +78,15 @@ type mechState struct {
 	// tips and openedLength (m) are each conduit's opened extent;
 	// elementNodes the mesh nodes of every element, built on first use;
 	// growingEl marks the elements of growing conduits (nil when none
-	// grows), whose faces conduct by the mean of cubes (flow.Config.CubeMean).
+	// grows); cubeMean marks the elements whose faces conduct by the mean
+	// of cubes (flow.Config.CubeMean): the growing ones and the natural
+	// elements where an armed branch starts.
 	opened       []bool
 	tips         []tipState
 	openedLength []float64
 	elementNodes [][2]int
 	growingEl    []bool
+	cubeMean     []bool
 }
 
 // contactNearRadius is the reach, in element lengths or layer
@@ -145,6 +148,12 @@ func newMechState(m *model) (*mechState, error) {
 		ms.firstSlip[i] = math.NaN()
 		ms.firstStage[i] = -1
 	}
+	ms.openedLength = make([]float64, len(m.conduits))
+	ms.setOpeningShape()
+	ms.initGrowth()
+	for i := range ce {
+		ce[i].Intact = !ms.opened[i]
+	}
 	op, err := m.operator(elems)
 	if err != nil {
 		return nil, err
@@ -158,9 +167,7 @@ func newMechState(m *model) (*mechState, error) {
 	}
 	ms.state = ms.contact.NewState()
 	ms.depths = dfn.Stream(m.s.Seed, m.net.Realization, -1, "event depth")
-	ms.openedLength = make([]float64, len(m.conduits))
-	ms.setOpeningShape()
-	ms.initGrowth()
+	ms.sizeGrowing()
 	ms.averageNormal()
 	return ms, nil
 }

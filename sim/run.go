@@ -282,7 +282,7 @@ func (r *runner) system(k int) (*flow.System, error) {
 		Matrix:            matrixLeakoff(r.m.s),
 		ClusterNodes:      r.m.clusterNodes[k],
 		Perforations:      perfs,
-		CubeMean:          r.ms.growingEl,
+		CubeMean:          r.ms.cubeMean,
 	})
 }
 
@@ -614,16 +614,23 @@ func (r *runner) warnCapBelowClosure(ps scenarios.PlannedStage) {
 	if !r.m.s.Wells[ps.Well].Grows() {
 		return
 	}
-	limit, what := ps.PressureCap, "pressure cap"
-	if sc := r.m.s.Schedule; sc.Control == "pressure" && sc.InjectionPressure < limit {
-		limit, what = sc.InjectionPressure, "injection pressure"
-	}
+	limit, what := pressureLimit(r.m.s, ps)
 	if limit > r.m.shmin {
 		return
 	}
 	r.res.Warnings = append(r.res.Warnings, Warning{Kind: WarnCapBelowClosure, Stage: ps.Name, Message: fmt.Sprintf(
 		"stage %s: the %s, %.2f MPa, is not above Shmin, %.2f MPa, the closure stress of its fractures: they cannot open or grow, and the stage pumps only what the natural fractures take",
 		ps.Name, what, limit/1e6, r.m.shmin/1e6)})
+}
+
+// pressureLimit is the highest bottom-hole pressure the schedule lets
+// stage ps reach, Pa, and what sets it: the pressure cap, or the
+// injection pressure under pressure control if lower.
+func pressureLimit(s *scenarios.Scenario, ps scenarios.PlannedStage) (float64, string) {
+	if sc := s.Schedule; sc.Control == "pressure" && sc.InjectionPressure < ps.PressureCap {
+		return sc.InjectionPressure, "injection pressure"
+	}
+	return ps.PressureCap, "pressure cap"
 }
 
 // record appends a timeline row at the current time (replacing a row at

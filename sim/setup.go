@@ -15,14 +15,22 @@ import (
 )
 
 // Conduit is a primary conduit: a vertical planar feature of fixed
-// aperture from one perforation cluster, striking along SHmax.
+// aperture from one perforation cluster, striking along SHmax, or a
+// branch where a growing fracture may re-initiate at the end of a natural
+// fracture it was diverted into (growth.go).
 type Conduit struct {
 	Stage   int // index in the pumping order
-	Cluster int // index in the stage's cluster list
+	Cluster int // index in the stage's cluster list (a branch: its parent's)
 	P0, P1  r2.Vec
 	// Aperture and Height, m.
 	Aperture, Height float64
+	// Source is, for a branch, the index in Network.Traces of the natural
+	// fracture at whose end (P0) it starts; −1 for a cluster's conduit.
+	Source int
 }
+
+// IsBranch reports whether the conduit is a re-initiation branch.
+func (cd Conduit) IsBranch() bool { return cd.Source >= 0 }
 
 // Element is one flow element as the simulation sees it.
 type Element struct {
@@ -165,10 +173,12 @@ func (m *model) shmaxAzimuth(p r2.Vec) float64 {
 }
 
 // paths lists the natural traces, then one conduit per cluster when the
-// well has conduits, striking along the local SHmax, and their junctions.
+// well has conduits, striking along the local SHmax, then the branches of
+// growing conduits (growth.go: branches), and their junctions.
 func (m *model) paths() ([]flow.Path, []flow.Junction) {
 	net := m.net
-	paths := make([]flow.Path, 0, len(net.Traces))
+	nt := len(net.Traces)
+	paths := make([]flow.Path, 0, nt)
 	for _, t := range net.Traces {
 		paths = append(paths, flow.Path{P0: t.P0, P1: t.P1, Height: t.Height})
 	}
@@ -176,7 +186,6 @@ func (m *model) paths() ([]flow.Path, []flow.Junction) {
 	for _, x := range net.Intersections {
 		junctions = append(junctions, flow.Junction{A: x.I, B: x.J, SA: x.SI, SB: x.SJ})
 	}
-	var ix *dfn.Index
 	for k, st := range m.order {
 		w := m.s.Wells[st.Well]
 		if w.ConduitHalfLength <= 0 {
@@ -190,24 +199,41 @@ func (m *model) paths() ([]flow.Path, []flow.Junction) {
 			centre := PointAlong(net.Wells[st.Well].Path, at)
 			strike := orient.Line(m.shmaxAzimuth(centre), 0)
 			dir := r2.Vec{X: strike.X, Y: strike.Y}
-			cd := Conduit{Stage: k, Cluster: c, Aperture: w.ConduitAperture, Height: h,
+			cd := Conduit{Stage: k, Cluster: c, Aperture: w.ConduitAperture, Height: h, Source: -1,
 				P0: r2.Sub(centre, r2.Scale(w.ConduitHalfLength, dir)),
 				P1: r2.Add(centre, r2.Scale(w.ConduitHalfLength, dir))}
 			m.conduits = append(m.conduits, cd)
-			id := len(paths)
 			paths = append(paths, flow.Path{P0: cd.P0, P1: cd.P1, Height: h, Cuts: []float64{0.5}})
-			if ix == nil {
-				segs := make([]dfn.Segment, len(net.Traces))
-				for i, t := range net.Traces {
-					segs[i] = t.Segment
-				}
-				ix = dfn.NewIndex(segs)
+		}
+	}
+	if len(m.conduits) == 0 {
+		return paths, junctions
+	}
+	segs := make([]dfn.Segment, nt)
+	for i, t := range net.Traces {
+		segs[i] = t.Segment
+	}
+	ix := dfn.NewIndex(segs)
+	seen := map[branchKey]bool{}
+	// m.conduits grows as branches are found; each is crossed in turn.
+	for c := 0; c < len(m.conduits); c++ {
+		cd := m.conduits[c]
+		length := r2.Norm(r2.Sub(cd.P1, cd.P0))
+		for _, x := range ix.CrossPolyline([]r2.Vec{cd.P0, cd.P1}) {
+			if x.Segment == cd.Source {
+				continue // where a branch starts
 			}
-			length := 2 * w.ConduitHalfLength
-			for _, x := range ix.CrossPolyline([]r2.Vec{cd.P0, cd.P1}) {
-				t := net.Traces[x.Segment]
-				junctions = append(junctions, flow.Junction{A: id, B: x.Segment,
-					SA: x.Distance / length, SB: r2.Norm(r2.Sub(x.Point, t.P0)) / t.Length})
+			t := net.Traces[x.Segment]
+			junctions = append(junctions, flow.Junction{A: nt + c, B: x.Segment,
+				SA: x.Distance / length, SB: r2.Norm(r2.Sub(x.Point, t.P0)) / t.Length})
+			for _, br := range m.branches(seen, c, x) {
+				m.conduits = append(m.conduits, br)
+				paths = append(paths, flow.Path{P0: br.P0, P1: br.P1, Height: br.Height})
+				end := 0.0
+				if br.P0 != t.P0 {
+					end = 1
+				}
+				junctions = append(junctions, flow.Junction{A: len(paths) - 1, B: x.Segment, SA: 0, SB: end})
 			}
 		}
 	}
@@ -244,6 +270,9 @@ type feed struct {
 func (m *model) clusterCuts(paths []flow.Path) ([][]feed, error) {
 	feeds := make([][]feed, len(m.order))
 	for i, cd := range m.conduits {
+		if cd.IsBranch() {
+			continue // fed by its natural fracture
+		}
 		// Conduit i is path len(traces)+i, cut at its midpoint.
 		feeds[cd.Stage] = append(feeds[cd.Stage], feed{path: len(m.net.Traces) + i, frac: 0.5, cluster: cd.Cluster})
 	}

@@ -269,8 +269,11 @@ type GrowthSummary struct {
 	MeanHalfLength    float64 `json:"mean_half_length_m"`
 	LargestHalfLength float64 `json:"largest_half_length_m"`
 	// Crossings counts the meetings with natural fractures by outcome
-	// ("cross", "arrest", "divert").
+	// ("cross", "arrest", "divert"), and the re-initiations at their ends
+	// (Reinitiated).
 	Crossings map[string]int `json:"crossings"`
+	// BranchLength is the opened length of the re-initiated branches, m.
+	BranchLength float64 `json:"reinitiated_length_m"`
 }
 
 // HalfLengths says how long the growing fractures became, for people.
@@ -281,7 +284,11 @@ func (g *GrowthSummary) HalfLengths() string {
 // Meetings counts the meetings with natural fractures by outcome, for
 // people.
 func (g *GrowthSummary) Meetings() string {
-	return fmt.Sprintf("%d crossed, %d arrested, %d diverted", g.Crossings["cross"], g.Crossings["arrest"], g.Crossings["divert"])
+	s := fmt.Sprintf("%d crossed, %d arrested, %d diverted", g.Crossings["cross"], g.Crossings["arrest"], g.Crossings["divert"])
+	if n := g.Crossings[Reinitiated]; n > 0 {
+		s += fmt.Sprintf("; re-initiated %d× at their ends, %.0f m grown", n, g.BranchLength)
+	}
+	return s
 }
 
 // summarizeGrowth summarises the growth of a run (nil when nothing grows,
@@ -292,11 +299,15 @@ func summarizeGrowth(s *scenarios.Scenario, res *Result) *GrowthSummary {
 		return nil
 	}
 	order := s.PumpingOrder()
-	out := &GrowthSummary{Crossings: map[string]int{"cross": 0, "arrest": 0, "divert": 0}}
+	out := &GrowthSummary{Crossings: map[string]int{"cross": 0, "arrest": 0, "divert": 0, Reinitiated: 0}}
 	half := res.ConduitHalfLengths
 	var sum float64
 	for c, cd := range res.Conduits {
 		if !s.Wells[order[cd.Stage].Well].Grows() {
+			continue
+		}
+		if cd.IsBranch() {
+			out.BranchLength += 2 * half[c]
 			continue
 		}
 		out.Fractures++
