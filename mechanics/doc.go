@@ -41,7 +41,9 @@
 // ([KinkAngle], [EquivalentIntensity]), and the outcome where a growing
 // fracture meets a natural one — cross, arrest or divert — by the
 // criterion of Renshaw & Pollard (1995) extended to oblique approach
-// ([Approach], [OrthogonalCrossingRatio]).
+// ([Approach], [OrthogonalCrossingRatio]); the contact problem holds the
+// intact rock ahead of a tip still ([ContactElement].Intact) until the tip
+// reaches it ([Contact.Release]).
 //
 // # Units
 //
