@@ -240,9 +240,9 @@ type Well struct {
 	// InitialHalfLength of a growing conduit, m: the part open (with the
 	// propped conduit_aperture) before pumping.
 	InitialHalfLength float64 `toml:"initial_half_length" when:"conduit_half_length>0" unit:"length" range:"(0,5000]" default:"5 m" doc:"growth on: half-length of each conduit before pumping (the breakdown zone, with conduit_aperture)"`
-	// Reinitiation is "on" (a fracture diverted into a natural fracture
-	// may start again at that fracture's far end) or "off" (it stops there).
-	Reinitiation string  `toml:"reinitiation" when:"growth=on" default:"on" range:"off|on" doc:"growth on: on lets a fracture diverted into a natural fracture start again at its ends (branches are meshed before the run wherever that could happen, which adds elements and run time); off stops it at the natural fracture"`
+	// Reinitiation is "on" (a fracture stopped at a natural fracture may
+	// start again at that fracture's ends) or "off" (it stays stopped).
+	Reinitiation string  `toml:"reinitiation" when:"growth=on" default:"on" range:"off|on" doc:"growth on: on lets a fracture stopped at a natural fracture (arrested or diverted) start again at that fracture's ends once the fluid opens it there (branches are meshed before the run wherever that could happen, which adds elements and run time); off keeps it stopped"`
 	Stages       []Stage `toml:"stages" doc:"stages in pumping order along the well (toe first)"`
 }
 

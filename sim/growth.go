@@ -58,29 +58,30 @@ import (
 // the junction and the conduit stops growing on that side). Every meeting
 // is a Crossing of the result.
 //
-// A diverted fracture may re-initiate at the end of the natural fracture
-// it was diverted into (the usual picture of an offset crossing; common
-// practice, no source: the form here is ours). Its branches are meshed
-// before the run, like the conduits, so no element joins the mesh during
-// it. Wherever a growing conduit's path meets a natural fracture that it
-// would not cross (the crossing criterion does not depend on the fluid's
-// pressure, so it is decided before the run, under the stresses before
-// injection) and that the fluid could open (its normal stress is below the
-// highest bottom-hole pressure the schedule allows; the fluid's pressure
-// is highest at the well), a branch starts at each end of the natural
-// fracture that does not lie behind the meeting as seen from the
-// travelling tip. It strikes along the local SHmax, onward from the side
-// of the well the tip came from, and is as long as the path left beyond
-// the meeting. Branches meet natural fractures as the conduits do, and
-// may branch in turn.
+// A fracture stopped at a natural fracture may re-initiate at that
+// fracture's end once the fluid has opened it there: at once if it was
+// diverted, later if it was arrested and the pressure rises (the usual
+// picture of an offset crossing; common practice, no source: the form here
+// is ours). Its branches are meshed before the run, like the conduits, so
+// no element joins the mesh during it. Wherever a growing conduit's path
+// meets a natural fracture that it would not cross (the crossing criterion
+// does not depend on the fluid's pressure, so it is decided before the
+// run, under the stresses before injection) and that the fluid could open
+// (its normal stress is below the highest bottom-hole pressure the
+// schedule allows; the fluid's pressure is highest at the well), a branch
+// starts at each end of the natural fracture that does not lie behind the
+// meeting as seen from the travelling tip. It strikes along the local
+// SHmax, onward from the side of the well the tip came from, and is as
+// long as the path left beyond the meeting. Branches meet natural
+// fractures as the conduits do, and may branch in turn.
 //
 // A branch stays intact rock, cut off from its natural fracture (their
 // face conducts as the series of the two halves, the branch's a flaw),
-// until a tip travelling its way is diverted into that natural fracture.
-// Then the face takes the mean of the cubes, as a growing conduit's do,
-// so the flaw fills with the natural fracture's fluid, and the branch
-// re-initiates when the natural fracture's net pressure at its end gives
-// that crack the toughness,
+// until a tip travelling its way stops at that natural fracture (arrested
+// or diverted). Then the face takes the mean of the cubes, as a growing
+// conduit's do, so the flaw fills with the natural fracture's fluid, and
+// the branch re-initiates when the natural fracture's net pressure at its
+// end gives that crack the toughness,
 //
 //	(p − σn)·√(π·a) ≥ K_Ic,  a = min(L, h)/2
 //
@@ -129,8 +130,8 @@ const Reinitiated = "reinitiate"
 // tipState is a growing conduit's opened extent: the indices of its first
 // and last opened elements in its group (ms.groups), and whether each
 // side has stopped (arrested, diverted or at the end of its path). A
-// branch is dormant until it re-initiates, armed once a tip was diverted
-// into its natural fracture its way; source is the element of that
+// branch is dormant until it re-initiates, armed once a tip travelling its
+// way stopped at its natural fracture; source is the element of that
 // natural fracture at the branch's start.
 type tipState struct {
 	lo, hi  int
@@ -470,7 +471,7 @@ func (ms *mechState) meet(t float64, k, c, i, j int, fluid float64, crossings []
 		if outcome != mechanics.Cross {
 			result = outcome
 		}
-		if outcome == mechanics.Divert {
+		if outcome != mechanics.Cross {
 			ms.arm(tr, travel)
 		}
 	}
@@ -478,7 +479,7 @@ func (ms *mechState) meet(t float64, k, c, i, j int, fluid float64, crossings []
 }
 
 // arm makes ready to re-initiate the branches at the ends of natural
-// trace tr that grow the way a tip diverted into it travelled: their first
+// trace tr that grow the way a tip stopped there travelled: their first
 // face with the natural fracture now conducts as a growing fracture's
 // (the flow system reads ms.cubeMean as it assembles).
 func (ms *mechState) arm(tr int, travel r2.Vec) {

@@ -3,6 +3,7 @@ package sim
 import (
 	"bytes"
 	"context"
+	"fmt"
 	"maps"
 	"math"
 	"os"
@@ -86,30 +87,12 @@ func mustNetwork(t *testing.T, s *scenarios.Scenario) *dfn.Network {
 // stops there: the fluid, below the natural fracture's normal stress
 // SHmax, cannot open it, so it is arrested).
 func TestGrowthMeetsNaturalFracture(t *testing.T) {
-	dir := t.TempDir()
-	src, err := os.ReadFile(filepath.Join("..", "testdata", "kgd-toughness", "scenario.toml"))
-	if err != nil {
-		t.Fatal(err)
-	}
-	csv := "name,center_x_m,center_y_m,center_depth_m,dip_deg,dip_direction_deg,length_m,height_m\nacross,0,20,2600,90,0,40,200\n"
-	if err := os.WriteFile(filepath.Join(dir, "fractures.csv"), []byte(csv), 0o644); err != nil {
-		t.Fatal(err)
-	}
-	if err := os.WriteFile(filepath.Join(dir, "scenario.toml"), src, 0o644); err != nil {
-		t.Fatal(err)
-	}
 	for _, tc := range []struct {
 		friction float64
 		outcome  string
 	}{{1.2, "cross"}, {0.1, "arrest"}} {
-		ov, err := scenarios.ParseOverrides([]string{"rock.friction_static=" + ftoa(tc.friction), "rock.friction_residual=" + ftoa(tc.friction)})
-		if err != nil {
-			t.Fatal(err)
-		}
-		s, err := scenarios.Load(filepath.Join(dir, "scenario.toml"), ov...)
-		if err != nil {
-			t.Fatal(err)
-		}
+		s := knownFractures(t, "across,0,20,2600,90,0,40,200\n",
+			"rock.friction_static="+ftoa(tc.friction), "rock.friction_residual="+ftoa(tc.friction))
 		ratio := (72.8e6 - 31.2e6) / (s.Rock.TensileStrength + 48.1e6 - 31.2e6)
 		if crosses := ratio > mechanics.OrthogonalCrossingRatio(tc.friction); crosses != (tc.outcome == "cross") {
 			t.Fatalf("test bug: Renshaw & Pollard's ratio %.3g against %.3g does not give %s", ratio, mechanics.OrthogonalCrossingRatio(tc.friction), tc.outcome)
@@ -141,22 +124,8 @@ func TestGrowthMeetsNaturalFracture(t *testing.T) {
 // element shared with the next, not a far end of the natural element),
 // with the angle between them.
 func TestGrowthMeetingPlace(t *testing.T) {
-	dir := t.TempDir()
-	src, err := os.ReadFile(filepath.Join("..", "testdata", "kgd-toughness", "scenario.toml"))
-	if err != nil {
-		t.Fatal(err)
-	}
 	// Strike 150° (dip direction 240°): 30° off the conduit's north.
-	csv := "name,center_x_m,center_y_m,center_depth_m,dip_deg,dip_direction_deg,length_m,height_m\noblique,0,-20,2600,90,240,40,200\n"
-	for name, body := range map[string]string{"fractures.csv": csv, "scenario.toml": string(src)} {
-		if err := os.WriteFile(filepath.Join(dir, name), []byte(body), 0o644); err != nil {
-			t.Fatal(err)
-		}
-	}
-	s, err := scenarios.Load(filepath.Join(dir, "scenario.toml"))
-	if err != nil {
-		t.Fatal(err)
-	}
+	s := knownFractures(t, "oblique,0,-20,2600,90,240,40,200\n")
 	net, res := runScenario(t, s)
 	if len(res.Crossings) != 1 {
 		t.Fatalf("%d crossings: %+v", len(res.Crossings), res.Crossings)
@@ -393,48 +362,10 @@ func TestGrowthCapBelowClosure(t *testing.T) {
 // the other), and the arrested fracture's never opens. Mass balance
 // ≤ 1e-8.
 func TestGrowthReinitiatesAfterDiversion(t *testing.T) {
-	dir := t.TempDir()
-	src, err := os.ReadFile(filepath.Join("..", "testdata", "kgd-toughness", "scenario.toml"))
-	if err != nil {
-		t.Fatal(err)
-	}
-	csv := "name,center_x_m,center_y_m,center_depth_m,dip_deg,dip_direction_deg,length_m,height_m\n" +
-		"arrests,0,6,2600,90,0,40,200\noblique,0,-20,2600,90,255,40,200\n"
-	for name, body := range map[string]string{"fractures.csv": csv, "scenario.toml": string(src)} {
-		if err := os.WriteFile(filepath.Join(dir, name), []byte(body), 0o644); err != nil {
-			t.Fatal(err)
-		}
-	}
-	// A frame at every step (they last at least time_step_initial).
-	ov, err := scenarios.ParseOverrides([]string{"stress.shmax_gradient=18.8 kPa/m", "numerics.output_interval=0.01 s"})
-	if err != nil {
-		t.Fatal(err)
-	}
-	s, err := scenarios.Load(filepath.Join(dir, "scenario.toml"), ov...)
-	if err != nil {
-		t.Fatal(err)
-	}
-	net := mustNetwork(t, s)
+	s := knownFractures(t, "arrests,0,6,2600,90,0,40,200\noblique,0,-20,2600,90,255,40,200\n",
+		"stress.shmax_gradient=18.8 kPa/m", "numerics.output_interval=0.01 s")
 	end := r2.Vec{X: 20 * math.Sin(15*math.Pi/180), Y: -20 - 20*math.Cos(15*math.Pi/180)}
-	source := -1 // the natural element at that end
-	type atTime struct{ time, pressure float64 }
-	var atEnd []atTime
-	res, err := Run(context.Background(), s, net, Options{
-		Begin: func(els []Element) error {
-			for i, e := range els {
-				if e.Set != ConduitSet && (r2.Norm(r2.Sub(e.P0, end)) < 1e-9 || r2.Norm(r2.Sub(e.P1, end)) < 1e-9) {
-					source = i
-				}
-			}
-			return nil
-		},
-		Frame: func(f *Frame) error {
-			atEnd = append(atEnd, atTime{f.Time, f.Pressure[source]})
-			return nil
-		}})
-	if err != nil {
-		t.Fatal(err)
-	}
+	net, res, atEnd := runWatching(t, s, end)
 	if len(res.Conduits) != 4 {
 		t.Fatalf("%d conduits, want the cluster's and 3 branches: %+v", len(res.Conduits), res.Conduits)
 	}
@@ -456,22 +387,7 @@ func TestGrowthReinitiatesAfterDiversion(t *testing.T) {
 	beta := 15 * math.Pi / 180
 	sigmaN := s.Layer.Depth * (s.Stress.SHmaxGradient*math.Pow(math.Sin(beta), 2) + s.Stress.ShminGradient*math.Pow(math.Cos(beta), 2))
 	need := sigmaN + s.Rock.FractureToughness/math.Sqrt(math.Pi*20)
-	var seen bool
-	for _, f := range atEnd {
-		switch {
-		case f.time <= divert.Time:
-		case f.time < again.Time && f.pressure >= need+1:
-			t.Errorf("t = %g s: %.4f MPa at the natural fracture's end, enough to re-initiate, before %g s", f.time, f.pressure/1e6, again.Time)
-		case f.time == again.Time:
-			seen = true
-			if f.pressure < need-1 {
-				t.Errorf("re-initiated at %g s at %.4f MPa, below the %.4f MPa it needs", f.time, f.pressure/1e6, need/1e6)
-			}
-		}
-	}
-	if !seen || !(again.Time > divert.Time) {
-		t.Errorf("diverted at %g s, re-initiated at %g s: no frame then", divert.Time, again.Time)
-	}
+	reinitiatedWhenDue(t, atEnd, divert.Time, again.Time, need)
 	// The branch opened south of the end, along SHmax; nothing else did
 	// beyond the meetings.
 	var branch float64
@@ -496,5 +412,144 @@ func TestGrowthReinitiatesAfterDiversion(t *testing.T) {
 	}
 	if res.MassBalanceError > 1e-8 {
 		t.Errorf("mass-balance error %.3g", res.MassBalanceError)
+	}
+}
+
+// A fracture arrested at a natural fracture re-initiates at its ends once
+// the pressure has opened it there. On testdata/kgd-toughness with SHmax
+// 48.88 MPa, east–west natural fractures 6 m north and south of the
+// cluster stop both tips (Renshaw & Pollard's ratio 0.81 against 0.89,
+// as in TestGrowthReinitiatesAfterDiversion) and are not opened by the
+// fluid then (their normal stress is SHmax): arrested. Both tips stopped,
+// the pressure rises until their ends reach the toughness,
+// p ≥ SHmax + K_Ic/√(π·L/2) = 49.01 MPa (Irwin 1957, L = 40 m), and four
+// branches re-initiate there, at (±20, ±6) m, at the first step that
+// gives it, and grow away from the well along SHmax.
+func TestGrowthReinitiatesAfterArrest(t *testing.T) {
+	s := knownFractures(t, "north,0,6,2600,90,0,40,200\nsouth,0,-6,2600,90,0,40,200\n",
+		"stress.shmax_gradient=18.8 kPa/m", "numerics.output_interval=0.01 s")
+	corner := r2.Vec{X: 20, Y: 6}
+	_, res, atCorner := runWatching(t, s, corner)
+	var arrests []float64
+	var again []Crossing
+	for _, c := range res.Crossings {
+		switch c.Outcome {
+		case "arrest":
+			arrests = append(arrests, c.Time)
+		case Reinitiated:
+			again = append(again, c)
+		default:
+			t.Errorf("unexpected meeting %+v", c)
+		}
+	}
+	if len(arrests) != 2 || len(again) != 4 {
+		t.Fatalf("%d arrests and %d re-initiations, want 2 and 4: %+v", len(arrests), len(again), res.Crossings)
+	}
+	var first Crossing // the re-initiation at the watched end
+	for _, c := range again {
+		numtest.Abs(t, "re-initiation east, m", math.Abs(c.X), 20, 1e-6)
+		numtest.Abs(t, "re-initiation north, m", math.Abs(c.Y), 6, 1e-6)
+		numtest.Abs(t, "re-initiation angle, rad", c.Angle, math.Pi/2, 1e-9)
+		if c.X > 0 && c.Y > 0 {
+			first = c
+		}
+	}
+	need := s.Stress.SHmaxGradient*s.Layer.Depth + s.Rock.FractureToughness/math.Sqrt(math.Pi*20)
+	reinitiatedWhenDue(t, atCorner, math.Max(arrests[0], arrests[1]), first.Time, need)
+	// Every branch opened away from the well, at x = ±20 m.
+	for i, e := range res.Elements {
+		if mid := r2.Scale(0.5, r2.Add(e.P0, e.P1)); e.Set == ConduitSet && res.Opened[i] &&
+			math.Abs(mid.X) > 1e-6 && (math.Abs(math.Abs(mid.X)-20) > 1e-6 || math.Abs(mid.Y) < 6) {
+			t.Errorf("opened conduit element at (%.2f, %.2f) m", mid.X, mid.Y)
+		}
+	}
+	if g := summarizeGrowth(s, res); !(g.BranchLength >= 4*s.Numerics.ElementLength) {
+		t.Errorf("branches grew %.1f m", g.BranchLength)
+	}
+	t.Logf("arrested at %.2f and %.2f s, re-initiated at %.2f s (%.4f MPa needed)", arrests[0], arrests[1], first.Time, need/1e6)
+	if res.MassBalanceError > 1e-8 {
+		t.Errorf("mass-balance error %.3g", res.MassBalanceError)
+	}
+}
+
+// knownFractures loads testdata/kgd-toughness with the natural fractures
+// of the CSV rows (name, centre x, y and depth, dip, dip direction,
+// length, height) and the overrides.
+func knownFractures(t *testing.T, rows string, overrides ...string) *scenarios.Scenario {
+	t.Helper()
+	dir := t.TempDir()
+	src, err := os.ReadFile(filepath.Join("..", "testdata", "kgd-toughness", "scenario.toml"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	csv := "name,center_x_m,center_y_m,center_depth_m,dip_deg,dip_direction_deg,length_m,height_m\n" + rows
+	for name, body := range map[string]string{"fractures.csv": csv, "scenario.toml": string(src)} {
+		if err := os.WriteFile(filepath.Join(dir, name), []byte(body), 0o644); err != nil {
+			t.Fatal(err)
+		}
+	}
+	ov, err := scenarios.ParseOverrides(overrides)
+	if err != nil {
+		t.Fatal(err)
+	}
+	s, err := scenarios.Load(filepath.Join(dir, "scenario.toml"), ov...)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return s
+}
+
+// pressureAt is the pressure of one element at the time of a frame, Pa.
+type pressureAt struct{ time, pressure float64 }
+
+// runWatching runs s and returns the pressure, at every frame, of the
+// natural element with an end at p.
+func runWatching(t *testing.T, s *scenarios.Scenario, p r2.Vec) (*dfn.Network, *Result, []pressureAt) {
+	t.Helper()
+	net := mustNetwork(t, s)
+	watched := -1
+	var out []pressureAt
+	res, err := Run(context.Background(), s, net, Options{
+		Begin: func(els []Element) error {
+			for i, e := range els {
+				if e.Set != ConduitSet && (r2.Norm(r2.Sub(e.P0, p)) < 1e-9 || r2.Norm(r2.Sub(e.P1, p)) < 1e-9) {
+					watched = i
+				}
+			}
+			if watched < 0 {
+				return fmt.Errorf("no natural element ends at %v", p)
+			}
+			return nil
+		},
+		Frame: func(f *Frame) error {
+			out = append(out, pressureAt{f.Time, f.Pressure[watched]})
+			return nil
+		}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	return net, res, out
+}
+
+// reinitiatedWhenDue checks that a branch re-initiated at time again, at
+// the end of the first step after time stopped whose pressure at the
+// natural fracture's end (frames, one per step) reached need, Pa (to 1 Pa).
+func reinitiatedWhenDue(t *testing.T, frames []pressureAt, stopped, again, need float64) {
+	t.Helper()
+	var seen bool
+	for _, f := range frames {
+		switch {
+		case f.time <= stopped:
+		case f.time < again && f.pressure >= need+1:
+			t.Errorf("t = %g s: %.4f MPa at the natural fracture's end, enough to re-initiate, before %g s", f.time, f.pressure/1e6, again)
+		case f.time == again:
+			seen = true
+			if f.pressure < need-1 {
+				t.Errorf("re-initiated at %g s at %.4f MPa, below the %.4f MPa it needs", f.time, f.pressure/1e6, need/1e6)
+			}
+		}
+	}
+	if !seen || !(again > stopped) {
+		t.Errorf("stopped at %g s, re-initiated at %g s: no frame then", stopped, again)
 	}
 }

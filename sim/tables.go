@@ -66,7 +66,7 @@ var (
 			{Title: "x_m", Datatype: csvw.Double, Unit: "m", Description: "local east of the meeting point"},
 			{Title: "y_m", Datatype: csvw.Double, Unit: "m", Description: "local north of the meeting point"},
 			{Title: "angle_deg", Datatype: csvw.Double, Unit: "deg", Description: "angle between the two fractures in map view, 0 to 90"},
-			{Title: "outcome", Datatype: csvw.String, Description: "cross (the tip goes on across it), arrest (it stops there), divert (the fluid opens the natural fracture and the tip stops) or reinitiate (a diverted fracture starts again at this end of the natural fracture: x_m, y_m; angle between the new branch and the natural fracture)"},
+			{Title: "outcome", Datatype: csvw.String, Description: "cross (the tip goes on across it), arrest (it stops there), divert (the fluid opens the natural fracture and the tip stops) or reinitiate (a fracture stopped at this natural fracture starts again at its end x_m, y_m; angle between the new branch and the natural fracture)"},
 		},
 	}
 	FracturesTable = csvw.Table{
