@@ -136,7 +136,7 @@ var singleFractureBatchSets = []string{"numerics.element_length=40 m", "schedule
 	"rock.friction_residual=0.6"}
 
 // singleFractureBatch runs a batch of the single-fracture example into a
-// folder with pipeline.Realization: two viscosities × two realizations, at
+// folder with Limits.Realizations: two viscosities × two realizations, at
 // an injection pressure above Shmin (42 MPa at 2000 m, 21 kPa/m), so every
 // run warns once.
 func singleFractureBatch(t *testing.T) (string, *batch.Manifest) {
@@ -154,7 +154,7 @@ func singleFractureBatch(t *testing.T) (string, *batch.Manifest) {
 		return scenarios.LoadExample("single-fracture", append(sets, extra...)...)
 	}
 	if _, err := batch.Run(context.Background(), batch.Options{Load: load, Realizations: 2, Sweeps: []batch.Sweep{sw},
-		Workers: 2, Out: out, Run: Realization}); err != nil {
+		Workers: 2, Out: out, Run: Limits{}.Realizations(2)}); err != nil {
 		t.Fatal(err)
 	}
 	if err := WriteBatchMaps(context.Background(), out); err != nil {

@@ -160,7 +160,7 @@ func TestSimulateFolderAndRealization(t *testing.T) {
 	if got := folderFiles(t, dir); !slices.Equal(got, want) {
 		t.Errorf("run folder holds %v, want %v", got, want)
 	}
-	out, err := Realization(context.Background(), mem.Scenario, 0)
+	out, err := Limits{}.Realizations(1)(context.Background(), mem.Scenario, 0)
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -96,7 +96,7 @@ func simulateInto(ctx context.Context, dir string, s *scenarios.Scenario, o Simu
 	defer snap.Close()
 	rec := sim.NewRecorder(snap, s, o.Realization)
 	start := time.Now()
-	res, runErr := sim.Run(ctx, s, net, sim.Options{Begin: rec.Begin, Frame: rec.Frame, Progress: o.Progress})
+	res, runErr := sim.Run(ctx, s, net, sim.Options{Begin: rec.Begin, Frame: rec.Frame, Progress: o.Progress, MemoryLimit: o.Limits.memory()})
 	if res == nil {
 		return nil, nil, runErr
 	}
@@ -163,15 +163,24 @@ func writeRunMaps(ctx context.Context, dir string, r *Run) error {
 	return err
 }
 
-// Realization is the batch runner (a batch.RunFunc): it generates
+// Realizations returns the batch runner (a batch.RunFunc) of runs taking
+// at most the memory limit shared by workers at a time: it generates
 // realization r's network and simulates the schedule on it, keeping only
 // what a batch aggregates.
-func Realization(ctx context.Context, s *scenarios.Scenario, r int) (*batch.Outcome, error) {
+func (l Limits) Realizations(workers int) batch.RunFunc {
+	limit := l.memory() / float64(max(workers, 1))
+	return func(ctx context.Context, s *scenarios.Scenario, r int) (*batch.Outcome, error) {
+		return realization(ctx, s, r, limit)
+	}
+}
+
+// realization runs realization r of the scenario within limit bytes.
+func realization(ctx context.Context, s *scenarios.Scenario, r int, limit float64) (*batch.Outcome, error) {
 	net, err := dfn.Generate(s, r)
 	if err != nil {
 		return nil, err
 	}
-	res, err := sim.Run(ctx, s, net, sim.Options{})
+	res, err := sim.Run(ctx, s, net, sim.Options{MemoryLimit: limit})
 	if err != nil {
 		return nil, fmt.Errorf("realization %d: %w", r, err)
 	}

@@ -4,6 +4,7 @@ import (
 	"math"
 
 	"slipfront/dfn"
+	"slipfront/internal/badinput"
 	"slipfront/scenarios"
 )
 
@@ -51,6 +52,32 @@ func Estimate(s *scenarios.Scenario) (RunEstimate, error) {
 		}
 	}
 	el := math.Ceil(length/s.Numerics.ElementLength) + net.Traces + 2*net.Intersections
-	field := (float64(s.MapGrid().Cells()) + el) * bytesPerFieldObject
-	return RunEstimate{Network: net, Elements: el, Bytes: net.Bytes + el*bytesPerElement + field}, nil
+	return RunEstimate{Network: net, Elements: el, Bytes: net.Bytes + runBytes(s, el)}, nil
+}
+
+// runBytes is the memory of a run of the scenario on the given number of
+// elements and of its stress-change map, bytes.
+func runBytes(s *scenarios.Scenario, elements float64) float64 {
+	return elements*bytesPerElement + (float64(s.MapGrid().Cells())+elements)*bytesPerFieldObject
+}
+
+// checkMemory refuses, once the mesh is built and before the elastic
+// operator is, a run that would take more than limit bytes (0: no limit):
+// Estimate cannot know the re-initiation branches, which follow the
+// network drawn.
+func (m *model) checkMemory(limit float64) error {
+	n := float64(len(m.elements))
+	need := runBytes(m.s, n)
+	if limit <= 0 || need <= limit {
+		return nil
+	}
+	var branches int
+	for i, el := range m.mesh.Elements {
+		if m.conduitEl[i] && m.conduits[el.Path-len(m.net.Traces)].IsBranch() {
+			branches++
+		}
+	}
+	return badinput.Errorf("%s: the mesh has %d elements, %d of them on re-initiation branches, and the run would take about %.3g GB, more than the memory limit of %.3g GB: "+
+		"set wells[].reinitiation = \"off\", use a longer numerics.element_length or a smaller network, or raise the memory limit",
+		m.s.Source, len(m.elements), branches, need/1e9, limit/1e9)
 }

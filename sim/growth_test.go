@@ -3,6 +3,7 @@ package sim
 import (
 	"bytes"
 	"context"
+	"errors"
 	"fmt"
 	"maps"
 	"math"
@@ -15,6 +16,7 @@ import (
 	"gonum.org/v1/gonum/spatial/r2"
 
 	"slipfront/dfn"
+	"slipfront/internal/badinput"
 	"slipfront/internal/hfref"
 	"slipfront/internal/numtest"
 	"slipfront/mechanics"
@@ -551,5 +553,25 @@ func reinitiatedWhenDue(t *testing.T, frames []pressureAt, stopped, again, need 
 	}
 	if !seen || !(again > stopped) {
 		t.Errorf("stopped at %g s, re-initiated at %g s: no frame then", stopped, again)
+	}
+}
+
+// Branches follow the network drawn, so the estimate made before it
+// cannot count them: a run whose mesh would exceed Options.MemoryLimit is
+// refused as bad input once the mesh is built, saying how many elements
+// the branches add and which key removes them; within the limit it runs.
+func TestGrowthBranchesWithinMemory(t *testing.T) {
+	s := knownFractures(t, "north,0,6,2600,90,0,40,200\nsouth,0,-6,2600,90,0,40,200\n", "stress.shmax_gradient=18.8 kPa/m")
+	net := mustNetwork(t, s)
+	_, err := Run(context.Background(), s, net, Options{MemoryLimit: 1e6})
+	if !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), `wells[].reinitiation = "off"`) {
+		t.Fatalf("1 MB: %v, want a bad-input error naming wells[].reinitiation", err)
+	}
+	var elements, branches int
+	if _, err := fmt.Sscanf(err.Error()[strings.Index(err.Error(), "the mesh has"):], "the mesh has %d elements, %d of them", &elements, &branches); err != nil || branches == 0 || branches >= elements {
+		t.Errorf("%v: %d elements, %d on branches", err, elements, branches)
+	}
+	if _, err := Run(context.Background(), s, net, Options{MemoryLimit: runBytes(s, float64(elements))}); err != nil {
+		t.Errorf("at the estimate itself: %v", err)
 	}
 }

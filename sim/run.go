@@ -27,6 +27,9 @@ type Options struct {
 	// Progress, when set, is called after every accepted step with the
 	// simulated time and the schedule's nominal end, s.
 	Progress func(t, end float64)
+	// MemoryLimit, when > 0, is the memory the run may take, bytes: a mesh
+	// that would need more is refused before the elastic operator is built.
+	MemoryLimit float64
 }
 
 // Frame is the state of every element at the end of one time step.
@@ -162,6 +165,9 @@ type Result struct {
 func Run(ctx context.Context, s *scenarios.Scenario, net *dfn.Network, opt Options) (*Result, error) {
 	m, err := newModel(s, net)
 	if err != nil {
+		return nil, err
+	}
+	if err := m.checkMemory(opt.MemoryLimit); err != nil {
 		return nil, err
 	}
 	r, err := newRunner(m, opt)

@@ -94,7 +94,7 @@ func runBatch(ctx context.Context, o *batchOptions, g *globalOptions, stdout, st
 			return s, lim.CheckRun(s, workers)
 		},
 		Realizations: o.realizations, Workers: o.workers, Out: o.out, Resume: o.resume, Force: o.force,
-		Run: pipeline.Realization,
+		Run: lim.Realizations(workers),
 	}
 	for _, s := range o.sweeps {
 		sw, err := batch.ParseSweep(s)
