@@ -195,8 +195,8 @@ func (m *model) branches(seen map[branchKey]bool, c int, x dfn.PathCrossing) []C
 
 // highestPressure is the highest bottom-hole pressure the schedule lets
 // any stage reach, Pa: the fluid's pressure is highest at the well, so a
-// natural fracture whose normal stress is above it cannot be diverted
-// into.
+// natural fracture whose normal stress is above it is never opened, and
+// no fracture re-initiates at its ends.
 func (m *model) highestPressure() float64 {
 	var p float64
 	for _, ps := range m.order {

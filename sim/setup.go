@@ -17,7 +17,7 @@ import (
 // Conduit is a primary conduit: a vertical planar feature of fixed
 // aperture from one perforation cluster, striking along SHmax, or a
 // branch where a growing fracture may re-initiate at the end of a natural
-// fracture it was diverted into (growth.go).
+// fracture it stopped at (growth.go).
 type Conduit struct {
 	Stage   int // index in the pumping order
 	Cluster int // index in the stage's cluster list (a branch: its parent's)
