@@ -5,6 +5,8 @@ import (
 	"sort"
 
 	"gonum.org/v1/gonum/spatial/r2"
+
+	"slipfront/elastic"
 )
 
 // centreGrid buckets points in square cells of a given side, so that the
@@ -41,4 +43,26 @@ func (g *centreGrid) visit(p r2.Vec, f func(i int)) {
 	for _, i := range found {
 		f(i)
 	}
+}
+
+// CountNearPairs returns the number of ordered pairs of distinct elements
+// whose centres lie within radius of each other: about what a Contact of
+// that NearRadius stores for its near field (all but the few detached
+// pairs), known before it is built.
+func CountNearPairs(elems []elastic.Element, radius float64) int {
+	centres := make([]r2.Vec, len(elems))
+	for i, e := range elems {
+		centres[i] = e.Centre()
+	}
+	g := newCentreGrid(centres, radius)
+	r2max := radius * radius
+	n := 0
+	for j, c := range centres {
+		g.visit(c, func(i int) {
+			if d := r2.Sub(centres[i], c); i != j && r2.Dot(d, d) <= r2max {
+				n++
+			}
+		})
+	}
+	return n
 }

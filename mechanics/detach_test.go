@@ -271,3 +271,22 @@ func TestContactIntactRelease(t *testing.T) {
 	}
 	t.Logf("%d self-influences lacked a compensation; %d of %d released elements slipped", differ, moved, len(intact))
 }
+
+// CountNearPairs, known before a Contact is built, counts the pairs its
+// near field and its detached list hold together.
+func TestCountNearPairs(t *testing.T) {
+	elems, ce := crossingNetwork(2)
+	op, err := elastic.NewDense(elems, testRock, elastic.Settings{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, radius := range []float64{2, 3.5, 100} {
+		c, err := NewContact(op, ce, ContactSettings{NearRadius: radius, DetachRadius: 0.6})
+		if err != nil {
+			t.Fatal(err)
+		}
+		if got, want := CountNearPairs(elems, radius), c.NearPairs()+countDetached(c); got != want || want == 0 {
+			t.Errorf("radius %g m: %d pairs counted, the contact holds %d", radius, got, want)
+		}
+	}
+}

@@ -1,10 +1,13 @@
 package sim
 
 import (
+	"fmt"
 	"math"
 
 	"slipfront/dfn"
+	"slipfront/elastic"
 	"slipfront/internal/badinput"
+	"slipfront/mechanics"
 	"slipfront/scenarios"
 )
 
@@ -61,15 +64,37 @@ func runBytes(s *scenarios.Scenario, elements float64) float64 {
 	return elements*bytesPerElement + (float64(s.MapGrid().Cells())+elements)*bytesPerFieldObject
 }
 
+// bytesPerNearPair is the memory of one pair of elements within the
+// contact problem's near radius: its receiver index and its slip and
+// opening influences (36 bytes), and the growth of the slices that hold
+// them, rounded up.
+const bytesPerNearPair = 56
+
 // checkMemory refuses, once the mesh is built and before the elastic
-// operator is, a run that would take more than limit bytes (0: no limit):
-// Estimate cannot know the re-initiation branches, which follow the
-// network drawn.
+// operator and the contact problem are, a run that would take more than
+// limit bytes (0: no limit). Estimate cannot know the re-initiation
+// branches, which follow the network drawn, nor how densely the elements
+// crowd within the contact problem's near radius, whose pairs it stores
+// (mechanics.CountNearPairs): a thick layer's radius over a dense network
+// holds thousands of pairs per element. The pairs are added to the
+// per-element memory, which counts a typical share of them: the check errs
+// high.
 func (m *model) checkMemory(limit float64) error {
+	if limit <= 0 {
+		return nil
+	}
 	n := float64(len(m.elements))
 	need := runBytes(m.s, n)
-	if limit <= 0 || need <= limit {
-		return nil
+	var pairs int
+	if need <= limit {
+		elems := make([]elastic.Element, len(m.elements))
+		for i, el := range m.elements {
+			elems[i] = elastic.Element{P0: el.P0, P1: el.P1, Height: el.Height}
+		}
+		pairs = mechanics.CountNearPairs(elems, m.nearRadius())
+		if need += float64(pairs) * bytesPerNearPair; need <= limit {
+			return nil
+		}
 	}
 	var branches int
 	for i, el := range m.mesh.Elements {
@@ -77,7 +102,11 @@ func (m *model) checkMemory(limit float64) error {
 			branches++
 		}
 	}
-	return badinput.Errorf("%s: the mesh has %d elements, %d of them on re-initiation branches, and the run would take about %.3g GB, more than the memory limit of %.3g GB: "+
+	within := ""
+	if pairs > 0 {
+		within = fmt.Sprintf(" (%d pairs of them within the contact's near radius, %.3g m)", pairs, m.nearRadius())
+	}
+	return badinput.Errorf("%s: the mesh has %d elements, %d of them on re-initiation branches%s, and the run would take about %.3g GB, more than the memory limit of %.3g GB: "+
 		"set wells[].reinitiation = \"off\", use a longer numerics.element_length or a smaller network, or raise the memory limit",
-		m.s.Source, len(m.elements), branches, need/1e9, limit/1e9)
+		m.s.Source, len(m.elements), branches, within, need/1e9, limit/1e9)
 }

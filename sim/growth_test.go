@@ -557,21 +557,31 @@ func reinitiatedWhenDue(t *testing.T, frames []pressureAt, stopped, again, need 
 }
 
 // Branches follow the network drawn, so the estimate made before it
-// cannot count them: a run whose mesh would exceed Options.MemoryLimit is
-// refused as bad input once the mesh is built, saying how many elements
-// the branches add and which key removes them; within the limit it runs.
+// cannot count them, nor the pairs of elements crowded within the contact
+// problem's near radius: a run whose mesh would exceed Options.MemoryLimit
+// is refused as bad input once the mesh is built, saying how many elements
+// the branches add, how many pairs there are and which key removes the
+// branches; within the limit it runs.
 func TestGrowthBranchesWithinMemory(t *testing.T) {
 	s := knownFractures(t, "north,0,6,2600,90,0,40,200\nsouth,0,-6,2600,90,0,40,200\n", "stress.shmax_gradient=18.8 kPa/m")
 	net := mustNetwork(t, s)
-	_, err := Run(context.Background(), s, net, Options{MemoryLimit: 1e6})
-	if !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), `wells[].reinitiation = "off"`) {
-		t.Fatalf("1 MB: %v, want a bad-input error naming wells[].reinitiation", err)
+	refused := func(limit float64) string {
+		t.Helper()
+		_, err := Run(context.Background(), s, net, Options{MemoryLimit: limit})
+		if !errors.Is(err, badinput.Err) || !strings.Contains(err.Error(), `wells[].reinitiation = "off"`) {
+			t.Fatalf("%g bytes: %v, want a bad-input error naming wells[].reinitiation", limit, err)
+		}
+		return err.Error()[strings.Index(err.Error(), "the mesh has"):]
 	}
-	var elements, branches int
-	if _, err := fmt.Sscanf(err.Error()[strings.Index(err.Error(), "the mesh has"):], "the mesh has %d elements, %d of them", &elements, &branches); err != nil || branches == 0 || branches >= elements {
-		t.Errorf("%v: %d elements, %d on branches", err, elements, branches)
+	var elements, branches, pairs int
+	if _, err := fmt.Sscanf(refused(1e6), "the mesh has %d elements, %d of them", &elements, &branches); err != nil || branches == 0 || branches >= elements {
+		t.Fatalf("%v: %d elements, %d on branches", err, elements, branches)
 	}
-	if _, err := Run(context.Background(), s, net, Options{MemoryLimit: runBytes(s, float64(elements))}); err != nil {
+	// Room for the elements, not for their pairs.
+	if _, err := fmt.Sscanf(refused(runBytes(s, float64(elements))), "the mesh has %d elements, %d of them on re-initiation branches (%d pairs", &elements, &branches, &pairs); err != nil || pairs == 0 {
+		t.Fatalf("%v: %d pairs", err, pairs)
+	}
+	if _, err := Run(context.Background(), s, net, Options{MemoryLimit: runBytes(s, float64(elements)) + float64(pairs)*bytesPerNearPair}); err != nil {
 		t.Errorf("at the estimate itself: %v", err)
 	}
 }

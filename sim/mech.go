@@ -98,6 +98,12 @@ type mechState struct {
 // must be solved together or their slip would grow step after step.
 const contactNearRadius = 3
 
+// nearRadius is the contact problem's near radius, m
+// (mechanics.ContactSettings.NearRadius; see contactNearRadius).
+func (m *model) nearRadius() float64 {
+	return contactNearRadius * math.Max(m.s.Numerics.ElementLength, m.s.Layer.Thickness)
+}
+
 // detachRadius, in element lengths, is how close the centre of an
 // element of another trace may come to an element before the two stop
 // loading each other (mechanics.ContactSettings.DetachRadius): at a
@@ -160,7 +166,7 @@ func newMechState(m *model) (*mechState, error) {
 	}
 	ms.op = op
 	ms.contact, err = mechanics.NewContact(op, ce, mechanics.ContactSettings{
-		NearRadius: contactNearRadius * math.Max(m.s.Numerics.ElementLength, m.s.Layer.Thickness), DetachRadius: detachRadius * m.s.Numerics.ElementLength,
+		NearRadius: m.nearRadius(), DetachRadius: detachRadius * m.s.Numerics.ElementLength,
 		FarRefresh: farRefresh * m.s.Numerics.SlipMax, ShearOnly: true, NoDerivatives: true})
 	if err != nil {
 		return nil, err
