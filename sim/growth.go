@@ -157,8 +157,8 @@ func (m *model) branches(seen map[branchKey]bool, c int, x dfn.PathCrossing) []C
 	if !m.growing(cd) || m.s.Wells[m.order[cd.Stage].Well].Reinitiation != "on" {
 		return nil
 	}
-	length := r2.Norm(r2.Sub(cd.P1, cd.P0))
-	along := r2.Scale(1/length, r2.Sub(cd.P1, cd.P0))
+	length := cd.Length
+	along := r2.Unit(r2.Sub(cd.P1, cd.P0))
 	// A cluster's conduit grows both ways from its middle, a branch from P0.
 	travel, left := along, length-x.Distance
 	if !cd.IsBranch() && x.Distance < length/2 {
@@ -188,7 +188,7 @@ func (m *model) branches(seen map[branchKey]bool, c int, x dfn.PathCrossing) []C
 		}
 		seen[key] = true
 		out = append(out, Conduit{Stage: cd.Stage, Cluster: cd.Cluster, Aperture: cd.Aperture, Height: cd.Height,
-			Source: x.Segment, P0: p, P1: r2.Add(p, r2.Scale(left, dir))})
+			Length: left, Source: x.Segment, P0: p, P1: r2.Add(p, r2.Scale(left, dir))})
 	}
 	return out
 }

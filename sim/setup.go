@@ -24,6 +24,9 @@ type Conduit struct {
 	P0, P1  r2.Vec
 	// Aperture and Height, m.
 	Aperture, Height float64
+	// Length from P0 to P1 as set, m (2·conduit_half_length for a
+	// cluster's; |P1 − P0| but for rounding).
+	Length float64
 	// Source is, for a branch, the index in Network.Traces of the natural
 	// fracture at whose end (P0) it starts; −1 for a cluster's conduit.
 	Source int
@@ -199,7 +202,7 @@ func (m *model) paths() ([]flow.Path, []flow.Junction) {
 			centre := PointAlong(net.Wells[st.Well].Path, at)
 			strike := orient.Line(m.shmaxAzimuth(centre), 0)
 			dir := r2.Vec{X: strike.X, Y: strike.Y}
-			cd := Conduit{Stage: k, Cluster: c, Aperture: w.ConduitAperture, Height: h, Source: -1,
+			cd := Conduit{Stage: k, Cluster: c, Aperture: w.ConduitAperture, Height: h, Length: 2 * w.ConduitHalfLength, Source: -1,
 				P0: r2.Sub(centre, r2.Scale(w.ConduitHalfLength, dir)),
 				P1: r2.Add(centre, r2.Scale(w.ConduitHalfLength, dir))}
 			m.conduits = append(m.conduits, cd)
@@ -218,7 +221,7 @@ func (m *model) paths() ([]flow.Path, []flow.Junction) {
 	// m.conduits grows as branches are found; each is crossed in turn.
 	for c := 0; c < len(m.conduits); c++ {
 		cd := m.conduits[c]
-		length := r2.Norm(r2.Sub(cd.P1, cd.P0))
+		length := cd.Length
 		for _, x := range ix.CrossPolyline([]r2.Vec{cd.P0, cd.P1}) {
 			if x.Segment == cd.Source {
 				continue // where a branch starts
