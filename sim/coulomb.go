@@ -31,10 +31,7 @@ func CoulombChangeMap(s *scenarios.Scenario, res *Result) ([]float64, error) {
 		x, y := g.Centre(k)
 		points[k] = r2.Vec{X: x, Y: y}
 	}
-	elems := make([]elastic.Element, len(res.Elements))
-	for i, el := range res.Elements {
-		elems[i] = elastic.Element{P0: el.P0, P1: el.P1, Height: el.Height}
-	}
+	elems := elasticElements(res.Elements)
 	mat := elastic.Material{ShearModulus: s.Rock.ShearModulus, PoissonRatio: s.Rock.PoissonRatio}
 	f, err := elastic.NewField(elems, mat, points, elastic.Settings{Tolerance: s.Numerics.InteractionTolerance,
 		PlaneStrain: s.Numerics.HeightCorrection == "off"})

@@ -5,7 +5,6 @@ import (
 	"math"
 
 	"slipfront/dfn"
-	"slipfront/elastic"
 	"slipfront/internal/badinput"
 	"slipfront/mechanics"
 	"slipfront/scenarios"
@@ -87,11 +86,7 @@ func (m *model) checkMemory(limit float64) error {
 	need := runBytes(m.s, n)
 	var pairs int
 	if need <= limit {
-		elems := make([]elastic.Element, len(m.elements))
-		for i, el := range m.elements {
-			elems[i] = elastic.Element{P0: el.P0, P1: el.P1, Height: el.Height}
-		}
-		pairs = mechanics.CountNearPairs(elems, m.nearRadius())
+		pairs = mechanics.CountNearPairs(elasticElements(m.elements), m.nearRadius())
 		if need += float64(pairs) * bytesPerNearPair; need <= limit {
 			return nil
 		}

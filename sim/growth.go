@@ -151,8 +151,8 @@ type branchKey struct{ trace, end, sense int }
 // file), recording them in seen so that each is meshed once: none unless
 // c grows with reinitiation on, has at least one element length of path
 // left beyond x, would not cross the natural fracture there and could
-// open it.
-func (m *model) branches(seen map[branchKey]bool, c int, x dfn.PathCrossing) []Conduit {
+// open it at a pressure up to highest, Pa (model.highestPressure).
+func (m *model) branches(seen map[branchKey]bool, c int, x dfn.PathCrossing, highest float64) []Conduit {
 	cd := m.conduits[c]
 	if !m.growing(cd) || m.s.Wells[m.order[cd.Stage].Well].Reinitiation != "on" {
 		return nil
@@ -168,7 +168,7 @@ func (m *model) branches(seen map[branchKey]bool, c int, x dfn.PathCrossing) []C
 		return nil
 	}
 	stress := m.stressAt(x.Point)
-	if ap, _ := m.approach(stress, along, x.Segment, stress.PorePressure(), 0); ap.Crosses() || ap.OpeningPressure() > m.highestPressure() {
+	if ap, _ := m.approach(stress, along, x.Segment, stress.PorePressure(), 0); ap.Crosses() || ap.OpeningPressure() > highest {
 		return nil
 	}
 	tr := m.net.Traces[x.Segment]
@@ -206,14 +206,19 @@ func (m *model) highestPressure() float64 {
 	return p
 }
 
+// mapAngle is the angle between two lines of directions a and b in map
+// view, radians in [0, π/2].
+func mapAngle(a, b r2.Vec) float64 {
+	return math.Acos(math.Min(1, math.Abs(r2.Dot(r2.Unit(a), r2.Unit(b)))))
+}
+
 // approach is a tip travelling along the unit map direction along that
 // meets natural trace tr under the stress state stress, with the rock's
 // pore pressure and the fluid's pressure there, Pa; it returns the angle
 // between the two fractures in map view too, radians in [0, π/2].
 func (m *model) approach(stress mechanics.Stress, along r2.Vec, tr int, pore, fluid float64) (mechanics.Approach, float64) {
 	other := m.net.Traces[tr]
-	dir := r2.Unit(r2.Sub(other.P1, other.P0))
-	angle := math.Acos(math.Min(1, math.Abs(r2.Dot(along, dir))))
+	angle := mapAngle(along, r2.Sub(other.P1, other.P0))
 	parallel, normal := planeNormalStresses(stress, along)
 	return mechanics.Approach{Angle: math.Max(angle, 1e-6), ParallelStress: parallel, NormalStress: normal,
 		PorePressure: pore, FluidPressure: fluid, TensileStrength: m.s.Rock.TensileStrength,
@@ -470,8 +475,6 @@ func (ms *mechState) meet(t float64, k, c, i, j int, fluid float64, crossings []
 			X: at.X, Y: at.Y, Angle: angle, Outcome: outcome.String()})
 		if outcome != mechanics.Cross {
 			result = outcome
-		}
-		if outcome != mechanics.Cross {
 			ms.arm(tr, travel)
 		}
 	}
@@ -512,7 +515,7 @@ func (ms *mechState) reinitiate(t float64, k, c int) Crossing {
 	ms.resizeConduit(c)
 	cd := m.conduits[c]
 	tr := m.net.Traces[cd.Source]
-	angle := math.Acos(math.Min(1, math.Abs(r2.Dot(r2.Unit(r2.Sub(cd.P1, cd.P0)), r2.Unit(r2.Sub(tr.P1, tr.P0))))))
+	angle := mapAngle(r2.Sub(cd.P1, cd.P0), r2.Sub(tr.P1, tr.P0))
 	return Crossing{Time: t, Stage: k, Conduit: c, Trace: cd.Source, Fracture: tr.Fracture,
 		X: cd.P0.X, Y: cd.P0.Y, Angle: angle, Outcome: Reinitiated}
 }

@@ -136,13 +136,12 @@ func newMechState(m *model) (*mechState, error) {
 	}
 	nt := len(m.net.Traces)
 	crack := mechanics.PlaneStrainCrack{ShearModulus: m.s.Rock.ShearModulus, PoissonRatio: m.s.Rock.PoissonRatio}
-	elems := make([]elastic.Element, n)
+	elems := elasticElements(m.elements)
 	ce := make([]mechanics.ContactElement, n)
 	ms.groups = make([][]int, nt+len(m.conduits))
 	ms.groupLength = make([]float64, len(ms.groups))
 	ms.ownBlocks = map[int][]elastic.Block{}
-	for i, el := range m.elements {
-		elems[i] = elastic.Element{P0: el.P0, P1: el.P1, Height: el.Height}
+	for i := range m.elements {
 		ce[i] = mechanics.ContactElement{Element: elems[i], Group: m.group[i],
 			Shear: m.tau0[i], Normal: m.sigmaN[i], Friction: m.friction}
 		ms.crackStiffness[i] = crack.OpeningStiffness(m.openPatch[i])

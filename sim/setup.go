@@ -7,6 +7,7 @@ import (
 	"gonum.org/v1/gonum/spatial/r2"
 
 	"slipfront/dfn"
+	"slipfront/elastic"
 	"slipfront/flow"
 	"slipfront/internal/badinput"
 	"slipfront/internal/orient"
@@ -46,6 +47,15 @@ type Element struct {
 	// P0, P1 are the ends in local metres; Length and Height in m.
 	P0, P1         r2.Vec
 	Length, Height float64
+}
+
+// elasticElements returns the elements as the elastic operator sees them.
+func elasticElements(els []Element) []elastic.Element {
+	out := make([]elastic.Element, len(els))
+	for i, el := range els {
+		out[i] = elastic.Element{P0: el.P0, P1: el.P1, Height: el.Height}
+	}
+	return out
 }
 
 // ConduitSet marks conduit elements in Element.Set.
@@ -217,7 +227,7 @@ func (m *model) paths() ([]flow.Path, []flow.Junction) {
 		segs[i] = t.Segment
 	}
 	ix := dfn.NewIndex(segs)
-	seen := map[branchKey]bool{}
+	seen, highest := map[branchKey]bool{}, m.highestPressure()
 	// m.conduits grows as branches are found; each is crossed in turn.
 	for c := 0; c < len(m.conduits); c++ {
 		cd := m.conduits[c]
@@ -229,7 +239,7 @@ func (m *model) paths() ([]flow.Path, []flow.Junction) {
 			t := net.Traces[x.Segment]
 			junctions = append(junctions, flow.Junction{A: nt + c, B: x.Segment,
 				SA: x.Distance / length, SB: r2.Norm(r2.Sub(x.Point, t.P0)) / t.Length})
-			for _, br := range m.branches(seen, c, x) {
+			for _, br := range m.branches(seen, c, x, highest) {
 				m.conduits = append(m.conduits, br)
 				paths = append(paths, flow.Path{P0: br.P0, P1: br.P1, Height: br.Height})
 				end := 0.0
