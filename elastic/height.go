@@ -122,6 +122,12 @@ func reciprocalMean(r, q Block, w, f float64) Block {
 // stress on the layer mid-plane of a source of its own height.
 func (m *model) field(p r2.Vec, j int) [2]Stress {
 	g := &m.geo[j]
+	if d := r2.Sub(p, g.c); math.Abs(math.Abs(r2.Dot(d, g.t))-g.a) <= coincidence*2*g.a && math.Abs(r2.Dot(d, g.n)) <= coincidence*2*g.a {
+		// On a tip the field is singular: rounding would give any value
+		// at all, large enough to spoil the compression of a whole Field.
+		nan := Stress{XX: math.NaN(), YY: math.NaN(), XY: math.NaN()}
+		return [2]Stress{nan, nan}
+	}
 	s := m.k.fieldStress(p, g)
 	if m.plain {
 		return s
