@@ -191,6 +191,10 @@ func TestShadowDDM(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
+	probe, err := NewProbe(el, rock, Settings{PlaneStrain: true})
+	if err != nil {
+		t.Fatal(err)
+	}
 	got := make([]Stress, len(pts))
 	f.StressTo(got, slip, w)
 	for i, p := range pts {
@@ -200,6 +204,9 @@ func TestShadowDDM(t *testing.T) {
 		numtest.Abs(t, "ΔSxy", got[i].XY, 0, tol)
 		direct := f.StressAt(p, slip, w)
 		numtest.Abs(t, "StressTo vs StressAt", got[i].YY, direct.YY, 1e-6*pressure)
+		probed := probe.StressAt(p, slip, w)
+		numtest.Abs(t, "Probe ΔSyy", probed.YY, -pressure*shadowYY(p.Y), tol)
+		numtest.Abs(t, "Probe ΔSxx", probed.XX, -pressure*shadowXX(p.Y), tol)
 		if !(got[i].YY > 0) {
 			t.Errorf("y = %g: ΔSyy = %g, want > 0 (compression: the stress shadow)", p.Y, got[i].YY)
 		}

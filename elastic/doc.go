@@ -10,8 +10,9 @@
 // matrix (cluster tree, adaptive cross approximation) in O(N log N)
 // memory with a product of the same cost; New picks one by size, and
 // EstimateMemory predicts the memory before assembly. Field evaluates the
-// stress change at map points (for maps of the Coulomb stress change),
-// and Stress resolves it on a receiver plane.
+// stress change at fixed map points (for maps of the Coulomb stress
+// change), Probe at any point by direct summation (for a few points not
+// known in advance), and Stress resolves it on a receiver plane.
 //
 // This package is linear elasticity only: friction, fluid pressure and
 // time belong to its callers.

@@ -169,15 +169,7 @@ func (f *Field) StressTo(dst []Stress, slip, opening []float64) {
 // the elements (exact, O(N)); StressTo approximates the same sums to
 // Settings.Tolerance.
 func (f *Field) StressAt(p r2.Vec, slip, opening []float64) Stress {
-	checkLen(len(f.m.geo), slip, opening)
-	var out Stress
-	for j := range f.m.geo {
-		s := f.m.field(p, j)
-		out.XX += s[0].XX*slip[j] + s[1].XX*opening[j]
-		out.YY += s[0].YY*slip[j] + s[1].YY*opening[j]
-		out.XY += s[0].XY*slip[j] + s[1].XY*opening[j]
-	}
-	return out
+	return f.m.stressAt(p, slip, opening)
 }
 
 // Stats returns the block counts, ranks and memory of the evaluator
