@@ -3,8 +3,9 @@
 // # Mesh
 //
 // BuildMesh splits every conducting path (a fracture trace or a primary
-// conduit, with its conducting height) at its junctions with other paths
-// and at requested cuts (where wells feed it), then into elements no
+// conduit, with its conducting height; straight, or bent at the vertices
+// Path.Via, which become nodes) at its junctions with other paths and at
+// requested cuts (where wells feed it), then into elements no
 // longer than the element length and no shorter than a fraction of it
 // (MeshSettings.MinElementFraction, a quarter by default), except on a
 // path shorter than that: boundary positions closer than that share a

@@ -20,6 +20,70 @@ type Path struct {
 	// Cuts are positions along the path, as fractions of its length from P0,
 	// where an element boundary must lie (e.g. where a well crosses it).
 	Cuts []float64
+	// Via are the interior vertices of a path that bends: it runs P0,
+	// Via…, P1 in straight legs, and every fraction (cuts, junctions) is
+	// of its length along the legs. The vertices are boundary positions as
+	// cuts are, so every element lies on one leg, unless a vertex is closer
+	// than the shortest element to another boundary position: the element
+	// across it then joins its two ends by a chord.
+	Via []r2.Vec
+}
+
+// Length returns the path's length along its legs, m.
+func (p Path) Length() float64 {
+	if len(p.Via) == 0 {
+		return r2.Norm(r2.Sub(p.P1, p.P0))
+	}
+	var l float64
+	for k := range len(p.Via) + 1 {
+		l += r2.Norm(r2.Sub(p.vertex(k+1), p.vertex(k)))
+	}
+	return l
+}
+
+// vertex returns the path's vertex k: P0, Via…, P1.
+func (p Path) vertex(k int) r2.Vec {
+	switch {
+	case k == 0:
+		return p.P0
+	case k <= len(p.Via):
+		return p.Via[k-1]
+	}
+	return p.P1
+}
+
+// At returns the point at fraction f of the path's length from P0 (f in
+// [0, 1]).
+func (p Path) At(f float64) r2.Vec {
+	if len(p.Via) == 0 {
+		return lerp(p.P0, p.P1, f)
+	}
+	d := f * p.Length()
+	for k := range len(p.Via) + 1 {
+		a, b := p.vertex(k), p.vertex(k+1)
+		leg := r2.Norm(r2.Sub(b, a))
+		if d <= leg && leg > 0 {
+			return lerp(a, b, d/leg)
+		}
+		d -= leg
+	}
+	return p.P1
+}
+
+// vertexFractions returns the fractions of the path's length at its
+// interior vertices.
+func (p Path) vertexFractions() []float64 {
+	if len(p.Via) == 0 {
+		return nil
+	}
+	length := p.Length()
+	out := make([]float64, len(p.Via))
+	var d float64
+	for k := range p.Via {
+		d += r2.Norm(r2.Sub(p.vertex(k+1), p.vertex(k)))
+		out[k] = d / length
+	}
+	return out
 }
 
 // Junction joins two paths where they cross: path A at fraction SA of its
@@ -133,7 +197,7 @@ func BuildMesh(paths []Path, junctions []Junction, s MeshSettings) (*Mesh, error
 		if !(p.Height > 0) {
 			return nil, fmt.Errorf("flow: path %d has conducting height %g m; must be > 0", i, p.Height)
 		}
-		stops[i] = append([]float64{0, 1}, p.Cuts...)
+		stops[i] = append(append([]float64{0, 1}, p.Cuts...), p.vertexFractions()...)
 	}
 	for k, j := range junctions {
 		if j.A < 0 || j.A >= len(paths) || j.B < 0 || j.B >= len(paths) || j.A == j.B {
@@ -147,7 +211,7 @@ func BuildMesh(paths []Path, junctions []Junction, s MeshSettings) (*Mesh, error
 	// Boundary nodes of every path, and the elements between them.
 	var ends [][2]int32 // per element: node ids before merging
 	for i, p := range paths {
-		length := r2.Norm(r2.Sub(p.P1, p.P0))
+		length := p.Length()
 		fr := nodePositions(stops[i], minLength/length)
 		var prev int32 = -1
 		var prevFrac float64
@@ -166,7 +230,7 @@ func BuildMesh(paths []Path, junctions []Junction, s MeshSettings) (*Mesh, error
 						right = uf.Add()
 					}
 					m.Elements = append(m.Elements, Element{
-						Path: i, P0: lerp(p.P0, p.P1, f0), P1: lerp(p.P0, p.P1, f1),
+						Path: i, P0: p.At(f0), P1: p.At(f1),
 						Length: (f1 - f0) * length, Height: p.Height,
 					})
 					ends = append(ends, [2]int32{left, right})

@@ -78,6 +78,54 @@ func nodePosition(m *Mesh, n int) r2.Vec {
 	return e.P1
 }
 
+// A bent path (an L of legs 60 m east and 40 m north) meshes like a
+// straight one of its length: its vertex is a node, every element lies on
+// one leg, consecutive elements share their ends, a cut lands at its
+// fraction of the length along the legs, and a junction with a path
+// crossing the second leg joins them there.
+func TestBuildMeshBentPath(t *testing.T) {
+	bent := Path{P0: r2.Vec{}, Via: []r2.Vec{{X: 60}}, P1: r2.Vec{X: 60, Y: 40}, Height: 5, Cuts: []float64{0.8}}
+	numtest.Abs(t, "length", bent.Length(), 100, 1e-12)
+	numtest.Abs(t, "At(0.3).X", bent.At(0.3).X, 30, 1e-12)
+	numtest.Abs(t, "At(0.8).Y", bent.At(0.8).Y, 20, 1e-12)
+	// The second path crosses the north leg at (60, 30): 90 % of the bent
+	// path's length, half of its own.
+	across := Path{P0: r2.Vec{X: 50, Y: 30}, P1: r2.Vec{X: 70, Y: 30}, Height: 5}
+	m, err := BuildMesh([]Path{bent, across}, []Junction{{A: 0, B: 1, SA: 0.9, SB: 0.5}}, MeshSettings{ElementLength: 10})
+	if err != nil {
+		t.Fatal(err)
+	}
+	var length float64
+	var own []Element
+	for _, e := range m.Elements {
+		if e.Path == 0 {
+			own = append(own, e)
+			length += e.Length
+		}
+	}
+	if len(own) != 10 {
+		t.Fatalf("%d elements on the bent path, want 10", len(own))
+	}
+	numtest.Abs(t, "total length", length, 100, 1e-9)
+	for k, e := range own {
+		onEast := e.P0.Y == 0 && e.P1.Y == 0
+		onNorth := math.Abs(e.P0.X-60) < 1e-9 && math.Abs(e.P1.X-60) < 1e-9
+		if !onEast && !onNorth {
+			t.Errorf("element %d from %v to %v lies on neither leg", k, e.P0, e.P1)
+		}
+		numtest.Abs(t, "element length", r2.Norm(r2.Sub(e.P1, e.P0)), e.Length, 1e-9)
+		if k > 0 && r2.Norm(r2.Sub(e.P0, own[k-1].P1)) > 1e-9 {
+			t.Errorf("element %d starts at %v, its neighbour ends at %v", k, e.P0, own[k-1].P1)
+		}
+	}
+	if x := nodePosition(m, m.Node(0, 0.8)); r2.Norm(r2.Sub(x, r2.Vec{X: 60, Y: 20})) > 1e-9 {
+		t.Errorf("the cut at 80 %% lands at %v, want (60, 20)", x)
+	}
+	if m.Node(0, 0.9) != m.Node(1, 0.5) {
+		t.Error("the junction on the north leg does not join the paths")
+	}
+}
+
 // Two paths crossing at their midpoints share a node of four elements.
 func TestBuildMeshJunction(t *testing.T) {
 	paths := []Path{
