@@ -130,6 +130,9 @@ func (r *Run) page(warnings []string, growth *sim.GrowthSummary) *report.Page {
 		p.Facts = append(p.Facts,
 			[2]string{"growing fractures", fmt.Sprintf("%d, %s", growth.Fractures, growth.HalfLengths())},
 			[2]string{"meetings with natural fractures", growth.Meetings()})
+		if paths := growth.Paths(); paths != "" {
+			p.Facts = append(p.Facts, [2]string{"fracture paths", paths})
+		}
 		t.Header = append(t.Header, "held in the fractures m³", "held in natural fractures m³")
 	}
 	for _, st := range res.Stages {

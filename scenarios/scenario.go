@@ -351,6 +351,12 @@ type Numerics struct {
 	// InteractionTolerance is the relative accuracy of the compressed
 	// far-field blocks of the interaction operator.
 	InteractionTolerance float64 `toml:"interaction_tolerance" when:"interaction=on" range:"[1e-7,0.1]" default:"1e-6" doc:"relative accuracy of the compressed far-field blocks of the interaction operator"`
+	// PathPasses is the number of runs that set the paths of growing
+	// fractures: the first meshes them straight along the local SHmax at
+	// their clusters, each next one through the directions of SHmax, with
+	// the other fractures' stress shadows, that the tips of the one before
+	// met; only the last writes outputs.
+	PathPasses int `toml:"path_passes" when:"interaction=on" range:"[1,10]" default:"1" doc:"runs that set the paths of growing fractures: 1 keeps them straight along the local SHmax at their clusters; each further run meshes them along the SHmax, with the other fractures' stress shadows, that the tips met in the run before (so the paths turn), and multiplies the run time"`
 }
 
 // Coulomb sets the receiver planes of the Coulomb stress change that a run

@@ -99,7 +99,7 @@ func benchmarkCoupledStep(b *testing.B, overrides ...string) {
 	if err != nil {
 		b.Fatal(err)
 	}
-	m, err := newModel(s, net)
+	m, err := newModel(s, net, nil)
 	if err != nil {
 		b.Fatal(err)
 	}

@@ -113,7 +113,7 @@ func TestDepletionUniaxialStressPath(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	m, err := newModel(s, net)
+	m, err := newModel(s, net, nil)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -147,7 +147,7 @@ func TestConduitsFollowDepletedSHmax(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		m, err := newModel(s, net)
+		m, err := newModel(s, net, nil)
 		if err != nil {
 			t.Fatal(err)
 		}

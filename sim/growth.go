@@ -91,9 +91,10 @@ import (
 // fracture, of length ℓ + L with ℓ its opened length. Each re-initiation
 // is a Crossing with the outcome Reinitiated.
 //
-// Left out (see the README): the path is straight along the local SHmax
-// at the cluster (the stress shadows of neighbours do not curve it), the
-// front moves by whole elements, and a tip advances at most one element
+// The path is straight along the local SHmax at the cluster, or turned
+// by the stress shadows of the other fractures over numerics.path_passes
+// runs (path.go). Left out (see the README): the front moves by whole
+// elements, and a tip advances at most one element
 // per step (the pressure-change control of the time step shortens the
 // steps while fluid enters new elements).
 
@@ -158,7 +159,7 @@ func (m *model) branches(seen map[branchKey]bool, c int, x dfn.PathCrossing, hig
 		return nil
 	}
 	length := cd.Length
-	along := r2.Unit(r2.Sub(cd.P1, cd.P0))
+	along := cd.directionAt(x.Distance)
 	// A cluster's conduit grows both ways from its middle, a branch from P0.
 	travel, left := along, length-x.Distance
 	if !cd.IsBranch() && x.Distance < length/2 {
@@ -421,6 +422,9 @@ func (ms *mechState) grow(t float64, k int, p []float64, crossings []Crossing) (
 				continue
 			}
 			ms.open(j)
+			if ms.paths != nil && !m.conduits[c].IsBranch() {
+				ms.paths.record(ms, c, i, j)
+			}
 			if dir > 0 {
 				tp.hi = next
 			} else {

@@ -87,6 +87,9 @@ type mechState struct {
 	elementNodes [][2]int
 	growingEl    []bool
 	cubeMean     []bool
+	// paths records the headings the tips meet when the paths may turn
+	// (path.go; nil otherwise).
+	paths *pathRecorder
 }
 
 // contactNearRadius is the reach, in element lengths or layer

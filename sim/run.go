@@ -157,30 +157,74 @@ type Result struct {
 	// Depletion is the state production left before the stimulation; nil
 	// for none and in a replayed result (Deplete computes it again).
 	Depletion *Depletion
+	// PathPasses sums up the turns of every run that set the fractures'
+	// paths (numerics.path_passes; path.go), the last one's last; nil for
+	// straight paths and in a replayed result.
+	PathPasses []PathPass
 }
 
 // Run simulates the scenario's schedule on the network. On failure it
 // returns the result so far together with the error; a scenario that
-// cannot be simulated as given matches badinput.Err.
+// cannot be simulated as given matches badinput.Err. With
+// numerics.path_passes > 1 and growing fractures it runs the schedule that
+// many times, each meshing the fractures' paths through the headings the
+// one before met (path.go); only the last calls opt.Begin and opt.Frame,
+// and opt.Progress sees the passes as one run.
 func Run(ctx context.Context, s *scenarios.Scenario, net *dfn.Network, opt Options) (*Result, error) {
-	m, err := newModel(s, net)
-	if err != nil {
-		return nil, err
-	}
-	if err := m.checkMemory(opt.MemoryLimit); err != nil {
-		return nil, err
-	}
-	r, err := newRunner(m, opt)
-	if err != nil {
-		return nil, err
-	}
-	if opt.Begin != nil {
-		if err := opt.Begin(m.elements); err != nil {
+	var plan pathPlan
+	var passes []PathPass
+	for pass := 1; ; pass++ {
+		m, err := newModel(s, net, plan)
+		if err != nil {
 			return nil, err
 		}
+		if err := m.checkMemory(opt.MemoryLimit); err != nil {
+			return nil, err
+		}
+		total := pathPasses(m)
+		last := pass >= total
+		o := opt
+		if !last {
+			o = Options{MemoryLimit: opt.MemoryLimit}
+		}
+		if progress := opt.Progress; progress != nil && total > 1 {
+			done := float64(pass - 1)
+			o.Progress = func(t, end float64) { progress(done*end+t, float64(total)*end) }
+		}
+		r, err := newRunner(m, o)
+		if err != nil {
+			return nil, err
+		}
+		if total > 1 {
+			clusters := 0
+			for _, cd := range m.conduits {
+				if !cd.IsBranch() {
+					clusters++
+				}
+			}
+			if r.ms.paths, err = newPathRecorder(m, clusters); err != nil {
+				return nil, err
+			}
+		}
+		if last && opt.Begin != nil {
+			if err := opt.Begin(m.elements); err != nil {
+				return nil, err
+			}
+		}
+		err = r.run(ctx)
+		if total > 1 {
+			passes = append(passes, r.ms.paths.result())
+		}
+		if last {
+			res := r.result()
+			res.PathPasses = passes
+			return res, err
+		}
+		if err != nil {
+			return nil, fmt.Errorf("path pass %d of %d: %w", pass, total, err)
+		}
+		plan = r.ms.paths.plan
 	}
-	err = r.run(ctx)
-	return r.result(), err
 }
 
 // runner holds the evolving state of a run.

@@ -31,6 +31,9 @@ type Conduit struct {
 	// Source is, for a branch, the index in Network.Traces of the natural
 	// fracture at whose end (P0) it starts; −1 for a cluster's conduit.
 	Source int
+	// Via are the interior vertices of a cluster's conduit that turns
+	// (path.go): it runs P0, Via…, P1; nil for a straight one.
+	Via []r2.Vec
 }
 
 // IsBranch reports whether the conduit is a re-initiation branch.
@@ -96,7 +99,7 @@ type model struct {
 
 // newModel builds the mesh (traces, conduits, junctions, well cuts), the
 // stage wells and the stresses on every element.
-func newModel(s *scenarios.Scenario, net *dfn.Network) (*model, error) {
+func newModel(s *scenarios.Scenario, net *dfn.Network, plan pathPlan) (*model, error) {
 	stress, err := mechanics.StressFromScenario(s.Stress, s.Layer.Depth)
 	if err != nil {
 		return nil, badinput.Mark(err)
@@ -119,7 +122,7 @@ func newModel(s *scenarios.Scenario, net *dfn.Network) (*model, error) {
 	if m.depletion, err = Deplete(s); err != nil {
 		return nil, err
 	}
-	paths, junctions := m.paths()
+	paths, junctions := m.paths(plan)
 	if n := estimateElements(paths, s.Numerics.ElementLength); n > MaxElements {
 		return nil, badinput.Errorf("numerics.element_length = %g m would split the %d traces and conduits into about %.3g elements; at most %d are allowed: use longer elements or a smaller map",
 			s.Numerics.ElementLength, len(paths), n, MaxElements)
@@ -186,9 +189,10 @@ func (m *model) shmaxAzimuth(p r2.Vec) float64 {
 }
 
 // paths lists the natural traces, then one conduit per cluster when the
-// well has conduits, striking along the local SHmax, then the branches of
-// growing conduits (growth.go: branches), and their junctions.
-func (m *model) paths() ([]flow.Path, []flow.Junction) {
+// well has conduits, striking along the local SHmax or through the
+// headings of plan (path.go; nil for straight conduits), then the branches
+// of growing conduits (growth.go: branches), and their junctions.
+func (m *model) paths(plan pathPlan) ([]flow.Path, []flow.Junction) {
 	net := m.net
 	nt := len(net.Traces)
 	paths := make([]flow.Path, 0, nt)
@@ -212,11 +216,16 @@ func (m *model) paths() ([]flow.Path, []flow.Junction) {
 			centre := PointAlong(net.Wells[st.Well].Path, at)
 			strike := orient.Line(m.shmaxAzimuth(centre), 0)
 			dir := r2.Vec{X: strike.X, Y: strike.Y}
-			cd := Conduit{Stage: k, Cluster: c, Aperture: w.ConduitAperture, Height: h, Length: 2 * w.ConduitHalfLength, Source: -1,
-				P0: r2.Sub(centre, r2.Scale(w.ConduitHalfLength, dir)),
-				P1: r2.Add(centre, r2.Scale(w.ConduitHalfLength, dir))}
+			cd := Conduit{Stage: k, Cluster: c, Aperture: w.ConduitAperture, Height: h, Length: 2 * w.ConduitHalfLength, Source: -1}
+			var headings [2][]heading
+			if len(m.conduits) < len(plan) {
+				headings = plan[len(m.conduits)]
+			}
+			cd.P0, cd.P1, cd.Via = m.clusterConduitPath(centre, dir, w.ConduitHalfLength, headings)
 			m.conduits = append(m.conduits, cd)
-			paths = append(paths, flow.Path{P0: cd.P0, P1: cd.P1, Height: h, Cuts: []float64{0.5}})
+			path := conduitPath(cd)
+			path.Cuts = []float64{0.5}
+			paths = append(paths, path)
 		}
 	}
 	if len(m.conduits) == 0 {
@@ -232,7 +241,7 @@ func (m *model) paths() ([]flow.Path, []flow.Junction) {
 	for c := 0; c < len(m.conduits); c++ {
 		cd := m.conduits[c]
 		length := cd.Length
-		for _, x := range ix.CrossPolyline([]r2.Vec{cd.P0, cd.P1}) {
+		for _, x := range ix.CrossPolyline(cd.points()) {
 			if x.Segment == cd.Source {
 				continue // where a branch starts
 			}
@@ -241,7 +250,7 @@ func (m *model) paths() ([]flow.Path, []flow.Junction) {
 				SA: x.Distance / length, SB: r2.Norm(r2.Sub(x.Point, t.P0)) / t.Length})
 			for _, br := range m.branches(seen, c, x, highest) {
 				m.conduits = append(m.conduits, br)
-				paths = append(paths, flow.Path{P0: br.P0, P1: br.P1, Height: br.Height})
+				paths = append(paths, conduitPath(br))
 				end := 0.0
 				if br.P0 != t.P0 {
 					end = 1
@@ -358,7 +367,7 @@ func (m *model) elementStresses(stress mechanics.Stress) error {
 			c := m.conduits[el.Path-nt]
 			m.conduitEl[i] = true
 			m.sigmaN[i], m.tau0[i] = horizontalNormal, strikeShear
-			m.openPatch[i] = mechanics.Patch{Length: r2.Norm(r2.Sub(c.P1, c.P0)), Height: c.Height}
+			m.openPatch[i] = mechanics.Patch{Length: conduitPath(c).Length(), Height: c.Height}
 		}
 		m.elements[i] = e
 	}

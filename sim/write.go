@@ -274,6 +274,28 @@ type GrowthSummary struct {
 	Crossings map[string]int `json:"crossings"`
 	// BranchLength is the opened length of the re-initiated branches, m.
 	BranchLength float64 `json:"reinitiated_length_m"`
+	// PathPasses are the turns of every run that set the paths
+	// (Result.PathPasses), the last one's last; absent for straight paths.
+	PathPasses []PathPassJSON `json:"path_passes,omitempty"`
+}
+
+// PathPassJSON is a PathPass in summary.json: degrees and metres.
+type PathPassJSON struct {
+	Advances  int     `json:"advances"`
+	MaxTurn   float64 `json:"max_turn_deg"`
+	RMSTurn   float64 `json:"rms_turn_deg"`
+	MaxOffset float64 `json:"max_offset_m"`
+}
+
+// Paths says how far the paths turned and how well the last pass agrees
+// with the directions its tips met, for people; "" for straight paths.
+func (g *GrowthSummary) Paths() string {
+	if len(g.PathPasses) == 0 {
+		return ""
+	}
+	last := g.PathPasses[len(g.PathPasses)-1]
+	return fmt.Sprintf("turned up to %.1f m off the local SHmax through their clusters; in the last of %d passes the tips met directions %.2g° rms and %.2g° at most from the paths",
+		last.MaxOffset, len(g.PathPasses), last.RMSTurn, last.MaxTurn)
 }
 
 // HalfLengths says how long the growing fractures became, for people.
@@ -316,6 +338,10 @@ func summarizeGrowth(s *scenarios.Scenario, res *Result) *GrowthSummary {
 	}
 	if out.Fractures > 0 {
 		out.MeanHalfLength = sum / float64(out.Fractures)
+	}
+	for _, p := range res.PathPasses {
+		out.PathPasses = append(out.PathPasses, PathPassJSON{Advances: p.Advances,
+			MaxTurn: p.MaxTurn * 180 / math.Pi, RMSTurn: p.RMSTurn * 180 / math.Pi, MaxOffset: p.MaxOffset})
 	}
 	for _, c := range res.Crossings {
 		out.Crossings[c.Outcome]++
@@ -510,6 +536,9 @@ func WriteStageTable(w io.Writer, s *scenarios.Scenario, res *Result) error {
 	if g := summarizeGrowth(s, res); g != nil && len(res.Stages) > 0 {
 		last := res.Stages[len(res.Stages)-1]
 		fmt.Fprintf(&b, "growth: %s, %s; meetings with natural fractures: %s\n", plural.S(g.Fractures, "fracture"), g.HalfLengths(), g.Meetings())
+		if paths := g.Paths(); paths != "" {
+			fmt.Fprintf(&b, "growth: paths %s\n", paths)
+		}
 		fmt.Fprintf(&b, "fluid at the end of pumping: %.4g m3 in the conduits, %.3g m3 in the natural fractures; %.4g m3 leaked off in the whole run\n",
 			last.HeldConduits, last.HeldNatural, res.Leaked)
 	}

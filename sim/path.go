@@ -1,0 +1,239 @@
+package sim
+
+import (
+	"math"
+
+	"gonum.org/v1/gonum/spatial/r2"
+
+	"slipfront/elastic"
+	"slipfront/flow"
+	"slipfront/internal/orient"
+	"slipfront/mechanics"
+)
+
+// Curved paths. A growing fracture turns where the stress shadows of the
+// other fractures turn the horizontal stress: each new element of its path
+// should strike along the local SHmax of the stress at that element, the
+// in-situ stress plus the change that the slip and opening of every other
+// fracture cause there, at the time the tip reaches it. That is the
+// principle of local symmetry (Goldstein & Salganik 1974, Int. J. Fract.
+// 10(4), 507–523; from memory): a crack grows where its tip is loaded in
+// pure mode I, K_II = 0. The maximum circumferential stress criterion
+// (Erdogan & Sih 1963, J. Basic Eng. 85, 519–527: K_I sin θ +
+// K_II(3 cos θ − 1) = 0) kinks the tip by θ ≈ −2K_II/K_I, which removes
+// K_II after each short increment, so it draws the same path in the limit
+// of short elements (from memory). The fracture's own opening is left out
+// of that stress: ahead of its tip it is the mode-I field, which turns
+// nothing.
+//
+// The elements are meshed before the run, so the path cannot bend while
+// the run goes on. Instead a run with numerics.path_passes = n > 1 is n
+// runs on one network: the first meshes every conduit straight along the
+// local SHmax at its cluster (before injection); each run records, at
+// every element a tip opens, the direction of the local SHmax there
+// (a heading), and the next run meshes each cluster's conduit through the
+// headings its tips recorded (continuing straight in the last one beyond
+// the farthest). Only the last run writes outputs. Each run reports its
+// turns, the angles between the elements its tips opened and the headings
+// met there (Result.PathPasses): as the passes converge the turns of the
+// last pass tend to zero, and the README's convergence table shows the
+// headline numbers over the passes. Branches (growth.go) stay straight.
+
+// heading is the direction a tip travelling outward from its cluster met
+// where it opened an element: the local SHmax there as a unit map vector
+// pointing the way the tip travels, and the distance of the element's
+// centre from the cluster along the path, m.
+type heading struct {
+	s   float64
+	dir r2.Vec
+}
+
+// pathPlan is, for each cluster's conduit (the first conduits, in their
+// order; branches are not planned), the headings its tips met on each
+// side: side 0 travels towards P0, side 1 towards P1, by increasing s.
+type pathPlan [][2][]heading
+
+// PathPass sums up the turns of one run of the path passes: the angles
+// between the elements the tips opened and the headings met there.
+type PathPass struct {
+	// Advances counts the elements opened by a tip of a cluster's conduit.
+	Advances int
+	// MaxTurn and RMSTurn are the largest and the root-mean-square turn,
+	// radians (0 when nothing advanced).
+	MaxTurn, RMSTurn float64
+	// MaxOffset is the largest distance of an element a tip opened from
+	// the straight line along the local SHmax through its cluster, m: how
+	// far the pass's paths turned.
+	MaxOffset float64
+}
+
+// pathPasses is the number of runs that set the paths: numerics.path_passes
+// when some fracture grows and the fractures interact, otherwise 1 (no
+// shadow turns a path).
+func pathPasses(m *model) int {
+	if m.s.Numerics.Interaction == "off" || !m.anyGrowth() {
+		return 1
+	}
+	return max(1, m.s.Numerics.PathPasses)
+}
+
+// clusterConduitPath returns the path of a cluster's conduit centred at
+// centre with half-length half and straight direction dir (unit, towards
+// P1): straight, or through the headings of plan, each leg one element
+// long (half/⌈half/element_length⌉) and striking along the heading of the
+// farthest element whose centre lies before the leg's end (the straight
+// direction before the first).
+func (m *model) clusterConduitPath(centre, dir r2.Vec, half float64, plan [2][]heading) (p0, p1 r2.Vec, via []r2.Vec) {
+	if len(plan[0]) == 0 && len(plan[1]) == 0 {
+		return r2.Sub(centre, r2.Scale(half, dir)), r2.Add(centre, r2.Scale(half, dir)), nil
+	}
+	n := max(1, int(math.Ceil(half/m.s.Numerics.ElementLength-1e-9)))
+	leg := half / float64(n)
+	var sides [2][]r2.Vec
+	for side, out := range [2]r2.Vec{r2.Scale(-1, dir), dir} {
+		pts := make([]r2.Vec, 0, n)
+		at, h := centre, 0
+		for k := range n {
+			mid := (float64(k) + 0.5) * leg
+			for h < len(plan[side]) && plan[side][h].s <= mid+leg/2 {
+				h++
+			}
+			d := out
+			if h > 0 {
+				d = plan[side][h-1].dir
+			}
+			at = r2.Add(at, r2.Scale(leg, d))
+			pts = append(pts, at)
+		}
+		sides[side] = pts
+	}
+	// P0 is the far end of side 0; the polyline runs back to the centre
+	// and out along side 1.
+	for k := n - 2; k >= 0; k-- {
+		via = append(via, sides[0][k])
+	}
+	via = append(via, centre)
+	via = append(via, sides[1][:n-1]...)
+	return sides[0][n-1], sides[1][n-1], via
+}
+
+// pathRecorder records the headings of a run (see the top of this file).
+type pathRecorder struct {
+	probe *elastic.Probe
+	plan  pathPlan
+	// slip and opening are the work copies of the state the probe reads.
+	slip, opening []float64
+	// arcMid is each element's centre as a distance along its group, m.
+	arcMid []float64
+	pass   PathPass
+	sum2   float64
+}
+
+// newPathRecorder returns the recorder of a run whose model meshes
+// clusters conduits (first in m.conduits) that may turn.
+func newPathRecorder(m *model, clusters int) (*pathRecorder, error) {
+	mat := elastic.Material{ShearModulus: m.s.Rock.ShearModulus, PoissonRatio: m.s.Rock.PoissonRatio}
+	probe, err := elastic.NewProbe(elasticElements(m.elements), mat, elastic.Settings{PlaneStrain: m.s.Numerics.HeightCorrection == "off"})
+	if err != nil {
+		return nil, err
+	}
+	n := len(m.elements)
+	return &pathRecorder{probe: probe, plan: make(pathPlan, clusters),
+		slip: make([]float64, n), opening: make([]float64, n)}, nil
+}
+
+// record notes the heading met at element j, opened by the tip of
+// cluster conduit c travelling from element i, under the committed state
+// of ms.
+func (pr *pathRecorder) record(ms *mechState, c, i, j int) {
+	m := ms.m
+	group := ms.groups[len(m.net.Traces)+c]
+	if pr.arcMid == nil {
+		pr.arcMid = make([]float64, len(m.elements))
+		for _, g := range ms.groups {
+			var s float64
+			for _, e := range g {
+				pr.arcMid[e] = s + m.elements[e].Length/2
+				s += m.elements[e].Length
+			}
+		}
+	}
+	copy(pr.slip, ms.state.Slip)
+	copy(pr.opening, ms.opening)
+	for _, e := range group {
+		pr.slip[e], pr.opening[e] = 0, 0 // the fracture's own field turns nothing
+	}
+	el := m.elements[j]
+	at := r2.Scale(0.5, r2.Add(el.P0, el.P1))
+	ds := pr.probe.StressAt(at, pr.slip, pr.opening)
+	if math.IsNaN(ds.XX+ds.YY+ds.XY) || math.IsInf(ds.XX+ds.YY+ds.XY, 0) {
+		return // a point on another element's tip: no heading there
+	}
+	az := m.stressAt(at).Horizontal().Changed(mechanics.StressChange{XX: ds.XX, YY: ds.YY, XY: ds.XY}).Azimuth
+	local := orient.Line(az, 0)
+	dir := r2.Vec{X: local.X, Y: local.Y}
+	from := m.elements[i]
+	travel := r2.Sub(at, r2.Scale(0.5, r2.Add(from.P0, from.P1)))
+	if r2.Dot(dir, travel) < 0 {
+		dir = r2.Scale(-1, dir)
+	}
+	side := 0
+	if r2.Dot(travel, r2.Sub(el.P1, el.P0)) > 0 {
+		side = 1 // travelling as the path runs, towards P1
+	}
+	s := math.Abs(pr.arcMid[j] - ms.groupLength[len(m.net.Traces)+c]/2)
+	pr.plan[c][side] = append(pr.plan[c][side], heading{s: s, dir: dir})
+	turn := mapAngle(dir, r2.Sub(el.P1, el.P0))
+	centre := m.conduits[c].centre()
+	strike := orient.Line(m.shmaxAzimuth(centre), 0)
+	off := r2.Sub(at, centre)
+	pr.pass.MaxOffset = math.Max(pr.pass.MaxOffset, math.Abs(off.X*strike.Y-off.Y*strike.X))
+	pr.pass.Advances++
+	pr.pass.MaxTurn = math.Max(pr.pass.MaxTurn, turn)
+	pr.sum2 += turn * turn
+}
+
+// result returns the pass's summary.
+func (pr *pathRecorder) result() PathPass {
+	p := pr.pass
+	if p.Advances > 0 {
+		p.RMSTurn = math.Sqrt(pr.sum2 / float64(p.Advances))
+	}
+	return p
+}
+
+// conduitPath returns the flow path of conduit cd.
+func conduitPath(cd Conduit) flow.Path {
+	return flow.Path{P0: cd.P0, P1: cd.P1, Via: cd.Via, Height: cd.Height}
+}
+
+// points returns the polyline of conduit cd: P0, Via…, P1.
+func (cd Conduit) points() []r2.Vec {
+	out := make([]r2.Vec, 0, len(cd.Via)+2)
+	out = append(out, cd.P0)
+	out = append(out, cd.Via...)
+	return append(out, cd.P1)
+}
+
+// centre returns the cluster of a cluster's conduit cd: the middle of its
+// path.
+func (cd Conduit) centre() r2.Vec {
+	if len(cd.Via) == 0 {
+		return r2.Scale(0.5, r2.Add(cd.P0, cd.P1))
+	}
+	return cd.Via[len(cd.Via)/2]
+}
+
+// directionAt returns the unit direction, towards P1, of the leg of
+// conduit cd at distance d along it from P0.
+func (cd Conduit) directionAt(d float64) r2.Vec {
+	pts := cd.points()
+	for k := 1; k < len(pts); k++ {
+		leg := r2.Norm(r2.Sub(pts[k], pts[k-1]))
+		if d <= leg || k == len(pts)-1 {
+			return r2.Unit(r2.Sub(pts[k], pts[k-1]))
+		}
+		d -= leg
+	}
+	return r2.Unit(r2.Sub(cd.P1, cd.P0))
+}

@@ -1,0 +1,77 @@
+package sim
+
+import (
+	"math"
+	"testing"
+
+	"slipfront/internal/numtest"
+)
+
+// Two fractures growing at once from clusters 20 m apart curve away from
+// each other, the more the smaller the horizontal stress difference, as
+// published for simultaneously growing parallel hydraulic fractures
+// (Olson 2008, ARMA 08-327; Wu & Olson 2015, SPE J. 20(2), 337–346: the
+// outer fractures of a stage turn outward, less so as SHmax − Shmin grows;
+// both from memory, compared by sign and trend only). Alone, a fracture
+// grows straight along SHmax. The passes converge: each one's turns are
+// smaller than the one before's, and the last is within 1°.
+func TestGrowthPathsTurnAway(t *testing.T) {
+	run := func(clusters, shmax string) *Result {
+		t.Helper()
+		s := knownFractures(t, "far,-190,-190,2600,90,0,10,200\n", "numerics.interaction=on", "numerics.path_passes=3",
+			"wells[0].stages[0].clusters="+clusters, "stress.shmax_gradient="+shmax+" kPa/m", "rock.fracture_toughness=3 MPa.m^0.5")
+		_, res := runScenario(t, s)
+		if len(res.PathPasses) != 3 {
+			t.Fatalf("%d path passes reported, want 3", len(res.PathPasses))
+		}
+		for k, p := range res.PathPasses {
+			if p.Advances == 0 {
+				t.Fatalf("pass %d: no tip advanced", k+1)
+			}
+			if prev := res.PathPasses[max(k-1, 0)].RMSTurn; k > 0 && prev > 0 && !(p.RMSTurn < prev) {
+				t.Errorf("pass %d: rms turn %.3g rad, not below the pass before's %.3g", k+1, p.RMSTurn, prev)
+			}
+		}
+		if last := res.PathPasses[2]; !(last.MaxTurn < math.Pi/180) {
+			t.Errorf("last pass: largest turn %.3g°, want < 1°", last.MaxTurn*180/math.Pi)
+		}
+		if res.MassBalanceError > 1e-8 {
+			t.Errorf("mass-balance error %.3g", res.MassBalanceError)
+		}
+		return res
+	}
+	alone := run(`["150 m"]`, "18.54")
+	for _, p := range alone.PathPasses {
+		if p.MaxTurn > 1e-12 {
+			t.Errorf("alone: turned by %.3g rad", p.MaxTurn)
+		}
+	}
+	for _, e := range alone.Elements {
+		if e.Set == ConduitSet && (e.P0.X != 0 || e.P1.X != 0) {
+			t.Fatalf("alone: an element from %v to %v is off the line x = 0", e.P0, e.P1)
+		}
+	}
+	// Clusters at x = −10 and +10 m; SHmax is north. The outward offset of
+	// the ends of each conduit's path (which continues each fracture's
+	// last heading) from its cluster, m.
+	var offsets []float64
+	for _, shmax := range []string{"18.54", "18.7", "19.5"} { // SHmax − Shmin = 0.10, 0.52, 2.6 MPa
+		res := run(`["140 m", "160 m"]`, shmax)
+		var out [2]float64
+		for c, cd := range res.Conduits {
+			sense := []float64{-1, 1}[c]
+			for _, end := range [2]float64{cd.P0.X, cd.P1.X} {
+				out[c] += sense * (end - sense*10) / 2
+			}
+		}
+		t.Logf("SHmax gradient %s kPa/m: ends %.3f m and %.3f m outward; passes %+v", shmax, out[0], out[1], res.PathPasses)
+		numtest.Abs(t, "mirror symmetry, m", out[0], out[1], 1e-3)
+		if !(out[0] > 0) {
+			t.Errorf("SHmax gradient %s kPa/m: the fractures turn %.3f m towards each other", shmax, out[0])
+		}
+		offsets = append(offsets, out[0])
+	}
+	if !(offsets[0] > offsets[1] && offsets[1] > offsets[2]) {
+		t.Errorf("outward offsets %v m do not fall as the stress difference grows", offsets)
+	}
+}
