@@ -10,7 +10,10 @@
 // Run is a visible sequence: set up the mesh, the elastic operator and the
 // contact problem, then for every stage in pumping order repeat [flow step
 // → contact solve → accept or cut the step → commit and record] until the
-// stage's volume or duration is pumped and its shut-in is over.
+// stage's volume or duration is pumped and its shut-in is over. With
+// growing fractures and numerics.path_passes > 1 that sequence runs once
+// per pass, each pass meshing the fractures' paths through the directions
+// of SHmax its predecessor's tips met (path.go); only the last one records.
 //
 // # Coupling
 //

@@ -23,7 +23,7 @@ func newDemoCmd(g *globalOptions, stdout, stderr io.Writer) *cobra.Command {
 		Short: "Run the embedded demo scenario end to end",
 		Long: "demo runs scenarios/examples/demo.toml (an invented well pumping two field-size stages whose\n" +
 			"fractures grow from their clusters) and writes every output of a run into --out (default\n" +
-			"slipfront-demo); it takes about a minute. Show the scenario with: slipfront scenario show demo\n\n" + caution,
+			"slipfront-demo); it takes about a minute and a half. Show the scenario with: slipfront scenario show demo\n\n" + caution,
 		Example: "  slipfront demo\n  slipfront demo --out /tmp/demo --force",
 		Args:    cobra.NoArgs,
 		RunE: func(cmd *cobra.Command, _ []string) error {
