@@ -479,13 +479,20 @@ func TestGrowthReinitiatesAfterArrest(t *testing.T) {
 // length, height) and the overrides.
 func knownFractures(t *testing.T, rows string, overrides ...string) *scenarios.Scenario {
 	t.Helper()
+	return editedCase(t, rows, func(s string) string { return s }, overrides...)
+}
+
+// editedCase is knownFractures with the scenario's text passed through
+// edit first.
+func editedCase(t *testing.T, rows string, edit func(string) string, overrides ...string) *scenarios.Scenario {
+	t.Helper()
 	dir := t.TempDir()
 	src, err := os.ReadFile(filepath.Join("..", "testdata", "kgd-toughness", "scenario.toml"))
 	if err != nil {
 		t.Fatal(err)
 	}
 	csv := "name,center_x_m,center_y_m,center_depth_m,dip_deg,dip_direction_deg,length_m,height_m\n" + rows
-	for name, body := range map[string]string{"fractures.csv": csv, "scenario.toml": string(src)} {
+	for name, body := range map[string]string{"fractures.csv": csv, "scenario.toml": edit(string(src))} {
 		if err := os.WriteFile(filepath.Join(dir, name), []byte(body), 0o644); err != nil {
 			t.Fatal(err)
 		}

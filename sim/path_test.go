@@ -2,6 +2,7 @@ package sim
 
 import (
 	"math"
+	"strings"
 	"testing"
 
 	"slipfront/internal/numtest"
@@ -73,5 +74,49 @@ func TestGrowthPathsTurnAway(t *testing.T) {
 	}
 	if !(offsets[0] > offsets[1] && offsets[1] > offsets[2]) {
 		t.Errorf("outward offsets %v m do not fall as the stress difference grows", offsets)
+	}
+}
+
+// A fracture growing past a pressurised neighbour curves away from it
+// (the interacting fractures of the studies above, grown one after the
+// other, as a zipper partner's or a later stage's are): stage 1 grows a
+// fracture at x = −10 m and stays pressurised (no shut-in), then stage 2
+// grows one at x = +10 m, which turns east, away from it; the first, grown
+// alone, stays straight.
+func TestGrowthPathTurnsFromPressurisedNeighbour(t *testing.T) {
+	twoStages := func(src string) string {
+		old := "  [[wells.stages]]\n  name = \"1\"\n  clusters = [\"150 m\"]\n"
+		if !strings.Contains(src, old) {
+			t.Fatal("test bug: kgd-toughness's stage has changed")
+		}
+		return strings.Replace(src, old, old[:len(old)-len("[\"150 m\"]\n")]+"[\"140 m\"]\n  [[wells.stages]]\n  name = \"2\"\n  clusters = [\"160 m\"]\n", 1)
+	}
+	s := editedCase(t, "far,-190,-190,2600,90,0,10,200\n", twoStages, "numerics.interaction=on", "numerics.path_passes=3",
+		"stress.shmax_gradient=18.7 kPa/m", "rock.fracture_toughness=3 MPa.m^0.5", "schedule.duration=30 s")
+	_, res := runScenario(t, s)
+	if len(res.Stages) != 2 || len(res.Conduits) != 2 {
+		t.Fatalf("%d stages and %d conduits, want 2 and 2", len(res.Stages), len(res.Conduits))
+	}
+	// The outward (away from the other) offset of each conduit's ends from
+	// its cluster, m.
+	var out [2]float64
+	for c, cd := range res.Conduits {
+		sense := []float64{-1, 1}[c]
+		for _, end := range [2]float64{cd.P0.X, cd.P1.X} {
+			out[c] += sense * (end - sense*10) / 2
+		}
+	}
+	t.Logf("outward offsets: first %.3g m, second %.3g m; passes %+v", out[0], out[1], res.PathPasses)
+	if !(out[1] > 1) {
+		t.Errorf("the second fracture ends %.3g m away from the first, want > 1 m", out[1])
+	}
+	if !(math.Abs(out[0]) < 0.05*out[1]) {
+		t.Errorf("the first fracture, grown alone, ends %.3g m off its line (the second %.3g m)", out[0], out[1])
+	}
+	if last := res.PathPasses[len(res.PathPasses)-1]; !(last.MaxTurn < math.Pi/180) {
+		t.Errorf("last pass: largest turn %.3g°, want < 1°", last.MaxTurn*180/math.Pi)
+	}
+	if res.MassBalanceError > 1e-8 {
+		t.Errorf("mass-balance error %.3g", res.MassBalanceError)
 	}
 }
