@@ -71,8 +71,9 @@ import (
 // schedule allows; the fluid's pressure is highest at the well), a branch
 // starts at each end of the natural fracture that does not lie behind the
 // meeting as seen from the travelling tip. It strikes along the local
-// SHmax, onward from the side of the well the tip came from, and is as
-// long as the path left beyond the meeting. Branches meet natural
+// SHmax (or turns by the stress shadows, path.go), onward from the side of
+// the well the tip came from, and is as long as the path left beyond the
+// meeting. Branches meet natural
 // fractures as the conduits do, and may branch in turn.
 //
 // A branch stays intact rock, cut off from its natural fracture (their
@@ -152,8 +153,9 @@ type branchKey struct{ trace, end, sense int }
 // file), recording them in seen so that each is meshed once: none unless
 // c grows with reinitiation on, has at least one element length of path
 // left beyond x, would not cross the natural fracture there and could
-// open it at a pressure up to highest, Pa (model.highestPressure).
-func (m *model) branches(seen map[branchKey]bool, c int, x dfn.PathCrossing, highest float64) []Conduit {
+// open it at a pressure up to highest, Pa (model.highestPressure); each
+// runs through its headings in plan (path.go; nil for straight).
+func (m *model) branches(seen map[branchKey]bool, c int, x dfn.PathCrossing, highest float64, plan *pathPlan) []Conduit {
 	cd := m.conduits[c]
 	if !m.growing(cd) || m.s.Wells[m.order[cd.Stage].Well].Reinitiation != "on" {
 		return nil
@@ -188,8 +190,14 @@ func (m *model) branches(seen map[branchKey]bool, c int, x dfn.PathCrossing, hig
 			continue
 		}
 		seen[key] = true
-		out = append(out, Conduit{Stage: cd.Stage, Cluster: cd.Cluster, Aperture: cd.Aperture, Height: cd.Height,
-			Length: left, Source: x.Segment, P0: p, P1: r2.Add(p, r2.Scale(left, dir))})
+		br := Conduit{Stage: cd.Stage, Cluster: cd.Cluster, Aperture: cd.Aperture, Height: cd.Height,
+			Length: left, Source: x.Segment, P0: p, key: key}
+		var headings []heading
+		if plan != nil {
+			headings = plan.branches[key]
+		}
+		br.P1, br.Via = m.branchPath(p, dir, left, headings)
+		out = append(out, br)
 	}
 	return out
 }
@@ -422,7 +430,7 @@ func (ms *mechState) grow(t float64, k int, p []float64, crossings []Crossing) (
 				continue
 			}
 			ms.open(j)
-			if ms.paths != nil && !m.conduits[c].IsBranch() {
+			if ms.paths != nil {
 				ms.paths.record(ms, c, i, j)
 			}
 			if dir > 0 {
@@ -491,7 +499,7 @@ func (ms *mechState) meet(t float64, k, c, i, j int, fluid float64, crossings []
 // (the flow system reads ms.cubeMean as it assembles).
 func (ms *mechState) arm(tr int, travel r2.Vec) {
 	for b, cd := range ms.m.conduits {
-		if tp := &ms.tips[b]; cd.Source == tr && tp.dormant && !tp.armed && r2.Dot(r2.Sub(cd.P1, cd.P0), travel) > 0 {
+		if tp := &ms.tips[b]; cd.Source == tr && tp.dormant && !tp.armed && r2.Dot(cd.directionAt(0), travel) > 0 {
 			tp.armed = true
 			ms.cubeMean[tp.source] = true
 		}
@@ -519,7 +527,7 @@ func (ms *mechState) reinitiate(t float64, k, c int) Crossing {
 	ms.resizeConduit(c)
 	cd := m.conduits[c]
 	tr := m.net.Traces[cd.Source]
-	angle := mapAngle(r2.Sub(cd.P1, cd.P0), r2.Sub(tr.P1, tr.P0))
+	angle := mapAngle(cd.directionAt(0), r2.Sub(tr.P1, tr.P0))
 	return Crossing{Time: t, Stage: k, Conduit: c, Trace: cd.Source, Fracture: tr.Fracture,
 		X: cd.P0.X, Y: cd.P0.Y, Angle: angle, Outcome: Reinitiated}
 }

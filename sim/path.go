@@ -33,11 +33,12 @@ import (
 // every element a tip opens, the direction of the local SHmax there
 // (a heading), and the next run meshes each cluster's conduit through the
 // headings its tips recorded (continuing straight in the last one beyond
-// the farthest). Only the last run writes outputs. Each run reports its
-// turns, the angles between the elements its tips opened and the headings
-// met there (Result.PathPasses): as the passes converge the turns of the
-// last pass tend to zero, and the README's convergence table shows the
-// headline numbers over the passes. Branches (growth.go) stay straight.
+// the farthest), and each branch (growth.go), known by its natural
+// fracture, end and sense, through those its tip recorded. Only the last
+// run writes outputs. Each run reports its turns, the angles between the
+// elements its tips opened and the headings met there (Result.PathPasses):
+// as the passes converge the turns of the last pass tend to zero, and the
+// README's convergence table shows the headline numbers over the passes.
 
 // heading is the direction a tip travelling outward from its cluster met
 // where it opened an element: the local SHmax there as a unit map vector
@@ -48,22 +49,26 @@ type heading struct {
 	dir r2.Vec
 }
 
-// pathPlan is, for each cluster's conduit (the first conduits, in their
-// order; branches are not planned), the headings its tips met on each
-// side: side 0 travels towards P0, side 1 towards P1, by increasing s.
-type pathPlan [][2][]heading
+// pathPlan holds the headings the tips of one run met, by increasing s:
+// for each cluster's conduit (the first conduits, in their order) on each
+// side (side 0 travels towards P0, side 1 towards P1, from the cluster),
+// and for each branch, from its start.
+type pathPlan struct {
+	clusters [][2][]heading
+	branches map[branchKey][]heading
+}
 
 // PathPass sums up the turns of one run of the path passes: the angles
 // between the elements the tips opened and the headings met there.
 type PathPass struct {
-	// Advances counts the elements opened by a tip of a cluster's conduit.
+	// Advances counts the elements opened by a tip.
 	Advances int
 	// MaxTurn and RMSTurn are the largest and the root-mean-square turn,
 	// radians (0 when nothing advanced).
 	MaxTurn, RMSTurn float64
 	// MaxOffset is the largest distance of an element a tip opened from
-	// the straight line along the local SHmax through its cluster, m: how
-	// far the pass's paths turned.
+	// the straight line along the local SHmax through its cluster (a
+	// branch's start), m: how far the pass's paths turned.
 	MaxOffset float64
 }
 
@@ -79,48 +84,63 @@ func pathPasses(m *model) int {
 
 // clusterConduitPath returns the path of a cluster's conduit centred at
 // centre with half-length half and straight direction dir (unit, towards
-// P1): straight, or through the headings of plan, each leg one element
-// long (half/⌈half/element_length⌉) and striking along the heading of the
-// farthest element whose centre lies before the leg's end (the straight
-// direction before the first).
+// P1): straight, or through the headings of plan (see pathSide).
 func (m *model) clusterConduitPath(centre, dir r2.Vec, half float64, plan [2][]heading) (p0, p1 r2.Vec, via []r2.Vec) {
 	if len(plan[0]) == 0 && len(plan[1]) == 0 {
 		return r2.Sub(centre, r2.Scale(half, dir)), r2.Add(centre, r2.Scale(half, dir)), nil
 	}
-	n := max(1, int(math.Ceil(half/m.s.Numerics.ElementLength-1e-9)))
-	leg := half / float64(n)
-	var sides [2][]r2.Vec
-	for side, out := range [2]r2.Vec{r2.Scale(-1, dir), dir} {
-		pts := make([]r2.Vec, 0, n)
-		at, h := centre, 0
-		for k := range n {
-			mid := (float64(k) + 0.5) * leg
-			for h < len(plan[side]) && plan[side][h].s <= mid+leg/2 {
-				h++
-			}
-			d := out
-			if h > 0 {
-				d = plan[side][h-1].dir
-			}
-			at = r2.Add(at, r2.Scale(leg, d))
-			pts = append(pts, at)
-		}
-		sides[side] = pts
-	}
+	back := m.pathSide(centre, r2.Scale(-1, dir), half, plan[0])
+	out := m.pathSide(centre, dir, half, plan[1])
 	// P0 is the far end of side 0; the polyline runs back to the centre
 	// and out along side 1.
+	n := len(back)
 	for k := n - 2; k >= 0; k-- {
-		via = append(via, sides[0][k])
+		via = append(via, back[k])
 	}
 	via = append(via, centre)
-	via = append(via, sides[1][:n-1]...)
-	return sides[0][n-1], sides[1][n-1], via
+	via = append(via, out[:len(out)-1]...)
+	return back[n-1], out[len(out)-1], via
+}
+
+// branchPath returns the path of a branch from start, length long with
+// straight direction dir (unit): straight, or through the headings of
+// plan (see pathSide).
+func (m *model) branchPath(start, dir r2.Vec, length float64, plan []heading) (p1 r2.Vec, via []r2.Vec) {
+	if len(plan) == 0 {
+		return r2.Add(start, r2.Scale(length, dir)), nil
+	}
+	pts := m.pathSide(start, dir, length, plan)
+	return pts[len(pts)-1], pts[:len(pts)-1]
+}
+
+// pathSide returns the vertices after from of a path length long
+// travelling from it: one leg per element (length/⌈length/element_length⌉),
+// each striking along the heading of the farthest element whose centre
+// lies before the leg's end, or along out (unit) before the first.
+func (m *model) pathSide(from, out r2.Vec, length float64, plan []heading) []r2.Vec {
+	n := max(1, int(math.Ceil(length/m.s.Numerics.ElementLength-1e-9)))
+	leg := length / float64(n)
+	pts := make([]r2.Vec, 0, n)
+	at, h := from, 0
+	for k := range n {
+		mid := (float64(k) + 0.5) * leg
+		for h < len(plan) && plan[h].s <= mid+leg/2 {
+			h++
+		}
+		d := out
+		if h > 0 {
+			d = plan[h-1].dir
+		}
+		at = r2.Add(at, r2.Scale(leg, d))
+		pts = append(pts, at)
+	}
+	return pts
 }
 
 // pathRecorder records the headings of a run (see the top of this file).
 type pathRecorder struct {
 	probe *elastic.Probe
-	plan  pathPlan
+	plan  *pathPlan
 	// slip and opening are the work copies of the state the probe reads.
 	slip, opening []float64
 	// arcMid is each element's centre as a distance along its group, m.
@@ -138,13 +158,13 @@ func newPathRecorder(m *model, clusters int) (*pathRecorder, error) {
 		return nil, err
 	}
 	n := len(m.elements)
-	return &pathRecorder{probe: probe, plan: make(pathPlan, clusters),
+	plan := &pathPlan{clusters: make([][2][]heading, clusters), branches: map[branchKey][]heading{}}
+	return &pathRecorder{probe: probe, plan: plan,
 		slip: make([]float64, n), opening: make([]float64, n)}, nil
 }
 
 // record notes the heading met at element j, opened by the tip of
-// cluster conduit c travelling from element i, under the committed state
-// of ms.
+// conduit c travelling from element i, under the committed state of ms.
 func (pr *pathRecorder) record(ms *mechState, c, i, j int) {
 	m := ms.m
 	group := ms.groups[len(m.net.Traces)+c]
@@ -177,16 +197,22 @@ func (pr *pathRecorder) record(ms *mechState, c, i, j int) {
 	if r2.Dot(dir, travel) < 0 {
 		dir = r2.Scale(-1, dir)
 	}
-	side := 0
-	if r2.Dot(travel, r2.Sub(el.P1, el.P0)) > 0 {
-		side = 1 // travelling as the path runs, towards P1
+	cd := m.conduits[c]
+	origin := cd.P0 // a branch grows from P0
+	if cd.IsBranch() {
+		pr.plan.branches[cd.key] = append(pr.plan.branches[cd.key], heading{s: pr.arcMid[j], dir: dir})
+	} else {
+		side := 0
+		if r2.Dot(travel, r2.Sub(el.P1, el.P0)) > 0 {
+			side = 1 // travelling as the path runs, towards P1
+		}
+		s := math.Abs(pr.arcMid[j] - ms.groupLength[len(m.net.Traces)+c]/2)
+		pr.plan.clusters[c][side] = append(pr.plan.clusters[c][side], heading{s: s, dir: dir})
+		origin = cd.centre()
 	}
-	s := math.Abs(pr.arcMid[j] - ms.groupLength[len(m.net.Traces)+c]/2)
-	pr.plan[c][side] = append(pr.plan[c][side], heading{s: s, dir: dir})
 	turn := mapAngle(dir, r2.Sub(el.P1, el.P0))
-	centre := m.conduits[c].centre()
-	strike := orient.Line(m.shmaxAzimuth(centre), 0)
-	off := r2.Sub(at, centre)
+	strike := orient.Line(m.shmaxAzimuth(origin), 0)
+	off := r2.Sub(at, origin)
 	pr.pass.MaxOffset = math.Max(pr.pass.MaxOffset, math.Abs(off.X*strike.Y-off.Y*strike.X))
 	pr.pass.Advances++
 	pr.pass.MaxTurn = math.Max(pr.pass.MaxTurn, turn)

@@ -120,3 +120,49 @@ func TestGrowthPathTurnsFromPressurisedNeighbour(t *testing.T) {
 		t.Errorf("mass-balance error %.3g", res.MassBalanceError)
 	}
 }
+
+// Re-initiated branches turn as the fractures do: in the case of
+// TestGrowthReinitiatesAfterArrest with the interaction on, the four
+// branches that start at the natural fractures' ends (±20, ±6) m and grow
+// north and south turn away from the pressurised fracture between them,
+// mirror-symmetrically; their paths end more than 2 m outward after three
+// passes (straight, they end at x = ±20 m), and the passes converge.
+func TestGrowthBranchesTurn(t *testing.T) {
+	s := knownFractures(t, "north,0,6,2600,90,0,40,200\nsouth,0,-6,2600,90,0,40,200\n",
+		"stress.shmax_gradient=18.8 kPa/m", "numerics.interaction=on", "numerics.path_passes=3")
+	_, res := runScenario(t, s)
+	var branches int
+	for _, cd := range res.Conduits {
+		if !cd.IsBranch() {
+			continue
+		}
+		branches++
+		if !(math.Abs(cd.P1.X)-math.Abs(cd.P0.X) > 2) || math.Abs(cd.P0.X) != 20 {
+			t.Errorf("a branch from %v ends at %v: want more than 2 m farther from x = 0", cd.P0, cd.P1)
+		}
+		numtest.Abs(t, "mirror symmetry, m", math.Abs(cd.P1.X), math.Abs(res.Conduits[len(res.Conduits)-1].P1.X), 1e-3)
+	}
+	if branches != 4 {
+		t.Fatalf("%d branches, want 4", branches)
+	}
+	var again int
+	for _, c := range res.Crossings {
+		if c.Outcome == Reinitiated {
+			again++
+		}
+	}
+	if again != 4 {
+		t.Errorf("%d re-initiations, want 4", again)
+	}
+	for k, p := range res.PathPasses[1:] {
+		if !(p.RMSTurn < res.PathPasses[k].RMSTurn) {
+			t.Errorf("pass %d: rms turn %.3g rad, not below the pass before's %.3g", k+2, p.RMSTurn, res.PathPasses[k].RMSTurn)
+		}
+	}
+	if last := res.PathPasses[2]; !(last.MaxTurn < math.Pi/180) {
+		t.Errorf("last pass: largest turn %.3g°, want < 1°", last.MaxTurn*180/math.Pi)
+	}
+	if res.MassBalanceError > 1e-8 {
+		t.Errorf("mass-balance error %.3g", res.MassBalanceError)
+	}
+}

@@ -171,7 +171,7 @@ type Result struct {
 // one before met (path.go); only the last calls opt.Begin and opt.Frame,
 // and opt.Progress sees the passes as one run.
 func Run(ctx context.Context, s *scenarios.Scenario, net *dfn.Network, opt Options) (*Result, error) {
-	var plan pathPlan
+	var plan *pathPlan
 	var passes []PathPass
 	for pass := 1; ; pass++ {
 		m, err := newModel(s, net, plan)

@@ -31,9 +31,11 @@ type Conduit struct {
 	// Source is, for a branch, the index in Network.Traces of the natural
 	// fracture at whose end (P0) it starts; −1 for a cluster's conduit.
 	Source int
-	// Via are the interior vertices of a cluster's conduit that turns
-	// (path.go): it runs P0, Via…, P1; nil for a straight one.
+	// Via are the interior vertices of a conduit that turns (path.go): it
+	// runs P0, Via…, P1; nil for a straight one.
 	Via []r2.Vec
+	// key names a branch (growth.go).
+	key branchKey
 }
 
 // IsBranch reports whether the conduit is a re-initiation branch.
@@ -99,7 +101,7 @@ type model struct {
 
 // newModel builds the mesh (traces, conduits, junctions, well cuts), the
 // stage wells and the stresses on every element.
-func newModel(s *scenarios.Scenario, net *dfn.Network, plan pathPlan) (*model, error) {
+func newModel(s *scenarios.Scenario, net *dfn.Network, plan *pathPlan) (*model, error) {
 	stress, err := mechanics.StressFromScenario(s.Stress, s.Layer.Depth)
 	if err != nil {
 		return nil, badinput.Mark(err)
@@ -192,7 +194,7 @@ func (m *model) shmaxAzimuth(p r2.Vec) float64 {
 // well has conduits, striking along the local SHmax or through the
 // headings of plan (path.go; nil for straight conduits), then the branches
 // of growing conduits (growth.go: branches), and their junctions.
-func (m *model) paths(plan pathPlan) ([]flow.Path, []flow.Junction) {
+func (m *model) paths(plan *pathPlan) ([]flow.Path, []flow.Junction) {
 	net := m.net
 	nt := len(net.Traces)
 	paths := make([]flow.Path, 0, nt)
@@ -218,8 +220,8 @@ func (m *model) paths(plan pathPlan) ([]flow.Path, []flow.Junction) {
 			dir := r2.Vec{X: strike.X, Y: strike.Y}
 			cd := Conduit{Stage: k, Cluster: c, Aperture: w.ConduitAperture, Height: h, Length: 2 * w.ConduitHalfLength, Source: -1}
 			var headings [2][]heading
-			if len(m.conduits) < len(plan) {
-				headings = plan[len(m.conduits)]
+			if plan != nil && len(m.conduits) < len(plan.clusters) {
+				headings = plan.clusters[len(m.conduits)]
 			}
 			cd.P0, cd.P1, cd.Via = m.clusterConduitPath(centre, dir, w.ConduitHalfLength, headings)
 			m.conduits = append(m.conduits, cd)
@@ -248,7 +250,7 @@ func (m *model) paths(plan pathPlan) ([]flow.Path, []flow.Junction) {
 			t := net.Traces[x.Segment]
 			junctions = append(junctions, flow.Junction{A: nt + c, B: x.Segment,
 				SA: x.Distance / length, SB: r2.Norm(r2.Sub(x.Point, t.P0)) / t.Length})
-			for _, br := range m.branches(seen, c, x, highest) {
+			for _, br := range m.branches(seen, c, x, highest, plan) {
 				m.conduits = append(m.conduits, br)
 				paths = append(paths, conduitPath(br))
 				end := 0.0
