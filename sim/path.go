@@ -149,8 +149,8 @@ type pathRecorder struct {
 	sum2   float64
 }
 
-// newPathRecorder returns the recorder of a run whose model meshes
-// clusters conduits (first in m.conduits) that may turn.
+// newPathRecorder returns the recorder of a run of model m, whose first
+// clusters conduits are the clusters' (the rest are branches).
 func newPathRecorder(m *model, clusters int) (*pathRecorder, error) {
 	mat := elastic.Material{ShearModulus: m.s.Rock.ShearModulus, PoissonRatio: m.s.Rock.PoissonRatio}
 	probe, err := elastic.NewProbe(elasticElements(m.elements), mat, elastic.Settings{PlaneStrain: m.s.Numerics.HeightCorrection == "off"})
