@@ -153,3 +153,22 @@ func benchmarkField(b *testing.B, n int) {
 }
 
 func BenchmarkNewField1e4(b *testing.B) { benchmarkField(b, 1e4) }
+
+// BenchmarkProbe1e4 is one stress evaluation by direct summation at a
+// point of a 10⁴-element DFN-like network every element of which slips
+// and opens (the worst case: Probe skips the elements that do neither),
+// as a growing fracture's path pass takes at every element a tip opens.
+func BenchmarkProbe1e4(b *testing.B) {
+	el := dfnElements(networkSettings{elements: 1e4, seed: 1, varied: true})
+	pr, err := NewProbe(el, rock, Settings{})
+	if err != nil {
+		b.Fatal(err)
+	}
+	r := rand.New(rand.NewPCG(5, 6))
+	s, w := randomVector(r, len(el), 1e-3), randomVector(r, len(el), 1e-3)
+	p := r2.Scale(0.5, r2.Add(el[0].Centre(), el[len(el)-1].Centre()))
+	b.ReportAllocs()
+	for b.Loop() {
+		pr.StressAt(p, s, w)
+	}
+}
