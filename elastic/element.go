@@ -117,6 +117,12 @@ type geometry struct {
 	sh   float64 // √h, m^½
 }
 
+// onTip reports whether p lies within eps of a tip of the element.
+func (g *geometry) onTip(p r2.Vec, eps float64) bool {
+	return r2.Norm(r2.Sub(p, r2.Add(g.c, r2.Scale(g.a, g.t)))) <= eps ||
+		r2.Norm(r2.Sub(p, r2.Sub(g.c, r2.Scale(g.a, g.t)))) <= eps
+}
+
 // geometryWords is the size of a geometry in 8-byte words.
 const geometryWords = 9
 

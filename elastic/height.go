@@ -122,7 +122,7 @@ func reciprocalMean(r, q Block, w, f float64) Block {
 // stress on the layer mid-plane of a source of its own height.
 func (m *model) field(p r2.Vec, j int) [2]Stress {
 	g := &m.geo[j]
-	if d := r2.Sub(p, g.c); math.Abs(math.Abs(r2.Dot(d, g.t))-g.a) <= coincidence*2*g.a && math.Abs(r2.Dot(d, g.n)) <= coincidence*2*g.a {
+	if g.onTip(p, coincidence*2*g.a) {
 		// On a tip the field is singular: rounding would give any value
 		// at all, large enough to spoil the compression of a whole Field.
 		nan := Stress{XX: math.NaN(), YY: math.NaN(), XY: math.NaN()}
@@ -160,11 +160,7 @@ func (m *model) check(b Block, i, j int) error {
 	if r2.Norm(r2.Sub(gi.c, gj.c)) <= eps {
 		return &GeometryError{Receiver: i, Source: j, Reason: "centres coincide"}
 	}
-	onTip := func(p r2.Vec, g *geometry) bool {
-		return r2.Norm(r2.Sub(p, r2.Add(g.c, r2.Scale(g.a, g.t)))) <= eps ||
-			r2.Norm(r2.Sub(p, r2.Sub(g.c, r2.Scale(g.a, g.t)))) <= eps
-	}
-	if onTip(gi.c, gj) || onTip(gj.c, gi) {
+	if gj.onTip(gi.c, eps) || gi.onTip(gj.c, eps) {
 		return &GeometryError{Receiver: i, Source: j, Reason: "the centre of one lies on a tip of the other"}
 	}
 	for _, v := range [...]float64{b.ShearSlip, b.ShearOpening, b.NormalSlip, b.NormalOpening} {
