@@ -149,15 +149,18 @@ type pathRecorder struct {
 	sum2   float64
 }
 
-// newPathRecorder returns the recorder of a run of model m, whose first
-// clusters conduits are the clusters' (the rest are branches).
-func newPathRecorder(m *model, clusters int) (*pathRecorder, error) {
+// newPathRecorder returns the recorder of a run of model m.
+func newPathRecorder(m *model) (*pathRecorder, error) {
 	mat := elastic.Material{ShearModulus: m.s.Rock.ShearModulus, PoissonRatio: m.s.Rock.PoissonRatio}
 	probe, err := elastic.NewProbe(elasticElements(m.elements), mat, elastic.Settings{PlaneStrain: m.s.Numerics.HeightCorrection == "off"})
 	if err != nil {
 		return nil, err
 	}
 	n := len(m.elements)
+	clusters := 0 // the clusters' conduits come first, the branches after
+	for clusters < len(m.conduits) && !m.conduits[clusters].IsBranch() {
+		clusters++
+	}
 	plan := &pathPlan{clusters: make([][2][]heading, clusters), branches: map[branchKey][]heading{}}
 	return &pathRecorder{probe: probe, plan: plan,
 		slip: make([]float64, n), opening: make([]float64, n)}, nil

@@ -196,13 +196,7 @@ func Run(ctx context.Context, s *scenarios.Scenario, net *dfn.Network, opt Optio
 			return nil, err
 		}
 		if total > 1 {
-			clusters := 0
-			for _, cd := range m.conduits {
-				if !cd.IsBranch() {
-					clusters++
-				}
-			}
-			if r.ms.paths, err = newPathRecorder(m, clusters); err != nil {
+			if r.ms.paths, err = newPathRecorder(m); err != nil {
 				return nil, err
 			}
 		}
