@@ -66,13 +66,16 @@ func (s Stress) Resolve(n r3.Vec) PlaneStress {
 // DilationTendency returns (S1 − σn)/(S1 − S3) for a plane with total
 // normal stress sigmaN, Pa (Ferrill et al. 1999): 1 for the plane normal
 // to S3, 0 for the plane normal to S1. In an isotropic state, where every
-// plane has σn = S1 = S3, it returns 0.
+// plane has σn = S1 = S3, it returns 0. A resolved σn lies in [S3, S1]
+// but for rounding, which the ratio would magnify where S1 − S3 is as
+// small as that rounding (a fuzz input: S1 − S3 = 7·10⁻⁹ Pa gave 2), so the
+// result is held to [0, 1].
 func (s Stress) DilationTendency(sigmaN float64) float64 {
 	s1, s3 := s.principal[0].Value, s.principal[2].Value
 	if s1 == s3 {
 		return 0
 	}
-	return (s1 - sigmaN) / (s1 - s3)
+	return math.Min(1, math.Max(0, (s1-sigmaN)/(s1-s3)))
 }
 
 // SlipTendency returns the effective slip tendency τ/(σn − p), with σn and
