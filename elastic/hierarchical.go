@@ -212,9 +212,9 @@ func estimateHierarchical(md *model, t *tree, s Settings) int64 {
 	}
 	norm2, sampled := 0.0, 0
 	for _, sp := range evenly(near, 8*estimateSamples) {
-		b, _ := assembleBlock(src, t, t, sp, s, 0)
+		b, _ := computeBlock(src, t, t, sp, s, 0)
 		for _, v := range b.dense {
-			norm2 += float64(v) * float64(v)
+			norm2 += v * v
 		}
 		sampled += len(b.dense)
 	}
@@ -225,13 +225,12 @@ func estimateHierarchical(md *model, t *tree, s Settings) int64 {
 			totalRC += 2 * (size(t, sp.row) + size(t, sp.col))
 		}
 		for _, sp := range evenly(group, estimateSamples) {
-			b, _ := assembleBlock(src, t, t, sp, s, perEntry) // far blocks are not validated
+			b, _ := computeBlock(src, t, t, sp, s, perEntry) // far blocks are not validated
 			rc := 2 * (size(t, sp.row) + size(t, sp.col))
 			sampledRC += rc
-			if b.dense != nil {
-				sampledSingles += len(b.dense)
-			} else {
-				sampledSingles += b.k*rc + 2*b.k // factors, projections
+			sampledSingles += b.size()
+			if b.spec.lowRank {
+				sampledSingles += 2 * b.lr.k // projections
 			}
 		}
 		singles += int(float64(sampledSingles) / float64(sampledRC) * float64(totalRC))
