@@ -13,7 +13,8 @@
 // stage's volume or duration is pumped and its shut-in is over. With
 // growing fractures and numerics.path_passes > 1 that sequence runs once
 // per pass, each pass meshing the fractures' paths through the directions
-// of SHmax its predecessor's tips met (path.go); only the last one records.
+// of SHmax its predecessor's tips met (path.go); each pass records over
+// the one before, and the last one's result is the run's.
 //
 // # Coupling
 //

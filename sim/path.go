@@ -34,8 +34,10 @@ import (
 // (a heading), and the next run meshes each cluster's conduit through the
 // headings its tips recorded (continuing straight in the last one beyond
 // the farthest), and each branch (growth.go), known by its natural
-// fracture, end and sense, through those its tip recorded. Only the last
-// run writes outputs. Each run reports its turns, the angles between the
+// fracture, end and sense, through those its tip recorded. Each run
+// records its frames over the one before's, and the last run's result is
+// the outputs (one interrupted before ends the passes with its own, see
+// Run). Each run reports its turns, the angles between the
 // elements its tips opened and the headings met there (Result.PathPasses):
 // as the passes converge the turns of the last pass tend to zero, and the
 // README's convergence table shows the headline numbers over the passes.

@@ -1,11 +1,17 @@
 package sim
 
 import (
+	"context"
+	"errors"
 	"math"
+	"os"
+	"path/filepath"
 	"strings"
 	"testing"
 
+	"slipfront/dfn"
 	"slipfront/internal/numtest"
+	"slipfront/snapshot"
 )
 
 // Two fractures growing at once from clusters 20 m apart curve away from
@@ -164,5 +170,60 @@ func TestGrowthBranchesTurn(t *testing.T) {
 	}
 	if res.MassBalanceError > 1e-8 {
 		t.Errorf("mass-balance error %.3g", res.MassBalanceError)
+	}
+}
+
+// Each path pass records its own frames: a run interrupted in a pass
+// before the last keeps that pass's frames so far, in a snapshot that
+// starts over with the pass's mesh, and returns that pass's result with
+// an error naming the pass.
+func TestPathPassInterruptedKeepsItsFrames(t *testing.T) {
+	s := editedCase(t, "far,-190,-190,2600,90,0,10,200\n", func(src string) string { return src },
+		"numerics.interaction=on", "numerics.path_passes=3", "schedule.duration=30 s")
+	net, err := dfn.Generate(s, 0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	name := filepath.Join(t.TempDir(), "run.snap")
+	f, err := os.Create(name)
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	rec := NewRecorder(f, s, 0)
+	ctx, cancel := context.WithCancel(context.Background())
+	defer cancel()
+	var begins, frames, elements int
+	opt := Options{
+		Begin: func(el []Element) error {
+			begins++
+			frames, elements = 0, len(el)
+			return rec.Begin(el)
+		},
+		Frame: func(fr *Frame) error {
+			frames++
+			if begins == 2 && frames == 3 {
+				cancel()
+			}
+			return rec.Frame(fr)
+		},
+	}
+	res, err := Run(ctx, s, net, opt)
+	if !errors.Is(err, context.Canceled) || !strings.Contains(err.Error(), "path pass 2 of 3") {
+		t.Fatalf("error %v, want the cancellation in path pass 2 of 3", err)
+	}
+	if res == nil || len(res.PathPasses) != 2 {
+		t.Fatalf("result %v, want the second pass's, with two passes' turns", res)
+	}
+	if err := rec.Close(); err != nil {
+		t.Fatal(err)
+	}
+	rd, err := snapshot.Open(name)
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer rd.Close()
+	if n, m := len(rd.Frames()), len(rd.Header().Elements); n != frames || m != elements || n < 3 {
+		t.Errorf("snapshot: %d frames of %d elements, want the second pass's %d of %d", n, m, frames, elements)
 	}
 }

@@ -18,7 +18,9 @@ import (
 
 // Recorder writes the frames of a run to a snapshot file. Use its Begin
 // and Frame methods as Options.Begin and Options.Frame, and Close it after
-// the run (also after a failed one: the frames written so far stay).
+// the run (also after a failed one: the frames written so far stay). A
+// second Begin (the next path pass) starts the file over, which needs a
+// writer that can be truncated (an *os.File).
 type Recorder struct {
 	w           io.Writer
 	s           *scenarios.Scenario
@@ -66,8 +68,29 @@ const (
 	MetaReach          = "stimulated_reach_m"
 )
 
-// Begin writes the header with the element geometry.
+// truncater is a file that can be emptied and written again from its
+// start.
+type truncater interface {
+	Truncate(size int64) error
+	Seek(offset int64, whence int) (int64, error)
+}
+
+// Begin writes the header with the element geometry; called again, it
+// first empties the file.
 func (r *Recorder) Begin(elements []Element) error {
+	if r.sw != nil {
+		t, ok := r.w.(truncater)
+		if !ok {
+			return fmt.Errorf("sim: Recorder.Begin again needs a file to start over, not a %T", r.w)
+		}
+		if err := t.Truncate(0); err != nil {
+			return err
+		}
+		if _, err := t.Seek(0, io.SeekStart); err != nil {
+			return err
+		}
+		r.sw = nil
+	}
 	s := r.s
 	h := snapshot.Header{
 		Digest: s.Digest, Seed: s.Seed, Realization: r.realization, CRS: s.Domain.CRSSpec(),

@@ -18,7 +18,9 @@ import (
 // Options control a run.
 type Options struct {
 	// Begin, when set, is called once the mesh is built, before the first
-	// frame, with the elements (e.g. to write a snapshot header).
+	// frame, with the elements (e.g. to write a snapshot header); with
+	// path passes, once for each pass, whose frames replace those of the
+	// pass before.
 	Begin func(elements []Element) error
 	// Frame, when set, receives the state at the end of the first time
 	// step at or after every output time (k·numerics.output_interval) and
@@ -168,8 +170,11 @@ type Result struct {
 // cannot be simulated as given matches badinput.Err. With
 // numerics.path_passes > 1 and growing fractures it runs the schedule that
 // many times, each meshing the fractures' paths through the headings the
-// one before met (path.go); only the last calls opt.Begin and opt.Frame,
-// and opt.Progress sees the passes as one run.
+// one before met (path.go). Every pass calls opt.Begin with its mesh and
+// then opt.Frame, so a recording starts over with each pass and a pass
+// that fails or is interrupted leaves its frames so far; it ends the run
+// and its result is returned, with the error naming the pass.
+// opt.Progress sees the passes as one run.
 func Run(ctx context.Context, s *scenarios.Scenario, net *dfn.Network, opt Options) (*Result, error) {
 	var plan *pathPlan
 	var passes []PathPass
@@ -182,11 +187,7 @@ func Run(ctx context.Context, s *scenarios.Scenario, net *dfn.Network, opt Optio
 			return nil, err
 		}
 		total := pathPasses(m)
-		last := pass >= total
 		o := opt
-		if !last {
-			o = Options{MemoryLimit: opt.MemoryLimit}
-		}
 		if progress := opt.Progress; progress != nil && total > 1 {
 			done := float64(pass - 1)
 			o.Progress = func(t, end float64) { progress(done*end+t, float64(total)*end) }
@@ -200,7 +201,7 @@ func Run(ctx context.Context, s *scenarios.Scenario, net *dfn.Network, opt Optio
 				return nil, err
 			}
 		}
-		if last && opt.Begin != nil {
+		if opt.Begin != nil {
 			if err := opt.Begin(m.elements); err != nil {
 				return nil, err
 			}
@@ -209,13 +210,13 @@ func Run(ctx context.Context, s *scenarios.Scenario, net *dfn.Network, opt Optio
 		if total > 1 {
 			passes = append(passes, r.ms.paths.result())
 		}
-		if last {
+		if last := pass >= total; last || err != nil {
 			res := r.result()
 			res.PathPasses = passes
+			if !last {
+				err = fmt.Errorf("path pass %d of %d: %w", pass, total, err)
+			}
 			return res, err
-		}
-		if err != nil {
-			return nil, fmt.Errorf("path pass %d of %d: %w", pass, total, err)
 		}
 		plan = r.ms.paths.plan
 	}
