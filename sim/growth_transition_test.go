@@ -58,3 +58,54 @@ func TestGrowthTransitionRegime(t *testing.T) {
 		prevLength, prevPressure = length, net
 	}
 }
+
+// In plane strain with a constant rate and no leak-off the dimensionless
+// toughness 𝒦 = K′(E′³μ′q)^(−1/4) does not change with time, so the
+// fracture is self-similar in every regime, the transition included: its
+// scaled length ℓ/(E′q³t⁴/μ′)^(1/6) and scaled net pressure
+// p/(E′²μ′/t)^(1/3) depend on 𝒦 alone (Detournay 2004, from memory; it
+// follows from dimensional analysis of the KGD equations). So a viscosity
+// 16 times larger with a toughness twice as large (the same 𝒦) must give,
+// after twice the time, the same length and twice the net pressure, on
+// the same 1 m elements: a check of how viscous flow and toughness
+// combine at the tip, which neither limit's solution tests. The time
+// steps scale with the time (on the same steps in scaled time both runs
+// are the same discrete problem; with the same steps in seconds the
+// pressures differ by 4 %). At 𝒦 = 1.5, 2.5 and 3.5.
+func TestGrowthTransitionSelfSimilar(t *testing.T) {
+	for _, dimless := range []float64{1.5, 2.5, 3.5} {
+		checkSelfSimilar(t, dimless)
+	}
+}
+
+func checkSelfSimilar(t *testing.T, dimless float64) {
+	const duration = 30.0
+	base := loadCase(t, "kgd-viscosity")
+	g, nu := base.Rock.ShearModulus, base.Rock.PoissonRatio
+	mu := base.Fluids["gel"].Viscosity
+	kgd := hfref.KGD{PlaneModulus: 2 * g / (1 - nu), Viscosity: mu, Rate: base.Schedule.Rate / base.Layer.Thickness}
+	scale := math.Pow(math.Pow(kgd.PlaneModulus, 3)*12*kgd.Viscosity*kgd.Rate, 0.25) / (4 * math.Sqrt(2/math.Pi))
+	run := func(viscosity, toughness, end float64) (length, net float64) {
+		s := loadCase(t, "kgd-viscosity", "rock.fracture_toughness="+ftoa(toughness/1e6)+" MPa.m^0.5",
+			"fluids.gel.viscosity="+ftoa(viscosity*1e3)+" cP", "numerics.element_length=1 m",
+			"schedule.duration="+ftoa(end)+" s", "numerics.output_interval="+ftoa(end)+" s",
+			"numerics.time_step_initial="+ftoa(end/3000)+" s", "numerics.time_step_max="+ftoa(end/60)+" s")
+		k := kgd
+		k.Viscosity, k.Toughness = s.Fluids["gel"].Viscosity, s.Rock.FractureToughness
+		if got := k.DimensionlessToughness(); math.Abs(got-dimless) > 1e-9 {
+			t.Fatalf("test bug: 𝒦 = %g, want %g", got, dimless)
+		}
+		_, res := runScenario(t, s)
+		shmin := s.Stress.ShminGradient * s.Layer.Depth
+		return openedHalfLength(res), res.Timeline[len(res.Timeline)-1].BHP - shmin
+	}
+	la, pa := run(mu, dimless*scale, duration)
+	lb, pb := run(16*mu, 2*dimless*scale, 2*duration)
+	t.Logf("𝒦 = %g: half-length %.2f m and %.2f m, net pressure %.4f and %.4f MPa (ratio %.4f, want 2)", dimless, la, lb, pa/1e6, pb/1e6, pb/pa)
+	if math.Abs(lb-la) > 1 {
+		t.Errorf("𝒦 = %g: half-lengths %.2f m and %.2f m differ by more than an element (1 m)", dimless, la, lb)
+	}
+	if math.Abs(pb/pa-2) > 0.02 {
+		t.Errorf("𝒦 = %g: net pressures %.4g and %.4g Pa: ratio %.4f, want 2 within 1 %%", dimless, pa, pb, pb/pa)
+	}
+}
