@@ -4,6 +4,7 @@ import (
 	"errors"
 	"math"
 	"math/rand/v2"
+	"slices"
 	"testing"
 
 	"gonum.org/v1/gonum/spatial/r2"
@@ -227,5 +228,52 @@ func TestMulVecAllocs(t *testing.T) {
 		if a := testing.AllocsPerRun(5, func() { op.MulVecTo(tau[:n], sn[:n], s[:n], w[:n]) }); a != 0 {
 			t.Errorf("%s: %v allocations per product, want 0", name, a)
 		}
+	}
+}
+
+// splitRuns covers the indices once, in consecutive runs of about
+// 1/assemblyRuns of the total cost, costliest first; an index costlier
+// than that is a run of its own.
+func TestSplitRuns(t *testing.T) {
+	idx := make([]int, 3*assemblyRuns)
+	for i := range idx {
+		idx[i] = 2 * i // not 0, 1, 2, …: runs hold indices, not positions
+	}
+	cost := func(b int) int {
+		if b == 2*assemblyRuns { // one costly index
+			return 100 * assemblyRuns
+		}
+		return 1 + b%3
+	}
+	runs := splitRuns(idx, cost)
+	total := 0
+	for _, b := range idx {
+		total += cost(b)
+	}
+	var all []int
+	prev := math.MaxInt
+	for _, run := range runs {
+		c := 0
+		for k, b := range run {
+			c += cost(b)
+			if k > 0 && b != run[k-1]+2 {
+				t.Fatalf("run %v is not consecutive", run)
+			}
+		}
+		if c > prev {
+			t.Errorf("run of cost %d after one of %d: not costliest first", c, prev)
+		}
+		if len(run) > 1 && c > total/assemblyRuns {
+			t.Errorf("run %v costs %d, over the share %d", run, c, total/assemblyRuns)
+		}
+		prev = c
+		all = append(all, run...)
+	}
+	if runs[0][0] != 2*assemblyRuns || len(runs[0]) != 1 {
+		t.Errorf("first run %v, want the costly index alone", runs[0])
+	}
+	slices.Sort(all)
+	if !slices.Equal(all, idx) {
+		t.Errorf("runs cover %d indices, want each of the %d once", len(all), len(idx))
 	}
 }
