@@ -84,10 +84,10 @@ func (r *Recorder) Begin(elements []Element) error {
 			return fmt.Errorf("sim: Recorder.Begin again needs a file to start over, not a %T", r.w)
 		}
 		if err := t.Truncate(0); err != nil {
-			return err
+			return fmt.Errorf("sim: starting the snapshot over for the next path pass: %w", err)
 		}
 		if _, err := t.Seek(0, io.SeekStart); err != nil {
-			return err
+			return fmt.Errorf("sim: starting the snapshot over for the next path pass: %w", err)
 		}
 		r.sw = nil
 	}
