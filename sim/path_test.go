@@ -1,6 +1,7 @@
 package sim
 
 import (
+	"bytes"
 	"context"
 	"errors"
 	"math"
@@ -8,6 +9,8 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"gonum.org/v1/gonum/spatial/r2"
 
 	"slipfront/dfn"
 	"slipfront/internal/numtest"
@@ -225,5 +228,20 @@ func TestPathPassInterruptedKeepsItsFrames(t *testing.T) {
 	defer rd.Close()
 	if n, m := len(rd.Frames()), len(rd.Header().Elements); n != frames || m != elements || n < 3 {
 		t.Errorf("snapshot: %d frames of %d elements, want the second pass's %d of %d", n, m, frames, elements)
+	}
+}
+
+// A recording can start over only in a file: a second Begin on a writer
+// that cannot be truncated is an error, not a snapshot with two headers.
+func TestRecorderBeginAgainNeedsAFile(t *testing.T) {
+	s := editedCase(t, "far,-190,-190,2600,90,0,10,200\n", func(src string) string { return src })
+	var buf bytes.Buffer
+	rec := NewRecorder(&buf, s, 0)
+	el := []Element{{P0: r2.Vec{X: 0}, P1: r2.Vec{X: 1}, Height: 10, Length: 1}}
+	if err := rec.Begin(el); err != nil {
+		t.Fatal(err)
+	}
+	if err := rec.Begin(el); err == nil || !strings.Contains(err.Error(), "needs a file") {
+		t.Errorf("second Begin on a buffer: %v, want an error that it needs a file", err)
 	}
 }
