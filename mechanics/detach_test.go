@@ -292,26 +292,30 @@ func TestCountNearPairs(t *testing.T) {
 }
 
 // What the detachment at crossings costs: two straight faults 20 m long
-// crossing at 60° at their midpoints, both past their constant strength
-// by Δτ = 0.5 MPa, in plane strain. With every pair kept (this X makes no
+// crossing at their midpoints, both past their constant strength by
+// Δτ = 0.5 MPa, in plane strain. With every pair kept (these X's make no
 // indefinite directions) the summed slip × length of each fault converges
 // at first order in the element length, as constant elements do on a lone
-// crack (Crouch & Starfield 1983), to a value above the lone crack's
-// (1−ν)Δτπc²/G (Pollard & Segall 1987): each fault's slip loads the
-// other. With the touching pairs detached and compensated (sim's 0.6
-// element lengths) the crossing is pinned: the sums lie below the kept
-// pairs' at every element length and rise towards them far more slowly
-// (by 5.9, 4.9 and 4.1 % per halving from 20 to 160 elements, while the
-// kept pairs' fall by 2.6, 1.3 and 0.6 %). So on crossing networks the
-// moment is a lower bound and converges slowly (see the README).
+// crack (Crouch & Starfield 1983); at 60° to a value above the lone
+// crack's (1−ν)Δτπc²/G (Pollard & Segall 1987): each fault's slip loads
+// the other. With the touching pairs detached and compensated (sim's 0.6
+// element lengths) the crossing is pinned and the sums lie below the kept
+// pairs' at every element length. At 60° they rise towards them far more
+// slowly (by 5.9, 4.9 and 4.1 % per halving from 20 to 160 elements,
+// while the kept pairs' fall by 2.6, 1.3 and 0.6 %). At 30° they stay
+// within 1 % per halving about 20 % below the kept pairs': a plateau that
+// is not convergence. So on crossing networks the moment is a lower bound
+// and a refinement study can mislead (see the README); a treatment of
+// crossings that removes this should change these expectations.
 func TestCrossingDetachmentLowersSlip(t *testing.T) {
 	const half, sigma, p0, tau = 10.0, 50e6, 20e6, 18.5e6
 	f := SlipWeakening{Static: 0.6, Residual: 0.6, CriticalSlip: 1e-3}
 	lone := (1 - testRock.PoissonRatio) * (tau - f.Static*(sigma-p0)) * math.Pi * half * half / testRock.ShearModulus
-	sums := func(n int, detach float64) float64 {
+	sums := func(angle float64, n int, detach float64) float64 {
 		var elems []elastic.Element
 		var ce []ContactElement
-		for g, d := range []r2.Vec{{X: 1}, {X: 0.5, Y: math.Sqrt(3) / 2}} {
+		second := r2.Vec{X: math.Cos(angle * math.Pi / 180), Y: math.Sin(angle * math.Pi / 180)}
+		for g, d := range []r2.Vec{{X: 1}, second} {
 			for i := range n {
 				a, b := -half+2*half*float64(i)/float64(n), -half+2*half*float64(i+1)/float64(n)
 				e := elastic.Element{P0: r2.Scale(a, d), P1: r2.Scale(b, d), Height: 1}
@@ -339,28 +343,42 @@ func TestCrossingDetachmentLowersSlip(t *testing.T) {
 		return sum
 	}
 	ns := []int{20, 40, 80, 160}
-	var kept, pinned []float64
-	for _, n := range ns {
-		kept, pinned = append(kept, sums(n, 0)), append(pinned, sums(n, 0.6))
-	}
-	t.Logf("slip × length of one fault, m² (lone crack %.5g): kept %.5g, detached %.5g", lone, kept, pinned)
-	for k := range ns {
-		if !(pinned[k] < kept[k]) {
-			t.Errorf("%d elements: detached %.5g m², not below the kept pairs' %.5g m²", ns[k], pinned[k], kept[k])
+	for _, angle := range []float64{60, 30} {
+		var kept, pinned []float64
+		for _, n := range ns {
+			kept, pinned = append(kept, sums(angle, n, 0)), append(pinned, sums(angle, n, 0.6))
 		}
-		if k < 2 {
-			continue
+		t.Logf("%g°: slip × length of one fault, m² (lone crack %.5g): kept %.5g, detached %.5g", angle, lone, kept, pinned)
+		for k := range ns {
+			if !(pinned[k] < kept[k]) {
+				t.Errorf("%g°, %d elements: detached %.5g m², not below the kept pairs' %.5g m²", angle, ns[k], pinned[k], kept[k])
+			}
+			if k < 2 {
+				continue
+			}
+			// First order: each halving changes the kept sum by half as
+			// much as the one before.
+			if r := (kept[k] - kept[k-1]) / (kept[k-1] - kept[k-2]); !(r > 0.4 && r < 0.6) {
+				t.Errorf("%g°, kept pairs, %d elements: ratio of successive changes %.3g, want about 0.5", angle, ns[k], r)
+			}
+			r := (pinned[k] - pinned[k-1]) / (pinned[k-1] - pinned[k-2])
+			if angle == 60 && !(r > 0.7 && r < 1) {
+				t.Errorf("60°, detached, %d elements: ratio of successive changes %.3g, want the slow rise seen (0.7–1)", ns[k], r)
+			}
 		}
-		// First order: each halving changes the kept sum by half as much
-		// as the one before.
-		if r := (kept[k] - kept[k-1]) / (kept[k-1] - kept[k-2]); !(r > 0.4 && r < 0.6) {
-			t.Errorf("kept pairs, %d elements: ratio of successive changes %.3g, want about 0.5", ns[k], r)
+		last := len(ns) - 1
+		switch angle {
+		case 60:
+			if !(kept[last] > 1.1*lone) {
+				t.Errorf("60°, kept pairs: %.5g m², want above the lone crack's %.5g m²", kept[last], lone)
+			}
+		case 30:
+			for k := 1; k < len(ns); k++ {
+				if math.Abs(pinned[k]/pinned[k-1]-1) > 0.01 || !(pinned[k] < 0.85*kept[k]) {
+					t.Errorf("30°, detached, %d elements: %.5g m² (before %.5g; kept %.5g), want the plateau seen: within 1 %% per halving, over 15 %% below",
+						ns[k], pinned[k], pinned[k-1], kept[k])
+				}
+			}
 		}
-		if r := (pinned[k] - pinned[k-1]) / (pinned[k-1] - pinned[k-2]); !(r > 0.7 && r < 1) {
-			t.Errorf("detached, %d elements: ratio of successive changes %.3g, want the slow rise seen (0.7–1)", ns[k], r)
-		}
-	}
-	if !(kept[len(kept)-1] > 1.1*lone) {
-		t.Errorf("kept pairs: %.5g m², want above the lone crack's %.5g m²", kept[len(kept)-1], lone)
 	}
 }
