@@ -50,6 +50,10 @@ func (s Stress) Resolve(n r3.Vec) PlaneStress {
 	t := s.Traction(n)
 	sn := r3.Dot(n, t)
 	shear := r3.Sub(t, r3.Scale(sn, n))
+	// The subtraction leaves a normal component of the rounding of t
+	// (~10⁻¹⁶·S1), which is not small against a small τ (a fuzz input:
+	// τ = 5 Pa under S1 = 60 MPa left ŝ·n = 3·10⁻⁹): project it out.
+	shear = r3.Sub(shear, r3.Scale(r3.Dot(shear, n), n))
 	tau := r3.Norm(shear)
 	dip, dipDir := orient.DipAndDirection(n)
 	ps := PlaneStress{Normal: n, SigmaN: sn, Tau: tau, Dip: dip, DipDirection: dipDir}
