@@ -5,6 +5,7 @@ import (
 	"testing"
 
 	"slipfront/internal/hfref"
+	"slipfront/scenarios"
 )
 
 // Between the two limits (1 < 𝒦 < 4) no similarity solution is in
@@ -19,11 +20,7 @@ import (
 // the toughness set for 𝒦 = 0, 1.5, 2.5, 3.5 and 6.
 func TestGrowthTransitionRegime(t *testing.T) {
 	const duration, element = 60.0, 1.0
-	base := loadCase(t, "kgd-viscosity")
-	g, nu := base.Rock.ShearModulus, base.Rock.PoissonRatio
-	kgd := hfref.KGD{PlaneModulus: 2 * g / (1 - nu), Viscosity: base.Fluids["gel"].Viscosity, Rate: base.Schedule.Rate / base.Layer.Thickness}
-	// K_Ic for a given 𝒦 = K′(E′³μ′Q)^(−1/4), K′ = 4√(2/π)K_Ic.
-	scale := math.Pow(math.Pow(kgd.PlaneModulus, 3)*12*kgd.Viscosity*kgd.Rate, 0.25) / (4 * math.Sqrt(2/math.Pi))
+	kgd, scale := kgdViscosityCase(t)
 	lm := kgd.ViscosityDominated(duration).HalfLength
 	prevLength, prevPressure := math.Inf(1), math.Inf(-1)
 	for _, dimless := range []float64{0, 1.5, 2.5, 3.5, 6} {
@@ -31,13 +28,7 @@ func TestGrowthTransitionRegime(t *testing.T) {
 		s := loadCase(t, "kgd-viscosity", "rock.fracture_toughness="+ftoa(kic/1e6)+" MPa.m^0.5",
 			"numerics.element_length="+ftoa(element)+" m", "schedule.duration="+ftoa(duration)+" s")
 		kgd.Toughness = s.Rock.FractureToughness
-		if got := kgd.DimensionlessToughness(); math.Abs(got-dimless) > 1e-9 {
-			t.Fatalf("test bug: 𝒦 = %g, want %g", got, dimless)
-		}
-		_, res := runScenario(t, s)
-		length := openedHalfLength(res)
-		shmin := s.Stress.ShminGradient * s.Layer.Depth
-		net := res.Timeline[len(res.Timeline)-1].BHP - shmin
+		res, length, net := runTransition(t, s, kgd, dimless)
 		bound := lm
 		if dimless > 0 {
 			bound = math.Min(bound, kgd.ToughnessDominated(duration).HalfLength)
@@ -80,24 +71,15 @@ func TestGrowthTransitionSelfSimilar(t *testing.T) {
 
 func checkSelfSimilar(t *testing.T, dimless float64) {
 	const duration = 30.0
-	base := loadCase(t, "kgd-viscosity")
-	g, nu := base.Rock.ShearModulus, base.Rock.PoissonRatio
-	mu := base.Fluids["gel"].Viscosity
-	kgd := hfref.KGD{PlaneModulus: 2 * g / (1 - nu), Viscosity: mu, Rate: base.Schedule.Rate / base.Layer.Thickness}
-	scale := math.Pow(math.Pow(kgd.PlaneModulus, 3)*12*kgd.Viscosity*kgd.Rate, 0.25) / (4 * math.Sqrt(2/math.Pi))
+	kgd, scale := kgdViscosityCase(t)
+	mu := kgd.Viscosity
 	run := func(viscosity, toughness, end float64) (length, net float64) {
 		s := loadCase(t, "kgd-viscosity", "rock.fracture_toughness="+ftoa(toughness/1e6)+" MPa.m^0.5",
 			"fluids.gel.viscosity="+ftoa(viscosity*1e3)+" cP", "numerics.element_length=1 m",
 			"schedule.duration="+ftoa(end)+" s", "numerics.output_interval="+ftoa(end)+" s",
 			"numerics.time_step_initial="+ftoa(end/3000)+" s", "numerics.time_step_max="+ftoa(end/60)+" s")
-		k := kgd
-		k.Viscosity, k.Toughness = s.Fluids["gel"].Viscosity, s.Rock.FractureToughness
-		if got := k.DimensionlessToughness(); math.Abs(got-dimless) > 1e-9 {
-			t.Fatalf("test bug: 𝒦 = %g, want %g", got, dimless)
-		}
-		_, res := runScenario(t, s)
-		shmin := s.Stress.ShminGradient * s.Layer.Depth
-		return openedHalfLength(res), res.Timeline[len(res.Timeline)-1].BHP - shmin
+		_, length, net = runTransition(t, s, kgd, dimless)
+		return length, net
 	}
 	la, pa := run(mu, dimless*scale, duration)
 	lb, pb := run(16*mu, 2*dimless*scale, 2*duration)
@@ -108,4 +90,32 @@ func checkSelfSimilar(t *testing.T, dimless float64) {
 	if math.Abs(pb/pa-2) > 0.02 {
 		t.Errorf("𝒦 = %g: net pressures %.4g and %.4g Pa: ratio %.4f, want 2 within 1 %%", dimless, pa, pb, pb/pa)
 	}
+}
+
+// kgdViscosityCase returns the plane-strain fracture of
+// testdata/kgd-viscosity (E′, μ, q per unit height) and the toughness
+// K_Ic per unit of 𝒦 = K′(E′³μ′q)^(−1/4), K′ = 4√(2/π)K_Ic, μ′ = 12μ
+// (Detournay 2004, from memory), Pa·√m.
+func kgdViscosityCase(t *testing.T) (hfref.KGD, float64) {
+	t.Helper()
+	base := loadCase(t, "kgd-viscosity")
+	g, nu := base.Rock.ShearModulus, base.Rock.PoissonRatio
+	kgd := hfref.KGD{PlaneModulus: 2 * g / (1 - nu), Viscosity: base.Fluids["gel"].Viscosity, Rate: base.Schedule.Rate / base.Layer.Thickness}
+	scale := math.Pow(math.Pow(kgd.PlaneModulus, 3)*12*kgd.Viscosity*kgd.Rate, 0.25) / (4 * math.Sqrt(2/math.Pi))
+	return kgd, scale
+}
+
+// runTransition runs s, a variant of testdata/kgd-viscosity (whose
+// fracture is kgd), after checking that its toughness and viscosity give
+// 𝒦 = dimless, and returns the result, the opened half-length, m, and the
+// net pressure at the well at the end, Pa.
+func runTransition(t *testing.T, s *scenarios.Scenario, kgd hfref.KGD, dimless float64) (res *Result, length, net float64) {
+	t.Helper()
+	kgd.Viscosity, kgd.Toughness = s.Fluids["gel"].Viscosity, s.Rock.FractureToughness
+	if got := kgd.DimensionlessToughness(); math.Abs(got-dimless) > 1e-9 {
+		t.Fatalf("test bug: 𝒦 = %g, want %g", got, dimless)
+	}
+	_, res = runScenario(t, s)
+	shmin := s.Stress.ShminGradient * s.Layer.Depth
+	return res, openedHalfLength(res), res.Timeline[len(res.Timeline)-1].BHP - shmin
 }

@@ -12,7 +12,6 @@ import (
 
 	"gonum.org/v1/gonum/spatial/r2"
 
-	"slipfront/dfn"
 	"slipfront/internal/numtest"
 	"slipfront/snapshot"
 )
@@ -181,12 +180,9 @@ func TestGrowthBranchesTurn(t *testing.T) {
 // starts over with the pass's mesh, and returns that pass's result with
 // an error naming the pass.
 func TestPathPassInterruptedKeepsItsFrames(t *testing.T) {
-	s := editedCase(t, "far,-190,-190,2600,90,0,10,200\n", func(src string) string { return src },
+	s := knownFractures(t, "far,-190,-190,2600,90,0,10,200\n",
 		"numerics.interaction=on", "numerics.path_passes=3", "schedule.duration=30 s")
-	net, err := dfn.Generate(s, 0)
-	if err != nil {
-		t.Fatal(err)
-	}
+	net := mustNetwork(t, s)
 	name := filepath.Join(t.TempDir(), "run.snap")
 	f, err := os.Create(name)
 	if err != nil {
@@ -234,7 +230,7 @@ func TestPathPassInterruptedKeepsItsFrames(t *testing.T) {
 // A recording can start over only in a file: a second Begin on a writer
 // that cannot be truncated is an error, not a snapshot with two headers.
 func TestRecorderBeginAgainNeedsAFile(t *testing.T) {
-	s := editedCase(t, "far,-190,-190,2600,90,0,10,200\n", func(src string) string { return src })
+	s := knownFractures(t, "far,-190,-190,2600,90,0,10,200\n")
 	var buf bytes.Buffer
 	rec := NewRecorder(&buf, s, 0)
 	el := []Element{{P0: r2.Vec{X: 0}, P1: r2.Vec{X: 1}, Height: 10, Length: 1}}
