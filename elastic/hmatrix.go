@@ -152,27 +152,25 @@ func splitRuns(idx []int, cost func(int) int) [][]int {
 	for _, b := range idx {
 		total += cost(b)
 	}
-	var runs [][]int
-	var costs []int
+	type run struct {
+		idx  []int
+		cost int
+	}
+	var runs []run
 	for lo := 0; lo < len(idx); {
-		hi, c := lo, 0
-		for hi < len(idx) && (hi == lo || c+cost(idx[hi]) <= total/assemblyRuns) {
-			c += cost(idx[hi])
-			hi++
+		r := run{idx: idx[lo:lo]}
+		for hi := lo; hi < len(idx) && (hi == lo || r.cost+cost(idx[hi]) <= total/assemblyRuns); hi++ {
+			r.idx, r.cost = idx[lo:hi+1], r.cost+cost(idx[hi])
 		}
-		runs, costs = append(runs, idx[lo:hi]), append(costs, c)
-		lo = hi
+		runs = append(runs, r)
+		lo += len(r.idx)
 	}
-	order := make([]int, len(runs))
-	for i := range order {
-		order[i] = i
+	slices.SortStableFunc(runs, func(a, b run) int { return cmp.Compare(b.cost, a.cost) })
+	out := make([][]int, len(runs))
+	for i, r := range runs {
+		out[i] = r.idx
 	}
-	slices.SortStableFunc(order, func(a, b int) int { return cmp.Compare(costs[b], costs[a]) })
-	sorted := make([][]int, len(runs))
-	for i, r := range order {
-		sorted[i] = runs[r]
-	}
-	return sorted
+	return out
 }
 
 // assembleRun computes the blocks of one run and stores their numbers in
@@ -199,8 +197,8 @@ func (h *hmatrix) assembleRun(src source, specs []blockSpec, run []int, s Settin
 
 func size(t *tree, node int) int { return t.nodes[node].hi - t.nodes[node].lo }
 
-// computed is a block's numbers in double precision: dense (row-major,
-// M×N) when lr.u is nil, otherwise the low-rank factors.
+// computed is a block's numbers in double precision: the low-rank
+// factors when spec.lowRank, otherwise dense (row-major, M×N).
 type computed struct {
 	spec  blockSpec
 	dense []float64
