@@ -69,6 +69,12 @@ type ContactSettings struct {
 	// (Aperture then returns 0 for them), for callers that couple flow and
 	// slip sequentially and do not use them.
 	NoDerivatives bool
+	// CoupleCrossings keeps the pairs of a crossing, the touching
+	// elements where traces cross, whose contact problem stays well posed
+	// with them (see coupleCrossings: no pin, so their slip converges with
+	// the elements); it detaches and compensates the rest. Without it
+	// every touching pair is detached.
+	CoupleCrossings bool
 	// ShearOnly keeps every element closed: an element whose effective
 	// normal stress falls below zero slides at its cohesion instead of
 	// opening. The caller then models opening itself (as the simulator
@@ -160,7 +166,13 @@ type Contact struct {
 	detached      [][]int32
 	detachedBlock [][]elastic.Block
 	compensated   []elastic.Block
-	groups        [][]int
+	// crossingOf is each element's crossing (−1 for none; nil without
+	// CoupleCrossings), crossingMembers the elements of each and
+	// crossingKept whether it keeps its pairs.
+	crossingOf      []int
+	crossingMembers [][]int
+	crossingKept    []bool
+	groups          [][]int
 
 	// The committed state of the step and its tractions.
 	base *ContactState
@@ -260,17 +272,20 @@ func (c *Contact) findNear() {
 	c.detachedBlock = make([][]elastic.Block, n)
 	c.compensated = make([]elastic.Block, n)
 	r2max := c.set.NearRadius * c.set.NearRadius
+	if c.set.CoupleCrossings {
+		c.coupleCrossings(g, centres) // compensates what it detaches
+	}
 	for j := range n { // source j
 		g.visit(centres[j], func(i int) {
 			if i == j {
 				return
 			}
 			d := r2.Sub(centres[i], centres[j])
-			if c.elems[i].Group != c.elems[j].Group && c.touching(i, j) {
+			if c.elems[i].Group != c.elems[j].Group && c.touching(i, j) && !c.keptPair(i, j) {
 				aij := c.op.At(i, j)
 				c.detached[j] = append(c.detached[j], int32(i))
 				c.detachedBlock[j] = append(c.detachedBlock[j], aij)
-				if i > j && !c.elems[i].Intact && !c.elems[j].Intact { // each pair once: it is visited from both ends
+				if !c.set.CoupleCrossings && i > j && c.ordinaryTouching(i, j) { // each pair once: it is visited from both ends
 					c.compensatePair(i, j, aij)
 				}
 				return

@@ -75,6 +75,14 @@ func sqrtSym2(a, b, c float64) [3]float64 {
 	return [3]float64{(a + s) / t, b / t, (c + s) / t}
 }
 
+// subBlock returns a − b.
+func subBlock(a, b elastic.Block) elastic.Block {
+	return elastic.Block{
+		ShearSlip: a.ShearSlip - b.ShearSlip, ShearOpening: a.ShearOpening - b.ShearOpening,
+		NormalSlip: a.NormalSlip - b.NormalSlip, NormalOpening: a.NormalOpening - b.NormalOpening,
+	}
+}
+
 // addBlock returns a + b.
 func addBlock(a, b elastic.Block) elastic.Block {
 	return elastic.Block{

@@ -169,7 +169,8 @@ func newMechState(m *model) (*mechState, error) {
 	ms.op = op
 	ms.contact, err = mechanics.NewContact(op, ce, mechanics.ContactSettings{
 		NearRadius: m.nearRadius(), DetachRadius: detachRadius * m.s.Numerics.ElementLength,
-		FarRefresh: farRefresh * m.s.Numerics.SlipMax, ShearOnly: true, NoDerivatives: true})
+		FarRefresh: farRefresh * m.s.Numerics.SlipMax, ShearOnly: true, NoDerivatives: true,
+		CoupleCrossings: m.s.Numerics.Crossings == "coupled"})
 	if err != nil {
 		return nil, err
 	}

@@ -1,0 +1,297 @@
+package mechanics
+
+import (
+	"math"
+	"slices"
+
+	"gonum.org/v1/gonum/mat"
+	"gonum.org/v1/gonum/spatial/r2"
+
+	"slipfront/elastic"
+)
+
+// Coupled crossings (ContactSettings.CoupleCrossings).
+//
+// A crossing is a set of ordinary elements joined by touching pairs
+// (elements of different groups closer than DetachRadius, see touching):
+// the elements that meet where traces cross or end next to one another.
+// Detached and compensated (see compensation), a crossing is pinned: its
+// elements are stiffened by the coupling they lost, and the slip of two
+// faults crossing in an X converges slowly or to a false plateau
+// (TestCrossingDetachmentLowersSlip). A pin changes the slip around it by
+// a fraction that does not shrink with the elements: the stiffness it
+// adds is of the order of an element's own, G/h, over a length h, a point
+// force of the order of G·s whatever h. Only the collocation's own
+// couplings converge.
+//
+// So a coupled crossing keeps its pairs where the contact problem stays
+// well posed with them (wellPosedCrossing): its elastic energy definite,
+// and its friction well posed whatever the directions of sliding (the
+// collocated normal stress that one element's slip puts on the other, next
+// to that element's end, can make an element sliding forwards need
+// backward slip while, stuck, it is overloaded: the contact solve then
+// cycles). The crossings decided so far enter each check; those not yet
+// decided count as detached. Where it is not well posed, at a small angle
+// (in an X of constant elements the slip energy's smallest scaled
+// eigenvalue falls from 0.43 at 90° to 0.07 at 10°) or where a trace ends
+// next to another's face, the crossing is detached and compensated as
+// before. Crossings that an element released from intact rock makes
+// (Release) are detached and compensated too.
+
+// keptCrossingMargin is the smallest eigenvalue, relative to the
+// diagonal, that a kept crossing's energy and frictional stiffness keep
+// (see wellPosedCrossing): a little stiffness, so that a nearly singular
+// crossing does not pass.
+const keptCrossingMargin = 0.05
+
+// crossingReach, in element lengths, is how far from a crossing's
+// elements the check looks: the ordinary elements whose centres lie that
+// close to a member's centre take part in it.
+const crossingReach = 2
+
+// maxSignedMembers is the largest crossing whose directions of sliding
+// wellPosedCrossing tries one by one (2^10 patterns); beyond it a bound
+// covers them all.
+const maxSignedMembers = 10
+
+// crossings groups the touching pairs, given once each, into crossings
+// (connected sets), and returns the crossing of each of the n elements
+// (−1 for none) and the elements of each, in the order the pairs name
+// them.
+func crossings(n int, pairs [][2]int) (of []int, members [][]int) {
+	parent := make([]int, n)
+	for i := range parent {
+		parent[i] = i
+	}
+	var find func(int) int
+	find = func(i int) int {
+		if parent[i] != i {
+			parent[i] = find(parent[i])
+		}
+		return parent[i]
+	}
+	for _, p := range pairs {
+		if a, b := find(p[0]), find(p[1]); a != b {
+			parent[max(a, b)] = min(a, b)
+		}
+	}
+	of = make([]int, n)
+	for i := range of {
+		of[i] = -1
+	}
+	id := map[int]int{}
+	for _, p := range pairs {
+		for _, e := range p {
+			if of[e] >= 0 {
+				continue
+			}
+			r := find(e)
+			k, ok := id[r]
+			if !ok {
+				k = len(members)
+				id[r] = k
+				members = append(members, nil)
+			}
+			of[e] = k
+			members[k] = append(members[k], e)
+		}
+	}
+	return of, members
+}
+
+// coupleCrossings groups the touching pairs of ordinary elements into
+// crossings and compensates every such pair; then, one crossing after
+// another, it keeps a crossing (undoing its compensations) if
+// wellPosedCrossing accepts its elements and their neighbours with the
+// decisions so far. g buckets the element centres by NearRadius.
+func (c *Contact) coupleCrossings(g *centreGrid, centres []r2.Vec) {
+	n := len(c.elems)
+	var touching [][2]int
+	for j := range n {
+		g.visit(centres[j], func(i int) {
+			if i > j && c.ordinaryTouching(i, j) {
+				touching = append(touching, [2]int{i, j})
+			}
+		})
+	}
+	c.crossingOf, c.crossingMembers = crossings(n, touching)
+	c.crossingKept = make([]bool, len(c.crossingMembers))
+	// undo[k] is what keeping crossing k takes off its elements'
+	// compensations.
+	undo := make([]map[int]elastic.Block, len(c.crossingMembers))
+	for k := range undo {
+		undo[k] = map[int]elastic.Block{}
+	}
+	for _, p := range touching {
+		ci, cj := c.compensatePair(p[0], p[1], c.op.At(p[0], p[1]))
+		u := undo[c.crossingOf[p[0]]]
+		u[p[0]] = subBlock(u[p[0]], ci)
+		u[p[1]] = subBlock(u[p[1]], cj)
+	}
+	for k, members := range c.crossingMembers {
+		set := slices.Clone(members)
+		in := map[int]bool{}
+		for _, i := range members {
+			in[i] = true
+		}
+		for _, m := range members {
+			r := math.Min(crossingReach*c.elems[m].Element.Length(), c.set.NearRadius)
+			g.visit(centres[m], func(i int) {
+				if d := r2.Sub(centres[i], centres[m]); !in[i] && !c.elems[i].Intact && r2.Dot(d, d) <= r*r {
+					in[i] = true
+					set = append(set, i)
+				}
+			})
+		}
+		c.crossingKept[k] = true // as the check sees it
+		c.crossingKept[k] = c.wellPosedCrossing(set, len(members), func(i, j int) elastic.Block {
+			switch {
+			case i == j:
+				return addBlock(addBlock(c.op.At(i, i), c.compensated[i]), undo[k][i])
+			case c.elems[i].Group == c.elems[j].Group || !c.touching(i, j) || c.keptPair(i, j):
+				return c.op.At(i, j)
+			}
+			return elastic.Block{} // detached
+		})
+		if c.crossingKept[k] {
+			for i, d := range undo[k] {
+				c.compensated[i] = addBlock(c.compensated[i], d)
+			}
+		}
+	}
+}
+
+// ordinaryTouching reports whether elements i and j are ordinary (not
+// intact), of different groups and touching.
+func (c *Contact) ordinaryTouching(i, j int) bool {
+	return c.elems[i].Group != c.elems[j].Group && !c.elems[i].Intact && !c.elems[j].Intact && c.touching(i, j)
+}
+
+// keptPair reports whether elements i and j, which touch, belong to a
+// crossing that keeps its pairs.
+func (c *Contact) keptPair(i, j int) bool {
+	if c.crossingOf == nil {
+		return false
+	}
+	k := c.crossingOf[i]
+	return k >= 0 && k == c.crossingOf[j] && c.crossingKept[k]
+}
+
+// wellPosedCrossing reports whether the elements of set, whose first
+// members are a crossing's and the rest its neighbours, with blocks from
+// block(receiver, source), make a well-posed contact problem, with the
+// margin keptCrossingMargin relative to the diagonal (D^-½ M D^-½ for
+// each matrix M below, D the diagonal of the energy):
+//
+//   - the elastic energy U = ½ zᵀ E z, E = J W A (see the elastic
+//     package) symmetrized, is positive definite over slip, and without
+//     ShearOnly over slip and opening;
+//   - so is the frictional stiffness of slip whatever the crossing's
+//     elements' directions of sliding. A sliding element i obeys
+//     τ_i = σ_i (c + μ σn′_i), σ_i = ±1, whose Jacobian in the slips is,
+//     weighted, −(E_ss − μ Σ E_ns), E_ns the normal traction per slip and
+//     Σ = diag(σ); while its symmetric part is positive definite the
+//     Jacobian is nonsingular and the sliding problem monotone (Cottle,
+//     Pang & Stone 1992, from memory). Only the normal couplings of the
+//     crossing's touching pairs enter E_ns: the others are there whether
+//     the crossing is kept or not. Every choice of the members' σ is
+//     tried, up to maxSignedMembers members; beyond that the condition
+//     λ_min(E_ss) > μ‖E_ns‖₂, which covers every choice, is asked.
+//
+// μ is the largest friction coefficient of the members.
+func (c *Contact) wellPosedCrossing(set []int, members int, block func(i, j int) elastic.Block) bool {
+	m := len(set)
+	full := mat.NewSymDense(2*m, nil)
+	ns := mat.NewDense(members, members, nil)
+	mu := 0.0
+	for a, i := range set {
+		for b, j := range set[a:] {
+			b += a
+			eij, eji := c.energyBlock(i, block(i, j)), c.energyBlock(j, block(j, i))
+			for r := range 2 {
+				for q := range 2 {
+					if a != b || q >= r {
+						// Row r of receiver i against column q of source j,
+						// and the transposed pair's, averaged.
+						full.SetSym(r*m+a, q*m+b, 0.5*(eij[r][q]+eji[q][r]))
+					}
+				}
+			}
+		}
+		if a >= members {
+			continue
+		}
+		mu = math.Max(mu, math.Max(c.elems[i].Friction.Static, c.elems[i].Friction.Residual))
+		for b, j := range set[:members] {
+			if c.elems[i].Group != c.elems[j].Group && c.touching(i, j) {
+				ns.Set(a, b, c.energyBlock(i, block(i, j))[1][0])
+			}
+		}
+	}
+	scale := make([]float64, 2*m)
+	for k := range scale {
+		v := full.At(k, k)
+		if !(v > 0) {
+			return false
+		}
+		scale[k] = 1 / math.Sqrt(v)
+	}
+	for r := range scale {
+		for q := r; q < len(scale); q++ {
+			full.SetSym(r, q, full.At(r, q)*scale[r]*scale[q])
+		}
+	}
+	if !c.set.ShearOnly && !(minEigenvalue(full) > keptCrossingMargin) {
+		return false
+	}
+	slip := mat.NewSymDense(m, nil)
+	slip.CopySym(full.SliceSym(0, m))
+	if !(minEigenvalue(slip) > keptCrossingMargin) {
+		return false
+	}
+	for r := range members {
+		for q := range members {
+			ns.Set(r, q, mu*ns.At(r, q)*scale[r]*scale[q])
+		}
+	}
+	if members > maxSignedMembers {
+		var svd mat.SVD
+		return svd.Factorize(ns, mat.SVDNone) && minEigenvalue(slip)-svd.Values(nil)[0] > keptCrossingMargin
+	}
+	k := mat.NewSymDense(m, nil)
+	for signs := range 1 << members {
+		k.CopySym(slip)
+		for r := range members {
+			sr := float64(1 - 2*(signs>>r&1))
+			for q := range members {
+				if v := ns.At(r, q); v != 0 {
+					// −½(σ_r N_rq + σ_q N_qr), half from each of the two
+					// visits of the symmetric entry.
+					k.SetSym(r, q, k.At(r, q)-0.5*sr*v)
+				}
+			}
+		}
+		if !(minEigenvalue(k) > keptCrossingMargin) {
+			return false
+		}
+	}
+	return true
+}
+
+// energyBlock returns receiver i's row of the energy matrix for block b
+// of the operator: J W_i b, J = diag(−1, 1), row-major over (slip,
+// opening).
+func (c *Contact) energyBlock(i int, b elastic.Block) [2][2]float64 {
+	w := c.weight[i]
+	return [2][2]float64{{-w * b.ShearSlip, -w * b.ShearOpening}, {w * b.NormalSlip, w * b.NormalOpening}}
+}
+
+// minEigenvalue returns the smallest eigenvalue of e, or −∞ when the
+// decomposition fails.
+func minEigenvalue(e mat.Symmetric) float64 {
+	var eig mat.EigenSym
+	if !eig.Factorize(e, false) {
+		return math.Inf(-1)
+	}
+	return eig.Values(nil)[0]
+}
