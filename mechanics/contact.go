@@ -54,7 +54,8 @@ type ContactSettings struct {
 	// next to the other's end or on its face, where the influence is
 	// singular and meaningless; such pairs are left out, their coupling
 	// added to the two self-influences so that the elastic energy stays
-	// positive (see compensation; 0 keeps every pair). It must not exceed
+	// positive (see compensation; 0 keeps every pair; CoupleCrossings keeps
+	// those of the crossings that stay well posed). It must not exceed
 	// NearRadius less half the longest element.
 	DetachRadius float64
 	// FarRefresh, m: the stress that slip and opening transfer beyond
