@@ -108,8 +108,8 @@ func parseEvent(rec []string, stages map[string]int, sub bool) (Event, error) {
 	if !ok {
 		return Event{}, fmt.Errorf("stage %q is not in the scenario's schedule", rec[5])
 	}
-	if v[4] != math.Trunc(v[4]) || v[4] < -1 {
-		return Event{}, fmt.Errorf("fracture_id %q: want a whole number ≥ 0, or −1 for a primary conduit", rec[4])
+	if v[4] != math.Trunc(v[4]) || v[4] < -1 || v[4] > maxCount {
+		return Event{}, fmt.Errorf("fracture_id %q: want a whole number in [0, %g], or −1 for a primary conduit", rec[4], float64(maxCount))
 	}
 	return Event{Time: v[0], X: v[1], Y: v[2], Depth: v[3], Fracture: int(v[4]), Trace: -1, Stage: stage,
 		Slip: v[5] * 1e-3, Area: v[6], Moment: v[7], Magnitude: v[8]}, nil
@@ -140,6 +140,12 @@ func ReadTimeline(r io.Reader, name string, s *scenarios.Scenario) ([]Sample, er
 // Pa (the scenario's pressure caps are at most 1000 MPa).
 const maxMPa = 1e6
 
+// maxCount is the largest element or event count, or fracture number, a
+// table may hold: 2⁵³, beyond which a float64 no longer holds every whole
+// number (and an int conversion could overflow). FuzzReadTimeline found an event count of
+// 5e106, which read as a whole number but did not write back as one.
+const maxCount = 1 << 53
+
 func parseSample(rec []string, stages map[string]int) (Sample, error) {
 	stage, ok := stages[rec[1]]
 	if !ok {
@@ -157,8 +163,10 @@ func parseSample(rec []string, stages map[string]int) (Sample, error) {
 		}
 		v[k] = x
 	}
-	if v[6] != math.Trunc(v[6]) || v[7] != math.Trunc(v[7]) || v[6] < 0 || v[7] < 0 {
-		return Sample{}, fmt.Errorf("element and event counts must be whole numbers ≥ 0")
+	for _, n := range []float64{v[6], v[7]} {
+		if n != math.Trunc(n) || n < 0 || n > maxCount {
+			return Sample{}, fmt.Errorf("element and event counts must be whole numbers in [0, %g]", float64(maxCount))
+		}
 	}
 	if v[9] < 0 || v[10] < 0 {
 		return Sample{}, fmt.Errorf("moments %g and %g N·m: must be ≥ 0", v[9], v[10])
