@@ -1,11 +1,14 @@
 package mechanics
 
 import (
+	"fmt"
 	"math"
 	"math/rand/v2"
 	"testing"
 
 	"gonum.org/v1/gonum/spatial/r3"
+
+	"slipfront/elastic"
 )
 
 // benchPlanes returns n random planes in three sets.
@@ -208,3 +211,23 @@ func benchmarkDepletedEllipseAt(b *testing.B, h float64) {
 
 func BenchmarkDepletedEllipseAtPlaneStrain(b *testing.B) { benchmarkDepletedEllipseAt(b, math.Inf(1)) }
 func BenchmarkDepletedEllipseAt30m(b *testing.B)         { benchmarkDepletedEllipseAt(b, 30) }
+
+// BenchmarkNewContactCoupled builds the contact problem of a crossing
+// network (twelve traces of sixteen 1 m elements, crossingNetwork) with
+// and without CoupleCrossings: what checking its crossings costs.
+func BenchmarkNewContactCoupled(b *testing.B) {
+	elems, ce := crossingNetwork(0)
+	op, err := elastic.NewDense(elems, testRock, elastic.Settings{PlaneStrain: true})
+	if err != nil {
+		b.Fatal(err)
+	}
+	for _, coupled := range []bool{false, true} {
+		b.Run(fmt.Sprintf("coupled=%v", coupled), func(b *testing.B) {
+			for b.Loop() {
+				if _, err := NewContact(op, ce, ContactSettings{NearRadius: 3, DetachRadius: 0.6, ShearOnly: true, CoupleCrossings: coupled}); err != nil {
+					b.Fatal(err)
+				}
+			}
+		})
+	}
+}
