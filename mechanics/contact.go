@@ -286,7 +286,7 @@ func (c *Contact) findNear() {
 				aij := c.op.At(i, j)
 				c.detached[j] = append(c.detached[j], int32(i))
 				c.detachedBlock[j] = append(c.detachedBlock[j], aij)
-				if !c.set.CoupleCrossings && i > j && c.ordinaryTouching(i, j) { // each pair once: it is visited from both ends
+				if !c.set.CoupleCrossings && i > j && !c.elems[i].Intact && !c.elems[j].Intact { // each pair once: it is visited from both ends
 					c.compensatePair(i, j, aij)
 				}
 				return

@@ -8,6 +8,7 @@ import (
 	"gonum.org/v1/gonum/spatial/r2"
 
 	"slipfront/elastic"
+	"slipfront/internal/unionfind"
 )
 
 // Coupled crossings (ContactSettings.CoupleCrossings).
@@ -59,33 +60,21 @@ const maxSignedMembers = 10
 // (−1 for none) and the elements of each, in the order the pairs name
 // them.
 func crossings(n int, pairs [][2]int) (of []int, members [][]int) {
-	parent := make([]int, n)
-	for i := range parent {
-		parent[i] = i
-	}
-	var find func(int) int
-	find = func(i int) int {
-		if parent[i] != i {
-			parent[i] = find(parent[i])
-		}
-		return parent[i]
-	}
+	sets := unionfind.New(n)
 	for _, p := range pairs {
-		if a, b := find(p[0]), find(p[1]); a != b {
-			parent[max(a, b)] = min(a, b)
-		}
+		sets.Union(int32(p[0]), int32(p[1]))
 	}
 	of = make([]int, n)
 	for i := range of {
 		of[i] = -1
 	}
-	id := map[int]int{}
+	id := map[int32]int{}
 	for _, p := range pairs {
 		for _, e := range p {
 			if of[e] >= 0 {
 				continue
 			}
-			r := find(e)
+			r := sets.Find(int32(e))
 			k, ok := id[r]
 			if !ok {
 				k = len(members)
@@ -217,15 +206,13 @@ func (c *Contact) wellPosedCrossing(set []int, members int, block func(i, j int)
 					}
 				}
 			}
-		}
-		if a >= members {
-			continue
-		}
-		mu = math.Max(mu, math.Max(c.elems[i].Friction.Static, c.elems[i].Friction.Residual))
-		for b, j := range set[:members] {
-			if c.elems[i].Group != c.elems[j].Group && c.touching(i, j) {
-				ns.Set(a, b, c.energyBlock(i, block(i, j))[1][0])
+			if b < members && c.elems[i].Group != c.elems[j].Group && c.touching(i, j) {
+				ns.Set(a, b, eij[1][0])
+				ns.Set(b, a, eji[1][0])
 			}
+		}
+		if a < members {
+			mu = math.Max(mu, c.elems[i].Friction.Static) // μd ≤ μs
 		}
 	}
 	scale := make([]float64, 2*m)
