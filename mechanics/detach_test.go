@@ -200,34 +200,30 @@ func TestContactCrossingNetworkConverges(t *testing.T) {
 // solveCrossingNetwork is one case of TestContactCrossingNetworkConverges.
 func solveCrossingNetwork(t *testing.T, seed uint64, radius float64, coupled bool) {
 	t.Helper()
-	{
-		{
-			elems, ce := crossingNetwork(seed)
-			for i := range ce {
-				ce[i].Friction = SlipWeakening{Static: 0.6, Residual: 0.5, CriticalSlip: 1e-3}
-			}
-			op, err := elastic.NewDense(elems, testRock, elastic.Settings{PlaneStrain: true})
-			if err != nil {
-				t.Fatal(err)
-			}
-			c, err := NewContact(op, ce, ContactSettings{NearRadius: 100, DetachRadius: radius, ShearOnly: true, MaxIterations: 8, CoupleCrossings: coupled})
-			if err != nil {
-				t.Fatal(err)
-			}
-			n := len(elems)
-			c.Begin(c.NewState(), make([]float64, n))
-			for _, p := range []float64{1.86e7, 1.9e7} { // strength 0.6(σn − p) < τ = 1 MPa from p = 18.3 MPa
-				res, err := c.Solve(uniform(n, p))
-				if err != nil {
-					t.Fatalf("radius %g m, seed %d, coupled %v, p = %g Pa: %v", radius, seed, coupled, p, err)
-				}
-				if res.Active != n {
-					t.Errorf("seed %d, p = %g Pa: %d elements in the working set, want all %d", seed, p, res.Active, n)
-				}
-				if !(res.MaxSlip > 0 && res.MaxSlip < 1e-3) {
-					t.Errorf("seed %d, p = %g Pa: largest slip %.3g m, want in (0, 1 mm)", seed, p, res.MaxSlip)
-				}
-			}
+	elems, ce := crossingNetwork(seed)
+	for i := range ce {
+		ce[i].Friction = SlipWeakening{Static: 0.6, Residual: 0.5, CriticalSlip: 1e-3}
+	}
+	op, err := elastic.NewDense(elems, testRock, elastic.Settings{PlaneStrain: true})
+	if err != nil {
+		t.Fatal(err)
+	}
+	c, err := NewContact(op, ce, ContactSettings{NearRadius: 100, DetachRadius: radius, ShearOnly: true, MaxIterations: 8, CoupleCrossings: coupled})
+	if err != nil {
+		t.Fatal(err)
+	}
+	n := len(elems)
+	c.Begin(c.NewState(), make([]float64, n))
+	for _, p := range []float64{1.86e7, 1.9e7} { // strength 0.6(σn − p) < τ = 1 MPa from p = 18.3 MPa
+		res, err := c.Solve(uniform(n, p))
+		if err != nil {
+			t.Fatalf("radius %g m, seed %d, coupled %v, p = %g Pa: %v", radius, seed, coupled, p, err)
+		}
+		if res.Active != n {
+			t.Errorf("seed %d, p = %g Pa: %d elements in the working set, want all %d", seed, p, res.Active, n)
+		}
+		if !(res.MaxSlip > 0 && res.MaxSlip < 1e-3) {
+			t.Errorf("seed %d, p = %g Pa: largest slip %.3g m, want in (0, 1 mm)", seed, p, res.MaxSlip)
 		}
 	}
 }
@@ -395,7 +391,7 @@ func TestCrossingDetachmentLowersSlip(t *testing.T) {
 // element lengths; NearRadius and Tolerance are set here).
 func crossingSlip(t *testing.T, angle float64, n int, set ContactSettings) float64 {
 	t.Helper()
-	const half, sigma, p0, tau = 10.0, 50e6, 20e6, 18.5e6
+	const half, sigma, p0, tau = crossingHalf, crossingSigma, crossingP0, crossingTau
 	var elems []elastic.Element
 	var ce []ContactElement
 	second := r2.Vec{X: math.Cos(angle * math.Pi / 180), Y: math.Sin(angle * math.Pi / 180)}
@@ -429,14 +425,18 @@ func crossingSlip(t *testing.T, angle float64, n int, set ContactSettings) float
 	return sum
 }
 
-// crossingFriction is the constant friction of crossingSlip's faults.
+// crossingFriction is the constant friction of crossingSlip's faults,
+// and the constants their half-length, m, total normal stress, pressure
+// and shear stress, Pa.
 var crossingFriction = SlipWeakening{Static: 0.6, Residual: 0.6, CriticalSlip: 1e-3}
+
+const crossingHalf, crossingSigma, crossingP0, crossingTau = 10.0, 50e6, 20e6, 18.5e6
 
 // loneCrossingSlip is the slip × length of one of crossingSlip's faults
 // alone, (1−ν)Δτπc²/G (Pollard & Segall 1987), m².
 func loneCrossingSlip() float64 {
-	const half, sigma, p0, tau = 10.0, 50e6, 20e6, 18.5e6
-	return (1 - testRock.PoissonRatio) * (tau - crossingFriction.Static*(sigma-p0)) * math.Pi * half * half / testRock.ShearModulus
+	overload := crossingTau - crossingFriction.Static*(crossingSigma-crossingP0)
+	return (1 - testRock.PoissonRatio) * overload * math.Pi * crossingHalf * crossingHalf / testRock.ShearModulus
 }
 
 // Coupled crossings (CoupleCrossings) keep the pairs of an X, whose slip
