@@ -282,3 +282,22 @@ func minEigenvalue(e mat.Symmetric) float64 {
 	}
 	return eig.Values(nil)[0]
 }
+
+// PinnedCrossings returns the number of crossings (connected sets of
+// touching ordinary elements of different groups) of which some pair is
+// detached and compensated, so the slip there is pinned: all of them
+// without CoupleCrossings, those wellPosedCrossing refused with it.
+// Intact elements make none, nor do pairs that do not load each other
+// (an operator without interaction).
+func (c *Contact) PinnedCrossings() int {
+	var pairs [][2]int
+	for j, list := range c.detached { // source j
+		for q, i := range list {
+			if int(i) > j && !c.elems[i].Intact && !c.elems[j].Intact && c.detachedBlock[j][q] != (elastic.Block{}) {
+				pairs = append(pairs, [2]int{int(i), j})
+			}
+		}
+	}
+	_, members := crossings(len(c.elems), pairs)
+	return len(members)
+}

@@ -97,10 +97,18 @@ func TestDetachCompensation(t *testing.T) {
 		for seed := range uint64(4) {
 			for _, planeStrain := range []bool{true, false} {
 				for _, shearOnly := range []bool{true, false} {
-					for _, coupled := range []bool{false, true} {
+					var pinned [2]int // detached, coupled
+					for m, coupled := range []bool{false, true} {
 						t.Run(fmt.Sprintf("radius%g/seed%d/planeStrain=%v/shearOnly=%v/coupled=%v", radius, seed, planeStrain, shearOnly, coupled), func(t *testing.T) {
-							k, n := checkDetachCompensation(t, seed, radius, planeStrain, shearOnly, coupled)
+							var k, n int
+							k, n, pinned[m] = checkDetachCompensation(t, seed, radius, planeStrain, shearOnly, coupled)
 							kept, crossings = kept+k, crossings+n
+							if coupled && pinned[m] != n-k {
+								t.Errorf("%d crossings pinned, want the %d of %d not kept", pinned[m], n-k, n)
+							}
+							if coupled && pinned[0] != n {
+								t.Errorf("detached, %d crossings pinned, want all %d", pinned[0], n)
+							}
 						})
 					}
 				}
@@ -116,8 +124,8 @@ func TestDetachCompensation(t *testing.T) {
 
 // checkDetachCompensation runs TestDetachCompensation's checks on one
 // case and returns how many crossings it kept of how many (with coupled
-// crossings, CoupleCrossings; none without).
-func checkDetachCompensation(t *testing.T, seed uint64, radius float64, planeStrain, shearOnly, coupled bool) (kept, crossings int) {
+// crossings, CoupleCrossings; none without), and how many it pinned.
+func checkDetachCompensation(t *testing.T, seed uint64, radius float64, planeStrain, shearOnly, coupled bool) (kept, crossings, pinned int) {
 	t.Helper()
 	elems, ce := crossingNetwork(seed)
 	op, err := elastic.NewDense(elems, testRock, elastic.Settings{PlaneStrain: planeStrain})
@@ -164,7 +172,7 @@ func checkDetachCompensation(t *testing.T, seed uint64, radius float64, planeStr
 			t.Errorf("without compensation the slip energy's smallest eigenvalue is %.3g ≥ 0: this network does not show the failure", l)
 		}
 	}
-	return kept, len(c.crossingKept)
+	return kept, len(c.crossingKept), c.PinnedCrossings()
 }
 
 // detachRadii are the detach radii the crossing tests run with, m, on

@@ -135,6 +135,12 @@ type Result struct {
 	// SeismicMoment is the moment released by ruptures (the events) and
 	// AseismicMoment that of stable slip, N·m (M0 = G·Σ A·|Δs|).
 	SeismicMoment, AseismicMoment float64
+	// PinnedCrossings is the number of places where fractures cross or
+	// touch whose slip the contact problem pinned at the end of the run
+	// (mechanics.Contact.PinnedCrossings): the aseismic moment is held
+	// down there, and grows as the elements shrink (README, Convergence).
+	// 0 in a replayed result.
+	PinnedCrossings int
 	// Duration of the run, s; Steps accepted and CutSteps repeated.
 	Duration        float64
 	Steps, CutSteps int
@@ -757,6 +763,7 @@ func (r *runner) result() *Result {
 	res.InitialAperture = r.eInit
 	res.Slip, res.FirstSlip, res.FirstSlipStage = r.ms.state.Travel, r.ms.firstSlip, r.ms.firstStage
 	res.SeismicMoment, res.AseismicMoment = r.ms.seismicMoment, r.ms.aseismicMoment
+	res.PinnedCrossings = r.ms.contact.PinnedCrossings()
 	res.NormalStress = r.normal
 	res.ShearSlip, res.Opening, res.CoulombChange = r.ms.state.Slip, r.ms.state.Opening, r.ms.coulombChange()
 	res.Stimulated, res.StimulatedAt, res.Cells = r.stim.element, r.stim.at, r.stim.cellList()

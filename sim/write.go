@@ -385,6 +385,7 @@ type totalsJSON struct {
 	MaxMagnitude       *float64 `json:"max_magnitude_Mw"`
 	SeismicMomentNm    float64  `json:"seismic_moment_Nm"`
 	AseismicMomentNm   float64  `json:"aseismic_moment_Nm"`
+	PinnedCrossings    int      `json:"pinned_crossings"`
 	McGarrBoundNm      float64  `json:"mcgarr_bound_Nm"`
 	GainStimulated     *float64 `json:"permeability_gain_stimulated"`
 	RetainedStimulated *float64 `json:"retained_permeability_gain_stimulated"`
@@ -474,7 +475,7 @@ func WriteSummary(w io.Writer, s *scenarios.Scenario, net *dfn.Network, res *Res
 			DurationS: res.Duration, InjectedM3: res.Injected, LeakedM3: res.Leaked,
 			StimulatedAreaM2: res.StimulatedArea, StimulatedReachM: s.Numerics.StimulatedReach, FractureAreaM2: res.FractureArea, StimulatedVolumeM3: res.StimulatedVolume,
 			Events: len(res.Events), MaxMagnitude: optional(maxMw), PeakBHPMPa: res.PeakBHP / 1e6,
-			SeismicMomentNm: res.SeismicMoment, AseismicMomentNm: res.AseismicMoment,
+			SeismicMomentNm: res.SeismicMoment, AseismicMomentNm: res.AseismicMoment, PinnedCrossings: res.PinnedCrossings,
 			McGarrBoundNm:    mechanics.MaxInducedMoment(s.Rock.ShearModulus, res.Injected),
 			MassBalanceError: res.MassBalanceError,
 		},
@@ -532,7 +533,11 @@ func WriteStageTable(w io.Writer, s *scenarios.Scenario, res *Result) error {
 	}
 	fmt.Fprintf(&b, "total: %.4g m3 injected, stimulated area %.0f m2 (fracture surface %.0f m2), %s, peak BHP %.2f MPa\n",
 		res.Injected, res.StimulatedArea, res.FractureArea, plural.S(len(res.Events), "event"), res.PeakBHP/1e6)
-	fmt.Fprintf(&b, "slip moment: %.3g N·m seismic (the events), %.3g N·m aseismic\n", res.SeismicMoment, res.AseismicMoment)
+	fmt.Fprintf(&b, "slip moment: %.3g N·m seismic (the events), %.3g N·m aseismic", res.SeismicMoment, res.AseismicMoment)
+	if res.PinnedCrossings > 0 {
+		fmt.Fprintf(&b, " (a lower bound: slip pinned at %s; it grows as elements shrink)", plural.S(res.PinnedCrossings, "crossing"))
+	}
+	b.WriteString("\n")
 	if g := summarizeGrowth(s, res); g != nil && len(res.Stages) > 0 {
 		last := res.Stages[len(res.Stages)-1]
 		fmt.Fprintf(&b, "growth: %s, %s; meetings with natural fractures: %s\n", plural.S(g.Fractures, "fracture"), g.HalfLengths(), g.Meetings())
