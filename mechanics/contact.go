@@ -167,10 +167,10 @@ type Contact struct {
 	detached      [][]int32
 	detachedBlock [][]elastic.Block
 	compensated   []elastic.Block
-	// crossingOf is each element's crossing (−1 for none; nil without
-	// CoupleCrossings), crossingMembers the elements of each and
-	// crossingKept whether it keeps its pairs.
-	crossingOf      []int
+	// crossingOf is the crossing of each touching pair of ordinary
+	// elements, by pairKey (nil without CoupleCrossings), crossingMembers
+	// the elements of each and crossingKept whether it keeps its pairs.
+	crossingOf      map[[2]int]int
 	crossingMembers [][]int
 	crossingKept    []bool
 	groups          [][]int

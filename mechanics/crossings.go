@@ -13,10 +13,16 @@ import (
 
 // Coupled crossings (ContactSettings.CoupleCrossings).
 //
-// A crossing is a set of ordinary elements joined by touching pairs
-// (elements of different groups closer than DetachRadius, see touching):
-// the elements that meet where traces cross or end next to one another.
-// Detached and compensated (see compensation), a crossing is pinned: its
+// A crossing is a set of ordinary elements of two groups joined by
+// touching pairs between them (elements closer than DetachRadius, see
+// touching): the elements that meet where two traces cross, end next to
+// one another or run side by side. Three traces meeting at one place make
+// three crossings, decided one after another. (Joining every touching
+// pair into one set, as first built, chained crossings through traces
+// running close beside them into clusters of dozens of elements on coarse
+// meshes; one soft part refused the whole cluster, the clusters split into
+// kept crossings as the elements shrank, and the moment grew with them:
+// see the README's Convergence.) Detached and compensated (see compensation), a crossing is pinned: its
 // elements are stiffened by the coupling they lost, and the slip of two
 // faults crossing in an X converges slowly or to a false plateau
 // (TestCrossingDetachmentLowersSlip). A pin changes the slip around it by
@@ -31,8 +37,10 @@ import (
 // collocated normal stress that one element's slip puts on the other, next
 // to that element's end, can make an element sliding forwards need
 // backward slip while, stuck, it is overloaded: the contact solve then
-// cycles). The crossings decided so far enter each check; those not yet
-// decided count as detached. Where it is not well posed, at a small angle
+// cycles). The crossings decided so far enter each check, and the kept
+// crossings that share elements with it, and theirs, take part in it
+// whole (a soft mode can run through them); those not yet decided count
+// as detached. Where it is not well posed, at a small angle
 // (in an X of constant elements the slip energy's smallest scaled
 // eigenvalue falls from 0.43 at 90° to 0.07 at 10°) or where a trace ends
 // next to another's face, the crossing is detached and compensated as
@@ -55,38 +63,46 @@ const crossingReach = 2
 // covers them all.
 const maxSignedMembers = 10
 
-// crossings groups the touching pairs, given once each, into crossings
-// (connected sets), and returns the crossing of each of the n elements
-// (−1 for none) and the elements of each, in the order the pairs name
-// them.
-func crossings(n int, pairs [][2]int) (of []int, members [][]int) {
-	sets := unionfind.New(n)
-	for _, p := range pairs {
-		sets.Union(int32(p[0]), int32(p[1]))
-	}
-	of = make([]int, n)
-	for i := range of {
-		of[i] = -1
-	}
-	id := map[int32]int{}
+// crossings groups pairs of elements into connected sets: it returns the
+// set of each pair, in the order given, and the elements of each set, in
+// the order the pairs name them.
+func crossings(pairs [][2]int) (of []int, members [][]int) {
+	local := map[int]int32{}
 	for _, p := range pairs {
 		for _, e := range p {
-			if of[e] >= 0 {
-				continue
+			if _, ok := local[e]; !ok {
+				local[e] = int32(len(local))
 			}
-			r := sets.Find(int32(e))
-			k, ok := id[r]
-			if !ok {
-				k = len(members)
-				id[r] = k
-				members = append(members, nil)
+		}
+	}
+	sets := unionfind.New(len(local))
+	for _, p := range pairs {
+		sets.Union(local[p[0]], local[p[1]])
+	}
+	id := map[int32]int{}
+	listed := map[int]bool{}
+	of = make([]int, len(pairs))
+	for q, p := range pairs {
+		r := sets.Find(local[p[0]])
+		k, ok := id[r]
+		if !ok {
+			k = len(members)
+			id[r] = k
+			members = append(members, nil)
+		}
+		of[q] = k
+		for _, e := range p {
+			if !listed[e] {
+				listed[e] = true
+				members[k] = append(members[k], e)
 			}
-			of[e] = k
-			members[k] = append(members[k], e)
 		}
 	}
 	return of, members
 }
+
+// pairKey is the key of the pair of elements i and j: lower first.
+func pairKey(i, j int) [2]int { return [2]int{min(i, j), max(i, j)} }
 
 // coupleCrossings groups the touching pairs of ordinary elements into
 // crossings and compensates every such pair; then, one crossing after
@@ -103,7 +119,29 @@ func (c *Contact) coupleCrossings(g *centreGrid, centres []r2.Vec) {
 			}
 		})
 	}
-	c.crossingOf, c.crossingMembers = crossings(n, touching)
+	// One crossing per connected set of touching pairs between the same
+	// two groups.
+	byGroups := map[[2]int][]int{}
+	var groupPairs [][2]int
+	for q, p := range touching {
+		k := pairKey(c.elems[p[0]].Group, c.elems[p[1]].Group)
+		if byGroups[k] == nil {
+			groupPairs = append(groupPairs, k)
+		}
+		byGroups[k] = append(byGroups[k], q)
+	}
+	c.crossingOf = map[[2]int]int{}
+	for _, k := range groupPairs {
+		pairs := make([][2]int, len(byGroups[k]))
+		for t, q := range byGroups[k] {
+			pairs[t] = touching[q]
+		}
+		of, members := crossings(pairs)
+		for t, p := range pairs {
+			c.crossingOf[pairKey(p[0], p[1])] = len(c.crossingMembers) + of[t]
+		}
+		c.crossingMembers = append(c.crossingMembers, members...)
+	}
 	c.crossingKept = make([]bool, len(c.crossingMembers))
 	// undo[k] is what keeping crossing k takes off its elements'
 	// compensations.
@@ -113,17 +151,31 @@ func (c *Contact) coupleCrossings(g *centreGrid, centres []r2.Vec) {
 	}
 	for _, p := range touching {
 		ci, cj := c.compensatePair(p[0], p[1], c.op.At(p[0], p[1]))
-		u := undo[c.crossingOf[p[0]]]
+		u := undo[c.crossingOf[pairKey(p[0], p[1])]]
 		u[p[0]] = subBlock(u[p[0]], ci)
 		u[p[1]] = subBlock(u[p[1]], cj)
 	}
+	// keptAt lists, for each element, the kept crossings it belongs to.
+	keptAt := map[int][]int{}
 	for k, members := range c.crossingMembers {
 		set := slices.Clone(members)
 		in := map[int]bool{}
 		for _, i := range members {
 			in[i] = true
 		}
-		for _, m := range members {
+		// The kept crossings that share elements with this one, and
+		// theirs, join the check whole: a soft mode can run through them.
+		for q := 0; q < len(set); q++ {
+			for _, kk := range keptAt[set[q]] {
+				for _, i := range c.crossingMembers[kk] {
+					if !in[i] {
+						in[i] = true
+						set = append(set, i)
+					}
+				}
+			}
+		}
+		for _, m := range slices.Clone(set) {
 			r := math.Min(crossingReach*c.elems[m].Element.Length(), c.set.NearRadius)
 			g.visit(centres[m], func(i int) {
 				if d := r2.Sub(centres[i], centres[m]); !in[i] && !c.elems[i].Intact && r2.Dot(d, d) <= r*r {
@@ -146,6 +198,9 @@ func (c *Contact) coupleCrossings(g *centreGrid, centres []r2.Vec) {
 			for i, d := range undo[k] {
 				c.compensated[i] = addBlock(c.compensated[i], d)
 			}
+			for _, i := range members {
+				keptAt[i] = append(keptAt[i], k)
+			}
 		}
 	}
 }
@@ -159,15 +214,13 @@ func (c *Contact) ordinaryTouching(i, j int) bool {
 // keptPair reports whether elements i and j, which touch, belong to a
 // crossing that keeps its pairs.
 func (c *Contact) keptPair(i, j int) bool {
-	if c.crossingOf == nil {
-		return false
-	}
-	k := c.crossingOf[i]
-	return k >= 0 && k == c.crossingOf[j] && c.crossingKept[k]
+	k, ok := c.crossingOf[pairKey(i, j)]
+	return ok && c.crossingKept[k]
 }
 
 // wellPosedCrossing reports whether the elements of set, whose first
-// members are a crossing's and the rest its neighbours, with blocks from
+// members are a crossing's and the rest the elements around it (the kept
+// crossings joined to it and the neighbours), with blocks from
 // block(receiver, source), make a well-posed contact problem, with the
 // margin keptCrossingMargin relative to the diagonal (D^-½ M D^-½ for
 // each matrix M below, D the diagonal of the energy):
@@ -228,12 +281,12 @@ func (c *Contact) wellPosedCrossing(set []int, members int, block func(i, j int)
 			full.SetSym(r, q, full.At(r, q)*scale[r]*scale[q])
 		}
 	}
-	if !c.set.ShearOnly && !(minEigenvalue(full) > keptCrossingMargin) {
+	if !c.set.ShearOnly && !aboveMargin(full) {
 		return false
 	}
 	slip := mat.NewSymDense(m, nil)
 	slip.CopySym(full.SliceSym(0, m))
-	if !(minEigenvalue(slip) > keptCrossingMargin) {
+	if !aboveMargin(slip) {
 		return false
 	}
 	for r := range members {
@@ -258,7 +311,7 @@ func (c *Contact) wellPosedCrossing(set []int, members int, block func(i, j int)
 				}
 			}
 		}
-		if !(minEigenvalue(k) > keptCrossingMargin) {
+		if !aboveMargin(k) {
 			return false
 		}
 	}
@@ -271,6 +324,20 @@ func (c *Contact) wellPosedCrossing(set []int, members int, block func(i, j int)
 func (c *Contact) energyBlock(i int, b elastic.Block) [2][2]float64 {
 	w := c.weight[i]
 	return [2][2]float64{{-w * b.ShearSlip, -w * b.ShearOpening}, {w * b.NormalSlip, w * b.NormalOpening}}
+}
+
+// aboveMargin reports whether the smallest eigenvalue of e exceeds
+// keptCrossingMargin: whether e − margin·I has a Cholesky factor, several
+// times cheaper than its eigenvalues.
+func aboveMargin(e *mat.SymDense) bool {
+	n := e.SymmetricDim()
+	shifted := mat.NewSymDense(n, nil)
+	shifted.CopySym(e)
+	for i := range n {
+		shifted.SetSym(i, i, shifted.At(i, i)-keptCrossingMargin)
+	}
+	var chol mat.Cholesky
+	return chol.Factorize(shifted)
 }
 
 // minEigenvalue returns the smallest eigenvalue of e, or −∞ when the
@@ -298,6 +365,6 @@ func (c *Contact) PinnedCrossings() int {
 			}
 		}
 	}
-	_, members := crossings(len(c.elems), pairs)
+	_, members := crossings(pairs)
 	return len(members)
 }

@@ -103,11 +103,13 @@ func TestDetachCompensation(t *testing.T) {
 							var k, n int
 							k, n, pinned[m] = checkDetachCompensation(t, seed, radius, planeStrain, shearOnly, coupled)
 							kept, crossings = kept+k, crossings+n
-							if coupled && pinned[m] != n-k {
-								t.Errorf("%d crossings pinned, want the %d of %d not kept", pinned[m], n-k, n)
+							// The detached pairs of the crossings not kept,
+							// joined where they share elements.
+							if coupled && (pinned[m] > n-k || (pinned[m] == 0) != (k == n)) {
+								t.Errorf("%d places pinned, want 1 to the %d of %d crossings not kept", pinned[m], n-k, n)
 							}
-							if coupled && pinned[0] != n {
-								t.Errorf("detached, %d crossings pinned, want all %d", pinned[0], n)
+							if !coupled && pinned[m] == 0 {
+								t.Error("detached, nothing pinned")
 							}
 						})
 					}
@@ -191,7 +193,8 @@ func countDetached(c *Contact) int {
 // The contact solve on a crossing network in plane strain, every element
 // pressurised past its strength, solved as one system (few sweeps): with
 // the compensation every solve converges and the slip stays small
-// (0.12–0.15 mm here; Δτ·L/G for the whole 16 m traces is about 0.75 mm).
+// (0.12–0.15 mm here; Δτ·L/G for the whole 16 m traces is about 0.75 mm;
+// coupled, seeds 2 and 3 rupture, to μd, and stay below 1 mm too).
 // Without it, the same solves failed at every seed and pressure tried
 // (Newton stalled, with slips up to 1 m), which is how the demo
 // example's realization 3 stopped.
@@ -230,8 +233,14 @@ func solveCrossingNetwork(t *testing.T, seed uint64, radius float64, coupled boo
 		if res.Active != n {
 			t.Errorf("seed %d, p = %g Pa: %d elements in the working set, want all %d", seed, p, res.Active, n)
 		}
-		if !(res.MaxSlip > 0 && res.MaxSlip < 1e-3) {
-			t.Errorf("seed %d, p = %g Pa: largest slip %.3g m, want in (0, 1 mm)", seed, p, res.MaxSlip)
+		// Ruptures included (coupled, a crossing network that weakens can
+		// become unstable: res.MaxSlip leaves its ruptured elements out).
+		largest := 0.0
+		for _, ds := range c.trial.ds {
+			largest = math.Max(largest, math.Abs(ds))
+		}
+		if !(largest > 0 && largest < 1e-3) {
+			t.Errorf("seed %d, p = %g Pa: largest slip %.3g m (ruptured: %v), want in (0, 1 mm)", seed, p, largest, res.Ruptured)
 		}
 	}
 }

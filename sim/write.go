@@ -535,7 +535,7 @@ func WriteStageTable(w io.Writer, s *scenarios.Scenario, res *Result) error {
 		res.Injected, res.StimulatedArea, res.FractureArea, plural.S(len(res.Events), "event"), res.PeakBHP/1e6)
 	fmt.Fprintf(&b, "slip moment: %.3g N·m seismic (the events), %.3g N·m aseismic", res.SeismicMoment, res.AseismicMoment)
 	if res.PinnedCrossings > 0 {
-		fmt.Fprintf(&b, " (a lower bound: slip pinned at %s; it grows as elements shrink)", plural.S(res.PinnedCrossings, "crossing"))
+		fmt.Fprintf(&b, " (held down where %s pinned: see README, Convergence)", plural.Count(res.PinnedCrossings, "crossing is", "crossings are"))
 	}
 	b.WriteString("\n")
 	if g := summarizeGrowth(s, res); g != nil && len(res.Stages) > 0 {
