@@ -163,10 +163,12 @@ func (c *Contact) coupleCrossings(g *centreGrid, centres []r2.Vec) {
 		for _, i := range members {
 			in[i] = true
 		}
-		// The kept crossings that share elements with this one, and
-		// theirs, join the check whole: a soft mode can run through them.
-		for q := 0; q < len(set); q++ {
-			for _, kk := range keptAt[set[q]] {
+		// The kept crossings that share elements with this one join the
+		// check whole: a soft mode can run through them. (Theirs in turn,
+		// transitively, made sets of thousands of elements on coarse
+		// meshes of dense networks.)
+		for _, i := range members {
+			for _, kk := range keptAt[i] {
 				for _, i := range c.crossingMembers[kk] {
 					if !in[i] {
 						in[i] = true
@@ -298,9 +300,45 @@ func (c *Contact) wellPosedCrossing(set []int, members int, block func(i, j int)
 		var svd mat.SVD
 		return svd.Factorize(ns, mat.SVDNone) && minEigenvalue(slip)-svd.Values(nil)[0] > keptCrossingMargin
 	}
-	k := mat.NewSymDense(m, nil)
+	// The signs change only the members' block A of the frictional
+	// stiffness K(σ) = [[A(σ), B], [Bᵀ, C]], C the neighbours'. K(σ) − δI is
+	// positive definite exactly when C − δI is (it is, a principal block of
+	// the slip energy just checked) and so is the Schur complement
+	// A(σ) − δI − B (C − δI)⁻¹ Bᵀ (Golub & Van Loan 2013, §4.2, from
+	// memory): one factorization of C for all 2^members choices, each then
+	// a members × members one.
+	base := mat.NewSymDense(members, nil)
+	base.CopySym(slip.SliceSym(0, members))
+	if rest := m - members; rest > 0 {
+		c := mat.NewSymDense(rest, nil)
+		c.CopySym(slip.SliceSym(members, m))
+		for i := range rest {
+			c.SetSym(i, i, c.At(i, i)-keptCrossingMargin)
+		}
+		var chol mat.Cholesky
+		if !chol.Factorize(c) {
+			return false
+		}
+		b := mat.NewDense(members, rest, nil)
+		for r := range members {
+			for q := range rest {
+				b.Set(r, q, slip.At(r, members+q))
+			}
+		}
+		var x, t mat.Dense
+		if err := chol.SolveTo(&x, b.T()); err != nil {
+			return false
+		}
+		t.Mul(b, &x)
+		for r := range members {
+			for q := r; q < members; q++ {
+				base.SetSym(r, q, base.At(r, q)-0.5*(t.At(r, q)+t.At(q, r)))
+			}
+		}
+	}
+	k := mat.NewSymDense(members, nil)
 	for signs := range 1 << members {
-		k.CopySym(slip)
+		k.CopySym(base)
 		for r := range members {
 			sr := float64(1 - 2*(signs>>r&1))
 			for q := range members {
