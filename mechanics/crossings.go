@@ -22,9 +22,10 @@ import (
 // running close beside them into clusters of dozens of elements on coarse
 // meshes; one soft part refused the whole cluster, the clusters split into
 // kept crossings as the elements shrank, and the moment grew with them:
-// see the README's Convergence.) Detached and compensated (see compensation), a crossing is pinned: its
-// elements are stiffened by the coupling they lost, and the slip of two
-// faults crossing in an X converges slowly or to a false plateau
+// see the README's Convergence.) Detached and compensated (see
+// compensation), a crossing is pinned: its elements are stiffened by the
+// coupling they lost, and the slip of two faults crossing in an X
+// converges slowly or to a false plateau
 // (TestCrossingDetachmentLowersSlip). A pin changes the slip around it by
 // a fraction that does not shrink with the elements: the stiffness it
 // adds is of the order of an element's own, G/h, over a length h, a point
@@ -38,9 +39,8 @@ import (
 // to that element's end, can make an element sliding forwards need
 // backward slip while, stuck, it is overloaded: the contact solve then
 // cycles). The crossings decided so far enter each check, and the kept
-// crossings that share elements with it, and theirs, take part in it
-// whole (a soft mode can run through them); those not yet decided count
-// as detached. Where it is not well posed, at a small angle
+// crossings that share elements with it take part in it whole (a soft
+// mode can run through them); those not yet decided count as detached. Where it is not well posed, at a small angle
 // (in an X of constant elements the slip energy's smallest scaled
 // eigenvalue falls from 0.43 at 90° to 0.07 at 10°) or where a trace ends
 // next to another's face, the crossing is detached and compensated as
@@ -169,15 +169,15 @@ func (c *Contact) coupleCrossings(g *centreGrid, centres []r2.Vec) {
 		// meshes of dense networks.)
 		for _, i := range members {
 			for _, kk := range keptAt[i] {
-				for _, i := range c.crossingMembers[kk] {
-					if !in[i] {
-						in[i] = true
-						set = append(set, i)
+				for _, e := range c.crossingMembers[kk] {
+					if !in[e] {
+						in[e] = true
+						set = append(set, e)
 					}
 				}
 			}
 		}
-		for _, m := range slices.Clone(set) {
+		for _, m := range set { // the elements so far: range reads set once
 			r := math.Min(crossingReach*c.elems[m].Element.Length(), c.set.NearRadius)
 			g.visit(centres[m], func(i int) {
 				if d := r2.Sub(centres[i], centres[m]); !in[i] && !c.elems[i].Intact && r2.Dot(d, d) <= r*r {
@@ -191,10 +191,10 @@ func (c *Contact) coupleCrossings(g *centreGrid, centres []r2.Vec) {
 			switch {
 			case i == j:
 				return addBlock(addBlock(c.op.At(i, i), c.compensated[i]), undo[k][i])
-			case c.elems[i].Group == c.elems[j].Group || !c.touching(i, j) || c.keptPair(i, j):
-				return c.op.At(i, j)
+			case c.touchingPair(i, j) && !c.keptPair(i, j):
+				return elastic.Block{} // detached
 			}
-			return elastic.Block{} // detached
+			return c.op.At(i, j)
 		})
 		if c.crossingKept[k] {
 			for i, d := range undo[k] {
@@ -208,9 +208,18 @@ func (c *Contact) coupleCrossings(g *centreGrid, centres []r2.Vec) {
 }
 
 // ordinaryTouching reports whether elements i and j are ordinary (not
-// intact), of different groups and touching.
+// intact), of different groups and touching. coupleCrossings lists these
+// pairs once; touchingPair then looks them up.
 func (c *Contact) ordinaryTouching(i, j int) bool {
 	return c.elems[i].Group != c.elems[j].Group && !c.elems[i].Intact && !c.elems[j].Intact && c.touching(i, j)
+}
+
+// touchingPair reports whether ordinary elements i and j are a touching
+// pair of different groups (see ordinaryTouching), once coupleCrossings
+// has listed them.
+func (c *Contact) touchingPair(i, j int) bool {
+	_, ok := c.crossingOf[pairKey(i, j)]
+	return ok
 }
 
 // keptPair reports whether elements i and j, which touch, belong to a
@@ -261,7 +270,7 @@ func (c *Contact) wellPosedCrossing(set []int, members int, block func(i, j int)
 					}
 				}
 			}
-			if b < members && c.elems[i].Group != c.elems[j].Group && c.touching(i, j) {
+			if b < members && c.touchingPair(i, j) {
 				ns.Set(a, b, eij[1][0])
 				ns.Set(b, a, eji[1][0])
 			}
@@ -309,14 +318,17 @@ func (c *Contact) wellPosedCrossing(set []int, members int, block func(i, j int)
 	// a members × members one.
 	base := mat.NewSymDense(members, nil)
 	base.CopySym(slip.SliceSym(0, members))
+	for i := range members {
+		base.SetSym(i, i, base.At(i, i)-keptCrossingMargin)
+	}
 	if rest := m - members; rest > 0 {
-		c := mat.NewSymDense(rest, nil)
-		c.CopySym(slip.SliceSym(members, m))
+		around := mat.NewSymDense(rest, nil)
+		around.CopySym(slip.SliceSym(members, m))
 		for i := range rest {
-			c.SetSym(i, i, c.At(i, i)-keptCrossingMargin)
+			around.SetSym(i, i, around.At(i, i)-keptCrossingMargin)
 		}
 		var chol mat.Cholesky
-		if !chol.Factorize(c) {
+		if !chol.Factorize(around) {
 			return false
 		}
 		b := mat.NewDense(members, rest, nil)
@@ -337,6 +349,7 @@ func (c *Contact) wellPosedCrossing(set []int, members int, block func(i, j int)
 		}
 	}
 	k := mat.NewSymDense(members, nil)
+	var chol mat.Cholesky
 	for signs := range 1 << members {
 		k.CopySym(base)
 		for r := range members {
@@ -349,7 +362,7 @@ func (c *Contact) wellPosedCrossing(set []int, members int, block func(i, j int)
 				}
 			}
 		}
-		if !aboveMargin(k) {
+		if !chol.Factorize(k) { // K(σ) − δI, through the Schur complement
 			return false
 		}
 	}
@@ -388,10 +401,11 @@ func minEigenvalue(e mat.Symmetric) float64 {
 	return eig.Values(nil)[0]
 }
 
-// PinnedCrossings returns the number of crossings (connected sets of
-// touching ordinary elements of different groups) of which some pair is
-// detached and compensated, so the slip there is pinned: all of them
-// without CoupleCrossings, those wellPosedCrossing refused with it.
+// PinnedCrossings returns the number of places where slip is pinned:
+// connected sets of detached and compensated pairs of touching ordinary
+// elements of different groups (every such pair without CoupleCrossings,
+// those of the crossings wellPosedCrossing refused with it; refused
+// crossings that share elements count as one place).
 // Intact elements make none, nor do pairs that do not load each other
 // (an operator without interaction).
 func (c *Contact) PinnedCrossings() int {

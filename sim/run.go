@@ -138,7 +138,7 @@ type Result struct {
 	// PinnedCrossings is the number of places where fractures cross or
 	// touch whose slip the contact problem pinned at the end of the run
 	// (mechanics.Contact.PinnedCrossings): the aseismic moment is held
-	// down there, and grows as the elements shrink (README, Convergence).
+	// down there (README, Convergence).
 	// 0 in a replayed result.
 	PinnedCrossings int
 	// Duration of the run, s; Steps accepted and CutSteps repeated.
