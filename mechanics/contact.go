@@ -531,9 +531,12 @@ func (c *Contact) Aperture(i int) (sigmaEff, travel, opening, dTravel, dOpening 
 func (c *Contact) Slipping(i int) bool { return c.trial.status[i] == sliding }
 
 // Rupture is one rupture of a step: a run of elements of one group that
-// lost their strength together.
+// lost their strength together, with the runs of the groups it crosses at
+// kept crossings (see ContactSettings.CoupleCrossings), which rupture with
+// it.
 type Rupture struct {
-	// Elements of the rupture, in order along the group.
+	// Elements of the rupture, in order along each group, the groups in
+	// order.
 	Elements []int
 	// Nucleation is the element that slipped most when the patch became
 	// unstable.

@@ -10,6 +10,7 @@ import (
 	"gonum.org/v1/gonum/mat"
 
 	"slipfront/elastic"
+	"slipfront/internal/unionfind"
 )
 
 // groupCache keeps, per group, what does not change between its solves:
@@ -572,38 +573,67 @@ func sign(v float64) float64 {
 // eigenvalue of B, Pa·m (< 0), and the local indices of the sliding
 // elements; for a stable one +Inf.
 //
-// The patch is one group's (trace's) sliding elements: when the whole
-// working set is solved at once, each group's patch is checked in turn and
-// the first unstable one is returned, so that ruptures are judged, and
-// run, trace by trace whichever way the contact problem was solved.
+// The patch is one group's (trace's) sliding elements, joined with those
+// of the groups it crosses at kept crossings (see coupleCrossings): two
+// traces that load each other through touching elements can be unstable
+// together while each is stable alone (one trace's weakening sheds its
+// load onto the other, which sheds it back), and without the joint check
+// Newton stalls there with no quasi-static solution to find. When the
+// whole working set is solved at once, each joint patch is checked in
+// turn and the first unstable one is returned, so that ruptures are
+// judged, and run, the same way whichever way the contact problem was
+// solved. Other near-field neighbours load each other less (they do not
+// touch) and are left to their own patches.
 func (s *groupSystem) stability() (float64, []int) {
-	if s.group != mergedGroup {
-		var patch []int
-		for k, i := range s.elems {
-			if s.c.trial.status[i] == sliding {
-				patch = append(patch, k)
-			}
-		}
-		return s.patchStability(patch), patch
-	}
-	var groups []int
-	patches := map[int][]int{}
+	t := &s.c.trial
+	var slides []int
 	for k, i := range s.elems {
-		if s.c.trial.status[i] != sliding {
-			continue
+		if t.status[i] == sliding {
+			slides = append(slides, k)
 		}
-		g := s.c.elems[i].Group
-		if _, ok := patches[g]; !ok {
-			groups = append(groups, g)
-		}
-		patches[g] = append(patches[g], k)
 	}
-	for _, g := range groups {
-		if lambda := s.patchStability(patches[g]); lambda < 0 {
-			return lambda, patches[g]
+	if s.group != mergedGroup {
+		return s.patchStability(slides), slides
+	}
+	for _, patch := range s.jointPatches(slides) {
+		if lambda := s.patchStability(patch); lambda < 0 {
+			return lambda, patch
 		}
 	}
 	return math.Inf(1), nil
+}
+
+// jointPatches splits the sliding elements (local indices, ascending)
+// into patches: one per group, those of groups with a kept touching pair
+// of sliding elements joined. The patches come in order of their first
+// element.
+func (s *groupSystem) jointPatches(sliding []int) [][]int {
+	c := s.c
+	local := make(map[int]int, len(sliding))
+	for x, k := range sliding {
+		local[s.elems[k]] = x
+	}
+	sets := unionfind.New(len(sliding))
+	firstOf := map[int]int32{} // group → its first sliding element
+	for x, k := range sliding {
+		i := s.elems[k]
+		if f, ok := firstOf[c.elems[i].Group]; ok {
+			sets.Union(f, int32(x))
+		} else {
+			firstOf[c.elems[i].Group] = int32(x)
+		}
+		for _, j := range c.near[i] {
+			if y, ok := local[int(j)]; ok && c.keptPair(i, int(j)) {
+				sets.Union(int32(x), int32(y))
+			}
+		}
+	}
+	labels, n := sets.Labels()
+	patches := make([][]int, n)
+	for x, k := range sliding {
+		patches[labels[x]] = append(patches[labels[x]], k)
+	}
+	return patches
 }
 
 // patchStability returns the smallest eigenvalue of B for the sliding

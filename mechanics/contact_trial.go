@@ -6,6 +6,8 @@ import (
 	"sort"
 
 	"gonum.org/v1/gonum/mat"
+
+	"slipfront/internal/unionfind"
 )
 
 // elementStatus is an element's contact state in a trial.
@@ -130,32 +132,55 @@ func (c *Contact) workGroups() []int {
 }
 
 // rupturesOf splits the step's newly ruptured elements into runs of
-// consecutive elements of one group.
+// consecutive elements of one group, and joins the runs of groups that
+// touch at a kept crossing into one rupture: such traces are judged
+// unstable together (see groupSystem.stability), so their slip is one
+// event, not one per trace.
 func (t *trial) rupturesOf(c *Contact) []Rupture {
-	var out []Rupture
-	for g, elems := range c.groups {
+	var runs [][]int
+	runOf := map[int]int32{}
+	for _, elems := range c.groups {
 		var run []int
 		flush := func() {
-			if len(run) == 0 {
-				return
+			if len(run) > 0 {
+				runs = append(runs, run)
+				run = nil
 			}
-			r := Rupture{Elements: run, Nucleation: run[0], Fraction: 1}
-			if nu, ok := t.nucleations[g]; ok && slices.Contains(run, nu.element) {
-				r.Nucleation, r.Fraction = nu.element, nu.fraction
-			} else {
-				r.Nucleation = largestSlip(run, t.ds)
-			}
-			out = append(out, r)
-			run = nil
 		}
 		for _, i := range elems {
 			if t.ruptured[i] && !c.base.Ruptured[i] {
+				runOf[i] = int32(len(runs))
 				run = append(run, i)
 				continue
 			}
 			flush()
 		}
 		flush()
+	}
+	sets := unionfind.New(len(runs))
+	for i, r := range runOf {
+		for _, j := range c.near[i] {
+			if q, ok := runOf[int(j)]; ok && q != r && c.keptPair(i, int(j)) {
+				sets.Union(r, q)
+			}
+		}
+	}
+	labels, n := sets.Labels()
+	out := make([]Rupture, n)
+	for r, run := range runs {
+		out[labels[r]].Elements = append(out[labels[r]].Elements, run...)
+	}
+	for k := range out {
+		r := &out[k]
+		r.Nucleation, r.Fraction = -1, 1
+		for _, i := range r.Elements {
+			if nu, ok := t.nucleations[c.elems[i].Group]; ok && nu.element == i && (r.Nucleation < 0 || nu.fraction < r.Fraction) {
+				r.Nucleation, r.Fraction = nu.element, nu.fraction
+			}
+		}
+		if r.Nucleation < 0 {
+			r.Nucleation = largestSlip(r.Elements, t.ds)
+		}
 	}
 	return out
 }
