@@ -45,7 +45,7 @@ var headlines = []headline{
 		"injected_volume_ratio", func(r *Result) float64 { return r.InjectedVolume }},
 	{csvw.Column{Title: "seismic_moment_Nm", Datatype: csvw.Double, Unit: "N.m", Description: "summed moment of the events (unstable ruptures)"},
 		"seismic_moment_ratio", func(r *Result) float64 { return r.SeismicMoment }},
-	{csvw.Column{Title: "aseismic_moment_Nm", Datatype: csvw.Double, Unit: "N.m", Description: "moment of the stable (aseismic) slip; a lower bound where fractures cross (their slip is pinned there: README, Limitations)"},
+	{csvw.Column{Title: "aseismic_moment_Nm", Datatype: csvw.Double, Unit: "N.m", Description: "moment of the stable (aseismic) slip; a lower bound where crossings pin slip (README, Limitations)"},
 		"aseismic_moment_ratio", func(r *Result) float64 { return r.AseismicMoment }},
 	{csvw.Column{Title: "retained_permeability_gain", Datatype: csvw.Double, Description: "permeability gain of the stimulated elements retained at the initial pore pressure; empty when nothing was stimulated"},
 		"retained_permeability_gain_ratio", func(r *Result) float64 { return r.RetainedGain }},

@@ -351,12 +351,13 @@ type Numerics struct {
 	// InteractionTolerance is the relative accuracy of the compressed
 	// far-field blocks of the interaction operator.
 	InteractionTolerance float64 `toml:"interaction_tolerance" when:"interaction=on" range:"[1e-7,0.1]" default:"1e-6" doc:"relative accuracy of the compressed far-field blocks of the interaction operator"`
-	// Crossings is "detached" (every pair of touching elements where
-	// fractures cross loads its two elements' own stiffness instead of
-	// each other: always well posed, but it pins the slip there) or
-	// "coupled" (pairs kept where the contact problem stays well posed
-	// with them; mechanics.ContactSettings.CoupleCrossings).
-	Crossings string `toml:"crossings" when:"interaction=on" default:"detached" range:"detached|coupled" doc:"the touching elements where fractures cross: detached (their coupling added to their own stiffness; always well posed, but pins the slip there, so the moment is a lower bound) or coupled (kept where the contact problem stays well posed with them, the rest detached)"`
+	// Crossings is "coupled" (pairs of touching elements where fractures
+	// cross kept where the contact problem stays well posed with them,
+	// the rest detached; mechanics.ContactSettings.CoupleCrossings), or
+	// "detached" (every such pair loads its two elements' own stiffness
+	// instead of each other: always well posed, but it pins the slip
+	// there).
+	Crossings string `toml:"crossings" when:"interaction=on" default:"coupled" range:"detached|coupled" doc:"the touching elements where fractures cross: coupled (kept where the contact problem stays well posed with them, the rest detached) or detached (their coupling added to their own stiffness; always well posed, but pins the slip there, so the moment is a lower bound)"`
 	// PathPasses is the number of runs that set the paths of growing
 	// fractures: the first meshes them straight along the local SHmax at
 	// their clusters, each next one through the directions of SHmax, with

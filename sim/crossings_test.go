@@ -16,7 +16,7 @@ func TestCoupledCrossingsSlipMore(t *testing.T) {
 	if testing.Short() {
 		t.Skip("two runs of the small pad")
 	}
-	_, detached := runScenario(t, loadCase(t, "induced-moment-bound", "rock.slip_weakening_distance=1mm", "numerics.element_length=5m"))
+	_, detached := runScenario(t, loadCase(t, "induced-moment-bound", "rock.slip_weakening_distance=1mm", "numerics.element_length=5m", "numerics.crossings=detached"))
 	_, coupled := runScenario(t, loadCase(t, "induced-moment-bound", "rock.slip_weakening_distance=1mm", "numerics.element_length=5m", "numerics.crossings=coupled"))
 	if !(coupled.PinnedCrossings > 0 && coupled.PinnedCrossings < detached.PinnedCrossings) {
 		t.Errorf("%d crossings pinned coupled, %d detached: want fewer, but some", coupled.PinnedCrossings, detached.PinnedCrossings)

@@ -28,7 +28,7 @@ var (
 			{Title: "events", Datatype: csvw.Integer, Description: "synthetic microseismic events so far"},
 			{Title: "max_pressure_MPa", Datatype: csvw.Double, Unit: "MPa", Description: "highest pore pressure of any element, absolute"},
 			{Title: "seismic_moment_Nm", Datatype: csvw.Double, Unit: "N.m", Description: "summed moment of the events (unstable ruptures) so far"},
-			{Title: "aseismic_moment_Nm", Datatype: csvw.Double, Unit: "N.m", Description: "moment of the stable (aseismic) slip so far; a lower bound where fractures cross (summary.json pinned_crossings)"},
+			{Title: "aseismic_moment_Nm", Datatype: csvw.Double, Unit: "N.m", Description: "moment of the stable (aseismic) slip so far; a lower bound where crossings pin slip (summary.json pinned_crossings)"},
 		},
 	}
 	EventsTable = csvw.Table{
