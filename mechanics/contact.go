@@ -388,19 +388,16 @@ func (c *Contact) Solve(p []float64) (SolveResult, error) {
 	t := &c.trial
 	t.p = p
 	var res SolveResult
-	for round := 0; ; round++ {
-		t.enlist(c)
-		sweeps, err := c.sweep(round)
-		res.Sweeps += sweeps
-		if err != nil {
-			return res, err
-		}
-		if !t.enlist(c) {
-			break
-		}
-		if round == c.set.MaxIterations {
-			return res, fmt.Errorf("%w: elements kept failing after %d rounds", ErrContactNotConverged, round)
-		}
+	err := c.solveRounds(&res)
+	for err != nil && c.detachStalled(err) {
+		// Solve the step again from its start with those crossings
+		// detached.
+		t.reset(c, t.pStart)
+		t.p = p
+		err = c.solveRounds(&res)
+	}
+	if err != nil {
+		return res, err
 	}
 	res.Active = len(t.work)
 	for _, i := range t.work {
@@ -410,6 +407,26 @@ func (c *Contact) Solve(p []float64) (SolveResult, error) {
 		res.Ruptured = res.Ruptured || (t.ruptured[i] && !c.base.Ruptured[i])
 	}
 	return res, nil
+}
+
+// solveRounds enlists the failing elements and sweeps until no element
+// outside the working set fails, counting the sweeps in res.
+func (c *Contact) solveRounds(res *SolveResult) error {
+	t := &c.trial
+	for round := 0; ; round++ {
+		t.enlist(c)
+		sweeps, err := c.sweep(round)
+		res.Sweeps += sweeps
+		if err != nil {
+			return err
+		}
+		if !t.enlist(c) {
+			return nil
+		}
+		if round == c.set.MaxIterations {
+			return fmt.Errorf("%w: elements kept failing after %d rounds", ErrContactNotConverged, round)
+		}
+	}
 }
 
 // sweep runs block Gauss–Seidel over the groups of the working set until

@@ -214,7 +214,7 @@ func (s *groupSystem) settle() error {
 			// Newton cycled across a kink of the friction law for the
 			// statuses that hold: retry them with damped steps.
 			if err := s.dampedNewton(); err != nil {
-				return err
+				return &stall{err: err, elems: s.worstElements()}
 			}
 			if lambda, patch := s.stability(); lambda < 0 {
 				return &unstable{patch: patch, lambda: lambda}
@@ -225,6 +225,35 @@ func (s *groupSystem) settle() error {
 		}
 	}
 	return fmt.Errorf("%w: %s's element states kept changing", ErrContactNotConverged, s.name())
+}
+
+// stall is the error of a solve whose Newton steps stalled for the
+// statuses that hold; elems are the elements whose equations were
+// furthest from holding (see Contact.Solve, which detaches the kept
+// crossings among them).
+type stall struct {
+	err   error
+	elems []int
+}
+
+func (e *stall) Error() string { return e.err.Error() }
+func (e *stall) Unwrap() error { return e.err }
+
+// worstElements returns the elements whose residuals at z are within a
+// factor ten of the largest.
+func (s *groupSystem) worstElements() []int {
+	s.residual()
+	worst := 0.0
+	for _, r := range s.res {
+		worst = max(worst, math.Abs(r))
+	}
+	var out []int
+	for q, pos := range s.free {
+		if i := s.elems[pos%s.m]; math.Abs(s.res[q]) >= 0.1*worst && !slices.Contains(out, i) {
+			out = append(out, i)
+		}
+	}
+	return out
 }
 
 // name names the system in messages: a group, or the whole working set.

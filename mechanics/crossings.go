@@ -1,6 +1,7 @@
 package mechanics
 
 import (
+	"errors"
 	"math"
 	"slices"
 
@@ -419,4 +420,60 @@ func (c *Contact) PinnedCrossings() int {
 	}
 	_, members := crossings(pairs)
 	return len(members)
+}
+
+// detachStalled detaches, from now on, the kept crossings among the
+// elements where a solve stalled (err, a *stall), and reports whether it
+// detached any. A kept crossing passed its check with its neighbours
+// alone; in a larger working set (a junction of many traces on elements
+// too long to resolve it) its statuses can admit no solution that Newton
+// finds, where a detached crossing, always well posed, does. The step is
+// then solved again (Solve) and the places pinned are counted by
+// PinnedCrossings.
+func (c *Contact) detachStalled(err error) bool {
+	var st *stall
+	if !c.set.CoupleCrossings || !errors.As(err, &st) {
+		return false
+	}
+	detached := false
+	for _, i := range st.elems {
+		for _, j := range c.near[i] {
+			if k, ok := c.crossingOf[pairKey(i, int(j))]; ok && c.crossingKept[k] {
+				c.detachCrossing(k)
+				detached = true
+				break // c.near[i] changed
+			}
+		}
+	}
+	return detached
+}
+
+// detachCrossing detaches kept crossing k as coupleCrossings detaches a
+// refused one: its touching pairs leave the near lists for the detached
+// ones, and each pair's coupling is added to its two elements' own
+// stiffness. The tractions already committed keep what the pairs' slip
+// and opening so far put on them (as Release keeps the tractions).
+func (c *Contact) detachCrossing(k int) {
+	for _, j := range c.crossingMembers[k] { // source j
+		for q := 0; q < len(c.near[j]); {
+			i := int(c.near[j][q])
+			if kk, ok := c.crossingOf[pairKey(i, j)]; !ok || kk != k {
+				q++
+				continue
+			}
+			aij := c.op.At(i, j)
+			c.near[j] = slices.Delete(c.near[j], q, q+1)
+			c.nearSlip[j] = slices.Delete(c.nearSlip[j], q, q+1)
+			c.nearOpening[j] = slices.Delete(c.nearOpening[j], q, q+1)
+			c.detached[j] = append(c.detached[j], int32(i))
+			c.detachedBlock[j] = append(c.detachedBlock[j], aij)
+			if i > j { // each pair once, as coupleCrossings compensates it
+				ci, cj := c.compensatePair(i, j, aij)
+				c.self[i] = addBlock(c.self[i], ci)
+				c.self[j] = addBlock(c.self[j], cj)
+			}
+		}
+	}
+	c.crossingKept[k] = false
+	clear(c.caches) // their matrices hold the self-influences and the pairs
 }

@@ -1,6 +1,7 @@
 package mechanics
 
 import (
+	"fmt"
 	"math"
 	"slices"
 	"testing"
@@ -114,6 +115,47 @@ func TestRupturesJoinAtKeptCrossing(t *testing.T) {
 		if len(got) != 2 || !slices.Equal(got[0].Elements, run0) || got[0].Nucleation != 7 || got[0].Fraction != 0.25 ||
 			!slices.Equal(got[1].Elements, run1) || got[1].Nucleation != n+9 || got[1].Fraction != 1 {
 			t.Errorf("detached: ruptures %+v, want the two runs apart", got)
+		}
+	}
+}
+
+// A kept crossing detached after a stall (detachStalled, detachCrossing)
+// leaves the contact problem the one built with that crossing detached
+// from the start: the same self-influences (each pair compensated once),
+// the same near lists (sorted, as influence searches them), the same
+// detached pairs, and the place counted as pinned. Errors other than a
+// stall among its elements detach nothing.
+func TestDetachStalledCrossing(t *testing.T) {
+	const n = 16
+	c, want := conjugateX(t, n, true), conjugateX(t, n, false)
+	if len(c.crossingMembers) != 1 || !c.crossingKept[0] {
+		t.Fatalf("%d crossings, kept %v: want the X's one, kept", len(c.crossingMembers), c.crossingKept)
+	}
+	if c.detachStalled(ErrContactNotConverged) || c.detachStalled(&stall{err: ErrContactNotConverged, elems: []int{0, n - 1}}) {
+		t.Fatal("detached a crossing for an error that names none of its elements")
+	}
+	member := c.crossingMembers[0][0]
+	if !c.detachStalled(fmt.Errorf("step: %w", &stall{err: ErrContactNotConverged, elems: []int{member}})) {
+		t.Fatal("a stall at the crossing detached nothing")
+	}
+	if c.crossingKept[0] || c.detachStalled(&stall{err: ErrContactNotConverged, elems: []int{member}}) {
+		t.Fatal("the crossing is still kept, or was detached twice")
+	}
+	if got := c.PinnedCrossings(); got != 1 {
+		t.Errorf("%d places pinned after the detachment, want 1", got)
+	}
+	for i := range 2 * n {
+		if d := subBlock(c.self[i], want.self[i]); math.Abs(d.ShearSlip)+math.Abs(d.NormalSlip)+math.Abs(d.ShearOpening)+math.Abs(d.NormalOpening) > 1e-9*math.Abs(want.self[i].ShearSlip) {
+			t.Errorf("element %d: self-influence %+v, want %+v", i, c.self[i], want.self[i])
+		}
+		if !slices.Equal(c.near[i], want.near[i]) {
+			t.Errorf("element %d: near %v, want %v", i, c.near[i], want.near[i])
+		}
+		got, exp := slices.Clone(c.detached[i]), slices.Clone(want.detached[i])
+		slices.Sort(got)
+		slices.Sort(exp)
+		if !slices.Equal(got, exp) {
+			t.Errorf("element %d: detached %v, want %v", i, got, exp)
 		}
 	}
 }
