@@ -429,14 +429,7 @@ func TestContactStabilityByGroup(t *testing.T) {
 		t.Fatal(err)
 	}
 	c.Begin(c.NewState(), uniform(len(elems), 0))
-	all := make([]int, len(elems))
-	for i := range all {
-		all[i] = i
-		c.trial.status[i], c.trial.sign[i] = sliding, 1
-	}
-	s := c.newGroupSystem(mergedGroup, all)
-	s.fix()
-	s.residual()
+	s, _ := allSliding(c)
 	lambda, patch := s.stability()
 	if !(lambda < 0) {
 		t.Fatalf("smallest eigenvalue %g: the 80 m weakening fault should be unstable", lambda)
@@ -449,6 +442,21 @@ func TestContactStabilityByGroup(t *testing.T) {
 			t.Fatalf("the unstable patch holds element %d of group %d, the fault of constant friction", s.elems[k], g)
 		}
 	}
+}
+
+// allSliding returns the system of the whole working set of c, every
+// element sliding right-lateral at no slip yet, with its Jacobian and
+// slopes evaluated, and the elements' local indices (all of them).
+func allSliding(c *Contact) (*groupSystem, []int) {
+	all := make([]int, len(c.elems))
+	for i := range all {
+		all[i] = i
+		c.trial.status[i], c.trial.sign[i] = sliding, 1
+	}
+	s := c.newGroupSystem(mergedGroup, all)
+	s.fix()
+	s.residual()
+	return s, all
 }
 
 // A Newton solve that stops without converging, in the round whose

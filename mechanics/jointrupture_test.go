@@ -65,14 +65,7 @@ func TestContactStabilityAcrossCrossing(t *testing.T) {
 		if couple && c.PinnedCrossings() != 0 {
 			t.Fatalf("the right-angled crossing is pinned in %d places, want it kept", c.PinnedCrossings())
 		}
-		all := make([]int, 2*n)
-		for i := range all {
-			all[i] = i
-			c.trial.status[i], c.trial.sign[i] = sliding, 1
-		}
-		s := c.newGroupSystem(mergedGroup, all)
-		s.fix()
-		s.residual()
+		s, all := allSliding(c)
 		for g := range 2 {
 			if lambda := s.patchStability(all[g*n : (g+1)*n]); !math.IsInf(lambda, 1) {
 				t.Errorf("coupled %v: fault %d alone has smallest eigenvalue %g, want stable", couple, g, lambda)
