@@ -76,6 +76,11 @@ type StageSummary struct {
 	Events                     int
 	// MaxMagnitude of its events (NaN if none).
 	MaxMagnitude float64
+	// RateEvents and RateExpected are the sub-resolution events of the
+	// seismicity-rate model drawn and expected from the stage's start to
+	// the end of its shut-in (0 without the model).
+	RateEvents   int
+	RateExpected float64
 	// Capped tells the pressure cap limited the rate at some time.
 	Capped bool
 	Steps  int
@@ -616,8 +621,11 @@ func (r *runner) step(sys *flow.System, p *phase, sum *StageSummary, end float64
 	r.res.Events = r.ms.commit(r.t, dt, r.stage, r.next.Pressure, r.res.Events)
 	if r.rate != nil {
 		var n float64
+		drawn := len(r.res.RateEvents)
 		r.res.RateEvents, n = r.rate.step(r.m, r.t, dt, r.stage, r.next.Pressure, r.ms.coulombChange(), r.res.RateEvents)
 		r.res.RateExpected += n
+		sum.RateEvents += len(r.res.RateEvents) - drawn
+		sum.RateExpected += n
 	}
 	var grown []Warning
 	r.res.Crossings, grown = r.ms.grow(end, r.stage, r.next.Pressure, r.res.Crossings)

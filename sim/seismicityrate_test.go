@@ -2,11 +2,16 @@ package sim
 
 import (
 	"bytes"
+	"encoding/json"
 	"fmt"
 	"math"
+	"os"
+	"path/filepath"
 	"slices"
 	"strings"
 	"testing"
+
+	"slipfront/scenarios"
 )
 
 // The seismicity-rate catalogue (Dieterich 1994) of the small pad:
@@ -106,4 +111,76 @@ func TestRateCountConvergesOnLoneFault(t *testing.T) {
 		}
 	}
 	t.Logf("expected sub-resolution counts at 10 / 5 / 2.5 m: %.6g", counts)
+}
+
+// Each stage's sub-resolution count is the part of the run's catalogue
+// drawn from its start to the end of its shut-in: on the induced-moment
+// pad given a second stage, each stage's draws are the catalogue's rows
+// labelled with it, and the stages' draws and expected counts add up to
+// the run's; summary.json reports them.
+func TestSeismicityRateByStage(t *testing.T) {
+	src, err := os.ReadFile(filepath.Join("..", "testdata", "induced-moment-bound", "scenario.toml"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	const first = `  clusters = ["230 m", "200 m", "170 m"]`
+	text := strings.Replace(string(src), first, first+"\n  [[wells.stages]]\n  name = \"2\"\n  clusters = [\"120 m\", \"90 m\", \"60 m\"]", 1)
+	if text == string(src) {
+		t.Fatal("the case's first stage has other clusters: update the test")
+	}
+	path := filepath.Join(t.TempDir(), "scenario.toml")
+	if err := os.WriteFile(path, []byte(text), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	ov, err := scenarios.ParseOverrides([]string{"seismicity_rate.background_rate_per_km2_yr=50"})
+	if err != nil {
+		t.Fatal(err)
+	}
+	s, err := scenarios.Load(path, ov...)
+	if err != nil {
+		t.Fatal(err)
+	}
+	net, res := runScenario(t, s)
+	if len(res.Stages) != 2 {
+		t.Fatalf("%d stages, want 2", len(res.Stages))
+	}
+	var drawn int
+	var expected float64
+	for k, st := range res.Stages {
+		labelled := 0
+		for _, e := range res.RateEvents {
+			if e.Stage == k {
+				labelled++
+			}
+		}
+		if st.RateEvents != labelled || !(st.RateExpected > 0) {
+			t.Errorf("stage %s: %d drawn (%d rows labelled with it), %g expected", st.Name, st.RateEvents, labelled, st.RateExpected)
+		}
+		drawn += st.RateEvents
+		expected += st.RateExpected
+	}
+	if drawn != len(res.RateEvents) || math.Abs(expected/res.RateExpected-1) > 1e-12 {
+		t.Errorf("stages drew %d and expected %.10g; the run %d and %.10g", drawn, expected, len(res.RateEvents), res.RateExpected)
+	}
+	var buf bytes.Buffer
+	if err := WriteSummary(&buf, s, net, res, nil); err != nil {
+		t.Fatal(err)
+	}
+	var summary struct {
+		Stages []struct {
+			Rate *struct {
+				Events   int     `json:"events"`
+				Expected float64 `json:"expected_events"`
+			} `json:"seismicity_rate"`
+		} `json:"stages"`
+	}
+	if err := json.Unmarshal(buf.Bytes(), &summary); err != nil {
+		t.Fatal(err)
+	}
+	for k, st := range summary.Stages {
+		if st.Rate == nil || st.Rate.Events != res.Stages[k].RateEvents || st.Rate.Expected != res.Stages[k].RateExpected {
+			t.Errorf("summary.json, stage %d: %+v, want %d drawn and %g expected", k, st.Rate, res.Stages[k].RateEvents, res.Stages[k].RateExpected)
+		}
+	}
+	t.Logf("drawn %d + %d, expected %.4g + %.4g", res.Stages[0].RateEvents, res.Stages[1].RateEvents, res.Stages[0].RateExpected, res.Stages[1].RateExpected)
 }

@@ -414,6 +414,14 @@ type stageJSON struct {
 	// Held*: fluid held at the end of pumping above the start of the run.
 	HeldNaturalM3  float64 `json:"held_in_natural_fractures_m3"`
 	HeldConduitsM3 float64 `json:"held_in_conduits_m3"`
+	// SeismicityRate: the stage's sub-resolution events, with the model.
+	SeismicityRate *stageRateJSON `json:"seismicity_rate,omitempty"`
+}
+
+// stageRateJSON counts a stage's sub-resolution events.
+type stageRateJSON struct {
+	Events   int     `json:"events"`
+	Expected float64 `json:"expected_events"`
 }
 
 // warningJSON is one Warning in summary.json.
@@ -509,6 +517,9 @@ func WriteSummary(w io.Writer, s *scenarios.Scenario, net *dfn.Network, res *Res
 			MaxMagnitude: optional(st.MaxMagnitude), Capped: st.Capped, Steps: st.Steps,
 			ClusterVolumes: st.ClusterVolumes, HeldNaturalM3: st.HeldNatural, HeldConduitsM3: st.HeldConduits,
 		})
+		if s.SeismicityRate.Active() {
+			sj.Stages[len(sj.Stages)-1].SeismicityRate = &stageRateJSON{Events: st.RateEvents, Expected: st.RateExpected}
+		}
 	}
 	if failure != nil {
 		msg := failure.Error()
@@ -555,6 +566,13 @@ func WriteStageTable(w io.Writer, s *scenarios.Scenario, res *Result) error {
 		fmt.Fprintf(&b, "sub-resolution events (seismicity-rate model): %d drawn, %.4g expected", len(res.RateEvents), res.RateExpected)
 		if len(res.RateEvents) > 0 {
 			fmt.Fprintf(&b, ", largest Mw %.2f", largest)
+		}
+		if len(res.Stages) > 1 {
+			byStage := make([]string, len(res.Stages))
+			for k, st := range res.Stages {
+				byStage[k] = fmt.Sprintf("%s %d", st.Name, st.RateEvents)
+			}
+			fmt.Fprintf(&b, "; drawn by stage: %s", strings.Join(byStage, ", "))
 		}
 		b.WriteString("\n")
 	}
