@@ -310,6 +310,22 @@ func TestReportGrowth(t *testing.T) {
 	}
 }
 
+// The report page's stage table gives each stage's sub-resolution events
+// (the zipper pad has a [seismicity_rate] table), as summary.json holds
+// them.
+func TestReportStageSubResolution(t *testing.T) {
+	dir, run := runFolder(t)
+	_, page := reportPage(t, dir)
+	if !strings.Contains(page, "sub-resolution events drawn (expected)") {
+		t.Error("report page without the stages' sub-resolution events")
+	}
+	for _, st := range run.Result.Stages {
+		if cell := fmt.Sprintf("<td>%d (%.0f)</td>", st.RateEvents, st.RateExpected); !strings.Contains(page, cell) || !(st.RateExpected > 0) {
+			t.Errorf("stage %s: report page without %q", st.Name, cell)
+		}
+	}
+}
+
 // reportPage writes the report of folder dir into a new folder and
 // returns that folder and its page.
 func reportPage(t *testing.T, dir string) (rep, page string) {

@@ -135,11 +135,18 @@ func (r *Run) page(warnings []string, growth *sim.GrowthSummary) *report.Page {
 		}
 		t.Header = append(t.Header, "held in the fractures m³", "held in natural fractures m³")
 	}
+	rate := s.SeismicityRate.Active()
+	if rate {
+		t.Header = append(t.Header, "sub-resolution events drawn (expected)")
+	}
 	for _, st := range res.Stages {
 		row := []string{st.Name, fmt.Sprintf("%.1f", st.Injected), fmt.Sprintf("%.2f", st.PeakBHP/1e6),
 			fmt.Sprintf("%.0f", st.NewArea), fmt.Sprint(st.Events), optionalMw(st.MaxMagnitude)}
 		if growth != nil { // at the end of the stage's pumping, all stages so far
 			row = append(row, fmt.Sprintf("%.1f", st.HeldConduits), fmt.Sprintf("%.2f", st.HeldNatural))
+		}
+		if rate {
+			row = append(row, fmt.Sprintf("%d (%.0f)", st.RateEvents, st.RateExpected))
 		}
 		t.Rows = append(t.Rows, row)
 	}

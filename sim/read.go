@@ -204,6 +204,9 @@ func ReadSummary(r io.Reader, name string) (Summary, error) {
 			Injected: st.InjectedM3, PeakBHP: st.PeakBHPMPa * 1e6, NewArea: st.NewAreaM2, Events: st.Events,
 			MaxMagnitude: mw, Capped: st.Capped, Steps: st.Steps, ClusterVolumes: st.ClusterVolumes,
 			HeldNatural: st.HeldNaturalM3, HeldConduits: st.HeldConduitsM3}
+		if r := st.SeismicityRate; r != nil {
+			out.Stages[i].RateEvents, out.Stages[i].RateExpected = r.Events, r.Expected
+		}
 	}
 	for _, w := range sj.Warnings {
 		out.Warnings = append(out.Warnings, Warning{Kind: w.Kind, Stage: w.Stage, Message: w.Message})
