@@ -245,10 +245,15 @@ type depletionJSON struct {
 // rateJSON is the catalogue of the seismicity-rate model, in
 // summary.json.
 type rateJSON struct {
-	Events       int      `json:"events"`
-	Expected     float64  `json:"expected_events"`
+	rateCountJSON
 	MaxMagnitude *float64 `json:"max_magnitude_Mw"`
 	MinMagnitude float64  `json:"min_magnitude_Mw"`
+}
+
+// rateCountJSON counts the sub-resolution events of a run or of a stage.
+type rateCountJSON struct {
+	Events   int     `json:"events"`
+	Expected float64 `json:"expected_events"`
 }
 
 // newRateJSON summarises the rate catalogue (nil without the model).
@@ -256,7 +261,7 @@ func newRateJSON(s *scenarios.Scenario, res *Result) *rateJSON {
 	if !s.SeismicityRate.Active() {
 		return nil
 	}
-	return &rateJSON{Events: len(res.RateEvents), Expected: res.RateExpected,
+	return &rateJSON{rateCountJSON: rateCountJSON{Events: len(res.RateEvents), Expected: res.RateExpected},
 		MaxMagnitude: optional(MaxMagnitude(res.RateEvents)), MinMagnitude: s.SeismicityRate.MinMagnitude}
 }
 
@@ -415,13 +420,7 @@ type stageJSON struct {
 	HeldNaturalM3  float64 `json:"held_in_natural_fractures_m3"`
 	HeldConduitsM3 float64 `json:"held_in_conduits_m3"`
 	// SeismicityRate: the stage's sub-resolution events, with the model.
-	SeismicityRate *stageRateJSON `json:"seismicity_rate,omitempty"`
-}
-
-// stageRateJSON counts a stage's sub-resolution events.
-type stageRateJSON struct {
-	Events   int     `json:"events"`
-	Expected float64 `json:"expected_events"`
+	SeismicityRate *rateCountJSON `json:"seismicity_rate,omitempty"`
 }
 
 // warningJSON is one Warning in summary.json.
@@ -518,7 +517,7 @@ func WriteSummary(w io.Writer, s *scenarios.Scenario, net *dfn.Network, res *Res
 			ClusterVolumes: st.ClusterVolumes, HeldNaturalM3: st.HeldNatural, HeldConduitsM3: st.HeldConduits,
 		})
 		if s.SeismicityRate.Active() {
-			sj.Stages[len(sj.Stages)-1].SeismicityRate = &stageRateJSON{Events: st.RateEvents, Expected: st.RateExpected}
+			sj.Stages[len(sj.Stages)-1].SeismicityRate = &rateCountJSON{Events: st.RateEvents, Expected: st.RateExpected}
 		}
 	}
 	if failure != nil {
