@@ -2,8 +2,6 @@ package sim
 
 import (
 	"math"
-	"os"
-	"path/filepath"
 	"slices"
 	"strings"
 	"testing"
@@ -22,23 +20,13 @@ import (
 // (the round trip the depletion work promised: its absence leaves every
 // result as it was).
 func TestZeroProductionChangesNothing(t *testing.T) {
-	src, err := os.ReadFile(filepath.Join("..", "testdata", "depleted-pad", "scenario.toml"))
-	if err != nil {
-		t.Fatal(err)
-	}
-	text := string(src)
-	start, end := strings.Index(text, "[depletion]"), strings.Index(text, "[fluids.slickwater]")
-	if start < 0 || end < start {
-		t.Fatal("test bug: no [depletion] table before [fluids.slickwater] in testdata/depleted-pad")
-	}
-	path := filepath.Join(t.TempDir(), "no-depletion.toml")
-	if err := os.WriteFile(path, []byte(text[:start]+text[end:]), 0o644); err != nil {
-		t.Fatal(err)
-	}
-	without, err := scenarios.Load(path)
-	if err != nil {
-		t.Fatal(err)
-	}
+	without := loadEditedCase(t, "depleted-pad", func(text string) string {
+		start, end := strings.Index(text, "[depletion]"), strings.Index(text, "[fluids.slickwater]")
+		if start < 0 || end < start {
+			t.Fatal("test bug: no [depletion] table before [fluids.slickwater] in testdata/depleted-pad")
+		}
+		return text[:start] + text[end:]
+	}, nil)
 	zero := loadCase(t, "depleted-pad", "depletion.duration=0 s")
 	_, a := runScenario(t, without)
 	_, b := runScenario(t, zero)

@@ -7,7 +7,6 @@ import (
 	"fmt"
 	"maps"
 	"math"
-	"os"
 	"path/filepath"
 	"strconv"
 	"strings"
@@ -486,26 +485,8 @@ func knownFractures(t *testing.T, rows string, overrides ...string) *scenarios.S
 // edit first.
 func editedCase(t *testing.T, rows string, edit func(string) string, overrides ...string) *scenarios.Scenario {
 	t.Helper()
-	dir := t.TempDir()
-	src, err := os.ReadFile(filepath.Join("..", "testdata", "kgd-toughness", "scenario.toml"))
-	if err != nil {
-		t.Fatal(err)
-	}
 	csv := "name,center_x_m,center_y_m,center_depth_m,dip_deg,dip_direction_deg,length_m,height_m\n" + rows
-	for name, body := range map[string]string{"fractures.csv": csv, "scenario.toml": edit(string(src))} {
-		if err := os.WriteFile(filepath.Join(dir, name), []byte(body), 0o644); err != nil {
-			t.Fatal(err)
-		}
-	}
-	ov, err := scenarios.ParseOverrides(overrides)
-	if err != nil {
-		t.Fatal(err)
-	}
-	s, err := scenarios.Load(filepath.Join(dir, "scenario.toml"), ov...)
-	if err != nil {
-		t.Fatal(err)
-	}
-	return s
+	return loadEditedCase(t, "kgd-toughness", edit, map[string]string{"fractures.csv": csv}, overrides...)
 }
 
 // pressureAt is the pressure of one element at the time of a frame, Pa.

@@ -4,13 +4,9 @@ import (
 	"bytes"
 	"fmt"
 	"math"
-	"os"
-	"path/filepath"
 	"slices"
 	"strings"
 	"testing"
-
-	"slipfront/scenarios"
 )
 
 // The seismicity-rate catalogue (Dieterich 1994) of the small pad:
@@ -118,27 +114,13 @@ func TestRateCountConvergesOnLoneFault(t *testing.T) {
 // labelled with it, and the stages' draws and expected counts add up to
 // the run's; summary.json reports them and reads back to them.
 func TestSeismicityRateByStage(t *testing.T) {
-	src, err := os.ReadFile(filepath.Join("..", "testdata", "induced-moment-bound", "scenario.toml"))
-	if err != nil {
-		t.Fatal(err)
-	}
 	const first = `  clusters = ["230 m", "200 m", "170 m"]`
-	text := strings.Replace(string(src), first, first+"\n  [[wells.stages]]\n  name = \"2\"\n  clusters = [\"120 m\", \"90 m\", \"60 m\"]", 1)
-	if text == string(src) {
-		t.Fatal("the case's first stage has other clusters: update the test")
-	}
-	path := filepath.Join(t.TempDir(), "scenario.toml")
-	if err := os.WriteFile(path, []byte(text), 0o644); err != nil {
-		t.Fatal(err)
-	}
-	ov, err := scenarios.ParseOverrides([]string{"seismicity_rate.background_rate_per_km2_yr=50"})
-	if err != nil {
-		t.Fatal(err)
-	}
-	s, err := scenarios.Load(path, ov...)
-	if err != nil {
-		t.Fatal(err)
-	}
+	s := loadEditedCase(t, "induced-moment-bound", func(text string) string {
+		if !strings.Contains(text, first) {
+			t.Fatal("the case's first stage has other clusters: update the test")
+		}
+		return strings.Replace(text, first, first+"\n  [[wells.stages]]\n  name = \"2\"\n  clusters = [\"120 m\", \"90 m\", \"60 m\"]", 1)
+	}, nil, "seismicity_rate.background_rate_per_km2_yr=50")
 	net, res := runScenario(t, s)
 	if len(res.Stages) != 2 {
 		t.Fatalf("%d stages, want 2", len(res.Stages))

@@ -3,6 +3,7 @@ package sim
 import (
 	"encoding/json"
 	"fmt"
+	"maps"
 	"math"
 	"math/rand/v2"
 	"os"
@@ -358,6 +359,34 @@ func loadCase(t *testing.T, dir string, overrides ...string) *scenarios.Scenario
 		t.Fatal(err)
 	}
 	s, err := scenarios.Load(filepath.Join("..", "testdata", dir, "scenario.toml"), ov...)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return s
+}
+
+// loadEditedCase is loadCase with the scenario's text passed through edit
+// and written, with the files of extra (name to content) beside it, into a
+// new folder.
+func loadEditedCase(t *testing.T, dir string, edit func(string) string, extra map[string]string, overrides ...string) *scenarios.Scenario {
+	t.Helper()
+	src, err := os.ReadFile(filepath.Join("..", "testdata", dir, "scenario.toml"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	out := t.TempDir()
+	files := map[string]string{"scenario.toml": edit(string(src))}
+	maps.Copy(files, extra)
+	for name, body := range files {
+		if err := os.WriteFile(filepath.Join(out, name), []byte(body), 0o644); err != nil {
+			t.Fatal(err)
+		}
+	}
+	ov, err := scenarios.ParseOverrides(overrides)
+	if err != nil {
+		t.Fatal(err)
+	}
+	s, err := scenarios.Load(filepath.Join(out, "scenario.toml"), ov...)
 	if err != nil {
 		t.Fatal(err)
 	}
