@@ -23,6 +23,10 @@ type Assembler struct {
 	// slots[k] holds the positions of A[i][i], A[j][j], A[i][j] and
 	// A[j][i] for connection k = (i, j).
 	slots [][4]int
+	// conns are the connections' unknowns and t their transmissibilities
+	// as added since the last Reset.
+	conns [][2]int
+	t     []float64
 }
 
 // NewAssembler builds the pattern for n unknowns and the given connections
@@ -43,7 +47,8 @@ func NewAssembler(n int, conns [][2]int) (*Assembler, error) {
 		}
 	}
 	a := symmetricPattern(n, conns)
-	as := &Assembler{a: a, diag: make([]int, n), slots: make([][4]int, len(conns))}
+	as := &Assembler{a: a, diag: make([]int, n), slots: make([][4]int, len(conns)),
+		conns: slices.Clone(conns), t: make([]float64, len(conns))}
 	for i := range n {
 		as.diag[i] = as.position(i, i)
 	}
@@ -120,7 +125,10 @@ func (as *Assembler) Matrix() *CSR { return as.a }
 func (as *Assembler) NumConnections() int { return len(as.slots) }
 
 // Reset sets every value to zero.
-func (as *Assembler) Reset() { clear(as.a.Val) }
+func (as *Assembler) Reset() {
+	clear(as.a.Val)
+	clear(as.t)
+}
 
 // AddDiagonal adds v to A[i][i] (a storage or well-index term).
 func (as *Assembler) AddDiagonal(i int, v float64) {
@@ -136,4 +144,21 @@ func (as *Assembler) AddConnection(k int, t float64) {
 	v[s[1]] += t
 	v[s[2]] -= t
 	v[s[3]] -= t
+	as.t[k] += t
+}
+
+// Residual sets dst = f − Σ_k t_k (e_i − e_j)(x_i − x_j), the residual
+// b − A x of the assembled system when the diagonal additions' part of
+// it, b − D x, is given as f: each connection's flux t (x_j − x_i) is
+// computed from the difference of its unknowns, so terms of size t·x do
+// not cancel in floating point. dst, f and x have length N; dst must not
+// overlap f or x.
+func (as *Assembler) Residual(dst, f, x []float64) {
+	copy(dst, f)
+	for k, c := range as.conns {
+		i, j := c[0], c[1]
+		q := as.t[k] * (x[j] - x[i])
+		dst[i] += q
+		dst[j] -= q
+	}
 }

@@ -110,6 +110,47 @@ func TestAssemblerRowSumsAreStorage(t *testing.T) {
 	}
 }
 
+// Residual gives b − A x with the diagonal's part b − D x passed in: on a
+// random network it agrees with b − A x from the assembled matrix to the
+// round-off of that product, and where every unknown holds the same large
+// value (no flow) it is exactly b − D x, where b − A x keeps the
+// round-off of the terms t·x that cancel in each row.
+func TestAssemblerResidual(t *testing.T) {
+	rng := rand.New(rand.NewPCG(3, 4))
+	sys := newNetwork(defaultNetwork(500), rng)
+	as := sys.assembler()
+	a := as.Matrix()
+	x, b, f := make([]float64, sys.n), make([]float64, sys.n), make([]float64, sys.n)
+	for i := range x {
+		x[i] = 3e7 + 1e6*rng.Float64()
+		b[i] = rng.NormFloat64()
+		f[i] = b[i] - sys.storage[i]*x[i]
+	}
+	want, got := make([]float64, sys.n), make([]float64, sys.n)
+	a.MulVecTo(want, x)
+	as.Residual(got, f, x)
+	for i := range a.N {
+		var scale float64 // Σ_j |a_ij x_j| + |b_i|: the product's round-off scale
+		for p := a.RowPtr[i]; p < a.RowPtr[i+1]; p++ {
+			scale += abs(a.Val[p] * x[a.ColIdx[p]])
+		}
+		scale += abs(b[i])
+		want[i] = b[i] - want[i]
+		d := float64(2 * (a.RowPtr[i+1] - a.RowPtr[i]))
+		numtest.Abs(t, "flux-form residual against b − A x", got[i], want[i], d*unitRoundoff*scale)
+	}
+	for i := range x {
+		x[i] = 3e7
+		f[i] = b[i] - sys.storage[i]*x[i]
+	}
+	as.Residual(got, f, x)
+	for i := range got {
+		if got[i] != f[i] {
+			t.Fatalf("at uniform x, residual[%d] = %g, want b − D x = %g exactly", i, got[i], f[i])
+		}
+	}
+}
+
 func abs(x float64) float64 {
 	if x < 0 {
 		return -x

@@ -334,40 +334,43 @@ func (s *System) solve(it *iteration, ap ApertureFunc, set StepSettings) (StepRe
 func (s *System) linearSolve(it *iteration) error {
 	s.as.Reset()
 	clear(s.rhs)
-	s.quantum = 0
+	s.quantum, s.wellQuantum = 0, 0
 	s.conductances(it.e)
 	s.sumClusters()
 	s.updatePerforations(it.p, it.pw)
 	cf, pref := s.cfg.Fluid.Compressibility, s.cfg.ReferencePressure
 	p, e, dt := it.p, it.e, it.dt
-	for i := range s.nElem {
-		el := &s.mesh.Elements[i]
-		hl := el.Height * el.Length
-		storage := hl * (it.dedp[i]*(1+cf*(p[i]-pref)) + e[i]*cf)
-		s.quantum += storage * (math.Nextafter(math.Abs(p[i]), math.Inf(1)) - math.Abs(p[i]))
-		content := hl * e[i] * (1 + cf*(p[i]-pref))
-		// Matrix leak-off is linear in p_i: its slope joins the diagonal.
-		slope := s.leakSlope(i)
-		s.as.AddDiagonal(i, (storage+slope)/dt)
-		s.rhs[i] = ((storage+slope)*p[i] - (content - it.cur.Content[i]) - it.leak[i]) / dt
-	}
-	s.assembleFlux(it.ctl, it.e)
-	a := s.as.Matrix()
-	if err := s.ls.Factor(a); err != nil {
-		return err
-	}
-	// Solve for the increment from the current iterate, A δ = b − A x,
-	// so the solver's relative tolerance applies to the residual of the
-	// mass balance rather than to the large storage terms S/dt·p.
 	x := s.sol
 	copy(x, p)
 	if s.HasWell() {
 		x[s.nElem] = it.pw
 	}
-	a.MulVecTo(s.res, x)
-	for i := range s.res {
-		s.res[i] = s.rhs[i] - s.res[i]
+	for i := range s.nElem {
+		el := &s.mesh.Elements[i]
+		hl := el.Height * el.Length
+		storage := hl * (it.dedp[i]*(1+cf*(p[i]-pref)) + e[i]*cf)
+		s.quantum += storage * ulp(p[i])
+		content := hl * e[i] * (1 + cf*(p[i]-pref))
+		// Matrix leak-off is linear in p_i: its slope joins the diagonal.
+		slope := s.leakSlope(i)
+		s.as.AddDiagonal(i, (storage+slope)/dt)
+		s.rhs[i] = -((content - it.cur.Content[i]) + it.leak[i]) / dt
 	}
+	s.assembleFlux(it.ctl, it.e)
+	s.wellInflow(s.rhs, it.ctl, x)
+	for c, k := range s.wellEl {
+		s.wellQuantum += s.wellConductance(c) * dt * (ulp(p[k]) + ulp(it.pw))
+	}
+	if err := s.ls.Factor(s.as.Matrix()); err != nil {
+		return err
+	}
+	// Solve for the increment from the current iterate, A δ = b − A x,
+	// so the solver's relative tolerance applies to the residual of the
+	// mass balance rather than to the large storage terms S/dt·p. The
+	// residual is summed in flux form, t (x_j − x_i) per connection: as
+	// b − A x its terms of size t·p would cancel, leaving round-off far
+	// above what the pressures resolve where conductances are large.
+	s.as.Residual(s.res, s.rhs, x)
 	_, err := s.ls.Solve(s.delta, s.res)
 	return err
 }
@@ -404,6 +407,12 @@ func (s *System) relax(x []float64, it int, maxChange float64) {
 	for i := range x {
 		x[i] += w * s.delta[i]
 	}
+}
+
+// ulp returns the unit in the last place of x.
+func ulp(x float64) float64 {
+	x = math.Abs(x)
+	return math.Nextafter(x, math.Inf(1)) - x
 }
 
 // maxAbs returns max |v_i|.
@@ -444,10 +453,14 @@ func (s *System) balance(cur *State, p, e []float64, injected float64, leak []fl
 // and its content by its storage times that, so the contents cannot be
 // balanced more finely than Σ S_i·ulp(p_i) (s.quantum, from the last
 // assembly; times 16 for the iterations' round-off). That floor governs
-// where fractures are open wide and compliant at tens of MPa.
+// where fractures are open wide and compliant at tens of MPa. Nor can the
+// well's inflow be balanced more finely than Σ T_kw·dt·(ulp(p_k) +
+// ulp(p_w)) (s.wellQuantum), the change of each connection's flow when its
+// pressures move by their last place, which governs where a wide fracture
+// meets the well through a short element.
 func (s *System) massTolerance(rel, injected float64, leak []float64, stored float64, content []float64) float64 {
 	moved := math.Max(math.Max(math.Abs(injected), math.Abs(total(leak))), math.Abs(stored))
-	return math.Max(rel*moved, math.Max(float64(max(len(content), 256))*epsilon*total(content), 16*s.quantum))
+	return math.Max(rel*moved, math.Max(float64(max(len(content), 256))*epsilon*total(content), 16*s.quantum+s.wellQuantum))
 }
 
 // epsilon is the float64 machine epsilon.

@@ -131,7 +131,7 @@ type System struct {
 	ls     *LinearSolver
 	alpha  []float64 // half-element conductances, m³/(Pa·s)
 	sumA   []float64 // per node: Σ α
-	rhs    []float64
+	rhs    []float64 // b − D x at the iterate, D the diagonal additions (Assembler.Residual)
 	sol    []float64 // the iterate [p; p_w]
 	res    []float64 // residual b − A x
 	delta  []float64 // the Newton-like increment
@@ -140,9 +140,10 @@ type System struct {
 	omega     float64
 	// per-element work arrays of Step
 	e, dedp, ePrev, leak []float64
-	// quantum is Σ S_i·ulp(p_i) of the last assembly, m³: the finest
-	// content balance the pressures can represent (massTolerance).
-	quantum float64
+	// quantum is Σ S_i·ulp(p_i) and wellQuantum Σ T_kw·dt·(ulp(p_k) +
+	// ulp(p_w)) of the last assembly, m³: the finest content and inflow
+	// balance the pressures can represent (massTolerance).
+	quantum, wellQuantum float64
 	// mx is the matrix leak-off model (nil: Carter's or none).
 	mx *matrixLeak
 	// Clusters (Config.ClusterNodes): wellCluster[c] is the cluster of
@@ -325,8 +326,8 @@ func (s *System) conductances(e []float64) {
 }
 
 // assembleFlux adds the transmissibilities of the mesh connections and of
-// the well (rate control: a connection; pressure control: diagonal terms
-// and the given pressure on the right-hand side).
+// the well (rate control: a connection; pressure control: diagonal terms,
+// with the given pressure in wellInflow's right-hand side).
 func (s *System) assembleFlux(ctl Control, e []float64) {
 	pressureControl := s.holdsPressure(ctl)
 	m := s.mesh
@@ -347,14 +348,12 @@ func (s *System) assembleFlux(ctl Control, e []float64) {
 	if !s.HasWell() {
 		return
 	}
-	w := s.nElem
 	var total float64
 	for c, e := range s.wellEl {
 		a := s.wellConductance(c)
 		total += a
 		if pressureControl {
 			s.as.AddDiagonal(int(e), a)
-			s.rhs[e] += a * ctl.Pressure
 			continue
 		}
 		s.as.AddConnection(k+c, a)
@@ -365,18 +364,39 @@ func (s *System) assembleFlux(ctl Control, e []float64) {
 		cl := s.wellCluster[a]
 		s.as.AddConnection(k+i, s.alpha[s.wellEl[a]]*s.alpha[s.wellEl[b]]/(s.clusterSumA[cl]+s.gamma[cl]))
 	}
+	if pressureControl {
+		s.as.AddDiagonal(s.nElem, total)
+	}
+}
+
+// wellInflow adds to f the well's terms of the residual b − A x at the
+// iterate x = [p; p_w] that assembleFlux's matrix leaves out, in
+// difference form: under pressure control T_kw (P − p_k) into each
+// connected element and Σ T_kw (P − p_w) into the well's row; under rate
+// control the rate into the well's row; with limited entry the
+// perforations' source terms.
+func (s *System) wellInflow(f []float64, ctl Control, x []float64) {
+	if !s.HasWell() {
+		return
+	}
+	w := s.nElem
 	switch {
-	case pressureControl:
-		s.as.AddDiagonal(w, total)
-		s.rhs[w] = total * ctl.Pressure
+	case s.holdsPressure(ctl):
+		var total float64
+		for c, e := range s.wellEl {
+			a := s.wellConductance(c)
+			total += a
+			f[e] += a * (ctl.Pressure - x[e])
+		}
+		f[w] = total * (ctl.Pressure - x[w])
 	default:
-		s.rhs[w] = ctl.Rate - s.sourceRate()
+		f[w] = ctl.Rate - s.sourceRate()
 	}
 	if s.perf != nil {
 		// The perforations' source terms enter the clusters' elements.
 		for c, e := range s.wellEl {
 			cl := s.wellCluster[c]
-			s.rhs[e] += s.source[cl] * s.alpha[e] / (s.clusterSumA[cl] + s.gamma[cl])
+			f[e] += s.source[cl] * s.alpha[e] / (s.clusterSumA[cl] + s.gamma[cl])
 		}
 	}
 }
