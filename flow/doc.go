@@ -30,7 +30,10 @@
 // S = ∂m/∂p, so each iteration solves a symmetric positive definite system
 // for the increment from the current iterate, relaxed with Aitken's
 // dynamic factor; a step converges when pressures, apertures and the mass
-// balance (injected − leaked − stored) have settled. Wells feed the network
+// balance (injected − leaked − stored) have settled, the last to a
+// tolerance not below what the pressures can represent (each element's
+// storage, and each well connection's conductance over the step, times
+// the last place of its pressure). Wells feed the network
 // at nodes, under rate control (one extra unknown, the bottom-hole
 // pressure, with Σ α_k (p_w − p_k) = Q), rate control capped by a pressure
 // limit, pressure control, or shut-in (rate 0). Optional Carter leak-off
@@ -79,7 +82,9 @@
 //   - CSR holds a square sparse matrix by rows, both triangles stored;
 //     Assembler fills one whose pattern is fixed once from the connection
 //     list and reused for every step (AddConnection adds a connection's
-//     four terms through precomputed positions).
+//     four terms through precomputed positions); its Residual sums
+//     b − A x connection by connection, t_k (x_j − x_i), so terms t_k·x
+//     of large transmissibilities do not cancel in floating point.
 //   - LinearSolver is made once per pattern by Analyze and then reused:
 //     Factor for new values, Solve for each right-hand side, neither
 //     allocating. Method Cholesky is a sparse direct factorization

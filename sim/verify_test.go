@@ -285,8 +285,8 @@ func TestRuptureConvergesWithMesh(t *testing.T) {
 // time until it reaches round-off, and the peak bottom-hole pressure at
 // 1e-2 lies within 10 Pa of the one at 1e-4 (the iterations converge;
 // common practice, no source). Observed on this case: mass-balance errors
-// 4.9e-8, 5.6e-9 and 1.3e-11 at 0.5, 0.1 and 1e-2, then 1e-11 to 1e-10
-// (round-off: it no longer falls) at 1e-3 to 1e-5; peak BHP 0.24 Pa from
+// 4.9e-8, 5.6e-9 and 2.4e-11 at 0.5, 0.1 and 1e-2, then 1e-11 to 1e-10
+// (round-off: it no longer falls) at 1e-3 to 1e-5; peak BHP 0.23 Pa from
 // the one at 1e-4 at 1e-2, but 27 Pa at 0.5, so the bound has teeth.
 func TestCouplingToleranceConverges(t *testing.T) {
 	tolerances := []string{"0.5", "1e-1", "1e-2", "1e-4"}
