@@ -34,7 +34,10 @@ import (
 // (a heading), and the next run meshes each cluster's conduit through the
 // headings its tips recorded (continuing straight in the last one beyond
 // the farthest), and each branch (growth.go), known by its natural
-// fracture, end and sense, through those its tip recorded. Each run
+// fracture, end and sense, through those its tip recorded. From the third
+// run on, the headings are turned only part of the way from the paths to
+// what the tips met, by Aitken's factor of the two runs before
+// (relaxPlan), so passes whose turns alternate converge. Each run
 // records its frames over the one before's, and the last run's result is
 // the outputs (one interrupted before ends the passes with its own, see
 // Run). Each run reports its turns, the angles between the
@@ -49,6 +52,10 @@ import (
 type heading struct {
 	s   float64
 	dir r2.Vec
+	// path is the direction of the element the tip opened there, and turn
+	// the signed angle from it to dir, radians (relaxPlan).
+	path r2.Vec
+	turn float64
 }
 
 // pathPlan holds the headings the tips of one run met, by increasing s:
@@ -204,15 +211,20 @@ func (pr *pathRecorder) record(ms *mechState, c, i, j int) {
 	}
 	cd := m.conduits[c]
 	origin := cd.P0 // a branch grows from P0
+	along := r2.Unit(r2.Sub(el.P1, el.P0))
+	if r2.Dot(along, travel) < 0 {
+		along = r2.Scale(-1, along)
+	}
+	signed := math.Atan2(along.X*dir.Y-along.Y*dir.X, r2.Dot(along, dir))
 	if cd.IsBranch() {
-		pr.plan.branches[cd.key] = append(pr.plan.branches[cd.key], heading{s: pr.arcMid[j], dir: dir})
+		pr.plan.branches[cd.key] = append(pr.plan.branches[cd.key], heading{s: pr.arcMid[j], dir: dir, path: along, turn: signed})
 	} else {
 		side := 0
 		if r2.Dot(travel, r2.Sub(el.P1, el.P0)) > 0 {
 			side = 1 // travelling as the path runs, towards P1
 		}
 		s := math.Abs(pr.arcMid[j] - ms.groupLength[len(m.net.Traces)+c]/2)
-		pr.plan.clusters[c][side] = append(pr.plan.clusters[c][side], heading{s: s, dir: dir})
+		pr.plan.clusters[c][side] = append(pr.plan.clusters[c][side], heading{s: s, dir: dir, path: along, turn: signed})
 		origin = cd.centre()
 	}
 	turn := mapAngle(dir, r2.Sub(el.P1, el.P0))
@@ -267,4 +279,55 @@ func (cd Conduit) directionAt(d float64) r2.Vec {
 		d -= leg
 	}
 	return r2.Unit(r2.Sub(cd.P1, cd.P0))
+}
+
+// relaxPlan turns the headings of next, met in a pass whose paths the
+// plan prev set (nil for straight paths), only part of the way from the
+// elements' directions to what the tips met: by ω times each turn, with
+// Aitken's factor (Irons & Tuck 1969; as flow relaxes its iterations)
+// from the turns of the two passes matched heading by heading,
+// ω_k = −ω_{k−1} Σ θ_{k−1}(θ_k − θ_{k−1}) / Σ (θ_k − θ_{k−1})², within
+// [0.05, 1]; ω = 1 after the first pass. Passes whose turns alternate
+// (a tip whose path moves the stress that turns it) then converge instead
+// of oscillating. It returns the ω used.
+func relaxPlan(prev, next *pathPlan, omega float64) float64 {
+	if prev == nil {
+		return 1
+	}
+	var num, den float64
+	pair := func(a, b []heading) {
+		for i := range min(len(a), len(b)) {
+			d := b[i].turn - a[i].turn
+			num += a[i].turn * d
+			den += d * d
+		}
+	}
+	for c := range min(len(prev.clusters), len(next.clusters)) {
+		for side := range 2 {
+			pair(prev.clusters[c][side], next.clusters[c][side])
+		}
+	}
+	for key, hs := range next.branches {
+		pair(prev.branches[key], hs)
+	}
+	if den > 0 {
+		omega = math.Min(1, math.Max(0.05, -omega*num/den))
+	}
+	turn := func(hs []heading) {
+		for i := range hs {
+			h := &hs[i]
+			a := omega * h.turn
+			sin, cos := math.Sincos(a)
+			h.dir = r2.Vec{X: h.path.X*cos - h.path.Y*sin, Y: h.path.X*sin + h.path.Y*cos}
+		}
+	}
+	for c := range next.clusters {
+		for side := range 2 {
+			turn(next.clusters[c][side])
+		}
+	}
+	for _, hs := range next.branches {
+		turn(hs)
+	}
+	return omega
 }

@@ -241,3 +241,52 @@ func TestRecorderBeginAgainNeedsAFile(t *testing.T) {
 		t.Errorf("second Begin on a buffer: %v, want an error that it needs a file", err)
 	}
 }
+
+// relaxPlan relaxes the passes as Aitken's factor does a fixed-point
+// iteration (Irons & Tuck 1969): on a path whose heading met is
+// G(x) = b − 1.2·x for a path direction x (angles, radians: a tip whose
+// own turn moves the stress that turns it, the more so), the plain passes
+// x ← G(x) alternate and grow (gain −1.2), while the relaxed ones take
+// ω = 1/2.2 after the second pass and reach the fixed point b/2.2, where
+// the turns vanish (to round-off, on which ω then wanders), by the fourth.
+// Every heading of a pass turns by the same ω times its own turn.
+func TestRelaxPlanDampsAlternatingPasses(t *testing.T) {
+	const b = 0.05
+	met := func(x float64) float64 { return b - 1.2*x }
+	// pass records the headings met along paths whose directions are x.
+	pass := func(x []float64) *pathPlan {
+		var side []heading
+		for i, xi := range x {
+			g := met(xi)
+			side = append(side, heading{s: float64(i), dir: r2.Vec{X: math.Cos(g), Y: math.Sin(g)},
+				path: r2.Vec{X: math.Cos(xi), Y: math.Sin(xi)}, turn: g - xi})
+		}
+		return &pathPlan{clusters: [][2][]heading{{side, nil}}, branches: map[branchKey][]heading{}}
+	}
+	angles := func(p *pathPlan) []float64 {
+		var x []float64
+		for _, h := range p.clusters[0][0] {
+			x = append(x, math.Atan2(h.dir.Y, h.dir.X))
+		}
+		return x
+	}
+	start := []float64{0, 0.01, -0.02}
+	plain, relaxed := start, start
+	var prev *pathPlan
+	omega := 1.0
+	for k := 1; k <= 4; k++ {
+		plain = angles(pass(plain))
+		next := pass(relaxed)
+		omega = relaxPlan(prev, next, omega)
+		if k == 2 {
+			numtest.Rel(t, "Aitken's factor after the second pass", omega, 1/2.2, 1e-9)
+		}
+		relaxed, prev = angles(next), next
+	}
+	for i := range start {
+		numtest.Abs(t, "relaxed path direction after four passes", relaxed[i], b/2.2, 1e-12)
+		if !(math.Abs(plain[i]-b/2.2) > math.Abs(start[i]-b/2.2)) {
+			t.Errorf("plain passes moved path %d from %.3g to %.3g, closer to the fixed point %.3g: want them to diverge", i, start[i], plain[i], b/2.2)
+		}
+	}
+}

@@ -189,6 +189,7 @@ type Result struct {
 func Run(ctx context.Context, s *scenarios.Scenario, net *dfn.Network, opt Options) (*Result, error) {
 	var plan *pathPlan
 	var passes []PathPass
+	omega := 1.0 // relaxPlan's factor
 	for pass := 1; ; pass++ {
 		m, err := newModel(s, net, plan)
 		if err != nil {
@@ -229,6 +230,7 @@ func Run(ctx context.Context, s *scenarios.Scenario, net *dfn.Network, opt Optio
 			}
 			return res, err
 		}
+		omega = relaxPlan(plan, r.ms.paths.plan, omega)
 		plan = r.ms.paths.plan
 	}
 }
