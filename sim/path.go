@@ -211,8 +211,12 @@ func (pr *pathRecorder) record(ms *mechState, c, i, j int) {
 	}
 	cd := m.conduits[c]
 	origin := cd.P0 // a branch grows from P0
-	along := r2.Unit(r2.Sub(el.P1, el.P0))
-	if r2.Dot(along, travel) < 0 {
+	// The element's direction the way the tip travels, and the signed
+	// turn from it to the heading met.
+	seg := r2.Sub(el.P1, el.P0)
+	forward := r2.Dot(travel, seg)
+	along := r2.Unit(seg)
+	if forward < 0 {
 		along = r2.Scale(-1, along)
 	}
 	signed := math.Atan2(along.X*dir.Y-along.Y*dir.X, r2.Dot(along, dir))
@@ -220,14 +224,14 @@ func (pr *pathRecorder) record(ms *mechState, c, i, j int) {
 		pr.plan.branches[cd.key] = append(pr.plan.branches[cd.key], heading{s: pr.arcMid[j], dir: dir, path: along, turn: signed})
 	} else {
 		side := 0
-		if r2.Dot(travel, r2.Sub(el.P1, el.P0)) > 0 {
+		if forward > 0 {
 			side = 1 // travelling as the path runs, towards P1
 		}
 		s := math.Abs(pr.arcMid[j] - ms.groupLength[len(m.net.Traces)+c]/2)
 		pr.plan.clusters[c][side] = append(pr.plan.clusters[c][side], heading{s: s, dir: dir, path: along, turn: signed})
 		origin = cd.centre()
 	}
-	turn := mapAngle(dir, r2.Sub(el.P1, el.P0))
+	turn := math.Min(math.Abs(signed), math.Pi-math.Abs(signed)) // between the lines
 	strike := orient.Line(m.shmaxAzimuth(origin), 0)
 	off := r2.Sub(at, origin)
 	pr.pass.MaxOffset = math.Max(pr.pass.MaxOffset, math.Abs(off.X*strike.Y-off.Y*strike.X))
